@@ -1,0 +1,15 @@
+#!/usr/bin/env bash
+# npm run dev: the API in watch mode and Vite's dev server (proxying /api to it).
+set -euo pipefail
+. "$(dirname "$0")/env.sh"
+
+ensure_deps
+start_db
+trap 'kill 0 2>/dev/null || true; stop_db' EXIT
+trap 'exit 130' INT TERM
+ensure_database "$DB_NAME"
+npx --no-install tsx scripts/migrate.ts
+npx --no-install tsx scripts/seed.ts
+export NODE_ENV=development
+npx --no-install tsx watch server/index.ts &
+npx --no-install vite --host "$HOST"

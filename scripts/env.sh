@@ -1,0 +1,154 @@
+#!/usr/bin/env bash
+# Shared set-up helpers for start.sh, test.sh and dev.sh. Source it; do not run it.
+# Reads .env (if present) and fills in safe defaults for everything it does not set.
+set -euo pipefail
+
+ROOT="$(cd "$(dirname "${BASH_SOURCE[0]}")/.." && pwd)"
+cd "$ROOT"
+
+if [ -f .env ]; then
+  set -a
+  # shellcheck disable=SC1091
+  . ./.env
+  set +a
+fi
+
+export PORT="${PORT:-3000}"
+export HOST="${HOST:-127.0.0.1}"
+export DB_HOST="${DB_HOST:-127.0.0.1}"
+export DB_PORT="${DB_PORT:-3307}"
+export DB_NAME="${DB_NAME:-sheetsmith}"
+export DB_TEST_NAME="${DB_TEST_NAME:-sheetsmith_test}"
+export DB_USER="${DB_USER:-sheetsmith}"
+export DB_PASSWORD="${DB_PASSWORD:-sheetsmith-local-db}"
+export DATA_DIR="${DATA_DIR:-.data}"
+case "$DATA_DIR" in /*) ;; *) DATA_DIR="$ROOT/$DATA_DIR" ;; esac
+export DATA_DIR
+
+DB_DIR="$DATA_DIR/mariadb"
+DB_DATADIR="$DB_DIR/data"
+DB_RUN="$DB_DIR/run"
+DB_PIDFILE="$DB_RUN/mariadbd.pid"
+DB_LOG="$DB_DIR/mariadbd.log"
+DB_SOCKET="$DB_RUN/mariadbd.sock"
+# A Unix socket path must stay under about 107 bytes; fall back to /tmp for deep checkouts.
+if [ "${#DB_SOCKET}" -gt 100 ]; then
+  DB_SOCKET="/tmp/sheetsmith-$(printf '%s' "$ROOT" | md5sum | cut -c1-12).sock"
+fi
+export DB_SOCKET
+
+log() { printf '\033[36m[sheetsmith]\033[0m %s\n' "$*"; }
+
+as_root() {
+  if [ "$(id -u)" -eq 0 ]; then "$@"; else sudo "$@"; fi
+}
+
+# npm ci when node_modules is missing or older than the lock file.
+ensure_deps() {
+  local stamp=node_modules/.package-lock.json
+  if [ ! -d node_modules ] || [ ! -f "$stamp" ] || [ package-lock.json -nt "$stamp" ]; then
+    log "installing npm packages (npm ci)"
+    npm ci --no-audit --no-fund
+    touch "$stamp"
+  fi
+}
+
+ensure_mariadb_installed() {
+  if command -v mariadbd >/dev/null 2>&1 || [ -x /usr/sbin/mariadbd ]; then return 0; fi
+  log "installing MariaDB from Debian's mariadb-server package"
+  as_root apt-get update -qq
+  DEBIAN_FRONTEND=noninteractive as_root apt-get install -y -qq mariadb-server >/dev/null
+}
+
+mariadbd_bin() { command -v mariadbd 2>/dev/null || echo /usr/sbin/mariadbd; }
+
+db_admin() { mariadb --no-defaults --protocol=SOCKET --socket="$DB_SOCKET" -uroot "$@"; }
+
+db_ping() {
+  mariadb-admin --no-defaults --protocol=SOCKET --socket="$DB_SOCKET" -uroot ping >/dev/null 2>&1
+}
+
+db_running() {
+  [ -f "$DB_PIDFILE" ] && kill -0 "$(cat "$DB_PIDFILE")" 2>/dev/null && db_ping
+}
+
+# Initialise into a temporary folder and rename it, so an interrupted first start
+# never leaves a half-made data folder behind.
+ensure_db_initialised() {
+  if [ -d "$DB_DATADIR/mysql" ]; then return 0; fi
+  log "initialising a private MariaDB data folder in $DB_DATADIR"
+  mkdir -p "$DB_DIR"
+  local tmp="$DB_DIR/data.init.$$"
+  rm -rf "$tmp"
+  mariadb-install-db --no-defaults --user="$(id -un)" --datadir="$tmp" \
+    --auth-root-authentication-method=normal --skip-test-db >"$DB_DIR/install.log" 2>&1 \
+    || { cat "$DB_DIR/install.log"; return 1; }
+  rm -rf "$DB_DATADIR"
+  mv "$tmp" "$DB_DATADIR"
+}
+
+# Starts our own mariadbd on 127.0.0.1:$DB_PORT. Sets DB_STARTED_HERE=1 when this call started it.
+DB_STARTED_HERE=0
+start_db() {
+  ensure_mariadb_installed
+  ensure_db_initialised
+  mkdir -p "$DB_RUN"
+  if db_running; then
+    log "MariaDB already running on 127.0.0.1:$DB_PORT"
+    return 0
+  fi
+  if [ "$DB_PORT" = "3306" ]; then
+    log "DB_PORT=3306 is the system MariaDB's port; pick another (default 3307)"; return 1
+  fi
+  rm -f "$DB_PIDFILE" "$DB_SOCKET"
+  log "starting MariaDB on 127.0.0.1:$DB_PORT"
+  # setsid + nohup + no inherited pipes: the server never holds a CI pipe open.
+  setsid nohup "$(mariadbd_bin)" --no-defaults --user="$(id -un)" --datadir="$DB_DATADIR" \
+    --bind-address=127.0.0.1 --port="$DB_PORT" --socket="$DB_SOCKET" --pid-file="$DB_PIDFILE" \
+    --log-error="$DB_LOG" --skip-name-resolve \
+    --character-set-server=utf8mb4 --collation-server=utf8mb4_unicode_ci \
+    --innodb-buffer-pool-size=128M --max-connections=200 \
+    </dev/null >/dev/null 2>&1 &
+  local i
+  for i in $(seq 1 120); do
+    if db_ping; then DB_STARTED_HERE=1; return 0; fi
+    sleep 0.25
+  done
+  log "MariaDB did not come up; its log follows"; tail -n 40 "$DB_LOG" || true
+  return 1
+}
+
+stop_db() {
+  if [ -f "$DB_PIDFILE" ]; then
+    local pid; pid="$(cat "$DB_PIDFILE")"
+    if kill -0 "$pid" 2>/dev/null; then
+      log "stopping MariaDB"
+      kill "$pid" 2>/dev/null || true
+      local i
+      for i in $(seq 1 60); do kill -0 "$pid" 2>/dev/null || return 0; sleep 0.25; done
+    fi
+  fi
+}
+
+sql_quote() { printf "%s" "$1" | sed "s/'/''/g"; }
+
+# Creates a database and grants the application user on it (user created or its password reset).
+ensure_database() {
+  local name="$1" pw
+  pw="$(sql_quote "$DB_PASSWORD")"
+  db_admin <<SQL
+CREATE DATABASE IF NOT EXISTS \`$name\` CHARACTER SET utf8mb4 COLLATE utf8mb4_unicode_ci;
+CREATE USER IF NOT EXISTS '$DB_USER'@'127.0.0.1' IDENTIFIED BY '$pw';
+CREATE USER IF NOT EXISTS '$DB_USER'@'localhost' IDENTIFIED BY '$pw';
+ALTER USER '$DB_USER'@'127.0.0.1' IDENTIFIED BY '$pw';
+ALTER USER '$DB_USER'@'localhost' IDENTIFIED BY '$pw';
+GRANT ALL PRIVILEGES ON \`$name\`.* TO '$DB_USER'@'127.0.0.1';
+GRANT ALL PRIVILEGES ON \`$name\`.* TO '$DB_USER'@'localhost';
+FLUSH PRIVILEGES;
+SQL
+}
+
+recreate_database() {
+  db_admin -e "DROP DATABASE IF EXISTS \`$1\`;"
+  ensure_database "$1"
+}

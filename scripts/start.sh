@@ -1,0 +1,24 @@
+#!/usr/bin/env bash
+# npm start: every set-up step, then the app on http://$HOST:$PORT. Ctrl-C stops app and database.
+set -euo pipefail
+. "$(dirname "$0")/env.sh"
+
+ensure_deps
+start_db
+trap 'stop_db' EXIT
+trap 'exit 130' INT TERM
+ensure_database "$DB_NAME"
+
+log "running migrations"
+npx --no-install tsx scripts/migrate.ts
+log "seeding the demo shop"
+npx --no-install tsx scripts/seed.ts
+
+# Rebuild the client only when a source file is newer than the last build.
+if [ ! -f dist/index.html ] || [ -n "$(find src shared index.html vite.config.ts tailwind.config.ts package-lock.json -newer dist/index.html -print -quit 2>/dev/null)" ]; then
+  log "building the client"
+  npx --no-install vite build --logLevel warn
+fi
+
+export NODE_ENV="${NODE_ENV:-production}"
+npx --no-install tsx server/index.ts

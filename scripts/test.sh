@@ -1,0 +1,16 @@
+#!/usr/bin/env bash
+# npm test: the same set-up as npm start, a fresh test database, then every vitest suite.
+set -euo pipefail
+. "$(dirname "$0")/env.sh"
+
+ensure_deps
+start_db
+if [ "$DB_STARTED_HERE" = "1" ]; then trap 'stop_db' EXIT; fi
+log "recreating the test database $DB_TEST_NAME"
+recreate_database "$DB_TEST_NAME"
+
+export NODE_ENV=test
+export DB_NAME="$DB_TEST_NAME"
+export DATA_DIR="$DATA_DIR/test"
+rm -rf "$DATA_DIR"; mkdir -p "$DATA_DIR"
+npx --no-install vitest run "$@"

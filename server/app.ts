@@ -1,0 +1,101 @@
+import path from 'node:path';
+import { existsSync } from 'node:fs';
+import express from 'express';
+import session from 'express-session';
+import MySQLStoreFactory from 'express-mysql-session';
+import { csrfSync } from 'csrf-sync';
+import type { DataSource } from 'typeorm';
+import type { Env } from './config/env';
+import type { Mailer } from './mail/mailer';
+import { createMailer } from './mail/mailer';
+import { apiNotFound, errorHandler } from './middleware/errors';
+import { AuthService } from './modules/auth/auth.service';
+import { authRouter } from './modules/auth/auth.router';
+import { createPassport } from './modules/auth/passport';
+import { SignInThrottle } from './modules/auth/throttle';
+import { outboxRouter } from './modules/dev/outbox.router';
+import { healthRouter } from './modules/health/health.router';
+import { TeamsService } from './modules/teams/teams.service';
+import { teamsRouter } from './modules/teams/teams.router';
+
+export const SESSION_COOKIE = 'sheetsmith.sid';
+const SESSION_MAX_AGE_MS = 30 * 24 * 60 * 60 * 1000;
+
+export type AppOptions = {
+  env: Env;
+  dataSource: DataSource;
+  mailer?: Mailer;
+  /** Extra API routes mounted after the built-in ones (tests use this for probes). */
+  extraApi?: (api: express.Router) => void;
+  /** Folder with the built client; served with a fallback to index.html for client routes. */
+  clientDir?: string;
+};
+
+export type SheetsmithApp = { app: express.Express; close: () => Promise<void> };
+
+/** Builds the Express app without listening, so tests drive it with supertest. */
+export function createApp({ env, dataSource, mailer = createMailer(env), extraApi, clientDir }: AppOptions): SheetsmithApp {
+  const app = express();
+  app.disable('x-powered-by');
+  if (env.COOKIE_SECURE) app.set('trust proxy', 1);
+
+  const MySQLStore = MySQLStoreFactory(session as never);
+  const store = new MySQLStore({
+    host: env.DB_HOST,
+    port: env.DB_PORT,
+    user: env.DB_USER,
+    password: env.DB_PASSWORD,
+    database: dataSource.options.database as string,
+    createDatabaseTable: false, // the migration made it
+    expiration: SESSION_MAX_AGE_MS,
+    clearExpired: true,
+    schema: { tableName: 'sessions', columnNames: { session_id: 'session_id', expires: 'expires', data: 'data' } },
+  });
+
+  const { csrfSynchronisedProtection, generateToken } = csrfSync({
+    getTokenFromRequest: (req) => req.get('x-csrf-token') ?? undefined,
+  });
+
+  const auth = new AuthService(dataSource, mailer, env);
+  const teams = new TeamsService(dataSource, mailer, env);
+  const passport = createPassport(auth);
+  const throttle = new SignInThrottle(env);
+
+  const api = express.Router();
+  api.use(express.json({ limit: '1mb' }));
+  api.use(
+    session({
+      name: SESSION_COOKIE,
+      secret: env.SESSION_SECRET,
+      store,
+      resave: false,
+      saveUninitialized: false,
+      rolling: true,
+      cookie: { httpOnly: true, sameSite: 'lax', secure: env.COOKIE_SECURE, maxAge: SESSION_MAX_AGE_MS },
+    }),
+  );
+  api.use(passport.initialize());
+  api.use(passport.session());
+  api.use(healthRouter(dataSource));
+  // Every state-changing route needs the session's token in X-CSRF-Token (GET/HEAD/OPTIONS are exempt).
+  api.use(csrfSynchronisedProtection);
+  api.use(authRouter({ auth, passport, throttle, csrfToken: generateToken }));
+  api.use(teamsRouter({ dataSource, teams, auth, csrfToken: generateToken }));
+  if (mailer.outboxDir && env.NODE_ENV !== 'production') api.use(outboxRouter(mailer.outboxDir));
+  extraApi?.(api);
+  api.use(apiNotFound);
+  api.use(errorHandler);
+  app.use('/api', api);
+
+  if (clientDir && existsSync(path.join(clientDir, 'index.html'))) {
+    app.use(express.static(clientDir, { index: false, maxAge: '1h' }));
+    app.get(/^(?!\/api\/).*/, (_req, res) => res.sendFile(path.join(clientDir, 'index.html')));
+  }
+
+  return {
+    app,
+    close: async () => {
+      await store.close();
+    },
+  };
+}

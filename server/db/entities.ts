@@ -1,0 +1,7 @@
+import { Invite } from '../modules/teams/invite.entity';
+import { Membership } from '../modules/teams/membership.entity';
+import { Team } from '../modules/teams/team.entity';
+import { PasswordReset } from '../modules/auth/password-reset.entity';
+import { User } from '../modules/auth/user.entity';
+
+export const entities = [User, Team, Membership, Invite, PasswordReset];

@@ -1,0 +1,4 @@
+import { Foundation1764633600000 } from './1764633600000-foundation';
+
+// Every migration, oldest first. A new one is appended here and never edited after it lands.
+export const migrations = [Foundation1764633600000];

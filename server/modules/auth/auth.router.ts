@@ -1,0 +1,156 @@
+import { Router } from 'express';
+import type { Request, Response, NextFunction } from 'express';
+import type { PassportStatic as Passport } from 'passport';
+import {
+  changePasswordSchema,
+  resetPasswordSchema,
+  resetRequestSchema,
+  signInSchema,
+  signUpSchema,
+  tokenParamSchema,
+  updateAccountSchema,
+} from '../../../shared/schemas/auth';
+import { switchTeamSchema } from '../../../shared/schemas/team';
+import { ERROR_CODES } from '../../../shared/schemas/api-error';
+import { AppError, notFound } from '../../lib/errors';
+import { requireUser } from '../../middleware/auth';
+import { route } from '../../middleware/validate';
+import type { AuthService, SessionUser } from './auth.service';
+import { toSessionUser, tokenInvalid } from './auth.service';
+import type { SignInThrottle } from './throttle';
+
+declare module 'express-session' {
+  interface SessionData {
+    activeTeamId?: string;
+  }
+}
+
+type Deps = {
+  auth: AuthService;
+  passport: Passport;
+  throttle: SignInThrottle;
+  csrfToken: (req: Request, overwrite?: boolean) => string;
+};
+
+const badCredentials = () =>
+  new AppError(401, ERROR_CODES.badCredentials, 'That e-mail and password do not match an account.');
+
+function logIn(req: Request, user: SessionUser): Promise<void> {
+  // Passport regenerates the session id here (no session fixation).
+  return new Promise((resolve, reject) => req.login(user, (error) => (error ? reject(error) : resolve())));
+}
+
+function authenticate(passport: Passport, req: Request, res: Response, next: NextFunction) {
+  return new Promise<SessionUser | false>((resolve, reject) => {
+    passport.authenticate('local', { session: false }, (error: unknown, user: SessionUser | false) =>
+      error ? reject(error) : resolve(user),
+    )(req, res, next);
+  });
+}
+
+export function authRouter({ auth, passport, throttle, csrfToken }: Deps): Router {
+  const router = Router();
+
+  router.get('/auth/csrf', (req, res) => {
+    res.json({ csrfToken: csrfToken(req) });
+  });
+
+  router.post(
+    '/auth/sign-up',
+    route({ body: signUpSchema }, async ({ body }, req) => {
+      const user = await auth.signUp(body);
+      await logIn(req, toSessionUser(user));
+      return auth.me(toSessionUser(user), undefined, csrfToken(req, true));
+    }),
+  );
+
+  router.post(
+    '/auth/sign-in',
+    route({ body: signInSchema }, async ({ body }, req, res) => {
+      const ip = req.ip ?? 'unknown';
+      await throttle.check(body.email, ip);
+      req.body = body; // passport-local reads the normalised e-mail
+      const user = await authenticate(passport, req, res, () => undefined);
+      if (!user) {
+        await throttle.failed(body.email, ip);
+        throw badCredentials();
+      }
+      await throttle.succeeded(body.email, ip);
+      await logIn(req, user);
+      return auth.me(user, undefined, csrfToken(req, true));
+    }),
+  );
+
+  router.post('/auth/sign-out', (req, res, next) => {
+    req.logout((error) => {
+      if (error) return next(error);
+      req.session.destroy((destroyError) => {
+        if (destroyError) return next(destroyError);
+        res.clearCookie('sheetsmith.sid');
+        res.status(204).end();
+      });
+    });
+  });
+
+  router.post(
+    '/auth/password-reset',
+    route({ body: resetRequestSchema }, async ({ body }) => {
+      await auth.requestPasswordReset(body.email);
+      return { ok: true, message: 'If that e-mail has an account, a reset link is on its way.' };
+    }),
+  );
+
+  router.get(
+    '/auth/password-reset/:token',
+    route({ params: tokenParamSchema }, async ({ params }) => {
+      const reset = await auth.findValidReset(params.token);
+      if (!reset) throw tokenInvalid('password reset');
+      return { email: reset.user!.email, expiresAt: reset.expiresAt.toISOString() };
+    }),
+  );
+
+  router.post(
+    '/auth/password-reset/:token',
+    route({ params: tokenParamSchema, body: resetPasswordSchema }, async ({ params, body }) => {
+      const user = await auth.resetPassword(params.token, body.password);
+      return { ok: true, email: user.email };
+    }),
+  );
+
+  router.get(
+    '/me',
+    requireUser,
+    route({}, (_input, req) => auth.me(req.user!, req.session.activeTeamId, csrfToken(req))),
+  );
+
+  router.patch(
+    '/me',
+    requireUser,
+    route({ body: updateAccountSchema }, async ({ body }, req) => {
+      const user = await auth.updateAccount(req.user!.id, body);
+      return auth.me(toSessionUser(user), req.session.activeTeamId, csrfToken(req));
+    }),
+  );
+
+  router.post(
+    '/me/password',
+    requireUser,
+    route({ body: changePasswordSchema }, async ({ body }, _req, res) => {
+      await auth.changePassword(_req.user!.id, body.currentPassword, body.newPassword);
+      res.status(204).end();
+    }),
+  );
+
+  router.put(
+    '/me/active-team',
+    requireUser,
+    route({ body: switchTeamSchema }, async ({ body }, req) => {
+      const me = await auth.me(req.user!, body.teamId, csrfToken(req));
+      if (me.activeTeamId !== body.teamId) throw notFound('That team');
+      req.session.activeTeamId = body.teamId;
+      return me;
+    }),
+  );
+
+  return router;
+}

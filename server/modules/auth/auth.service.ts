@@ -1,0 +1,150 @@
+import type { DataSource, EntityManager } from 'typeorm';
+import { IsNull, MoreThan } from 'typeorm';
+import type { Me, SignUpInput } from '../../../shared/schemas/auth';
+import type { Env } from '../../config/env';
+import { AppError, conflict } from '../../lib/errors';
+import { hashToken, newToken } from '../../lib/tokens';
+import type { Mailer } from '../../mail/mailer';
+import { passwordResetMail } from '../../mail/templates';
+import { ERROR_CODES } from '../../../shared/schemas/api-error';
+import { Membership } from '../teams/membership.entity';
+import { Team } from '../teams/team.entity';
+import { burnPasswordCheck, hashPassword, verifyPassword } from './passwords';
+import { PasswordReset } from './password-reset.entity';
+import { User } from './user.entity';
+
+export const RESET_LIFETIME_MS = 60 * 60 * 1000;
+
+export type SessionUser = Express.User;
+
+export const toSessionUser = (user: User): SessionUser => ({
+  id: user.id,
+  email: user.email,
+  name: user.name,
+  unit: user.unit,
+});
+
+export const tokenInvalid = (what: string) =>
+  new AppError(410, ERROR_CODES.tokenInvalid, `This ${what} link has expired or was already used. Ask for a new one.`);
+
+/** A new account always comes with a personal studio it owns. */
+export async function createUserWithTeam(
+  manager: EntityManager,
+  input: { name: string; email: string },
+  passwordHash: string,
+): Promise<User> {
+  const user = await manager.save(manager.create(User, { name: input.name, email: input.email, passwordHash }));
+  const team = await manager.save(manager.create(Team, { name: `${input.name}'s studio`.slice(0, 80), personal: true }));
+  await manager.save(manager.create(Membership, { teamId: team.id, userId: user.id, role: 'owner' }));
+  return user;
+}
+
+export class AuthService {
+  constructor(
+    private readonly dataSource: DataSource,
+    private readonly mailer: Mailer,
+    private readonly env: Env,
+  ) {}
+
+  /** Creates the user, a personal team and the owner membership in one transaction. */
+  async signUp(input: SignUpInput): Promise<User> {
+    const passwordHash = await hashPassword(input.password);
+    try {
+      return await this.dataSource.transaction((manager) => createUserWithTeam(manager, input, passwordHash));
+    } catch (error) {
+      if ((error as { code?: string }).code === 'ER_DUP_ENTRY') {
+        throw conflict('An account with that e-mail already exists. Sign in instead.', {
+          email: 'An account with that e-mail already exists',
+        });
+      }
+      throw error;
+    }
+  }
+
+  /** Returns the user for a right e-mail and password, else null (same cost either way). */
+  async verifyCredentials(email: string, password: string): Promise<User | null> {
+    const user = await this.dataSource.getRepository(User).findOneBy({ email });
+    if (!user) return burnPasswordCheck(password).then(() => null);
+    return (await verifyPassword(password, user.passwordHash)) ? user : null;
+  }
+
+  async findUser(id: string): Promise<User | null> {
+    return this.dataSource.getRepository(User).findOneBy({ id });
+  }
+
+  async me(user: SessionUser, activeTeamId: string | undefined, csrfToken: string): Promise<Me> {
+    const memberships = await this.dataSource.getRepository(Membership).find({
+      where: { userId: user.id },
+      relations: { team: true },
+      order: { createdAt: 'ASC' },
+    });
+    const teams = memberships.map((m) => ({
+      teamId: m.teamId,
+      teamName: m.team!.name,
+      role: m.role,
+      personal: m.team!.personal,
+    }));
+    const active =
+      teams.find((t) => t.teamId === activeTeamId) ?? teams.find((t) => !t.personal) ?? teams[0] ?? null;
+    return { user, teams, activeTeamId: active?.teamId ?? null, csrfToken };
+  }
+
+  /** Always succeeds from the caller's view, so it never reveals whether an e-mail has an account. */
+  async requestPasswordReset(email: string): Promise<void> {
+    const user = await this.dataSource.getRepository(User).findOneBy({ email });
+    if (!user) return;
+    const { token, hash } = newToken();
+    await this.dataSource.getRepository(PasswordReset).save({
+      userId: user.id,
+      tokenHash: hash,
+      expiresAt: new Date(Date.now() + RESET_LIFETIME_MS),
+      usedAt: null,
+    });
+    await this.mailer.send(
+      passwordResetMail({ to: user.email, name: user.name, link: `${this.env.appUrl}/reset-password/${token}` }),
+    );
+  }
+
+  async findValidReset(token: string, manager: EntityManager = this.dataSource.manager) {
+    return manager.getRepository(PasswordReset).findOne({
+      where: { tokenHash: hashToken(token), usedAt: IsNull(), expiresAt: MoreThan(new Date()) },
+      relations: { user: true },
+    });
+  }
+
+  /** Sets the new password and spends the token; a second use finds no valid row. */
+  async resetPassword(token: string, password: string): Promise<User> {
+    const passwordHash = await hashPassword(password);
+    return this.dataSource.transaction(async (manager) => {
+      const reset = await this.findValidReset(token, manager);
+      if (!reset) throw tokenInvalid('password reset');
+      // Conditional update: if two requests race, only one flips used_at.
+      const spent = await manager
+        .createQueryBuilder()
+        .update(PasswordReset)
+        .set({ usedAt: new Date() })
+        .where('id = :id AND used_at IS NULL', { id: reset.id })
+        .execute();
+      if (spent.affected !== 1) throw tokenInvalid('password reset');
+      await manager.update(User, { id: reset.userId }, { passwordHash });
+      // Any other outstanding reset links for this account stop working too.
+      await manager.update(PasswordReset, { userId: reset.userId, usedAt: IsNull() }, { usedAt: new Date() });
+      return reset.user!;
+    });
+  }
+
+  async changePassword(userId: string, current: string, next: string): Promise<void> {
+    const user = await this.dataSource.getRepository(User).findOneByOrFail({ id: userId });
+    if (!(await verifyPassword(current, user.passwordHash))) {
+      throw new AppError(400, ERROR_CODES.validation, 'Your current password is not right.', {
+        currentPassword: 'This is not your current password',
+      });
+    }
+    await this.dataSource.getRepository(User).update({ id: userId }, { passwordHash: await hashPassword(next) });
+  }
+
+  async updateAccount(userId: string, changes: { name?: string; unit?: 'in' | 'mm' }): Promise<User> {
+    if (Object.keys(changes).length > 0) await this.dataSource.getRepository(User).update({ id: userId }, changes);
+    return this.dataSource.getRepository(User).findOneByOrFail({ id: userId });
+  }
+}

@@ -1,0 +1,17 @@
+import { Router } from 'express';
+import type { DataSource } from 'typeorm';
+
+export function healthRouter(dataSource: DataSource): Router {
+  const router = Router();
+  router.get('/health', async (_req, res) => {
+    let database: 'up' | 'down' = 'down';
+    try {
+      await dataSource.query('SELECT 1');
+      database = 'up';
+    } catch {
+      database = 'down';
+    }
+    res.status(database === 'up' ? 200 : 503).json({ app: 'up', database, time: new Date().toISOString() });
+  });
+  return router;
+}

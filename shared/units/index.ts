@@ -1,0 +1,63 @@
+// Physical units. Sizes are stored in millimetres; conversion happens only at the edges
+// (input fields, rendering, export). 1 in = 25.4 mm exactly (international yard and pound
+// agreement, 1959); CSS/SVG: 1in = 96px = 72pt (CSS Values and Units Level 3, §6.2).
+
+declare const brand: unique symbol;
+type Brand<T, B extends string> = T & { readonly [brand]: B };
+
+export type Mm = Brand<number, 'mm'>;
+export type Inch = Brand<number, 'in'>;
+export type Px = Brand<number, 'px'>;
+export type Degrees = Brand<number, 'deg'>;
+
+export type LengthUnit = 'mm' | 'in';
+export const LENGTH_UNITS: readonly LengthUnit[] = ['in', 'mm'];
+
+export const MM_PER_INCH = 25.4;
+export const CSS_PX_PER_INCH = 96;
+export const PT_PER_INCH = 72;
+
+export const mm = (value: number) => value as Mm;
+export const inch = (value: number) => value as Inch;
+export const px = (value: number) => value as Px;
+
+export const inchToMm = (value: Inch | number): Mm => (value * MM_PER_INCH) as Mm;
+export const mmToInch = (value: Mm | number): Inch => (value / MM_PER_INCH) as Inch;
+
+export function toMm(value: number, unit: LengthUnit): Mm {
+  return unit === 'mm' ? (value as Mm) : inchToMm(value);
+}
+
+export function fromMm(value: Mm | number, unit: LengthUnit): number {
+  return unit === 'mm' ? value : mmToInch(value);
+}
+
+/** Pixels needed to print `length` at `dpi` dots per inch, rounded to whole pixels. */
+export function mmToPixels(length: Mm | number, dpi: number): Px {
+  return Math.round((length / MM_PER_INCH) * dpi) as Px;
+}
+
+/** PNG pHYs pixels per metre for a DPI (PNG spec §11.3.5.3, unit 1 = metre). */
+export function dpiToPixelsPerMetre(dpi: number): number {
+  return Math.round(dpi / 0.0254);
+}
+
+const LENGTH_PATTERN = /^\s*(-?\d+(?:\.\d+)?|-?\.\d+)\s*(mm|in|cm|")?\s*$/i;
+
+/** Parses "2in", "3 mm", "0.5\"", "1.2cm"; a bare number takes `defaultUnit`. */
+export function parseLength(text: string, defaultUnit: LengthUnit = 'mm'): Mm | null {
+  const match = LENGTH_PATTERN.exec(text);
+  if (!match) return null;
+  const value = Number(match[1]);
+  const unit = (match[2] ?? defaultUnit).toLowerCase();
+  if (unit === 'mm') return value as Mm;
+  if (unit === 'cm') return (value * 10) as Mm;
+  return inchToMm(value);
+}
+
+/** Formats a millimetre length in the user's unit, e.g. "2.25 in" or "57.2 mm". */
+export function formatLength(value: Mm | number, unit: LengthUnit, digits = unit === 'in' ? 3 : 1): string {
+  const n = fromMm(value, unit);
+  const text = Number(n.toFixed(digits)).toString();
+  return `${text} ${unit}`;
+}
