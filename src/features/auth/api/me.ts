@@ -1,0 +1,66 @@
+import { queryOptions, useMutation, useQuery, useQueryClient } from '@tanstack/react-query';
+import type { Me, SignInInput, SignUpInput, UpdateAccountInput, ChangePasswordInput } from '../../../../shared/schemas/auth';
+import { meSchema } from '../../../../shared/schemas/auth';
+import { ApiError, api, setCsrfToken } from '../../../lib/api-client';
+
+export const meQueryOptions = () =>
+  queryOptions({
+    queryKey: ['me'],
+    queryFn: async (): Promise<Me | null> => {
+      try {
+        return meSchema.parse(await api('GET', '/me'));
+      } catch (error) {
+        if (error instanceof ApiError && error.status === 401) return null;
+        throw error;
+      }
+    },
+    staleTime: 60_000,
+  });
+
+export const useMe = () => useQuery(meQueryOptions());
+
+/** Sign-in, sign-up and invite acceptance all answer with the new session's Me. */
+function useSessionMutation<I>(fn: (input: I) => Promise<unknown>) {
+  const client = useQueryClient();
+  return useMutation({
+    mutationFn: async (input: I) => meSchema.parse(await fn(input)),
+    onSuccess: (me) => {
+      client.clear();
+      client.setQueryData(meQueryOptions().queryKey, me);
+    },
+  });
+}
+
+export const useSignIn = () => useSessionMutation((input: SignInInput) => api('POST', '/auth/sign-in', input));
+export const useSignUp = () => useSessionMutation((input: SignUpInput) => api('POST', '/auth/sign-up', input));
+
+export function useSignOut() {
+  const client = useQueryClient();
+  return useMutation({
+    mutationFn: () => api<void>('POST', '/auth/sign-out'),
+    onSuccess: () => {
+      setCsrfToken(null);
+      client.clear();
+      client.setQueryData(meQueryOptions().queryKey, null);
+    },
+  });
+}
+
+export function useUpdateAccount() {
+  const client = useQueryClient();
+  return useMutation({
+    mutationFn: async (input: UpdateAccountInput) => meSchema.parse(await api('PATCH', '/me', input)),
+    onSuccess: (me) => client.setQueryData(meQueryOptions().queryKey, me),
+  });
+}
+
+export const useChangePassword = () =>
+  useMutation({ mutationFn: (input: ChangePasswordInput) => api<void>('POST', '/me/password', input) });
+
+export function useSwitchTeam() {
+  const client = useQueryClient();
+  return useMutation({
+    mutationFn: async (teamId: string) => meSchema.parse(await api('PUT', '/me/active-team', { teamId })),
+    onSuccess: (me) => client.setQueryData(meQueryOptions().queryKey, me),
+  });
+}

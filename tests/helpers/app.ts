@@ -1,0 +1,88 @@
+import { randomBytes } from 'node:crypto';
+import bcrypt from 'bcryptjs';
+import request from 'supertest';
+import type TestAgent from 'supertest/lib/agent';
+import type { DataSource } from 'typeorm';
+import type { Role } from '../../shared/permissions';
+import type { Env } from '../../server/config/env';
+import { env as baseEnv } from '../../server/config/env';
+import { createApp } from '../../server/app';
+import type { AppOptions } from '../../server/app';
+import { createDataSource } from '../../server/db/data-source';
+import { User } from '../../server/modules/auth/user.entity';
+import { Team } from '../../server/modules/teams/team.entity';
+import { Membership } from '../../server/modules/teams/membership.entity';
+
+export const TEST_PASSWORD = 'correct-horse-battery';
+// Hashed once per test file at the production cost, so fixtures do not pay it per user.
+let passwordHash: string | null = null;
+
+export async function openDatabase(): Promise<DataSource> {
+  return createDataSource().initialize();
+}
+
+export function testApp(dataSource: DataSource, overrides: Partial<Env> = {}, extra: Partial<AppOptions> = {}) {
+  return createApp({ env: { ...baseEnv, ...overrides }, dataSource, ...extra });
+}
+
+export const unique = (label: string) => `${label}-${randomBytes(4).toString('hex')}`;
+export const uniqueEmail = (label: string) => `${unique(label)}@example.test`;
+
+/** Inserts a user straight into the database (no HTTP), optionally as a member of a team. */
+export async function makeUser(dataSource: DataSource, label = 'user', membership?: { teamId: string; role: Role }) {
+  passwordHash ??= await bcrypt.hash(TEST_PASSWORD, 12);
+  const user = await dataSource.getRepository(User).save({ email: uniqueEmail(label), name: label, passwordHash });
+  if (membership) await dataSource.getRepository(Membership).save({ ...membership, userId: user.id });
+  return user;
+}
+
+export async function makeTeam(dataSource: DataSource, label = 'team') {
+  return dataSource.getRepository(Team).save({ name: unique(label), personal: false });
+}
+
+/** A team with one user per role. */
+export async function makeTeamWithRoles(dataSource: DataSource) {
+  const team = await makeTeam(dataSource);
+  const users = {} as Record<Role, User>;
+  for (const role of ['owner', 'admin', 'member', 'viewer'] as const) {
+    users[role] = await makeUser(dataSource, role, { teamId: team.id, role });
+  }
+  return { team, users };
+}
+
+/** A supertest agent that keeps cookies and sends the session's CSRF token on every write. */
+export class Client {
+  readonly agent: TestAgent;
+  csrf = '';
+
+  constructor(app: Parameters<typeof request.agent>[0]) {
+    this.agent = request.agent(app);
+  }
+
+  async refreshCsrf() {
+    const res = await this.agent.get('/api/auth/csrf').expect(200);
+    this.csrf = res.body.csrfToken;
+    return this.csrf;
+  }
+
+  get(path: string) {
+    return this.agent.get(path);
+  }
+
+  async send(method: 'post' | 'put' | 'patch' | 'delete', path: string, body?: object) {
+    if (!this.csrf) await this.refreshCsrf();
+    const res = await this.agent[method](path).set('x-csrf-token', this.csrf).send(body);
+    if (typeof res.body?.csrfToken === 'string') this.csrf = res.body.csrfToken;
+    return res;
+  }
+
+  post(path: string, body?: object) {
+    return this.send('post', path, body);
+  }
+
+  async signIn(email: string, password = TEST_PASSWORD) {
+    const res = await this.post('/api/auth/sign-in', { email, password });
+    if (res.status !== 200) throw new Error(`sign-in failed for ${email}: ${res.status} ${JSON.stringify(res.body)}`);
+    return res;
+  }
+}

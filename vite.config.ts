@@ -1,0 +1,15 @@
+import { defineConfig } from 'vite';
+import react from '@vitejs/plugin-react';
+import tailwindcss from '@tailwindcss/vite';
+
+const apiPort = process.env.PORT ?? '3000';
+const apiHost = process.env.HOST ?? '127.0.0.1';
+
+export default defineConfig({
+  plugins: [react(), tailwindcss()],
+  server: {
+    port: 5173,
+    proxy: { '/api': `http://${apiHost}:${apiPort}` },
+  },
+  build: { outDir: 'dist', emptyOutDir: true, sourcemap: true },
+});

@@ -1,0 +1,14 @@
+import { defineConfig } from 'vitest/config';
+
+export default defineConfig({
+  test: {
+    include: ['shared/**/*.test.ts', 'server/**/*.test.ts', 'tests/**/*.test.ts'],
+    environment: 'node',
+    globalSetup: ['tests/setup/global-setup.ts'],
+    testTimeout: 30_000,
+    hookTimeout: 90_000,
+    pool: 'forks',
+    maxWorkers: 2,
+    reporters: ['default'],
+  },
+});
