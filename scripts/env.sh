@@ -152,3 +152,19 @@ recreate_database() {
   db_admin -e "DROP DATABASE IF EXISTS \`$1\`;"
   ensure_database "$1"
 }
+
+# Debian's Chromium for the browser suites (never a browser download of a test tool's own).
+ensure_chromium() {
+  if [ -x /usr/bin/chromium ]; then return 0; fi
+  log "installing Chromium from Debian's chromium package (browser tests)"
+  as_root apt-get update -qq
+  DEBIAN_FRONTEND=noninteractive as_root apt-get install -y -qq chromium >/dev/null
+}
+
+# Rebuilds the client only when a source file is newer than the last build.
+ensure_client_build() {
+  if [ ! -f dist/index.html ] || [ -n "$(find src shared public index.html vite.config.ts tailwind.config.ts package-lock.json -newer dist/index.html -print -quit 2>/dev/null)" ]; then
+    log "building the client"
+    npx --no-install vite build --logLevel warn
+  fi
+}

@@ -14,11 +14,7 @@ npx --no-install tsx scripts/migrate.ts
 log "seeding the demo shop"
 npx --no-install tsx scripts/seed.ts
 
-# Rebuild the client only when a source file is newer than the last build.
-if [ ! -f dist/index.html ] || [ -n "$(find src shared index.html vite.config.ts tailwind.config.ts package-lock.json -newer dist/index.html -print -quit 2>/dev/null)" ]; then
-  log "building the client"
-  npx --no-install vite build --logLevel warn
-fi
+ensure_client_build
 
 export NODE_ENV="${NODE_ENV:-production}"
 npx --no-install tsx server/index.ts

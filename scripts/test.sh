@@ -4,6 +4,8 @@ set -euo pipefail
 . "$(dirname "$0")/env.sh"
 
 ensure_deps
+ensure_chromium
+ensure_client_build
 start_db
 if [ "$DB_STARTED_HERE" = "1" ]; then trap 'stop_db' EXIT; fi
 log "recreating the test database $DB_TEST_NAME"

@@ -1,0 +1,86 @@
+import { afterAll, beforeAll, describe, expect, it } from 'vitest';
+import type { Browser } from 'playwright-core';
+import type { DataSource } from 'typeorm';
+import { DEMO_ACCOUNTS, DEMO_PASSWORD, DEMO_SHOP } from '../../scripts/demo-accounts';
+import { seedDemo } from '../../server/db/seed-demo';
+import { openDatabase } from '../helpers/app';
+import { launchChromium, screenshot, serveApp } from '../helpers/browser';
+
+let db: DataSource;
+let browser: Browser;
+let served: Awaited<ReturnType<typeof serveApp>>;
+
+beforeAll(async () => {
+  db = await openDatabase();
+  await seedDemo(db);
+  served = await serveApp(db);
+  browser = await launchChromium();
+});
+afterAll(async () => {
+  await browser?.close();
+  await served?.close();
+  await db?.destroy();
+});
+
+const ROLE_LABEL = { owner: 'Owner', admin: 'Admin', member: 'Member', viewer: 'Viewer' } as const;
+
+describe('signing in as each demo account in Chromium', () => {
+  for (const account of DEMO_ACCOUNTS) {
+    it(`${account.email} reaches the shell with the ${account.role} role`, async () => {
+      const page = await browser.newPage({ viewport: { width: 1280, height: 800 } });
+      await page.goto(`${served.url}/`);
+      await page.waitForURL(/\/sign-in/);
+      await page.getByLabel('E-mail').fill(account.email);
+      await page.getByLabel('Password').fill(DEMO_PASSWORD);
+      await page.getByRole('button', { name: 'Sign in' }).click();
+      await page.waitForURL(/\/t\/\d+\/library$/);
+      await expect.poll(() => page.getByTestId('role-badge').textContent()).toBe(ROLE_LABEL[account.role]);
+      expect(await page.getByLabel('Switch team').locator('option:checked').textContent()).toBe(DEMO_SHOP);
+      expect(await page.getByTestId('account-link').textContent()).toBe(account.name);
+      // The body font is the shipped Nunito, not a fallback.
+      expect(await page.evaluate(() => document.fonts.check('16px Nunito'))).toBe(true);
+      await screenshot(page, `shell-${account.role}`);
+
+      await page.getByRole('link', { name: 'Team' }).click();
+      await page.getByRole('heading', { name: 'Members' }).waitFor();
+      const canInvite = account.role === 'owner' || account.role === 'admin';
+      expect(await page.getByRole('button', { name: 'Send invitation' }).count()).toBe(canInvite ? 1 : 0);
+      await screenshot(page, `team-${account.role}`);
+      await page.close();
+    });
+  }
+});
+
+describe('sign-in form', () => {
+  it('shows inline field errors and keeps what the user typed', async () => {
+    const page = await browser.newPage({ viewport: { width: 1280, height: 800 } });
+    await page.goto(`${served.url}/sign-in`);
+    await page.getByLabel('E-mail').fill('owner@demo');
+    await page.getByRole('button', { name: 'Sign in' }).click();
+    await expect.poll(() => page.getByText('Enter an e-mail address like name@example.com').count()).toBe(1);
+    expect(await page.getByText('Enter your password').count()).toBe(1);
+    expect(await page.getByLabel('E-mail').inputValue()).toBe('owner@demo');
+
+    await page.getByLabel('E-mail').fill('owner@demo.test');
+    await page.getByLabel('Password').fill('not-the-password');
+    await page.getByRole('button', { name: 'Sign in' }).click();
+    await expect.poll(() => page.getByRole('alert').first().textContent()).toContain('do not match an account');
+    expect(await page.getByLabel('E-mail').inputValue()).toBe('owner@demo.test');
+    await screenshot(page, 'sign-in-errors');
+    await page.close();
+  });
+
+  it('can be completed with the keyboard alone', async () => {
+    const page = await browser.newPage({ viewport: { width: 1280, height: 800 } });
+    await page.goto(`${served.url}/sign-in`);
+    await page.getByLabel('E-mail').waitFor();
+    // The e-mail field has focus on arrival.
+    await expect.poll(() => page.evaluate(() => document.activeElement?.getAttribute('name'))).toBe('email');
+    await page.keyboard.type('member@demo.test');
+    await page.keyboard.press('Tab');
+    await page.keyboard.type(DEMO_PASSWORD);
+    await page.keyboard.press('Enter');
+    await page.waitForURL(/\/t\/\d+\/library$/);
+    await page.close();
+  });
+});
