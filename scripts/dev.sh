@@ -5,7 +5,7 @@ set -euo pipefail
 
 ensure_deps
 start_db
-trap 'kill 0 2>/dev/null || true; stop_db' EXIT
+trap 'kill $(jobs -p) 2>/dev/null; cleanup_db' EXIT
 trap 'exit 130' INT TERM
 ensure_database "$DB_NAME"
 npx --no-install tsx scripts/migrate.ts

@@ -118,6 +118,13 @@ start_db() {
   return 1
 }
 
+# For EXIT traps: stops the database even when the terminal or a pipe reading our output is gone.
+cleanup_db() {
+  trap '' PIPE INT TERM
+  set +e
+  stop_db 2>/dev/null
+}
+
 stop_db() {
   if [ -f "$DB_PIDFILE" ]; then
     local pid; pid="$(cat "$DB_PIDFILE")"

@@ -5,7 +5,7 @@ set -euo pipefail
 
 ensure_deps
 start_db
-trap 'stop_db' EXIT
+trap cleanup_db EXIT
 trap 'exit 130' INT TERM
 ensure_database "$DB_NAME"
 

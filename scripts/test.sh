@@ -7,7 +7,7 @@ ensure_deps
 ensure_chromium
 ensure_client_build
 start_db
-if [ "$DB_STARTED_HERE" = "1" ]; then trap 'stop_db' EXIT; fi
+if [ "$DB_STARTED_HERE" = "1" ]; then trap cleanup_db EXIT; fi
 log "recreating the test database $DB_TEST_NAME"
 recreate_database "$DB_TEST_NAME"
 
