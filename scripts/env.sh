@@ -122,7 +122,7 @@ start_db() {
 cleanup_db() {
   trap '' PIPE INT TERM
   set +e
-  stop_db 2>/dev/null
+  stop_db >/dev/null 2>&1
 }
 
 stop_db() {
