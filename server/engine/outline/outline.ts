@@ -1,0 +1,262 @@
+import sharp from 'sharp';
+import type { Box, Point } from '../../../shared/geometry/polygon';
+import { area, boundingBox, perimeter, ringToSvgPath, scale, translate } from '../../../shared/geometry/polygon';
+import type { OutlineOptions, OutlineOptionsInput, OutlineWarning } from '../../../shared/schemas/outline';
+import { outlineOptionsSchema } from '../../../shared/schemas/outline';
+import { MM_PER_INCH, formatLength } from '../../../shared/units';
+import { detectBackground, parseHex, removeBackground } from './background';
+import { bridgeIslands } from './bridge';
+import { fillHoles, labelComponents } from './components';
+import type { Component } from './components';
+import { decodeArt } from './decode';
+import { distanceTransform } from './distance-transform';
+import { OutlineInputError } from './errors';
+import { findNarrowParts } from './necks';
+import { composeSticker, encodePng } from './raster';
+import type { Frame } from './raster';
+import { simplifyRing, traceOuterRings } from './trace';
+
+export type OutlineLimits = { maxInputPixels: number; maxOutputPixels: number };
+export const DEFAULT_LIMITS: OutlineLimits = { maxInputPixels: 50_000_000, maxOutputPixels: 40_000_000 };
+
+/**
+ * One finished sticker. Its frame is the sticker's bounding box (art plus border on every side):
+ * millimetres, origin at the frame's top-left, x to the right, y down. The cut line is one simple
+ * closed polygon in that frame, running clockwise on screen (positive shoelace area with y down),
+ * first point not repeated. The PNG covers exactly the frame.
+ */
+export type OutlinePiece = {
+  cutLine: { points: Point[]; svgPath: string };
+  areaMm2: number;
+  perimeterMm: number;
+  /** Bounds of the cut line in the frame (mm). */
+  bbox: Box;
+  /** Frame size (mm) and its place in the whole art's frame (the join frame), in mm. */
+  widthMm: number;
+  heightMm: number;
+  offsetMm: Point;
+  png: Buffer;
+  pixelWidth: number;
+  pixelHeight: number;
+};
+
+export type OutlineResult = {
+  pieces: OutlinePiece[];
+  art: {
+    format: string;
+    sourceWidthPx: number;
+    sourceHeightPx: number;
+    /** The visible part of the source (transparent margins and specks trimmed), in source pixels. */
+    visible: Box;
+    printedWidthMm: number;
+    printedHeightMm: number;
+    hadTransparency: boolean;
+  };
+  /** Source pixels per inch of the art at its printed size. */
+  effectiveDpi: number;
+  dpi: number;
+  borderMm: number;
+  warnings: OutlineWarning[];
+};
+
+const PAD = 2; // working margin (px) so traced rings never touch the canvas edge
+
+function unionBox(components: Component[]): Box {
+  const minX = Math.min(...components.map((c) => c.minX)), minY = Math.min(...components.map((c) => c.minY));
+  const maxX = Math.max(...components.map((c) => c.maxX)), maxY = Math.max(...components.map((c) => c.maxY));
+  return { x: minX, y: minY, width: maxX - minX + 1, height: maxY - minY + 1 };
+}
+
+/** Keeps components of at least `minArea` px (always the largest); returns kept and dropped. */
+function splitSpecks(components: Component[], minArea: number) {
+  const largest = components.reduce((a, b) => (b.area > a.area ? b : a));
+  const kept = components.filter((c) => c === largest || c.area >= minArea);
+  return { kept, dropped: components.length - kept.length, keptLabels: new Set(kept.map((c) => c.label)) };
+}
+
+export async function outline(image: Buffer, rawOptions: OutlineOptionsInput, limits: OutlineLimits = DEFAULT_LIMITS): Promise<OutlineResult> {
+  const options: OutlineOptions = outlineOptionsSchema.parse(rawOptions);
+  const warnings: OutlineWarning[] = [];
+  const decoded = await decodeArt(image, limits.maxInputPixels);
+  const { rgba, width: W, height: H } = decoded;
+
+  // 1. Background: transparency if the art has it, else a flat colour flooded in from the edges.
+  const explicit = typeof options.background === 'object' ? options.background : null;
+  if (explicit) {
+    const cleared = removeBackground(rgba, W, H, parseHex(explicit.colour), explicit.tolerance);
+    if (cleared > 0) warnings.push({ code: 'background-removed', severity: 'notice', message: `Removed the ${explicit.colour} background.` });
+  } else if (options.background === 'auto' && !decoded.hasTransparency) {
+    const colour = detectBackground(rgba, W, H, options.backgroundTolerance);
+    if (colour) {
+      removeBackground(rgba, W, H, colour, options.backgroundTolerance);
+      const hex = `#${[colour.r, colour.g, colour.b].map((v) => v.toString(16).padStart(2, '0')).join('')}`;
+      warnings.push({ code: 'background-removed', severity: 'notice', message: `No transparency: removed the flat ${hex} background around the art.` });
+    } else {
+      warnings.push({ code: 'no-flat-background', severity: 'notice', message: 'No transparency and no flat background colour: the whole image is used as the art.' });
+    }
+  }
+
+  // 2. Threshold and trim at source resolution, dropping specks (their size judged at print size).
+  const threshold = options.alphaThreshold;
+  const sourceMask = new Uint8Array(W * H);
+  for (let i = 0; i < sourceMask.length; i++) sourceMask[i] = rgba[i * 4 + 3] >= threshold ? 1 : 0;
+  const source = labelComponents(sourceMask, W, H);
+  if (source.components.length === 0) {
+    throw new OutlineInputError('no-visible-art', 'The image has no visible art: every pixel is transparent (or below the alpha threshold).');
+  }
+  const pxPerMm = options.dpi / MM_PER_INCH;
+  const sizeOf = (box: Box) =>
+    options.width !== undefined
+      ? { w: options.width, h: (options.width * box.height) / box.width }
+      : { w: (options.height! * box.width) / box.height, h: options.height! };
+  const provisional = unionBox(source.components);
+  const targetPerSource = (sizeOf(provisional).w * pxPerMm) / provisional.width;
+  const speckSourcePx = (options.minSpeckArea * pxPerMm * pxPerMm) / (targetPerSource * targetPerSource);
+  const specks = splitSpecks(source.components, speckSourcePx);
+  let droppedSpecks = specks.dropped;
+  if (specks.dropped > 0) {
+    for (let i = 0; i < sourceMask.length; i++) if (source.labels[i] && !specks.keptLabels.has(source.labels[i])) rgba[i * 4 + 3] = 0;
+  }
+  const visible = unionBox(specks.kept);
+  const printed = sizeOf(visible);
+  const effectiveDpi = visible.width / (printed.w / MM_PER_INCH);
+
+  // 3. Resample the visible part to the print resolution.
+  const artW = Math.max(1, Math.round(printed.w * pxPerMm)), artH = Math.max(1, Math.round(printed.h * pxPerMm));
+  const finishedW = Math.round((printed.w + 2 * options.border) * pxPerMm), finishedH = Math.round((printed.h + 2 * options.border) * pxPerMm);
+  if (finishedW * finishedH > limits.maxOutputPixels) {
+    throw new OutlineInputError(
+      'too-large-output',
+      `At ${options.dpi} DPI this sticker needs ${finishedW} × ${finishedH} px; the limit is ${(limits.maxOutputPixels / 1e6).toFixed(0)} megapixels. Choose a smaller size or DPI.`,
+    );
+  }
+  const art = await sharp(rgba, { raw: { width: W, height: H, channels: 4 } })
+    .extract({ left: visible.x, top: visible.y, width: visible.width, height: visible.height })
+    .resize(artW, artH, { fit: 'fill', kernel: 'lanczos3' })
+    .raw()
+    .toBuffer();
+
+  // 4. The art mask on a canvas padded by the border (art touching the image edge keeps its border).
+  const cw = finishedW + 2 * PAD, ch = finishedH + 2 * PAD;
+  const origin = { x: PAD + Math.round((finishedW - artW) / 2), y: PAD + Math.round((finishedH - artH) / 2) };
+  const artMask = new Uint8Array(cw * ch);
+  for (let y = 0; y < artH; y++) {
+    for (let x = 0; x < artW; x++) {
+      if (art[(y * artW + x) * 4 + 3] >= threshold) artMask[(y + origin.y) * cw + x + origin.x] = 1;
+    }
+  }
+  const resampled = labelComponents(artMask, cw, ch);
+  if (resampled.components.length === 0) {
+    throw new OutlineInputError('no-visible-art', 'At this size the art vanishes: choose a larger printed size.');
+  }
+  const small = splitSpecks(resampled.components, options.minSpeckArea * pxPerMm * pxPerMm);
+  if (small.dropped > 0) {
+    for (let i = 0; i < artMask.length; i++) if (resampled.labels[i] && !small.keptLabels.has(resampled.labels[i])) artMask[i] = 0;
+    droppedSpecks += small.dropped;
+  }
+  if (droppedSpecks > 0) {
+    warnings.push({ code: 'specks-dropped', severity: 'notice', message: `Dropped ${droppedSpecks} speck${droppedSpecks === 1 ? '' : 's'} smaller than ${options.minSpeckArea} mm².` });
+  }
+
+  // 5. Grow by the border with an exact Euclidean distance transform; group islands by their grown regions.
+  const level = options.border * pxPerMm + 0.5; // distances run between pixel centres
+  let distance = distanceTransform(artMask, cw, ch);
+  const grown = new Uint8Array(cw * ch);
+  for (let i = 0; i < grown.length; i++) grown[i] = distance[i] <= level ? 1 : 0;
+  const groups = labelComponents(grown, cw, ch);
+
+  const pieces: OutlinePiece[] = [];
+  const minFeaturePx = options.minFeature * pxPerMm;
+  const border = parseHex(options.borderColour);
+  const toMm = (v: number) => v / pxPerMm;
+
+  const buildPiece = async (pieceArt: Uint8Array, artVisible: (i: number) => boolean) => {
+    const dist = pieceArt === artMask ? distance : distanceTransform(pieceArt, cw, ch);
+    const field = new Float64Array(cw * ch);
+    const inside = new Uint8Array(cw * ch);
+    for (let i = 0; i < field.length; i++) {
+      field[i] = level - dist[i];
+      inside[i] = field[i] >= 0 ? 1 : 0;
+    }
+    const filled = fillHoles(inside, cw, ch);
+    const holes = new Uint8Array(cw * ch);
+    for (let i = 0; i < holes.length; i++) holes[i] = filled[i] && !inside[i] ? 1 : 0;
+    // Filling the holes in the field too keeps them out of the traced rings' neighbourhood.
+    for (let i = 0; i < field.length; i++) if (holes[i]) field[i] = Math.max(field[i], 0.5);
+
+    const rings = traceOuterRings(field, cw, ch);
+    const ring = simplifyRing(rings[0], options.smoothing * pxPerMm);
+    const box = boundingBox(ring);
+    // The frame: the finished sticker's box in canvas pixels (the whole canvas for a joined piece).
+    const frame: Frame =
+      options.islands === 'join'
+        ? { x: PAD, y: PAD, width: finishedW, height: finishedH }
+        : (() => {
+            const x0 = Math.max(0, Math.floor(box.x)), y0 = Math.max(0, Math.floor(box.y));
+            return { x: x0, y: y0, width: Math.min(cw, Math.ceil(box.x + box.width)) - x0, height: Math.min(ch, Math.ceil(box.y + box.height)) - y0 };
+          })();
+    const points = scale(translate(ring, -frame.x, -frame.y), 1 / pxPerMm);
+
+    for (const neck of findNarrowParts(filled, cw, ch, minFeaturePx)) {
+      warnings.push({
+        code: 'narrow-neck',
+        severity: 'warning',
+        message: `The cut line narrows below ${formatLength(options.minFeature, 'mm')} near (${formatLength(toMm(neck.x - frame.x), 'mm')}, ${formatLength(toMm(neck.y - frame.y), 'mm')}): the blade may tear it. Widen the border or join the parts.`,
+      });
+    }
+    const rgbaOut = composeSticker({ frame, canvasWidth: cw, field, holes, art, artWidth: artW, artHeight: artH, artOrigin: origin, artVisible, border });
+    pieces.push({
+      cutLine: { points, svgPath: ringToSvgPath(points) },
+      areaMm2: area(points),
+      perimeterMm: perimeter(points),
+      bbox: boundingBox(points),
+      widthMm: toMm(frame.width),
+      heightMm: toMm(frame.height),
+      offsetMm: { x: toMm(frame.x - PAD), y: toMm(frame.y - PAD) },
+      png: await encodePng(rgbaOut, frame.width, frame.height, options.dpi),
+      pixelWidth: frame.width,
+      pixelHeight: frame.height,
+    });
+  };
+
+  if (options.islands === 'join' || groups.components.length === 1) {
+    if (groups.components.length > 1) {
+      const groupOfArt = new Int32Array(cw * ch);
+      for (let i = 0; i < artMask.length; i++) if (artMask[i]) groupOfArt[i] = groups.labels[i];
+      const radius = Math.max(0.75, minFeaturePx / 2);
+      const bridges = bridgeIslands(artMask, groupOfArt, groups.components.length, cw, ch, radius);
+      distance = distanceTransform(artMask, cw, ch);
+      warnings.push({ code: 'islands-joined', severity: 'notice', message: `Joined ${bridges + 1} separate parts of the art into one sticker with ${bridges} bridge${bridges === 1 ? '' : 's'}.` });
+    }
+    await buildPiece(artMask, () => true);
+  } else {
+    for (const group of groups.components) {
+      const pieceArt = new Uint8Array(cw * ch);
+      for (let i = 0; i < artMask.length; i++) if (artMask[i] && groups.labels[i] === group.label) pieceArt[i] = 1;
+      await buildPiece(pieceArt, (i) => groups.labels[i] === group.label);
+    }
+  }
+
+  if (effectiveDpi < 150) {
+    warnings.push({ code: 'very-low-resolution', severity: 'warning', message: `The art has only ${Math.round(effectiveDpi)} DPI at this size (under 150 looks soft). Print it smaller or find a larger file.` });
+  } else if (effectiveDpi < 300) {
+    warnings.push({ code: 'low-resolution', severity: 'notice', message: `The art has ${Math.round(effectiveDpi)} DPI at this size (300 is ideal for stickers).` });
+  }
+
+  return {
+    pieces,
+    art: {
+      format: decoded.format,
+      sourceWidthPx: W,
+      sourceHeightPx: H,
+      visible,
+      printedWidthMm: printed.w,
+      printedHeightMm: printed.h,
+      hadTransparency: decoded.hasTransparency,
+    },
+    effectiveDpi,
+    dpi: options.dpi,
+    borderMm: options.border,
+    warnings,
+  };
+}

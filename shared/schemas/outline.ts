@@ -1,0 +1,74 @@
+import { z } from 'zod';
+import { parseLength, inchToMm } from '../units';
+
+/** A length given as "2in", "3mm", "0.5\"" or a bare number of millimetres. */
+export const lengthSchema = (label: string) =>
+  z.union([z.number(), z.string()]).transform((value, ctx) => {
+    const mm = typeof value === 'number' ? value : parseLength(value, 'mm');
+    if (mm === null || !Number.isFinite(mm)) {
+      ctx.addIssue({ code: 'custom', message: `${label}: give a length like 2in or 50mm` });
+      return z.NEVER;
+    }
+    return mm as number;
+  });
+
+const hexColour = z
+  .string()
+  .trim()
+  .regex(/^#?[0-9a-fA-F]{6}$/, 'Give a colour like #ffffff')
+  .transform((value) => `#${value.replace('#', '').toLowerCase()}`);
+
+export const backgroundSchema = z
+  .union([
+    z.literal('auto'),
+    z.literal('keep'),
+    z.object({ colour: hexColour, tolerance: z.coerce.number().min(0).max(255).default(32) }),
+  ])
+  .default('auto');
+
+export const DEFAULT_BORDER_MM = inchToMm(0.125);
+
+/**
+ * Options of the outline engine. Lengths are millimetres after parsing. Exactly one of width or
+ * height sets the printed size of the art's visible part (transparent margins trimmed).
+ */
+export const outlineOptionsSchema = z
+  .object({
+    width: lengthSchema('Printed width').pipe(z.number().min(2, 'At least 2 mm').max(1000, 'At most 1 m')).optional(),
+    height: lengthSchema('Printed height').pipe(z.number().min(2, 'At least 2 mm').max(1000, 'At most 1 m')).optional(),
+    border: lengthSchema('Border').pipe(z.number().min(0).max(50, 'At most 50 mm')).default(DEFAULT_BORDER_MM),
+    borderColour: hexColour.default('#ffffff'),
+    dpi: z.coerce.number().int().min(72, 'At least 72 DPI').max(1200, 'At most 1200 DPI').default(300),
+    /** Alpha (0–255) at or above which a pixel counts as art. Soft watercolour edges fade below it. */
+    alphaThreshold: z.coerce.number().int().min(1).max(255).default(48),
+    background: backgroundSchema,
+    /** Tolerance (0–255, distance in RGB) for `auto` background removal. */
+    backgroundTolerance: z.coerce.number().min(0).max(255).default(32),
+    /** Bits of art smaller than this (mm²) are dropped as specks. */
+    minSpeckArea: z.coerce.number().min(0).max(10_000).default(0.5),
+    islands: z.enum(['join', 'split']).default('join'),
+    /** Largest distance (mm) simplification may move the cut line. */
+    smoothing: lengthSchema('Smoothing').pipe(z.number().min(0).max(1)).default(0.05),
+    /** Narrowest part of a cut line that still cuts cleanly (common practice: about 1 mm). */
+    minFeature: lengthSchema('Smallest feature').pipe(z.number().min(0).max(20)).default(1),
+  })
+  .refine((o) => (o.width === undefined) !== (o.height === undefined), {
+    message: 'Give the printed width or the printed height (one of them)',
+    path: ['width'],
+  });
+
+export type OutlineOptionsInput = z.input<typeof outlineOptionsSchema>;
+export type OutlineOptions = z.output<typeof outlineOptionsSchema>;
+
+export type OutlineWarning = {
+  code:
+    | 'low-resolution'
+    | 'very-low-resolution'
+    | 'narrow-neck'
+    | 'specks-dropped'
+    | 'islands-joined'
+    | 'background-removed'
+    | 'no-flat-background';
+  severity: 'notice' | 'warning';
+  message: string;
+};
