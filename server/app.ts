@@ -17,6 +17,13 @@ import { outboxRouter } from './modules/dev/outbox.router';
 import { healthRouter } from './modules/health/health.router';
 import { TeamsService } from './modules/teams/teams.service';
 import { teamsRouter } from './modules/teams/teams.router';
+import { artRouter } from './modules/art/art.router';
+import { ArtService } from './modules/art/art.service';
+import { OutlineService } from './modules/outlines/outline.service';
+import { outlinesRouter } from './modules/outlines/outlines.router';
+import { OutlinePool } from './engine/outline/pool';
+import { LocalDiskStorage } from './storage/local-disk';
+import type { Storage } from './storage/storage';
 
 export const SESSION_COOKIE = 'sheetsmith.sid';
 const SESSION_MAX_AGE_MS = 30 * 24 * 60 * 60 * 1000;
@@ -25,6 +32,9 @@ export type AppOptions = {
   env: Env;
   dataSource: DataSource;
   mailer?: Mailer;
+  storage?: Storage;
+  /** Outline worker pool; shared between apps in tests, made per app otherwise. */
+  outlinePool?: OutlinePool;
   /** Extra API routes mounted after the built-in ones (tests use this for probes). */
   extraApi?: (api: express.Router) => void;
   /** Folder with the built client; served with a fallback to index.html for client routes. */
@@ -34,7 +44,15 @@ export type AppOptions = {
 export type SheetsmithApp = { app: express.Express; close: () => Promise<void> };
 
 /** Builds the Express app without listening, so tests drive it with supertest. */
-export function createApp({ env, dataSource, mailer = createMailer(env), extraApi, clientDir }: AppOptions): SheetsmithApp {
+export function createApp({
+  env,
+  dataSource,
+  mailer = createMailer(env),
+  storage = new LocalDiskStorage(env.storageDir),
+  outlinePool,
+  extraApi,
+  clientDir,
+}: AppOptions): SheetsmithApp {
   const app = express();
   app.disable('x-powered-by');
   if (env.COOKIE_SECURE) app.set('trust proxy', 1);
@@ -60,6 +78,15 @@ export function createApp({ env, dataSource, mailer = createMailer(env), extraAp
   const teams = new TeamsService(dataSource, mailer, env);
   const passport = createPassport(auth);
   const throttle = new SignInThrottle(env);
+  const ownPool = !outlinePool;
+  const pool =
+    outlinePool ??
+    new OutlinePool(
+      { maxInputPixels: env.OUTLINE_MAX_PIXELS, maxOutputPixels: env.OUTLINE_MAX_OUTPUT_PIXELS },
+      env.OUTLINE_THREADS || undefined,
+    );
+  const art = new ArtService(dataSource, storage, env.OUTLINE_MAX_PIXELS);
+  const outlines = new OutlineService(dataSource, storage, pool);
 
   const api = express.Router();
   api.use(express.json({ limit: '1mb' }));
@@ -81,6 +108,8 @@ export function createApp({ env, dataSource, mailer = createMailer(env), extraAp
   api.use(csrfSynchronisedProtection);
   api.use(authRouter({ auth, passport, throttle, csrfToken: generateToken }));
   api.use(teamsRouter({ dataSource, teams, auth, csrfToken: generateToken }));
+  api.use(artRouter({ dataSource, art, maxBytes: env.ART_MAX_BYTES }));
+  api.use(outlinesRouter({ dataSource, art, outlines }));
   if (mailer.outboxDir && env.NODE_ENV !== 'production') api.use(outboxRouter(mailer.outboxDir));
   extraApi?.(api);
   api.use(apiNotFound);
@@ -96,6 +125,7 @@ export function createApp({ env, dataSource, mailer = createMailer(env), extraAp
     app,
     close: async () => {
       await store.close();
+      if (ownPool) await pool.close();
     },
   };
 }

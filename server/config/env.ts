@@ -30,9 +30,13 @@ const envSchema = z.object({
   SMTP_PASSWORD: z.string().default(''),
   SMTP_SECURE: bool,
   MAIL_FROM: z.string().default('Sheetsmith <no-reply@sheetsmith.local>'),
+  ART_MAX_BYTES: z.coerce.number().int().min(1024).default(50 * 1024 * 1024),
+  OUTLINE_MAX_PIXELS: z.coerce.number().int().min(16).default(50_000_000),
+  OUTLINE_MAX_OUTPUT_PIXELS: z.coerce.number().int().min(16).default(40_000_000),
+  OUTLINE_THREADS: z.coerce.number().int().min(0).max(16).default(0),
 });
 
-export type Env = z.infer<typeof envSchema> & { appUrl: string; dataDir: string; outboxDir: string };
+export type Env = z.infer<typeof envSchema> & { appUrl: string; dataDir: string; outboxDir: string; storageDir: string };
 
 export function loadEnv(source: NodeJS.ProcessEnv = process.env): Env {
   const parsed = envSchema.safeParse(source);
@@ -47,6 +51,7 @@ export function loadEnv(source: NodeJS.ProcessEnv = process.env): Env {
     appUrl: (env.APP_URL ?? `http://${env.HOST}:${env.PORT}`).replace(/\/$/, ''),
     dataDir,
     outboxDir: path.join(dataDir, 'outbox'),
+    storageDir: path.join(dataDir, 'storage'),
   };
 }
 

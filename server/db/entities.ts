@@ -1,7 +1,9 @@
+import { ArtItem } from '../modules/art/art-item.entity';
+import { OutlineCacheEntry } from '../modules/outlines/outline-cache.entity';
 import { Invite } from '../modules/teams/invite.entity';
 import { Membership } from '../modules/teams/membership.entity';
 import { Team } from '../modules/teams/team.entity';
 import { PasswordReset } from '../modules/auth/password-reset.entity';
 import { User } from '../modules/auth/user.entity';
 
-export const entities = [User, Team, Membership, Invite, PasswordReset];
+export const entities = [User, Team, Membership, Invite, PasswordReset, ArtItem, OutlineCacheEntry];

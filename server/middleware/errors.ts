@@ -1,6 +1,8 @@
 import type { ErrorRequestHandler, RequestHandler } from 'express';
 import { ERROR_CODES } from '../../shared/schemas/api-error';
 import { AppError } from '../lib/errors';
+import { OutlineInputError } from '../engine/outline/errors';
+import { OutlinePoolBusyError } from '../engine/outline/pool';
 
 export const apiNotFound: RequestHandler = (req, res) => {
   res.status(404).json({ error: { code: ERROR_CODES.notFound, message: `No API route ${req.method} ${req.path}.` } });
@@ -12,6 +14,18 @@ export const errorHandler: ErrorRequestHandler = (err, req, res, _next) => {
   if (err instanceof AppError) {
     if (err.retryAfter) res.set('Retry-After', String(err.retryAfter));
     res.status(err.status).json({ error: { code: err.code, message: err.message, fields: err.fields } });
+    return;
+  }
+  if (err instanceof OutlineInputError) {
+    res.status(422).json({ error: { code: 'art_unusable', message: err.message } });
+    return;
+  }
+  if (err instanceof OutlinePoolBusyError) {
+    res.set('Retry-After', '5').status(503).json({ error: { code: 'busy', message: err.message } });
+    return;
+  }
+  if (err?.name === 'MulterError' && err.code !== 'LIMIT_FILE_SIZE') {
+    res.status(400).json({ error: { code: ERROR_CODES.validation, message: `Upload refused: ${err.message}.` } });
     return;
   }
   // csrf-sync's error

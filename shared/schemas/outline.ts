@@ -72,3 +72,17 @@ export type OutlineWarning = {
   severity: 'notice' | 'warning';
   message: string;
 };
+
+const HEX = /^#?[0-9a-fA-F]{6}$/;
+
+/**
+ * Outline options as URL query strings: `background` is auto, keep or a colour such as #ffffff
+ * (then `backgroundTolerance` is its tolerance).
+ */
+export const outlineQuerySchema = z.preprocess((raw) => {
+  const query = { ...(raw as Record<string, unknown>) };
+  if (typeof query.background === 'string' && HEX.test(query.background)) {
+    query.background = { colour: query.background, tolerance: query.backgroundTolerance ?? 32 };
+  }
+  return query;
+}, outlineOptionsSchema);

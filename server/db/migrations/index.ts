@@ -1,4 +1,5 @@
 import { Foundation1764633600000 } from './1764633600000-foundation';
+import { ArtAndOutlines1764720000000 } from './1764720000000-art-and-outlines';
 
 // Every migration, oldest first. A new one is appended here and never edited after it lands.
-export const migrations = [Foundation1764633600000];
+export const migrations = [Foundation1764633600000, ArtAndOutlines1764720000000];

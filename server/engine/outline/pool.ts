@@ -1,0 +1,58 @@
+import { availableParallelism } from 'node:os';
+import { Piscina } from 'piscina';
+import type { OutlineOptionsInput } from '../../../shared/schemas/outline';
+import { OutlineInputError } from './errors';
+import type { OutlineLimits, OutlineResult } from './outline';
+import { DEFAULT_LIMITS } from './outline';
+import type { OutlineTaskResult } from './worker';
+
+export class OutlinePoolBusyError extends Error {}
+
+/**
+ * A bounded pool of worker threads for outlines, so image work never runs on the thread that
+ * answers HTTP requests. One core is left to the API; extra tasks wait in a bounded queue.
+ */
+export class OutlinePool {
+  private readonly piscina: Piscina;
+
+  constructor(
+    readonly limits: OutlineLimits = DEFAULT_LIMITS,
+    threads = Math.max(1, Math.min(4, availableParallelism() - 1)),
+    maxQueue = 64,
+  ) {
+    this.piscina = new Piscina({
+      filename: new URL('./worker-entry.mjs', import.meta.url).href,
+      minThreads: 0,
+      maxThreads: threads,
+      maxQueue,
+      idleTimeout: 60_000,
+      execArgv: [],
+    });
+  }
+
+  get threads() {
+    return this.piscina.threads.length;
+  }
+
+  get queued() {
+    return this.piscina.queueSize;
+  }
+
+  async run(image: Buffer, options: OutlineOptionsInput): Promise<OutlineResult> {
+    let reply: OutlineTaskResult;
+    try {
+      reply = await this.piscina.run({ image, options, limits: this.limits });
+    } catch (error) {
+      if (String((error as Error).message).includes('queue is at limit')) throw new OutlinePoolBusyError('The outline workers are busy. Try again in a moment.');
+      throw error;
+    }
+    if (!reply.ok) throw new OutlineInputError(reply.code, reply.message);
+    // Buffers come back from the thread as plain Uint8Arrays.
+    for (const piece of reply.result.pieces) piece.png = Buffer.from(piece.png.buffer, piece.png.byteOffset, piece.png.byteLength);
+    return reply.result;
+  }
+
+  close(): Promise<void> {
+    return this.piscina.destroy();
+  }
+}

@@ -1,0 +1,87 @@
+import { createHash } from 'node:crypto';
+import type { DataSource } from 'typeorm';
+import type { OutlineOptions } from '../../../shared/schemas/outline';
+import type { OutlineResult } from '../../engine/outline/outline';
+import type { OutlinePool } from '../../engine/outline/pool';
+import { notFound } from '../../lib/errors';
+import type { Storage } from '../../storage/storage';
+import { ArtItem } from '../art/art-item.entity';
+import { OutlineCacheEntry } from './outline-cache.entity';
+
+/** Bump when the engine's output changes, so old cache entries are not served. */
+export const OUTLINE_ENGINE_VERSION = 'outline-1';
+
+export type StoredPiece = Omit<OutlineResult['pieces'][number], 'png'> & { pngKey: string };
+export type StoredOutline = Omit<OutlineResult, 'pieces'> & { pieces: StoredPiece[] };
+
+/** JSON with sorted keys, so equal options always hash the same. */
+function canonical(value: unknown): string {
+  if (Array.isArray(value)) return `[${value.map(canonical).join(',')}]`;
+  if (value && typeof value === 'object') {
+    const entries = Object.entries(value as Record<string, unknown>).filter(([, v]) => v !== undefined).sort(([a], [b]) => a.localeCompare(b));
+    return `{${entries.map(([k, v]) => `${JSON.stringify(k)}:${canonical(v)}`).join(',')}}`;
+  }
+  return JSON.stringify(value);
+}
+
+export function outlineCacheKey(artSha256: string, options: OutlineOptions): string {
+  return createHash('sha256').update(`${OUTLINE_ENGINE_VERSION}\n${artSha256}\n${canonical(options)}`).digest('hex');
+}
+
+export class OutlineService {
+  private readonly inFlight = new Map<string, Promise<{ entry: OutlineCacheEntry; cached: boolean }>>();
+
+  constructor(
+    private readonly dataSource: DataSource,
+    private readonly storage: Storage,
+    private readonly pool: OutlinePool,
+  ) {}
+
+  /** The outline of a team's art at the given options, from cache when it was computed before. */
+  async forArt(art: ArtItem, options: OutlineOptions): Promise<{ key: string; cached: boolean; outline: StoredOutline }> {
+    const key = outlineCacheKey(art.sha256, options);
+    const repo = this.dataSource.getRepository(OutlineCacheEntry);
+    const hit = await repo.findOneBy({ cacheKey: key });
+    if (hit) {
+      await repo.update({ id: hit.id }, { lastUsedAt: new Date() });
+      return { key, cached: true, outline: JSON.parse(hit.resultJson) };
+    }
+    // Identical requests that arrive together share one computation.
+    let job = this.inFlight.get(key);
+    if (!job) {
+      job = this.compute(key, art, options).finally(() => this.inFlight.delete(key));
+      this.inFlight.set(key, job);
+    }
+    const { entry } = await job;
+    return { key, cached: false, outline: JSON.parse(entry.resultJson) };
+  }
+
+  private async compute(key: string, art: ArtItem, options: OutlineOptions) {
+    const started = performance.now();
+    const result = await this.pool.run(await this.storage.get(art.storageKey), options);
+    const pieces: StoredPiece[] = [];
+    for (const { png, ...piece } of result.pieces) pieces.push({ ...piece, pngKey: (await this.storage.put(png)).key });
+    const stored: StoredOutline = { ...result, pieces };
+    const repo = this.dataSource.getRepository(OutlineCacheEntry);
+    const entry = repo.create({
+      cacheKey: key,
+      artSha256: art.sha256,
+      optionsJson: canonical(options),
+      resultJson: JSON.stringify(stored),
+      computeMs: Math.round(performance.now() - started),
+      lastUsedAt: new Date(),
+    });
+    // Another process may have written the same key meanwhile: keep whichever landed first.
+    await repo.createQueryBuilder().insert().into(OutlineCacheEntry).values(entry).orIgnore().execute();
+    return { entry: await repo.findOneByOrFail({ cacheKey: key }), cached: false };
+  }
+
+  /** A piece's PNG, only if the team has art with the outline's content hash. */
+  async piecePng(teamId: string, key: string, index: number): Promise<Buffer> {
+    const entry = await this.dataSource.getRepository(OutlineCacheEntry).findOneBy({ cacheKey: key });
+    const owned = entry && (await this.dataSource.getRepository(ArtItem).existsBy({ teamId, sha256: entry.artSha256 }));
+    const piece = owned ? (JSON.parse(entry.resultJson) as StoredOutline).pieces[index] : undefined;
+    if (!piece) throw notFound('That outline');
+    return this.storage.get(piece.pngKey);
+  }
+}
