@@ -59,7 +59,17 @@ export type OutlineResult = {
   warnings: OutlineWarning[];
 };
 
-const PAD = 2; // working margin (px) so traced rings never touch the canvas edge
+const PAD = 2;
+
+/** True when (nearly) every pixel is within tolerance of the colour. */
+function isFlat(rgba: Buffer, colour: { r: number; g: number; b: number }, tolerance: number): boolean {
+  let near = 0;
+  const total = rgba.length / 4;
+  for (let i = 0; i < rgba.length; i += 4) {
+    if (Math.hypot(rgba[i] - colour.r, rgba[i + 1] - colour.g, rgba[i + 2] - colour.b) <= tolerance) near++;
+  }
+  return near >= 0.99 * total;
+} // working margin (px) so traced rings never touch the canvas edge
 
 function unionBox(components: Component[]): Box {
   const minX = Math.min(...components.map((c) => c.minX)), minY = Math.min(...components.map((c) => c.minY));
@@ -87,7 +97,9 @@ export async function outline(image: Buffer, rawOptions: OutlineOptionsInput, li
     if (cleared > 0) warnings.push({ code: 'background-removed', severity: 'notice', message: `Removed the ${explicit.colour} background.` });
   } else if (options.background === 'auto' && !decoded.hasTransparency) {
     const colour = detectBackground(rgba, W, H, options.backgroundTolerance);
-    if (colour) {
+    // An image that is one flat colour edge to edge is all art, not all background.
+    const flat = colour !== null && isFlat(rgba, colour, options.backgroundTolerance);
+    if (colour && !flat) {
       removeBackground(rgba, W, H, colour, options.backgroundTolerance);
       const hex = `#${[colour.r, colour.g, colour.b].map((v) => v.toString(16).padStart(2, '0')).join('')}`;
       warnings.push({ code: 'background-removed', severity: 'notice', message: `No transparency: removed the flat ${hex} background around the art.` });
