@@ -6,10 +6,10 @@ import { outlineOptionsSchema } from '../../../shared/schemas/outline';
 import { MM_PER_INCH, formatLength } from '../../../shared/units';
 import { detectBackground, parseHex, removeBackground } from './background';
 import { bridgeIslands } from './bridge';
-import { fillHoles, labelComponents } from './components';
+import { clearComponents, fillHoles, labelComponents, labelRuns } from './components';
 import type { Component } from './components';
 import { decodeArt } from './decode';
-import { distanceTransform } from './distance-transform';
+import { squaredDistanceTransform } from './distance-transform';
 import { OutlineInputError } from './errors';
 import { findNarrowParts } from './necks';
 import { composeSticker, encodePng } from './raster';
@@ -81,7 +81,9 @@ function unionBox(components: Component[]): Box {
 function splitSpecks(components: Component[], minArea: number) {
   const largest = components.reduce((a, b) => (b.area > a.area ? b : a));
   const kept = components.filter((c) => c === largest || c.area >= minArea);
-  return { kept, dropped: components.length - kept.length, keptLabels: new Set(kept.map((c) => c.label)) };
+  const keptLabels = new Set(kept.map((c) => c.label));
+  const droppedLabels = new Set(components.filter((c) => !keptLabels.has(c.label)).map((c) => c.label));
+  return { kept, dropped: droppedLabels.size, droppedLabels };
 }
 
 export async function outline(image: Buffer, rawOptions: OutlineOptionsInput, limits: OutlineLimits = DEFAULT_LIMITS): Promise<OutlineResult> {
@@ -112,7 +114,7 @@ export async function outline(image: Buffer, rawOptions: OutlineOptionsInput, li
   const threshold = options.alphaThreshold;
   const sourceMask = new Uint8Array(W * H);
   for (let i = 0; i < sourceMask.length; i++) sourceMask[i] = rgba[i * 4 + 3] >= threshold ? 1 : 0;
-  const source = labelComponents(sourceMask, W, H);
+  const source = labelRuns(sourceMask, W, H);
   if (source.components.length === 0) {
     throw new OutlineInputError('no-visible-art', 'The image has no visible art: every pixel is transparent (or below the alpha threshold).');
   }
@@ -126,9 +128,7 @@ export async function outline(image: Buffer, rawOptions: OutlineOptionsInput, li
   const speckSourcePx = (options.minSpeckArea * pxPerMm * pxPerMm) / (targetPerSource * targetPerSource);
   const specks = splitSpecks(source.components, speckSourcePx);
   let droppedSpecks = specks.dropped;
-  if (specks.dropped > 0) {
-    for (let i = 0; i < sourceMask.length; i++) if (source.labels[i] && !specks.keptLabels.has(source.labels[i])) rgba[i * 4 + 3] = 0;
-  }
+  clearComponents(source.runs, specks.droppedLabels, (x0, x1, y) => rgba.fill(0, (y * W + x0) * 4, (y * W + x1) * 4)); // drop specks (RGBA to 0)
   const visible = unionBox(specks.kept);
   const printed = sizeOf(visible);
   const effectiveDpi = visible.width / (printed.w / MM_PER_INCH);
@@ -157,44 +157,51 @@ export async function outline(image: Buffer, rawOptions: OutlineOptionsInput, li
       if (art[(y * artW + x) * 4 + 3] >= threshold) artMask[(y + origin.y) * cw + x + origin.x] = 1;
     }
   }
-  const resampled = labelComponents(artMask, cw, ch);
+  const resampled = labelRuns(artMask, cw, ch);
   if (resampled.components.length === 0) {
     throw new OutlineInputError('no-visible-art', 'At this size the art vanishes: choose a larger printed size.');
   }
   const small = splitSpecks(resampled.components, options.minSpeckArea * pxPerMm * pxPerMm);
-  if (small.dropped > 0) {
-    for (let i = 0; i < artMask.length; i++) if (resampled.labels[i] && !small.keptLabels.has(resampled.labels[i])) artMask[i] = 0;
-    droppedSpecks += small.dropped;
-  }
+  clearComponents(resampled.runs, small.droppedLabels, (x0, x1, y) => artMask.fill(0, y * cw + x0, y * cw + x1));
+  droppedSpecks += small.dropped;
   if (droppedSpecks > 0) {
     warnings.push({ code: 'specks-dropped', severity: 'notice', message: `Dropped ${droppedSpecks} speck${droppedSpecks === 1 ? '' : 's'} smaller than ${options.minSpeckArea} mm².` });
   }
 
   // 5. Grow by the border with an exact Euclidean distance transform; group islands by their grown regions.
   const level = options.border * pxPerMm + 0.5; // distances run between pixel centres
-  let distance = distanceTransform(artMask, cw, ch);
+  const level2 = level * level;
+  let squared = squaredDistanceTransform(artMask, cw, ch);
   const grown = new Uint8Array(cw * ch);
-  for (let i = 0; i < grown.length; i++) grown[i] = distance[i] <= level ? 1 : 0;
+  for (let i = 0; i < grown.length; i++) grown[i] = squared[i] <= level2 ? 1 : 0;
   const groups = labelComponents(grown, cw, ch);
 
   const pieces: OutlinePiece[] = [];
   const minFeaturePx = options.minFeature * pxPerMm;
   const border = parseHex(options.borderColour);
   const toMm = (v: number) => v / pxPerMm;
+  // Far from the cut line only the sign of the field matters; the square root is taken near it.
+  const near2Low = level > 2 ? (level - 2) ** 2 : -1, near2High = (level + 2) ** 2;
 
   const buildPiece = async (pieceArt: Uint8Array, artVisible: (i: number) => boolean) => {
-    const dist = pieceArt === artMask ? distance : distanceTransform(pieceArt, cw, ch);
-    const field = new Float64Array(cw * ch);
+    const sq = pieceArt === artMask ? squared : squaredDistanceTransform(pieceArt, cw, ch);
+    const field = new Float32Array(cw * ch);
     const inside = new Uint8Array(cw * ch);
     for (let i = 0; i < field.length; i++) {
-      field[i] = level - dist[i];
-      inside[i] = field[i] >= 0 ? 1 : 0;
+      const d2 = sq[i];
+      const f = d2 <= near2Low ? 2 : d2 >= near2High ? -2 : level - Math.sqrt(d2);
+      field[i] = f;
+      inside[i] = f >= 0 ? 1 : 0;
     }
     const filled = fillHoles(inside, cw, ch);
     const holes = new Uint8Array(cw * ch);
-    for (let i = 0; i < holes.length; i++) holes[i] = filled[i] && !inside[i] ? 1 : 0;
-    // Filling the holes in the field too keeps them out of the traced rings' neighbourhood.
-    for (let i = 0; i < field.length; i++) if (holes[i]) field[i] = Math.max(field[i], 0.5);
+    for (let i = 0; i < holes.length; i++) {
+      if (filled[i] && !inside[i]) {
+        holes[i] = 1;
+        // Filling the holes in the field too keeps them out of the traced rings.
+        field[i] = 0.5;
+      }
+    }
 
     const rings = traceOuterRings(field, cw, ch);
     const ring = simplifyRing(rings[0], options.smoothing * pxPerMm);
@@ -209,7 +216,10 @@ export async function outline(image: Buffer, rawOptions: OutlineOptionsInput, li
           })();
     const points = scale(translate(ring, -frame.x, -frame.y), 1 / pxPerMm);
 
-    for (const neck of findNarrowParts(filled, cw, ch, minFeaturePx)) {
+    // A border at least half the smallest feature makes the shape a union of disks that wide, which
+    // an opening by that disk leaves unchanged: no neck is possible, so the search is skipped.
+    const necks = level >= minFeaturePx / 2 ? [] : findNarrowParts(filled, cw, ch, minFeaturePx);
+    for (const neck of necks) {
       warnings.push({
         code: 'narrow-neck',
         severity: 'warning',
@@ -237,7 +247,7 @@ export async function outline(image: Buffer, rawOptions: OutlineOptionsInput, li
       for (let i = 0; i < artMask.length; i++) if (artMask[i]) groupOfArt[i] = groups.labels[i];
       const radius = Math.max(0.75, minFeaturePx / 2);
       const bridges = bridgeIslands(artMask, groupOfArt, groups.components.length, cw, ch, radius);
-      distance = distanceTransform(artMask, cw, ch);
+      squared = squaredDistanceTransform(artMask, cw, ch);
       warnings.push({ code: 'islands-joined', severity: 'notice', message: `Joined ${bridges + 1} separate parts of the art into one sticker with ${bridges} bridge${bridges === 1 ? '' : 's'}.` });
     }
     await buildPiece(artMask, () => true);

@@ -12,7 +12,7 @@ export type Frame = { x: number; y: number; width: number; height: number };
 export function composeSticker(input: {
   frame: Frame; // in canvas pixels
   canvasWidth: number;
-  field: Float64Array; // level − distance, ≥ 0 inside the cut line
+  field: Float32Array; // level − distance, ≥ 0 inside the cut line
   holes: Uint8Array; // enclosed pixels to fill regardless of the field
   art: Buffer; // resampled RGBA
   artWidth: number;
@@ -51,7 +51,7 @@ export function composeSticker(input: {
 /** PNG with its physical size in the pHYs chunk (PNG spec §11.3.5.3). */
 export function encodePng(rgba: Buffer, width: number, height: number, dpi: number): Promise<Buffer> {
   return sharp(rgba, { raw: { width, height, channels: 4 } })
-    .png({ compressionLevel: 6, adaptiveFiltering: true })
+    .png({ compressionLevel: 6, adaptiveFiltering: false })
     .withMetadata({ density: dpi })
     .toBuffer();
 }

@@ -8,10 +8,10 @@ import { area, clockwise, isSimple } from '../../../shared/geometry/polygon';
  * outer rings only, so holes never become cut lines. Coordinates are in pixel-edge space: pixel
  * (x, y) covers [x, x+1] × [y, y+1]. Returns rings largest first.
  */
-export function traceOuterRings(field: Float64Array, width: number, height: number): Ring[] {
+export function traceOuterRings(field: Float32Array, width: number, height: number): Ring[] {
   // A sample exactly on the level would put contour vertices on top of each other; nudge it inside.
-  const values = Float64Array.from(field, (v) => (v === 0 ? 1e-9 : v));
-  const [layer] = contours().size([width, height]).thresholds([0])(values as unknown as number[]);
+  for (let i = 0; i < field.length; i++) if (field[i] === 0) field[i] = 1e-6;
+  const [layer] = contours().size([width, height]).thresholds([0])(field as unknown as number[]);
   const rings: Ring[] = [];
   for (const polygon of layer.coordinates) {
     const ring: Ring = [];

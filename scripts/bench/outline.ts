@@ -1,0 +1,50 @@
+// npm run bench:outline: outlines generated art of 1, 4 and 16 megapixels and compares each with
+// the floor measured in the same run on the same files: sharp decode + raw pixel read alone.
+import sharp from 'sharp';
+import { outline } from '../../server/engine/outline/outline';
+
+const SIZES = [
+  { label: '1 MP', width: 1000, height: 1000 },
+  { label: '4 MP', width: 2000, height: 2000 },
+  { label: '16 MP', width: 4000, height: 4000 },
+];
+const RUNS = Number(process.env.BENCH_RUNS ?? 5);
+
+/** Watercolour-like test art: soft blobs, a hole, a speck, on transparency. */
+function makeArt(width: number, height: number): Promise<Buffer> {
+  const s = width / 1000;
+  const svg = `<svg xmlns="http://www.w3.org/2000/svg" width="${width}" height="${height}">
+    <defs><filter id="soft"><feGaussianBlur stdDeviation="${8 * s}"/></filter></defs>
+    <g filter="url(#soft)">
+      <ellipse cx="${450 * s}" cy="${520 * s}" rx="${330 * s}" ry="${260 * s}" fill="#5b8c5a" opacity="0.85"/>
+      <circle cx="${650 * s}" cy="${330 * s}" r="${170 * s}" fill="#e07a5f" opacity="0.8"/>
+      <path d="M${200 * s} ${700 * s} q${150 * s} ${200 * s} ${400 * s} ${120 * s}" stroke="#3d405b" stroke-width="${40 * s}" fill="none"/>
+    </g>
+    <circle cx="${450 * s}" cy="${520 * s}" r="${60 * s}" fill="none" stroke="#3d405b" stroke-width="${24 * s}"/>
+    <circle cx="${940 * s}" cy="${60 * s}" r="${3 * s}" fill="#000"/>
+  </svg>`;
+  return sharp(Buffer.from(svg)).png().toBuffer();
+}
+
+async function time(fn: () => Promise<unknown>): Promise<number> {
+  const samples: number[] = [];
+  await fn(); // warm-up
+  for (let i = 0; i < RUNS; i++) {
+    const start = performance.now();
+    await fn();
+    samples.push(performance.now() - start);
+  }
+  return samples.sort((a, b) => a - b)[samples.length >> 1]; // median
+}
+
+sharp.concurrency(1); // one core, as a worker thread has
+console.log(`outline benchmark: median of ${RUNS} runs, art printed 2 in wide with a 3 mm border at 300 DPI (the CLI's example)`);
+console.log('size   | file KB | floor ms (decode+raw) | outline ms | ratio');
+for (const size of SIZES) {
+  const file = await makeArt(size.width, size.height);
+  const floor = await time(() => sharp(file).ensureAlpha().raw().toBuffer());
+  const ours = await time(() => outline(file, { width: '2in', border: '3mm' }));
+  console.log(
+    `${size.label.padEnd(6)} | ${String(Math.round(file.length / 1024)).padStart(7)} | ${floor.toFixed(1).padStart(21)} | ${ours.toFixed(1).padStart(10)} | ${(ours / floor).toFixed(2)}`,
+  );
+}
