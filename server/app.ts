@@ -19,6 +19,9 @@ import { TeamsService } from './modules/teams/teams.service';
 import { teamsRouter } from './modules/teams/teams.router';
 import { artRouter } from './modules/art/art.router';
 import { ArtService } from './modules/art/art.service';
+import { CollectionsService } from './modules/collections/collections.service';
+import { collectionsRouter } from './modules/collections/collections.router';
+import type { PackLimits } from './modules/art/zip-pack';
 import { OutlineService } from './modules/outlines/outline.service';
 import { outlinesRouter } from './modules/outlines/outlines.router';
 import { OutlinePool } from './engine/outline/pool';
@@ -35,6 +38,7 @@ export type AppOptions = {
   storage?: Storage;
   /** Outline worker pool; shared between apps in tests, made per app otherwise. */
   outlinePool?: OutlinePool;
+  packLimits?: PackLimits;
   /** Extra API routes mounted after the built-in ones (tests use this for probes). */
   extraApi?: (api: express.Router) => void;
   /** Folder with the built client; served with a fallback to index.html for client routes. */
@@ -50,6 +54,7 @@ export function createApp({
   mailer = createMailer(env),
   storage = new LocalDiskStorage(env.storageDir),
   outlinePool,
+  packLimits,
   extraApi,
   clientDir,
 }: AppOptions): SheetsmithApp {
@@ -85,7 +90,8 @@ export function createApp({
       { maxInputPixels: env.OUTLINE_MAX_PIXELS, maxOutputPixels: env.OUTLINE_MAX_OUTPUT_PIXELS },
       env.OUTLINE_THREADS || undefined,
     );
-  const art = new ArtService(dataSource, storage, env.OUTLINE_MAX_PIXELS);
+  const art = new ArtService(dataSource, storage, env.OUTLINE_MAX_PIXELS, packLimits);
+  const collections = new CollectionsService(dataSource, storage);
   const outlines = new OutlineService(dataSource, storage, pool);
 
   const api = express.Router();
@@ -109,6 +115,7 @@ export function createApp({
   api.use(authRouter({ auth, passport, throttle, csrfToken: generateToken }));
   api.use(teamsRouter({ dataSource, teams, auth, csrfToken: generateToken }));
   api.use(artRouter({ dataSource, art, maxBytes: env.ART_MAX_BYTES }));
+  api.use(collectionsRouter({ dataSource, collections }));
   api.use(outlinesRouter({ dataSource, art, outlines }));
   if (mailer.outboxDir && env.NODE_ENV !== 'production') api.use(outboxRouter(mailer.outboxDir));
   extraApi?.(api);

@@ -1,4 +1,5 @@
 import { ArtItem } from '../modules/art/art-item.entity';
+import { Collection } from '../modules/collections/collection.entity';
 import { OutlineCacheEntry } from '../modules/outlines/outline-cache.entity';
 import { Invite } from '../modules/teams/invite.entity';
 import { Membership } from '../modules/teams/membership.entity';
@@ -6,4 +7,4 @@ import { Team } from '../modules/teams/team.entity';
 import { PasswordReset } from '../modules/auth/password-reset.entity';
 import { User } from '../modules/auth/user.entity';
 
-export const entities = [User, Team, Membership, Invite, PasswordReset, ArtItem, OutlineCacheEntry];
+export const entities = [User, Team, Membership, Invite, PasswordReset, ArtItem, Collection, OutlineCacheEntry];

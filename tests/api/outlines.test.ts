@@ -36,10 +36,10 @@ describe('art upload', () => {
     const art = await svgArt(400, 300, '<ellipse cx="200" cy="150" rx="150" ry="100" fill="#ca6f1e"/>');
     const first = await upload(member, team.id, art, 'Autumn Fox.png');
     expect(first.status).toBe(201);
-    expect(first.body.item).toMatchObject({ name: 'Autumn Fox', format: 'png', widthPx: 400, heightPx: 300, hasTransparency: true });
+    expect(first.body.results[0]).toMatchObject({ status: 'stored', item: { name: 'Autumn Fox', format: 'png', widthPx: 400, heightPx: 300, hasTransparency: true } });
     const again = await upload(member, team.id, art, 'copy.jpg');
     expect(again.status).toBe(200);
-    expect(again.body).toMatchObject({ duplicate: true, item: { id: first.body.item.id } });
+    expect(again.body.results[0]).toMatchObject({ status: 'duplicate', item: { id: first.body.results[0].item.id } });
     expect(await db.getRepository(ArtItem).countBy({ teamId: team.id })).toBe(1);
   });
 
@@ -66,7 +66,7 @@ describe('GET /api/teams/:teamId/art/:artId/outline', () => {
     const member = new Client(sheetsmith.app);
     await member.signIn(users.member.email);
     const art = await svgArt(1000, 1000, '<circle cx="500" cy="500" r="400" fill="#2e86c1"/>');
-    const artId = (await upload(member, team.id, art)).body.item.id;
+    const artId = (await upload(member, team.id, art)).body.results[0].item.id;
 
     const url = `/api/teams/${team.id}/art/${artId}/outline?width=2in&border=0.125in`;
     const first = await member.get(url);
@@ -96,7 +96,7 @@ describe('GET /api/teams/:teamId/art/:artId/outline', () => {
     const theirs = await makeTeamWithRoles(db);
     const owner = new Client(sheetsmith.app);
     await owner.signIn(theirs.users.owner.email);
-    const artId = (await upload(owner, theirs.team.id, await svgArt(200, 200, '<rect x="20" y="20" width="160" height="160"/>'))).body.item.id;
+    const artId = (await upload(owner, theirs.team.id, await svgArt(200, 200, '<rect x="20" y="20" width="160" height="160"/>'))).body.results[0].item.id;
 
     const bad = await owner.get(`/api/teams/${theirs.team.id}/art/${artId}/outline?width=banana&dpi=5`);
     expect(bad.status).toBe(400);
@@ -114,7 +114,7 @@ describe('GET /api/teams/:teamId/art/:artId/outline', () => {
     const { team, users } = await makeTeamWithRoles(db);
     const member = new Client(sheetsmith.app);
     await member.signIn(users.member.email);
-    const artId = (await upload(member, team.id, await svgArt(2000, 2000, '<circle cx="1000" cy="1000" r="900" fill="#7b241c"/>'))).body.item.id;
+    const artId = (await upload(member, team.id, await svgArt(2000, 2000, '<circle cx="1000" cy="1000" r="900" fill="#7b241c"/>'))).body.results[0].item.id;
     const finished: number[] = [];
     const jobs = Array.from({ length: 10 }, (_, i) =>
       member.get(`/api/teams/${team.id}/art/${artId}/outline?width=${2 + i * 0.1}in`).then((res) => {

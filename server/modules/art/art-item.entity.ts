@@ -1,4 +1,5 @@
 import { Column, CreateDateColumn, Entity, Index, PrimaryGeneratedColumn, UpdateDateColumn } from 'typeorm';
+import { LicenceColumns } from '../collections/licence.columns';
 
 /** One piece of clip art in a team's library. The bytes live in storage under `storageKey`. */
 @Entity({ name: 'art_items' })
@@ -10,6 +11,9 @@ export class ArtItem {
   @Column({ name: 'team_id', type: 'bigint', unsigned: true })
   teamId!: string;
 
+  @Column({ name: 'collection_id', type: 'bigint', unsigned: true, nullable: true })
+  collectionId!: string | null;
+
   @Column({ type: 'varchar', length: 200 })
   name!: string;
 
@@ -18,6 +22,9 @@ export class ArtItem {
 
   @Column({ name: 'storage_key', type: 'char', length: 64 })
   storageKey!: string;
+
+  @Column({ name: 'thumbnail_key', type: 'char', length: 64, nullable: true })
+  thumbnailKey!: string | null;
 
   @Column({ type: 'varchar', length: 10 })
   format!: string;
@@ -33,6 +40,20 @@ export class ArtItem {
 
   @Column({ name: 'has_transparency', type: 'boolean' })
   hasTransparency!: boolean;
+
+  /** How the outline engine finds the art when the file has no transparency. */
+  @Column({ name: 'background_mode', type: 'enum', enum: ['auto', 'keep', 'colour'], default: 'auto' })
+  backgroundMode!: 'auto' | 'keep' | 'colour';
+
+  @Column({ name: 'background_colour', type: 'char', length: 7, nullable: true })
+  backgroundColour!: string | null;
+
+  @Column({ name: 'background_tolerance', type: 'smallint', unsigned: true, default: 32 })
+  backgroundTolerance!: number;
+
+  /** The item's own licence; empty fields fall back to its collection's. */
+  @Column(() => LicenceColumns, { prefix: false })
+  licence!: LicenceColumns;
 
   @Column({ name: 'uploaded_by', type: 'bigint', unsigned: true })
   uploadedBy!: string;

@@ -1,55 +1,78 @@
 import { Router } from 'express';
+import type { Request } from 'express';
 import multer from 'multer';
 import type { DataSource } from 'typeorm';
-import { z } from 'zod';
-import { idSchema, teamParamsSchema } from '../../../shared/schemas/team';
-import { AppError } from '../../lib/errors';
+import { artListQuerySchema, artParamsSchema, artUpdateSchema, bulkActionSchema, uploadFieldsSchema } from '../../../shared/schemas/library';
+import { teamParamsSchema } from '../../../shared/schemas/team';
+import { AppError, notFound } from '../../lib/errors';
 import { requirePermission, teamScope } from '../../middleware/auth';
 import { route } from '../../middleware/validate';
 import type { ArtService } from './art.service';
-import { artView } from './art.service';
+import { searchArt } from './art-search';
 
-const artParams = z.object({ teamId: idSchema, artId: idSchema });
+const actorOf = (req: Request) => ({ userId: req.user!.id, teamId: req.membership!.teamId, role: req.membership!.role });
 
 export function artRouter({ dataSource, art, maxBytes }: { dataSource: DataSource; art: ArtService; maxBytes: number }): Router {
   const router = Router();
   const scoped = teamScope(dataSource);
-  const upload = multer({ storage: multer.memoryStorage(), limits: { fileSize: maxBytes, files: 1, fields: 10 } });
+  const upload = multer({ storage: multer.memoryStorage(), limits: { fileSize: maxBytes, files: 1, fields: 20 } });
+  const proofUpload = multer({ storage: multer.memoryStorage(), limits: { fileSize: 10 * 1024 * 1024, files: 1 } });
+  const view = requirePermission('team.view');
+  const contribute = requirePermission('library.contribute');
 
-  router.get(
-    '/teams/:teamId/art',
-    scoped,
-    requirePermission('team.view'),
-    route({ params: teamParamsSchema }, async (_input, req) => ({ items: (await art.list(req.membership!.teamId)).map(artView) })),
-  );
+  router.get('/teams/:teamId/art', scoped, view, route({ params: teamParamsSchema, query: artListQuerySchema }, ({ query }, req) => searchArt(dataSource, req.membership!.teamId, query)));
 
+  // One file per request (an image or a zip of a pack), so the client can show progress per file.
   router.post(
     '/teams/:teamId/art',
     scoped,
-    requirePermission('library.contribute'),
+    contribute,
     upload.single('file'),
-    route({ params: teamParamsSchema }, async (_input, req, res) => {
-      if (!req.file) throw new AppError(400, 'validation_failed', 'Attach an image in the "file" field.', { file: 'Choose an image to upload' });
-      const { item, duplicate } = await art.add(req.membership!.teamId, req.user!.id, req.file);
-      res.status(duplicate ? 200 : 201);
-      return { item: artView(item), duplicate };
+    route({ params: teamParamsSchema, body: uploadFieldsSchema }, async ({ body }, req, res) => {
+      if (!req.file) throw new AppError(400, 'validation_failed', 'Attach an image or a zip in the "file" field.', { file: 'Choose a file to upload' });
+      const results = await art.upload(actorOf(req), req.file, body);
+      res.status(results.some((r) => r.status === 'stored') ? 201 : 200);
+      return { results };
     }),
   );
 
-  router.get(
+  router.post('/teams/:teamId/art/bulk', scoped, contribute, route({ params: teamParamsSchema, body: bulkActionSchema }, ({ body }, req) => art.bulk(actorOf(req), body)));
+
+  router.get('/teams/:teamId/art/:artId', scoped, view, route({ params: artParamsSchema }, ({ params }, req) => art.view(req.membership!.teamId, params.artId)));
+
+  router.patch('/teams/:teamId/art/:artId', scoped, contribute, route({ params: artParamsSchema, body: artUpdateSchema }, ({ params, body }, req) => art.update(actorOf(req), params.artId, body)));
+
+  router.delete(
     '/teams/:teamId/art/:artId',
     scoped,
-    requirePermission('team.view'),
-    route({ params: artParams }, async ({ params }, req) => artView(await art.get(req.membership!.teamId, params.artId))),
+    contribute,
+    route({ params: artParamsSchema }, async ({ params }, req, res) => {
+      await art.remove(actorOf(req), [await art.find(req.membership!.teamId, params.artId)]);
+      res.status(204).end();
+    }),
   );
 
-  router.get(
-    '/teams/:teamId/art/:artId/file',
+  const sendStored = (kind: 'file' | 'thumbnail' | 'licence-proof') =>
+    route({ params: artParamsSchema }, async ({ params }, req, res) => {
+      const item = await art.find(req.membership!.teamId, params.artId);
+      const key = kind === 'file' ? item.storageKey : kind === 'thumbnail' ? item.thumbnailKey : item.licence.proofKey;
+      if (!key) throw notFound(kind === 'thumbnail' ? 'That thumbnail' : 'That licence proof');
+      if (kind === 'licence-proof') res.attachment(item.licence.proofName ?? 'licence-proof');
+      else res.type(kind === 'file' ? item.format : 'webp');
+      res.set('Cache-Control', 'private, max-age=86400').send(await art.bytes(key));
+    });
+  router.get('/teams/:teamId/art/:artId/file', scoped, view, sendStored('file'));
+  router.get('/teams/:teamId/art/:artId/thumbnail', scoped, view, sendStored('thumbnail'));
+  router.get('/teams/:teamId/art/:artId/licence-proof', scoped, view, sendStored('licence-proof'));
+
+  router.post(
+    '/teams/:teamId/art/:artId/licence-proof',
     scoped,
-    requirePermission('team.view'),
-    route({ params: artParams }, async ({ params }, req, res) => {
-      const item = await art.get(req.membership!.teamId, params.artId);
-      res.type(item.format).set('Cache-Control', 'private, max-age=31536000, immutable').send(await art.bytes(item));
+    requirePermission('library.manage'),
+    proofUpload.single('file'),
+    route({ params: artParamsSchema }, ({ params }, req) => {
+      if (!req.file) throw new AppError(400, 'validation_failed', 'Attach the proof file.', { file: 'Choose a file' });
+      return art.attachProof(actorOf(req), params.artId, req.file);
     }),
   );
 

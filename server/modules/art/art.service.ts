@@ -2,13 +2,23 @@ import { createHash } from 'node:crypto';
 import path from 'node:path';
 import sharp from 'sharp';
 import type { Metadata } from 'sharp';
-import type { DataSource } from 'typeorm';
-import { IsNull } from 'typeorm';
-import { AppError, notFound } from '../../lib/errors';
+import type { DataSource, EntityManager } from 'typeorm';
+import { In, IsNull } from 'typeorm';
+import type { Role } from '../../../shared/permissions';
+import { can } from '../../../shared/permissions';
+import type { ArtUpdateInput, ArtView, BulkAction, UploadResult } from '../../../shared/schemas/library';
+import { suggestKeywords } from '../../../shared/search';
+import { AppError, forbidden, notFound } from '../../lib/errors';
 import type { Storage } from '../../storage/storage';
+import { Collection } from '../collections/collection.entity';
 import { ArtItem } from './art-item.entity';
+import { artViews } from './art-view';
+import { addKeywords, refreshTerms, removeKeywords } from './terms';
+import type { PackLimits } from './zip-pack';
+import { DEFAULT_PACK_LIMITS, readPack } from './zip-pack';
 
 const ACCEPTED = new Set(['png', 'jpeg', 'webp']);
+export type Actor = { userId: string; teamId: string; role: Role };
 
 /** Reads the real type from the bytes (never the file name) and refuses what the engine cannot use. */
 export async function sniffArt(data: Buffer, maxPixels: number) {
@@ -18,88 +28,231 @@ export async function sniffArt(data: Buffer, maxPixels: number) {
   } catch {
     throw new AppError(415, 'unsupported_type', 'This file is not an image Sheetsmith can read. Use PNG, JPEG or WebP.');
   }
-  if (meta.format === 'svg') {
-    throw new AppError(415, 'unsupported_type', 'SVG files are not supported yet. Export the art as a PNG with transparency.');
-  }
+  if (meta.format === 'svg') throw new AppError(415, 'unsupported_type', 'SVG files are not supported yet. Export the art as a PNG with transparency.');
   if (!meta.format || !ACCEPTED.has(meta.format)) {
     throw new AppError(415, 'unsupported_type', `${String(meta.format ?? 'This').toUpperCase()} files are not supported. Use PNG, JPEG or WebP.`);
   }
   const width = meta.autoOrient?.width ?? meta.width ?? 0, height = meta.autoOrient?.height ?? meta.height ?? 0;
   if (width * height > maxPixels) {
-    throw new AppError(422, 'image_too_large', `The image is ${width} × ${height} px; the limit is ${(maxPixels / 1e6).toFixed(0)} megapixels.`);
+    throw new AppError(422, 'image_too_large', `The image is ${width} × ${height} px; the limit is ${(maxPixels / 1e6).toFixed(0)} megapixels. Scale it down first.`);
   }
-  // Transparency needs a pixel scan; the alpha channel's minimum tells it in one pass.
-  let hasTransparency = false;
-  if (meta.hasAlpha) {
-    try {
-      const stats = await sharp(data, { limitInputPixels: maxPixels }).stats();
-      hasTransparency = (stats.channels[stats.channels.length - 1]?.min ?? 255) < 255;
-    } catch {
-      throw new AppError(422, 'image_corrupt', 'The image data is damaged or cut short. Export the file again and retry.');
-    }
+  try {
+    // Decoding the whole image proves it is not damaged and tells whether any pixel is see-through.
+    const stats = await sharp(data, { limitInputPixels: maxPixels, failOn: 'error' }).stats();
+    const hasTransparency = meta.hasAlpha === true && (stats.channels[stats.channels.length - 1]?.min ?? 255) < 255;
+    const thumbnail = await sharp(data, { limitInputPixels: maxPixels }).rotate().resize(320, 320, { fit: 'inside', withoutEnlargement: true }).webp({ quality: 82 }).toBuffer();
+    return { format: meta.format, width, height, hasTransparency, thumbnail };
+  } catch {
+    throw new AppError(422, 'image_corrupt', 'The image data is damaged or cut short. Export the file again and retry.');
   }
-  return { format: meta.format, width, height, hasTransparency };
 }
+
+const isZip = (data: Buffer) => data.length >= 4 && data[0] === 0x50 && data[1] === 0x4b && (data[2] === 3 || data[2] === 5) && (data[3] === 4 || data[3] === 6);
+const nameFrom = (file: string) => path.basename(file).replace(/\.[^.]+$/, '').replace(/[_]+/g, ' ').trim().slice(0, 200) || 'Untitled art';
 
 export class ArtService {
   constructor(
     private readonly dataSource: DataSource,
     private readonly storage: Storage,
     private readonly maxPixels: number,
+    private readonly packLimits: PackLimits = DEFAULT_PACK_LIMITS,
   ) {}
 
-  /** Stores one image; the same bytes already in the team's library are not stored twice. */
-  async add(teamId: string, userId: string, file: { originalname: string; buffer: Buffer }) {
-    const info = await sniffArt(file.buffer, this.maxPixels);
-    const sha256 = createHash('sha256').update(file.buffer).digest('hex');
-    const repo = this.dataSource.getRepository(ArtItem);
-    const existing = await repo.findOneBy({ teamId, sha256 });
-    if (existing && !existing.deletedAt) return { item: existing, duplicate: true };
-    const { key } = await this.storage.put(file.buffer);
-    if (existing) {
-      await repo.update({ id: existing.id }, { deletedAt: null });
-      return { item: { ...existing, deletedAt: null }, duplicate: false };
+  private async writableCollection(actor: Actor, collectionId: string | null | undefined, manager: EntityManager = this.dataSource.manager) {
+    if (!collectionId) return null;
+    const collection = await manager.findOneBy(Collection, { id: collectionId, teamId: actor.teamId });
+    if (!collection) throw notFound('That collection');
+    if (collection.archivedAt) throw new AppError(409, 'conflict', `"${collection.name}" is archived. Restore it before adding art.`);
+    if (!can(actor.role, 'library.manage') && !collection.membersCanAdd) throw forbidden(`Only owners and admins add art to "${collection.name}".`);
+    return collection;
+  }
+
+  /**
+   * Takes one upload: an image, or a zip of a whole pack. Everything is checked before anything is
+   * stored; rows go in one transaction, and files written for a failed batch are removed again.
+   */
+  async upload(actor: Actor, file: { originalname: string; buffer: Buffer }, fields: { keywords: string[]; collectionId?: string }): Promise<UploadResult[]> {
+    const collection = await this.writableCollection(actor, fields.collectionId);
+    const zipped = isZip(file.buffer);
+    const entries = zipped ? await readPack(file.buffer, this.packLimits) : { images: [{ path: file.originalname, folders: [], data: file.buffer }], skipped: [] };
+    if (!zipped) await sniffArt(file.buffer, this.maxPixels); // a single bad file is refused outright
+
+    const results: UploadResult[] = entries.skipped.map((s) => ({ file: s.path, status: 'skipped', reason: s.reason }));
+    const fresh: Array<{ path: string; folders: string[]; data: Buffer; sha256: string; info: Awaited<ReturnType<typeof sniffArt>> }> = [];
+    const seen = new Map<string, string>();
+    for (const entry of entries.images) {
+      const sha256 = createHash('sha256').update(entry.data).digest('hex');
+      if (seen.has(sha256)) {
+        results.push({ file: entry.path, status: 'duplicate', reason: `Same image as ${seen.get(sha256)} in this upload.` });
+        continue;
+      }
+      seen.set(sha256, entry.path);
+      try {
+        fresh.push({ ...entry, sha256, info: await sniffArt(entry.data, this.maxPixels) });
+      } catch (error) {
+        results.push({ file: entry.path, status: 'rejected', reason: (error as Error).message });
+      }
     }
-    const name = path.basename(file.originalname).replace(/\.[^.]+$/, '').slice(0, 200) || 'Untitled art';
-    const item = await repo.save({
-      teamId,
-      name,
-      sha256,
-      storageKey: key,
-      format: info.format,
-      sizeBytes: file.buffer.length,
-      widthPx: info.width,
-      heightPx: info.height,
-      hasTransparency: info.hasTransparency,
-      uploadedBy: userId,
-      deletedAt: null,
-    });
-    return { item, duplicate: false };
+    const existing = fresh.length
+      ? await this.dataSource.getRepository(ArtItem).findBy({ teamId: actor.teamId, sha256: In(fresh.map((f) => f.sha256)) })
+      : [];
+    const bySha = new Map(existing.map((e) => [e.sha256, e]));
+
+    const written: string[] = [];
+    const put = async (data: Buffer) => {
+      const key = createHash('sha256').update(data).digest('hex');
+      if (!(await this.storage.exists(key))) written.push(key);
+      return (await this.storage.put(data)).key;
+    };
+    try {
+      const stored = await this.dataSource.transaction(async (manager) => {
+        const out: Array<{ path: string; id: string; status: 'stored' | 'duplicate'; suggested: string[] }> = [];
+        for (const entry of fresh) {
+          const suggested = zipped ? suggestKeywords(entry.path) : suggestKeywords(file.originalname);
+          const old = bySha.get(entry.sha256);
+          if (old && !old.deletedAt) {
+            out.push({ path: entry.path, id: old.id, status: 'duplicate', suggested });
+            continue;
+          }
+          const storageKey = await put(entry.data);
+          const thumbnailKey = await put(entry.info.thumbnail);
+          let id: string;
+          if (old) {
+            await manager.update(ArtItem, { id: old.id }, { deletedAt: null, storageKey, thumbnailKey });
+            id = old.id;
+          } else {
+            const item = await manager.save(
+              manager.create(ArtItem, {
+                teamId: actor.teamId,
+                collectionId: collection?.id ?? null,
+                name: nameFrom(entry.path),
+                sha256: entry.sha256,
+                storageKey,
+                thumbnailKey,
+                format: entry.info.format,
+                sizeBytes: entry.data.length,
+                widthPx: entry.info.width,
+                heightPx: entry.info.height,
+                hasTransparency: entry.info.hasTransparency,
+                uploadedBy: actor.userId,
+                deletedAt: null,
+              }),
+            );
+            id = item.id;
+          }
+          // Folder names inside a pack become keywords, with the batch's own keywords.
+          await addKeywords(manager, id, [...fields.keywords, ...(zipped ? entry.folders.flatMap((f) => suggestKeywords(`${f}/x`)) : [])]);
+          out.push({ path: entry.path, id, status: 'stored', suggested });
+        }
+        await refreshTerms(manager, out.filter((o) => o.status === 'stored').map((o) => o.id));
+        return out;
+      });
+      const items = await this.dataSource.getRepository(ArtItem).findBy({ id: In(stored.map((s) => s.id)) });
+      const views = new Map((await artViews(this.dataSource.manager, items)).map((v) => [v.id, v]));
+      for (const s of stored) results.push({ file: s.path, status: s.status, item: views.get(s.id), suggestedKeywords: s.suggested, reason: s.status === 'duplicate' ? 'Already in the library.' : undefined });
+      return results;
+    } catch (error) {
+      await Promise.all(written.map((key) => this.storage.delete(key).catch(() => undefined)));
+      throw error;
+    }
   }
 
-  list(teamId: string) {
-    return this.dataSource.getRepository(ArtItem).find({ where: { teamId, deletedAt: IsNull() }, order: { createdAt: 'DESC' }, take: 200 });
-  }
-
-  async get(teamId: string, artId: string): Promise<ArtItem> {
+  async find(teamId: string, artId: string): Promise<ArtItem> {
     const item = await this.dataSource.getRepository(ArtItem).findOneBy({ id: artId, teamId, deletedAt: IsNull() });
     if (!item) throw notFound('That art');
     return item;
   }
 
-  bytes(item: ArtItem): Promise<Buffer> {
-    return this.storage.get(item.storageKey);
+  async view(teamId: string, artId: string): Promise<ArtView> {
+    const [view] = await artViews(this.dataSource.manager, [await this.find(teamId, artId)]);
+    return view;
+  }
+
+  bytes(key: string): Promise<Buffer> {
+    return this.storage.get(key);
+  }
+
+  async update(actor: Actor, artId: string, input: ArtUpdateInput): Promise<ArtView> {
+    const item = await this.find(actor.teamId, artId);
+    const manage = can(actor.role, 'library.manage');
+    if (input.licence !== undefined && !manage) throw forbidden('Only owners and admins change licences.');
+    await this.dataSource.transaction(async (manager) => {
+      const changes: Partial<ArtItem> = {};
+      if (input.name !== undefined) changes.name = input.name;
+      if (input.collectionId !== undefined) {
+        await this.checkMove(actor, item, input.collectionId, manager);
+        changes.collectionId = input.collectionId;
+      }
+      if (input.background) {
+        changes.backgroundMode = input.background.mode;
+        changes.backgroundColour = input.background.mode === 'colour' ? input.background.colour!.toLowerCase() : null;
+        changes.backgroundTolerance = input.background.tolerance;
+      }
+      if (input.licence !== undefined) {
+        const l = input.licence;
+        Object.assign(changes, {
+          licence: { kind: l?.kind ?? null, source: l?.source || null, notes: l?.notes || null, unitLimit: l?.unitLimit ?? null, proofKey: l ? item.licence.proofKey : null, proofName: l ? item.licence.proofName : null },
+        });
+      }
+      if (Object.keys(changes).length) await manager.update(ArtItem, { id: item.id }, changes);
+      if (input.keywords !== undefined) {
+        await manager.query('DELETE FROM art_keywords WHERE art_id = ?', [item.id]);
+        await addKeywords(manager, item.id, input.keywords);
+      }
+      await refreshTerms(manager, [item.id]);
+    });
+    return this.view(actor.teamId, artId);
+  }
+
+  /** Owners and admins move anything; members only between collections open to members. */
+  private async checkMove(actor: Actor, item: ArtItem, target: string | null, manager: EntityManager) {
+    if (can(actor.role, 'library.manage')) {
+      await this.writableCollection(actor, target, manager);
+      return;
+    }
+    if (item.collectionId) {
+      const from = await manager.findOneBy(Collection, { id: item.collectionId });
+      if (from && !from.membersCanAdd) throw forbidden(`Only owners and admins move art out of "${from.name}".`);
+    }
+    await this.writableCollection(actor, target, manager);
+  }
+
+  async bulk(actor: Actor, action: BulkAction): Promise<{ changed: number }> {
+    const items = await this.dataSource.getRepository(ArtItem).findBy({ id: In(action.ids), teamId: actor.teamId, deletedAt: IsNull() });
+    if (items.length !== new Set(action.ids).size) throw notFound('Some of that art');
+    if (action.action === 'delete') return this.remove(actor, items);
+    await this.dataSource.transaction(async (manager) => {
+      for (const item of items) {
+        if (action.action === 'addKeyword') await addKeywords(manager, item.id, [action.keyword]);
+        else if (action.action === 'removeKeyword') await removeKeywords(manager, item.id, [action.keyword]);
+        else {
+          await this.checkMove(actor, item, action.collectionId, manager);
+          await manager.update(ArtItem, { id: item.id }, { collectionId: action.collectionId });
+        }
+      }
+      await refreshTerms(manager, items.map((i) => i.id));
+    });
+    return { changed: items.length };
+  }
+
+  /**
+   * Soft delete: the row and the file stay, so sheets that use the art stay printable; the art
+   * leaves the library's lists and search. Owners and admins delete anything, members their own uploads.
+   */
+  async remove(actor: Actor, items: ArtItem[]): Promise<{ changed: number }> {
+    if (!can(actor.role, 'library.manage') && items.some((i) => i.uploadedBy !== actor.userId)) {
+      throw forbidden('Members delete only art they uploaded. Ask an owner or admin.');
+    }
+    await this.dataSource.getRepository(ArtItem).update({ id: In(items.map((i) => i.id)) }, { deletedAt: new Date() });
+    return { changed: items.length };
+  }
+
+  async attachProof(actor: Actor, artId: string, file: { originalname: string; buffer: Buffer }): Promise<ArtView> {
+    if (!can(actor.role, 'library.manage')) throw forbidden('Only owners and admins change licences.');
+    const item = await this.find(actor.teamId, artId);
+    if (!item.licence.kind) throw new AppError(409, 'conflict', 'Set the licence kind before attaching its proof.');
+    const { key } = await this.storage.put(file.buffer);
+    await this.dataSource.getRepository(ArtItem).update({ id: item.id }, { licence: { ...item.licence, proofKey: key, proofName: path.basename(file.originalname).slice(0, 200) } });
+    return this.view(actor.teamId, artId);
   }
 }
-
-export const artView = (item: ArtItem) => ({
-  id: item.id,
-  name: item.name,
-  format: item.format,
-  sizeBytes: item.sizeBytes,
-  widthPx: item.widthPx,
-  heightPx: item.heightPx,
-  hasTransparency: item.hasTransparency,
-  sha256: item.sha256,
-  createdAt: item.createdAt.toISOString(),
-});

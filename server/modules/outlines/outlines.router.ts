@@ -29,8 +29,15 @@ export function outlinesRouter({ dataSource, art, outlines }: { dataSource: Data
     requirePermission('team.view'),
     route({ params: artParams, query: outlineQuerySchema }, async ({ params, query }, req) => {
       const teamId = req.membership!.teamId;
-      const item = await art.get(teamId, params.artId);
-      const { key, cached, outline } = await outlines.forArt(item, query);
+      const item = await art.find(teamId, params.artId);
+      // Without a background in the request, the item's saved background setting applies.
+      const options =
+        req.query.background === undefined && item.backgroundMode !== 'auto'
+          ? { ...query, background: item.backgroundMode === 'keep' ? ('keep' as const) : { colour: item.backgroundColour!, tolerance: item.backgroundTolerance } }
+          : req.query.background === undefined
+            ? { ...query, backgroundTolerance: item.backgroundTolerance }
+            : query;
+      const { key, cached, outline } = await outlines.forArt(item, options);
       return {
         key,
         cached,
