@@ -1,0 +1,295 @@
+import { zipSync } from 'fflate';
+import JSZip from 'jszip';
+import sharp from 'sharp';
+import { afterAll, beforeAll, describe, expect, it } from 'vitest';
+import type { DataSource } from 'typeorm';
+import { OutlinePool } from '../../server/engine/outline/pool';
+import { ArtItem } from '../../server/modules/art/art-item.entity';
+import { LocalDiskStorage } from '../../server/storage/local-disk';
+import { env } from '../../server/config/env';
+import { svgArt } from '../helpers/art';
+import { Client, makeTeamWithRoles, openDatabase, testApp } from '../helpers/app';
+import { uploadFile, storedFileCount } from '../helpers/library';
+import { pngHeaderClaiming } from '../helpers/png';
+
+let db: DataSource;
+let pool: OutlinePool;
+let sheetsmith: ReturnType<typeof testApp>;
+
+beforeAll(async () => {
+  db = await openDatabase();
+  pool = new OutlinePool(undefined, 1);
+  sheetsmith = testApp(db, {}, { outlinePool: pool, packLimits: { maxEntries: 50, maxTotalBytes: 3 * 1024 * 1024, maxEntryBytes: 20 * 1024 * 1024, maxRatio: 200 } });
+});
+afterAll(async () => {
+  await sheetsmith.close();
+  await pool.close();
+  await db.destroy();
+});
+
+const shape = (i: number) => svgArt(160, 160, `<circle cx="80" cy="80" r="${30 + i}" fill="#${(0x224466 + i * 0x101010).toString(16).slice(-6)}"/>`);
+
+async function signedIn(email: string) {
+  const client = new Client(sheetsmith.app);
+  await client.signIn(email);
+  return client;
+}
+
+async function setup() {
+  const { team, users } = await makeTeamWithRoles(db);
+  const owner = await signedIn(users.owner.email);
+  const admin = await signedIn(users.admin.email);
+  const member = await signedIn(users.member.email);
+  const viewer = await signedIn(users.viewer.email);
+  return { team, users, owner, admin, member, viewer };
+}
+
+describe('collections: who may do what', () => {
+  it('owners and admins create, rename, archive and reorder; members and viewers may not', async () => {
+    const { team, owner, admin, member, viewer } = await setup();
+    const a = await owner.post(`/api/teams/${team.id}/collections`, { name: 'Garden Party' });
+    expect(a.status).toBe(201);
+    const b = await admin.post(`/api/teams/${team.id}/collections`, { name: 'Deep Space', membersCanAdd: false });
+    expect(b.status).toBe(201);
+    expect((await member.post(`/api/teams/${team.id}/collections`, { name: 'Mine' })).status).toBe(403);
+    expect((await viewer.post(`/api/teams/${team.id}/collections`, { name: 'Mine' })).status).toBe(403);
+    expect((await admin.post(`/api/teams/${team.id}/collections`, { name: 'Garden Party' })).status).toBe(409);
+
+    expect((await admin.send('patch', `/api/teams/${team.id}/collections/${a.body.id}`, { name: 'Garden Party 2026' })).body.name).toBe('Garden Party 2026');
+    expect((await member.send('patch', `/api/teams/${team.id}/collections/${a.body.id}`, { name: 'x' })).status).toBe(403);
+    const order = await owner.send('put', `/api/teams/${team.id}/collections/order`, { ids: [b.body.id, a.body.id] });
+    expect(order.body.collections.map((c: { id: string }) => c.id)).toEqual([b.body.id, a.body.id]);
+    expect((await member.send('put', `/api/teams/${team.id}/collections/order`, { ids: [a.body.id, b.body.id] })).status).toBe(403);
+    expect((await owner.send('put', `/api/teams/${team.id}/collections/order`, { ids: [a.body.id] })).status).toBe(400);
+    const archived = await admin.send('patch', `/api/teams/${team.id}/collections/${b.body.id}`, { archived: true });
+    expect(archived.body.archived).toBe(true);
+    const listed = await viewer.get(`/api/teams/${team.id}/collections`);
+    expect(listed.status).toBe(200);
+    expect(listed.body.collections).toHaveLength(2);
+  });
+
+  it('members add art to collections open to them, not to closed or archived ones; viewers upload nothing', async () => {
+    const { team, owner, member, viewer } = await setup();
+    const open = (await owner.post(`/api/teams/${team.id}/collections`, { name: 'Open shelf' })).body;
+    const closed = (await owner.post(`/api/teams/${team.id}/collections`, { name: 'Curated', membersCanAdd: false })).body;
+    expect((await uploadFile(member, team.id, await shape(1), 'a.png', { collectionId: open.id })).status).toBe(201);
+    expect((await uploadFile(member, team.id, await shape(2), 'b.png', { collectionId: closed.id })).status).toBe(403);
+    expect((await uploadFile(owner, team.id, await shape(2), 'b.png', { collectionId: closed.id })).status).toBe(201);
+    expect((await uploadFile(viewer, team.id, await shape(3), 'c.png')).status).toBe(403);
+    await owner.send('patch', `/api/teams/${team.id}/collections/${open.id}`, { archived: true });
+    expect((await uploadFile(owner, team.id, await shape(4), 'd.png', { collectionId: open.id })).status).toBe(409);
+  });
+
+  it('moving art: admins move anything; members only between collections open to members', async () => {
+    const { team, owner, admin, member } = await setup();
+    const open = (await owner.post(`/api/teams/${team.id}/collections`, { name: 'Open' })).body;
+    const open2 = (await owner.post(`/api/teams/${team.id}/collections`, { name: 'Open too' })).body;
+    const closed = (await owner.post(`/api/teams/${team.id}/collections`, { name: 'Closed', membersCanAdd: false })).body;
+    const mine = (await uploadFile(member, team.id, await shape(5), 'mine.png', { collectionId: open.id })).body.results[0].item;
+    const curated = (await uploadFile(admin, team.id, await shape(6), 'cur.png', { collectionId: closed.id })).body.results[0].item;
+
+    expect((await member.send('patch', `/api/teams/${team.id}/art/${mine.id}`, { collectionId: open2.id })).body.collection.name).toBe('Open too');
+    expect((await member.send('patch', `/api/teams/${team.id}/art/${mine.id}`, { collectionId: closed.id })).status).toBe(403);
+    expect((await member.send('patch', `/api/teams/${team.id}/art/${curated.id}`, { collectionId: open.id })).status).toBe(403);
+    const bulk = await admin.post(`/api/teams/${team.id}/art/bulk`, { action: 'move', ids: [mine.id, curated.id], collectionId: open.id });
+    expect(bulk.body).toEqual({ changed: 2 });
+    const inOpen = await member.get(`/api/teams/${team.id}/art?collectionId=${open.id}`);
+    expect(inOpen.body.total).toBe(2);
+  });
+
+  it('licences: set by owners and admins, inherited from the collection, with a proof file', async () => {
+    const { team, admin, member, viewer } = await setup();
+    const pack = (await admin.post(`/api/teams/${team.id}/collections`, { name: 'Bought bundle', licence: { kind: 'commercial_limited', source: 'Hollyhock Bundles', unitLimit: 500 } })).body;
+    expect(pack.licence).toMatchObject({ kind: 'commercial_limited', unitLimit: 500 });
+    const item = (await uploadFile(member, team.id, await shape(7), 'owl.png', { collectionId: pack.id })).body.results[0].item;
+    expect(item.licence).toMatchObject({ kind: 'commercial_limited', source: 'Hollyhock Bundles', inheritedFrom: { collectionId: pack.id } });
+
+    expect((await member.send('patch', `/api/teams/${team.id}/art/${item.id}`, { licence: { kind: 'commercial' } })).status).toBe(403);
+    const bad = await admin.send('patch', `/api/teams/${team.id}/art/${item.id}`, { licence: { kind: 'commercial_limited' } });
+    expect(bad.status).toBe(400);
+    expect(bad.body.error.fields['licence.unitLimit']).toMatch(/number of units/);
+    const own = await admin.send('patch', `/api/teams/${team.id}/art/${item.id}`, { licence: { kind: 'personal', source: 'A friend' } });
+    expect(own.body.licence).toMatchObject({ kind: 'personal', inheritedFrom: null });
+
+    await admin.refreshCsrf();
+    const proof = await admin.agent.post(`/api/teams/${team.id}/art/${item.id}/licence-proof`).set('x-csrf-token', admin.csrf).attach('file', Buffer.from('Receipt #4411, personal use'), 'receipt.txt');
+    expect(proof.status).toBe(200);
+    expect(proof.body.licence.proofName).toBe('receipt.txt');
+    const download = await viewer.get(proof.body.licence.proofUrl);
+    expect(download.status).toBe(200);
+    expect(String(download.text ?? download.body)).toContain('Receipt #4411');
+    const filtered = await viewer.get(`/api/teams/${team.id}/art?licence=personal`);
+    expect(filtered.body.items.map((i: { id: string }) => i.id)).toEqual([item.id]);
+  });
+});
+
+describe('search', () => {
+  it('finds art by keyword, plural or singular, hyphenated or joined forms, case, and collection name', async () => {
+    const { team, owner, viewer } = await setup();
+    const space = (await owner.post(`/api/teams/${team.id}/collections`, { name: 'Cosmic Doodles' })).body;
+    await uploadFile(owner, team.id, await shape(8), 'Sun-Flower_01.png', { keywords: 'garden, Yellow Petals' });
+    await uploadFile(owner, team.id, await shape(9), 'strawberries.png', { keywords: 'fruit' });
+    await uploadFile(owner, team.id, await shape(10), 'rocket.png', { collectionId: space.id, keywords: 'ship' });
+    const names = async (q: string) => (await viewer.get(`/api/teams/${team.id}/art?q=${encodeURIComponent(q)}`)).body.items.map((i: { name: string }) => i.name).sort();
+
+    expect(await names('sunflower')).toEqual(['Sun-Flower 01']);
+    expect(await names('sun flower')).toEqual(['Sun-Flower 01']);
+    expect(await names('Sun-Flowers')).toEqual(['Sun-Flower 01']);
+    expect(await names('PETAL')).toEqual(['Sun-Flower 01']);
+    expect(await names('strawberry')).toEqual(['strawberries']);
+    expect(await names('fruits')).toEqual(['strawberries']);
+    expect(await names('cosmic')).toEqual(['rocket']);
+    expect(await names('doodle ships')).toEqual(['rocket']);
+    expect(await names('gard')).toEqual(['Sun-Flower 01']); // prefix
+    expect(await names('submarine')).toEqual([]);
+    expect((await names('')).length).toBe(3);
+  });
+
+  it('pages and sorts, and filters by transparency and uploader', async () => {
+    const { team, users, owner, member } = await setup();
+    for (const [i, name] of ['cherry', 'apple', 'banana'].entries()) await uploadFile(owner, team.id, await shape(20 + i), `${name}.png`);
+    const opaque = await sharp({ create: { width: 64, height: 64, channels: 3, background: '#abcdef' } }).jpeg().toBuffer();
+    await uploadFile(member, team.id, opaque, 'sky.jpg');
+    const page1 = await owner.get(`/api/teams/${team.id}/art?sort=name&dir=asc&pageSize=2&page=1`);
+    const page2 = await owner.get(`/api/teams/${team.id}/art?sort=name&dir=asc&pageSize=2&page=2`);
+    expect(page1.body.total).toBe(4);
+    expect([...page1.body.items, ...page2.body.items].map((i: { name: string }) => i.name)).toEqual(['apple', 'banana', 'cherry', 'sky']);
+    expect((await owner.get(`/api/teams/${team.id}/art?transparency=no`)).body.items.map((i: { name: string }) => i.name)).toEqual(['sky']);
+    expect((await owner.get(`/api/teams/${team.id}/art?uploadedBy=${users.member.id}`)).body.total).toBe(1);
+    const bad = await owner.get(`/api/teams/${team.id}/art?sort=colour&from=yesterday`);
+    expect(bad.status).toBe(400);
+    expect(Object.keys(bad.body.error.fields).sort()).toEqual(['query.from', 'query.sort']);
+  });
+});
+
+describe('keywords, bulk actions and deleting', () => {
+  it('adds and removes a keyword on many items at once', async () => {
+    const { team, member } = await setup();
+    const ids = [];
+    for (let i = 0; i < 3; i++) ids.push((await uploadFile(member, team.id, await shape(30 + i), `leaf-${i}.png`)).body.results[0].item.id);
+    await member.post(`/api/teams/${team.id}/art/bulk`, { action: 'addKeyword', ids, keyword: 'Autumn' });
+    expect((await member.get(`/api/teams/${team.id}/art?q=autumn`)).body.total).toBe(3);
+    await member.post(`/api/teams/${team.id}/art/bulk`, { action: 'removeKeyword', ids: ids.slice(0, 2), keyword: 'autumn' });
+    expect((await member.get(`/api/teams/${team.id}/art?q=autumn`)).body.total).toBe(1);
+    const item = await member.get(`/api/teams/${team.id}/art/${ids[2]}`);
+    expect(item.body.keywords).toEqual(['autumn']);
+    expect(item.body.largestPrint.at300.widthMm).toBeCloseTo((160 / 300) * 25.4, 6);
+    expect(item.body.largestPrint.at150.widthMm).toBeCloseTo((160 / 150) * 25.4, 6);
+  });
+
+  it('soft-deletes: members their own uploads only, admins any; the file stays for sheets that use it', async () => {
+    const { team, admin, member } = await setup();
+    const mine = (await uploadFile(member, team.id, await shape(40), 'mine.png')).body.results[0].item;
+    const theirs = (await uploadFile(admin, team.id, await shape(41), 'theirs.png')).body.results[0].item;
+    expect((await member.send('delete', `/api/teams/${team.id}/art/${theirs.id}`)).status).toBe(403);
+    expect((await member.send('delete', `/api/teams/${team.id}/art/${mine.id}`)).status).toBe(204);
+    expect((await member.get(`/api/teams/${team.id}/art/${mine.id}`)).status).toBe(404);
+    expect((await member.get(`/api/teams/${team.id}/art`)).body.items.map((i: { id: string }) => i.id)).toEqual([theirs.id]);
+    const row = await db.getRepository(ArtItem).findOneByOrFail({ id: mine.id });
+    expect(row.deletedAt).not.toBeNull();
+    expect(await new LocalDiskStorage(env.storageDir).exists(row.storageKey)).toBe(true);
+    expect((await admin.post(`/api/teams/${team.id}/art/bulk`, { action: 'delete', ids: [theirs.id] })).body).toEqual({ changed: 1 });
+    // Uploading the same bytes again brings the item back instead of storing it twice.
+    const back = await uploadFile(member, team.id, await shape(40), 'mine again.png');
+    expect(back.body.results[0]).toMatchObject({ status: 'stored', item: { id: mine.id } });
+  });
+});
+
+describe('cross-team access answers 404', () => {
+  it('for art, collections, bulk actions and files of another team', async () => {
+    const a = await setup();
+    const b = await setup();
+    const art = (await uploadFile(b.owner, b.team.id, await shape(50), 'secret.png')).body.results[0].item;
+    const col = (await b.owner.post(`/api/teams/${b.team.id}/collections`, { name: 'Private' })).body;
+    expect((await a.owner.get(`/api/teams/${b.team.id}/art`)).status).toBe(404);
+    expect((await a.owner.get(`/api/teams/${a.team.id}/art/${art.id}`)).status).toBe(404);
+    expect((await a.owner.get(`/api/teams/${a.team.id}/art/${art.id}/file`)).status).toBe(404);
+    expect((await a.owner.send('patch', `/api/teams/${a.team.id}/collections/${col.id}`, { name: 'Mine now' })).status).toBe(404);
+    expect((await a.owner.post(`/api/teams/${a.team.id}/art/bulk`, { action: 'delete', ids: [art.id] })).status).toBe(404);
+    expect((await uploadFile(a.owner, a.team.id, await shape(51), 'x.png', { collectionId: col.id })).status).toBe(404);
+    expect((await b.owner.get(`/api/teams/${b.team.id}/art/${art.id}`)).status).toBe(200);
+  });
+});
+
+describe('zip packs', () => {
+  it('unpacks images, skips and reports the rest, turns folders into keywords; a reference unzip sees the same entries', async () => {
+    const { team, member } = await setup();
+    const files: Record<string, Uint8Array> = {
+      'Garden_Pack/Tulips/red-tulip.png': await shape(60),
+      'Garden_Pack/Tulips/pink-tulip.png': await shape(61),
+      'Garden_Pack/bee.jpg': await sharp(await shape(62)).flatten({ background: '#ffffff' }).jpeg().toBuffer(),
+      'Garden_Pack/readme.txt': new TextEncoder().encode('Thanks for downloading!'),
+      'Garden_Pack/extras.zip': zipSync({ 'inner.png': await shape(63) }),
+      '__MACOSX/Garden_Pack/._bee.jpg': new Uint8Array([0, 5, 22, 7]),
+      'Garden_Pack/copy-of-red-tulip.png': await shape(60),
+    };
+    const zip = Buffer.from(zipSync(files));
+    // The reference: JSZip (an independent unzip package, test-only) lists the same file entries.
+    const reference = Object.values((await JSZip.loadAsync(zip)).files).filter((f) => !f.dir).map((f) => f.name).sort();
+    expect(reference).toEqual(Object.keys(files).sort());
+
+    const res = await uploadFile(member, team.id, zip, 'garden.zip', { keywords: 'spring' });
+    expect(res.status).toBe(201);
+    const byFile = Object.fromEntries(res.body.results.map((r: { file: string; status: string }) => [r.file, r.status]));
+    expect(Object.keys(byFile).sort()).toEqual(reference);
+    expect(byFile).toEqual({
+      'Garden_Pack/Tulips/red-tulip.png': 'stored',
+      'Garden_Pack/Tulips/pink-tulip.png': 'stored',
+      'Garden_Pack/bee.jpg': 'stored',
+      'Garden_Pack/readme.txt': 'skipped',
+      'Garden_Pack/extras.zip': 'skipped',
+      '__MACOSX/Garden_Pack/._bee.jpg': 'skipped',
+      'Garden_Pack/copy-of-red-tulip.png': 'duplicate',
+    });
+    const tulip = res.body.results.find((r: { file: string }) => r.file === 'Garden_Pack/Tulips/red-tulip.png').item;
+    expect(tulip.keywords).toEqual(expect.arrayContaining(['garden', 'spring', 'tulip']));
+    expect((await member.get(`/api/teams/${team.id}/art?q=tulips`)).body.total).toBe(2);
+    const again = await uploadFile(member, team.id, zip, 'garden.zip');
+    expect(again.body.results.filter((r: { status: string }) => r.status === 'stored')).toEqual([]);
+    expect(await db.getRepository(ArtItem).countBy({ teamId: team.id })).toBe(3);
+  });
+});
+
+describe('bad uploads: a clear message each, and nothing half-stored', () => {
+  const encrypt = (zip: Uint8Array) => {
+    // Set bit 0 (encrypted) of the general purpose flags in every local and central header
+    // (APPNOTE.TXT §4.3.7 and §4.3.12, flags at offsets 6 and 8).
+    const out = Buffer.from(zip);
+    for (let i = 0; i < out.length - 4; i++) {
+      const sig = out.readUInt32LE(i);
+      if (sig === 0x04034b50) out[i + 6] |= 1;
+      if (sig === 0x02014b50) out[i + 8] |= 1;
+    }
+    return out;
+  };
+  const noise = async (seed: number) => {
+    const raw = Buffer.alloc(700 * 700 * 4);
+    let s = seed;
+    for (let i = 0; i < raw.length; i++) raw[i] = (s = (s * 1103515245 + 12345) & 0x7fffffff) >> 16;
+    return sharp(raw, { raw: { width: 700, height: 700, channels: 4 } }).png({ compressionLevel: 0 }).toBuffer();
+  };
+
+  const cases: Array<[string, () => Promise<[Buffer, string]>, number, RegExp]> = [
+    ['a corrupt image', async () => [(await shape(70)).subarray(0, 200), 'broken.png'], 422, /damaged or cut short/],
+    ['a text file renamed to .png', async () => [Buffer.from('just words, honestly'), 'words.png'], 415, /not an image/],
+    ['an image over the pixel limit', async () => [pngHeaderClaiming(30000, 30000), 'huge.png'], 422, /30000 × 30000 px; the limit is 50 megapixels/],
+    ['a zip with ../ entries', async () => [Buffer.from(zipSync({ 'ok.png': await shape(71), '../escape.png': await shape(72) })), 'evil.zip'], 422, /outside its own folder/],
+    ['a zip bomb (compression ratio)', async () => [Buffer.from(zipSync({ 'good.png': await shape(73), 'bomb.png': new Uint8Array(12 * 1024 * 1024) }, { level: 9 })), 'bomb.zip'], 422, /looks like a zip bomb/],
+    ['a zip over the total size', async () => [Buffer.from(zipSync({ 'a.png': await noise(1), 'b.png': await noise(2), 'c.png': await noise(3) }, { level: 0 })), 'big.zip'], 422, /more than 3 MB in all/],
+    ['an encrypted zip', async () => [encrypt(zipSync({ 'secret.png': await shape(74) })), 'locked.zip'], 422, /password-protected/],
+    ['a 60 MB file over the upload limit', async () => [Buffer.alloc(60 * 1024 * 1024, 7), 'enormous.png'], 413, /too large/],
+  ];
+
+  for (const [label, make, status, message] of cases) {
+    it(label, async () => {
+      const { team, member } = await setup();
+      const filesBefore = await storedFileCount();
+      const [file, name] = await make();
+      const res = await uploadFile(member, team.id, file, name);
+      expect(res.status).toBe(status);
+      expect(res.body.error.message).toMatch(message);
+      expect(await db.getRepository(ArtItem).countBy({ teamId: team.id })).toBe(0);
+      expect(await storedFileCount()).toBe(filesBefore);
+    });
+  }
+});
