@@ -9,6 +9,7 @@ import { ResetPasswordRoute } from '../features/auth/routes/reset-password';
 import { AcceptInviteRoute } from '../features/team/routes/accept-invite';
 import { TeamRoute } from '../features/team/routes/team';
 import { LibraryRoute } from '../features/library/routes/library';
+import { ArtDetailRoute } from '../features/library/routes/art-detail';
 import { SheetsRoute } from '../features/sheets/routes/sheets';
 import { EditorRoute } from '../features/editor/routes/editor';
 import { AccountRoute } from '../features/account/routes/account';
@@ -55,6 +56,7 @@ export const router = createBrowserRouter([
           { path: '/account', element: <AccountRoute /> },
           { path: '/t/:teamId', element: <Navigate to="library" replace /> },
           { path: '/t/:teamId/library', element: <LibraryRoute /> },
+          { path: '/t/:teamId/library/:artId', element: <ArtDetailRoute /> },
           { path: '/t/:teamId/sheets', element: <SheetsRoute /> },
           { path: '/t/:teamId/sheets/:sheetId', element: <EditorRoute /> },
           { path: '/t/:teamId/team', element: <TeamRoute /> },

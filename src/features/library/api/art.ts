@@ -1,0 +1,59 @@
+import { keepPreviousData, queryOptions, useMutation, useQuery, useQueryClient } from '@tanstack/react-query';
+import type { ArtListQuery, ArtUpdateInput, ArtView, BulkAction } from '../../../../shared/schemas/library';
+import { api } from '../../../lib/api-client';
+
+export type ArtPage = { items: ArtView[]; total: number; page: number; pageSize: number };
+export type ArtFilters = Partial<Omit<ArtListQuery, 'page' | 'pageSize'>> & { page?: number; pageSize?: number };
+
+const toSearch = (filters: ArtFilters) => {
+  const params = new URLSearchParams();
+  for (const [key, value] of Object.entries(filters)) if (value !== undefined && value !== '') params.set(key, String(value));
+  return params.toString();
+};
+
+export const artKeys = {
+  all: (teamId: string) => ['teams', teamId, 'art'] as const,
+  list: (teamId: string, filters: ArtFilters) => ['teams', teamId, 'art', 'list', filters] as const,
+  detail: (teamId: string, artId: string) => ['teams', teamId, 'art', 'detail', artId] as const,
+};
+
+export const artListQueryOptions = (teamId: string, filters: ArtFilters) =>
+  queryOptions({
+    queryKey: artKeys.list(teamId, filters),
+    queryFn: () => api<ArtPage>('GET', `/teams/${teamId}/art?${toSearch(filters)}`),
+    placeholderData: keepPreviousData,
+  });
+
+export const useArtList = (teamId: string, filters: ArtFilters) => useQuery(artListQueryOptions(teamId, filters));
+
+export const artQueryOptions = (teamId: string, artId: string) =>
+  queryOptions({ queryKey: artKeys.detail(teamId, artId), queryFn: () => api<ArtView>('GET', `/teams/${teamId}/art/${artId}`) });
+
+export const useArt = (teamId: string, artId: string) => useQuery(artQueryOptions(teamId, artId));
+
+function useLibraryMutation<I, O>(teamId: string, fn: (input: I) => Promise<O>) {
+  const client = useQueryClient();
+  return useMutation({
+    mutationFn: fn,
+    onSettled: () => {
+      void client.invalidateQueries({ queryKey: artKeys.all(teamId) });
+      void client.invalidateQueries({ queryKey: ['teams', teamId, 'collections'] });
+    },
+  });
+}
+
+export const useUpdateArt = (teamId: string, artId: string) =>
+  useLibraryMutation(teamId, (input: ArtUpdateInput) => api<ArtView>('PATCH', `/teams/${teamId}/art/${artId}`, input));
+
+export const useBulkArt = (teamId: string) =>
+  useLibraryMutation(teamId, (action: BulkAction) => api<{ changed: number }>('POST', `/teams/${teamId}/art/bulk`, action));
+
+export const useDeleteArt = (teamId: string) => useLibraryMutation(teamId, (artId: string) => api<void>('DELETE', `/teams/${teamId}/art/${artId}`));
+
+export const useInvalidateLibrary = (teamId: string) => {
+  const client = useQueryClient();
+  return () => {
+    void client.invalidateQueries({ queryKey: artKeys.all(teamId) });
+    void client.invalidateQueries({ queryKey: ['teams', teamId, 'collections'] });
+  };
+};

@@ -1,0 +1,27 @@
+import { keepPreviousData, queryOptions, useQuery } from '@tanstack/react-query';
+import type { OutlineWarning } from '../../../../shared/schemas/outline';
+import { api } from '../../../lib/api-client';
+
+export type OutlinePreview = {
+  key: string;
+  cached: boolean;
+  effectiveDpi: number;
+  warnings: OutlineWarning[];
+  pieces: Array<{ pngUrl: string; widthMm: number; heightMm: number; cutLine: { svgPath: string } }>;
+};
+
+export type PreviewParams = { background: string; backgroundTolerance: number };
+
+/** A quick, low-DPI outline to show what background removal and the border will do. */
+export const outlinePreviewQueryOptions = (teamId: string, artId: string, p: PreviewParams) =>
+  queryOptions({
+    queryKey: ['teams', teamId, 'art', 'outline-preview', artId, p],
+    queryFn: () => {
+      const search = new URLSearchParams({ width: '3in', border: '0.125in', dpi: '100', background: p.background, backgroundTolerance: String(p.backgroundTolerance) });
+      return api<OutlinePreview>('GET', `/teams/${teamId}/art/${artId}/outline?${search}`);
+    },
+    placeholderData: keepPreviousData,
+    staleTime: Infinity,
+  });
+
+export const useOutlinePreview = (teamId: string, artId: string, p: PreviewParams) => useQuery(outlinePreviewQueryOptions(teamId, artId, p));

@@ -1,0 +1,55 @@
+import { useState } from 'react';
+import type { LicenceInput, LicenceKind, LicenceView } from '../../../../shared/schemas/library';
+import { LICENCE_KINDS, LICENCE_LABELS, licenceSchema } from '../../../../shared/schemas/library';
+
+/** Licence kind, source, notes and unit limit; validated with the shared schema before saving. */
+export function LicenceForm({ licence, onSave, hint }: { licence: Pick<LicenceView, 'kind' | 'source' | 'notes' | 'unitLimit'> | null; onSave: (licence: LicenceInput | null) => Promise<unknown>; hint?: string }) {
+  const [kind, setKind] = useState<LicenceKind | ''>(licence?.kind ?? '');
+  const [source, setSource] = useState(licence?.source ?? '');
+  const [notes, setNotes] = useState(licence?.notes ?? '');
+  const [unitLimit, setUnitLimit] = useState(licence?.unitLimit ? String(licence.unitLimit) : '');
+  const [errors, setErrors] = useState<Record<string, string>>({});
+  const [saved, setSaved] = useState(false);
+
+  const save = async () => {
+    setSaved(false);
+    if (!kind) {
+      await onSave(null);
+      setSaved(true);
+      return;
+    }
+    const parsed = licenceSchema.safeParse({ kind, source, notes, unitLimit: unitLimit === '' ? null : unitLimit });
+    if (!parsed.success) {
+      setErrors(Object.fromEntries(parsed.error.issues.map((i) => [String(i.path[0]), i.message])));
+      return;
+    }
+    setErrors({});
+    await onSave(parsed.data);
+    setSaved(true);
+  };
+
+  return (
+    <fieldset className="flex flex-col gap-2 text-sm">
+      <legend className="font-extrabold">Licence</legend>
+      {hint && <p className="text-xs text-ink-faint">{hint}</p>}
+      <select aria-label="Licence kind" value={kind} onChange={(e) => setKind(e.target.value as LicenceKind | '')} className="rounded border-2 border-paper-edge bg-white px-2 py-1">
+        <option value="">No licence recorded</option>
+        {LICENCE_KINDS.map((k) => <option key={k} value={k}>{LICENCE_LABELS[k]}</option>)}
+      </select>
+      {kind && (
+        <>
+          <input aria-label="Where the art came from" placeholder="Source (shop, designer, link)" value={source} onChange={(e) => setSource(e.target.value)} className="rounded border-2 border-paper-edge px-2 py-1" />
+          {kind === 'commercial_limited' && (
+            <>
+              <input aria-label="Units allowed" inputMode="numeric" placeholder="Units allowed" value={unitLimit} onChange={(e) => setUnitLimit(e.target.value)} aria-invalid={errors.unitLimit ? true : undefined} className="rounded border-2 border-paper-edge px-2 py-1" />
+              {errors.unitLimit && <p role="alert" className="font-semibold text-alarm">{errors.unitLimit}</p>}
+            </>
+          )}
+          <textarea aria-label="Licence notes" placeholder="Notes" value={notes} onChange={(e) => setNotes(e.target.value)} rows={2} className="rounded border-2 border-paper-edge px-2 py-1" />
+        </>
+      )}
+      <button type="button" onClick={() => void save()} className="self-start rounded-full border-2 border-paper-edge px-3 py-1 font-bold hover:border-ink">Save licence</button>
+      {saved && <p role="status" className="text-sage-deep">Licence saved.</p>}
+    </fieldset>
+  );
+}

@@ -1,0 +1,115 @@
+import { useState } from 'react';
+import { Link, useNavigate, useParams } from 'react-router';
+import { LICENCE_LABELS } from '../../../../shared/schemas/library';
+import { formatLength } from '../../../../shared/units';
+import { Button, FormMessage } from '../../../components/form';
+import { PageTitle } from '../../../components/page-title';
+import { ApiError } from '../../../lib/api-client';
+import { useMe } from '../../auth/api/me';
+import { useTeamRole } from '../../auth/use-team-role';
+import { useArt, useDeleteArt, useUpdateArt } from '../api/art';
+import { useCollections } from '../api/collections';
+import { BackgroundPreview } from '../components/background-preview';
+import { LicenceForm } from '../components/licence-form';
+
+export function ArtDetailRoute() {
+  const { artId = '' } = useParams();
+  const { teamId, can } = useTeamRole();
+  const { data: me } = useMe();
+  const art = useArt(teamId!, artId);
+  const collections = useCollections(teamId!);
+  const update = useUpdateArt(teamId!, artId);
+  const remove = useDeleteArt(teamId!);
+  const navigate = useNavigate();
+  const [error, setError] = useState<string | null>(null);
+  const [saved, setSaved] = useState(false);
+
+  if (art.isPending) return <p>Loading…</p>;
+  if (art.isError) return <FormMessage>{art.error.message}</FormMessage>;
+  const item = art.data;
+  const unit = me?.user.unit ?? 'in';
+  const size = (p: { widthMm: number; heightMm: number }) => `${formatLength(p.widthMm, unit, unit === 'in' ? 2 : 0)} × ${formatLength(p.heightMm, unit, unit === 'in' ? 2 : 0)}`;
+  const edit = can('library.contribute');
+
+  const run = async (action: () => Promise<unknown>) => {
+    setError(null);
+    setSaved(false);
+    try {
+      await action();
+      setSaved(true);
+    } catch (e) {
+      setError(e instanceof ApiError ? e.message : 'That did not work.');
+    }
+  };
+
+  return (
+    <>
+      <p className="mb-2 text-sm"><Link to=".." relative="path" className="font-bold text-peel-deep underline">← Art library</Link></p>
+      <PageTitle title={item.name} />
+      <FormMessage>{error}</FormMessage>
+      {saved && <FormMessage tone="ok">Saved.</FormMessage>}
+      <div className="grid gap-6 lg:grid-cols-[2fr_1fr]">
+        <BackgroundPreview teamId={teamId!} art={item} canEdit={edit} />
+        <div className="flex flex-col gap-4">
+          <section className="rounded-sticker border-2 border-paper-edge bg-white p-5 text-sm">
+            <h2 className="mb-2 text-lg font-extrabold">About this art</h2>
+            <dl className="grid grid-cols-[auto_1fr] gap-x-3 gap-y-1">
+              <dt className="font-bold">Pixels</dt><dd>{item.widthPx} × {item.heightPx} ({item.format.toUpperCase()})</dd>
+              <dt className="font-bold">Largest at 300 DPI</dt><dd>{size(item.largestPrint.at300)}</dd>
+              <dt className="font-bold">Largest at 150 DPI</dt><dd>{size(item.largestPrint.at150)}</dd>
+              <dt className="font-bold">Transparency</dt><dd>{item.hasTransparency ? 'Yes' : 'No'}</dd>
+              <dt className="font-bold">Licence</dt><dd>{item.licence ? `${LICENCE_LABELS[item.licence.kind]}${item.licence.inheritedFrom ? ` (from ${item.licence.inheritedFrom.name})` : ''}` : 'Not recorded'}</dd>
+              <dt className="font-bold">Added by</dt><dd>{item.uploadedBy.name}, {new Date(item.createdAt).toLocaleDateString()}</dd>
+            </dl>
+          </section>
+          {edit && (
+            <form
+              className="flex flex-col gap-3 rounded-sticker border-2 border-paper-edge bg-white p-5 text-sm"
+              onSubmit={(e) => {
+                e.preventDefault();
+                const form = new FormData(e.currentTarget);
+                const collectionId = String(form.get('collectionId') ?? '');
+                void run(() => update.mutateAsync({ name: String(form.get('name')), keywords: String(form.get('keywords')).split(','), collectionId: collectionId || null }));
+              }}
+            >
+              <h2 className="text-lg font-extrabold">Details</h2>
+              <label className="flex flex-col gap-1 font-bold">Name<input name="name" defaultValue={item.name} className="rounded border-2 border-paper-edge px-2 py-1 font-normal" /></label>
+              <label className="flex flex-col gap-1 font-bold">Keywords (comma between)<input name="keywords" defaultValue={item.keywords.join(', ')} className="rounded border-2 border-paper-edge px-2 py-1 font-normal" /></label>
+              <label className="flex flex-col gap-1 font-bold">
+                Collection
+                <select name="collectionId" defaultValue={item.collection?.id ?? ''} className="rounded border-2 border-paper-edge bg-white px-2 py-1 font-normal">
+                  <option value="">No collection</option>
+                  {collections.data?.filter((c) => !c.archived || c.id === item.collection?.id).map((c) => <option key={c.id} value={c.id}>{c.name}</option>)}
+                </select>
+              </label>
+              <Button type="submit" busy={update.isPending}>Save details</Button>
+            </form>
+          )}
+          {can('library.manage') && (
+            <section className="rounded-sticker border-2 border-paper-edge bg-white p-5">
+              <LicenceForm
+                licence={item.licence && !item.licence.inheritedFrom ? item.licence : null}
+                hint={item.licence?.inheritedFrom ? `Now inherited from ${item.licence.inheritedFrom.name}. A licence set here overrides it.` : undefined}
+                onSave={(licence) => run(() => update.mutateAsync({ licence }))}
+              />
+            </section>
+          )}
+          {edit && (
+            <Button
+              variant="danger"
+              onClick={() => {
+                if (!window.confirm(`Remove “${item.name}” from the library? Sheets that use it keep their copy.`)) return;
+                void run(async () => {
+                  await remove.mutateAsync(item.id);
+                  navigate('..', { relative: 'path' });
+                });
+              }}
+            >
+              Remove from the library
+            </Button>
+          )}
+        </div>
+      </div>
+    </>
+  );
+}
