@@ -1,0 +1,113 @@
+import { mkdtemp, writeFile } from 'node:fs/promises';
+import { tmpdir } from 'node:os';
+import path from 'node:path';
+import { zipSync } from 'fflate';
+import sharp from 'sharp';
+import { afterAll, beforeAll, describe, expect, it } from 'vitest';
+import type { Browser, Page } from 'playwright-core';
+import type { DataSource } from 'typeorm';
+import { svgArt } from '../helpers/art';
+import { TEST_PASSWORD, makeTeamWithRoles, openDatabase } from '../helpers/app';
+import { launchChromium, screenshot, serveApp } from '../helpers/browser';
+
+let db: DataSource;
+let browser: Browser;
+let served: Awaited<ReturnType<typeof serveApp>>;
+
+beforeAll(async () => {
+  db = await openDatabase();
+  served = await serveApp(db);
+  browser = await launchChromium();
+});
+afterAll(async () => {
+  await browser?.close();
+  await served?.close();
+  await db?.destroy();
+});
+
+async function critterPack(): Promise<string> {
+  const files: Record<string, Uint8Array> = {};
+  const colours = ['#c0392b', '#8e44ad', '#2980b9', '#16a085', '#d35400', '#7f8c8d'];
+  for (let i = 0; i < 11; i++) {
+    const c = colours[i % colours.length];
+    files[`Critter_Pack/${i < 6 ? 'Hedgehogs' : 'Foxes'}/critter-${String(i + 1).padStart(2, '0')}.png`] = await svgArt(
+      600,
+      500,
+      `<defs><filter id="f"><feGaussianBlur stdDeviation="6"/></filter></defs><g filter="url(#f)"><ellipse cx="300" cy="280" rx="${170 + i * 6}" ry="150" fill="${c}"/><circle cx="${420 - i * 5}" cy="170" r="70" fill="${c}" opacity="0.8"/></g><circle cx="260" cy="260" r="30" fill="none" stroke="#fff" stroke-width="10"/>`,
+    );
+  }
+  // One flat JPEG on white: the library offers background removal for it.
+  files['Critter_Pack/critter-12.jpg'] = await sharp(Buffer.from('<svg xmlns="http://www.w3.org/2000/svg" width="600" height="500"><rect width="600" height="500" fill="#fff"/><path d="M120 400 Q300 40 480 400 Z" fill="#6d4c41"/></svg>'))
+    .jpeg({ quality: 92 })
+    .toBuffer();
+  const dir = await mkdtemp(path.join(tmpdir(), 'sheetsmith-e2e-'));
+  const file = path.join(dir, 'critter-pack.zip');
+  await writeFile(file, zipSync(files));
+  return file;
+}
+
+async function signIn(page: Page, email: string) {
+  await page.goto(`${served.url}/sign-in`);
+  await page.getByLabel('E-mail').fill(email);
+  await page.getByLabel('Password').fill(TEST_PASSWORD);
+  await page.getByRole('button', { name: 'Sign in' }).click();
+  await page.waitForURL(/\/t\/\d+\/library$/);
+}
+
+describe('art library in Chromium', () => {
+  it('uploads a zip of twelve images with progress, tags the batch, and finds them by search', async () => {
+    const { team, users } = await makeTeamWithRoles(db);
+    const zip = await critterPack();
+    const page = await browser.newPage({ viewport: { width: 1280, height: 900 } });
+    await signIn(page, users.member.email);
+    await page.goto(`${served.url}/t/${team.id}/library`);
+    await page.getByRole('button', { name: 'Add art' }).click();
+    await page.getByLabel('Keywords for this batch').fill('woodland, autumn fair');
+    // Record every value the overall progress bar shows while the upload runs.
+    await page.evaluate(() => {
+      (window as unknown as { seen: string[] }).seen = [];
+      new MutationObserver(() => {
+        const el = document.querySelector('[data-testid="overall-progress"]');
+        if (el) (window as unknown as { seen: string[] }).seen.push(el.textContent ?? '');
+      }).observe(document.body, { subtree: true, childList: true, characterData: true });
+    });
+    await page.locator('[data-testid="upload-input"]').setInputFiles(zip);
+    await expect.poll(() => page.getByTestId('upload-summary').textContent(), { timeout: 30_000 }).toContain('12 added');
+    expect(await page.getByTestId('overall-progress').textContent()).toBe('100%');
+    expect(await page.getByRole('progressbar', { name: 'Upload of critter-pack.zip' }).getAttribute('value')).toBe('1');
+    expect((await page.evaluate(() => (window as unknown as { seen: string[] }).seen)).length).toBeGreaterThan(0);
+    await screenshot(page, 'library-upload-done');
+
+    await page.getByRole('searchbox').fill('woodland');
+    await expect.poll(() => page.getByTestId('result-count').textContent()).toBe('12 pieces of art');
+    await page.getByRole('searchbox').fill('hedgehog');
+    await expect.poll(() => page.getByTestId('result-count').textContent()).toBe('6 pieces of art');
+    await page.getByRole('searchbox').fill('Autumn-Fairs');
+    await expect.poll(() => page.getByTestId('result-count').textContent()).toBe('12 pieces of art');
+    await screenshot(page, 'library-grid-search');
+
+    await page.getByRole('button', { name: 'Table' }).click();
+    await page.getByTestId('art-table').waitFor();
+    await page.getByRole('button', { name: /^Name/ }).click();
+    await expect.poll(() => page.locator('[data-testid="art-table"] tbody tr td:nth-child(3)').first().textContent()).toBe('critter-01');
+    await screenshot(page, 'library-table');
+
+    await page.getByRole('link', { name: 'critter-12' }).click();
+    await page.getByRole('heading', { name: 'Background' }).waitFor();
+    await page.getByTestId('after-preview').waitFor({ timeout: 30_000 });
+    await expect.poll(() => page.getByTestId('after-preview').evaluate((img: HTMLImageElement) => img.complete && img.naturalWidth > 0)).toBe(true);
+    await screenshot(page, 'library-art-detail');
+    await page.close();
+  });
+
+  it('shows a viewer the library without upload or bulk actions', async () => {
+    const { team, users } = await makeTeamWithRoles(db);
+    const page = await browser.newPage({ viewport: { width: 1280, height: 800 } });
+    await signIn(page, users.viewer.email);
+    await page.goto(`${served.url}/t/${team.id}/library`);
+    await page.getByRole('heading', { name: 'Art library' }).waitFor();
+    expect(await page.getByRole('button', { name: 'Add art' }).count()).toBe(0);
+    expect(await page.getByLabel('New collection name').count()).toBe(0);
+    await page.close();
+  });
+});
