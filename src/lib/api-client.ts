@@ -68,3 +68,15 @@ export async function api<T>(method: Method, path: string, body?: unknown, retri
   }
   throw error;
 }
+
+/** A multipart upload (a form with a file) through the same CSRF and error handling. */
+export async function apiUpload<T>(path: string, form: FormData): Promise<T> {
+  const response = await fetch(`/api${path}`, {
+    method: 'POST',
+    headers: { accept: 'application/json', 'x-csrf-token': await ensureCsrfToken() },
+    credentials: 'same-origin',
+    body: form,
+  });
+  if (!response.ok) throw await toApiError(response);
+  return (await response.json()) as T;
+}

@@ -1,6 +1,6 @@
 import { keepPreviousData, queryOptions, useMutation, useQuery, useQueryClient } from '@tanstack/react-query';
 import type { ArtListQuery, ArtUpdateInput, ArtView, BulkAction } from '../../../../shared/schemas/library';
-import { api } from '../../../lib/api-client';
+import { api, apiUpload } from '../../../lib/api-client';
 
 export type ArtPage = { items: ArtView[]; total: number; page: number; pageSize: number };
 export type ArtFilters = Partial<Omit<ArtListQuery, 'page' | 'pageSize'>> & { page?: number; pageSize?: number };
@@ -57,3 +57,12 @@ export const useInvalidateLibrary = (teamId: string) => {
     void client.invalidateQueries({ queryKey: ['teams', teamId, 'collections'] });
   };
 };
+
+/** Attaches a licence proof (receipt, licence text) to an art item or a collection. */
+export const useAttachProof = (teamId: string, target: { artId: string } | { collectionId: string }) =>
+  useLibraryMutation(teamId, (file: File) => {
+    const form = new FormData();
+    form.set('file', file, file.name);
+    const path = 'artId' in target ? `/teams/${teamId}/art/${target.artId}/licence-proof` : `/teams/${teamId}/collections/${target.collectionId}/licence-proof`;
+    return apiUpload<unknown>(path, form);
+  });

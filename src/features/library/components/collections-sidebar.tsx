@@ -2,6 +2,8 @@ import { useState } from 'react';
 import type { CollectionView } from '../../../../shared/schemas/library';
 import { LICENCE_LABELS } from '../../../../shared/schemas/library';
 import { ApiError } from '../../../lib/api-client';
+import type { LicenceInput } from '../../../../shared/schemas/library';
+import { useAttachProof } from '../api/art';
 import { useCreateCollection, useReorderCollections, useUpdateCollection } from '../api/collections';
 import { LicenceForm } from './licence-form';
 
@@ -82,11 +84,7 @@ export function CollectionsSidebar({ teamId, collections, selected, onSelect, ca
               {c.archived ? 'Restore' : 'Archive'}
             </button>
           </div>
-          <LicenceForm
-            licence={c.licence}
-            onSave={(licence) => run(() => update.mutateAsync({ id: c.id, licence }))}
-            hint="Art in this collection inherits this licence unless it has its own."
-          />
+          <CollectionLicence teamId={teamId} collection={c} run={run} save={(licence) => update.mutateAsync({ id: c.id, licence })} />
         </div>
       )}
     </li>
@@ -127,5 +125,17 @@ export function CollectionsSidebar({ teamId, collections, selected, onSelect, ca
       )}
       {error && <p role="alert" className="text-sm font-semibold text-alarm">{error}</p>}
     </nav>
+  );
+}
+
+function CollectionLicence({ teamId, collection, run, save }: { teamId: string; collection: CollectionView; run: (action: () => Promise<unknown>) => Promise<void>; save: (licence: LicenceInput | null) => Promise<unknown> }) {
+  const proof = useAttachProof(teamId, { collectionId: collection.id });
+  return (
+    <LicenceForm
+      licence={collection.licence}
+      onSave={(licence) => run(() => save(licence))}
+      onProof={(file) => run(() => proof.mutateAsync(file))}
+      hint="Art in this collection inherits this licence unless it has its own."
+    />
   );
 }

@@ -3,7 +3,17 @@ import type { LicenceInput, LicenceKind, LicenceView } from '../../../../shared/
 import { LICENCE_KINDS, LICENCE_LABELS, licenceSchema } from '../../../../shared/schemas/library';
 
 /** Licence kind, source, notes and unit limit; validated with the shared schema before saving. */
-export function LicenceForm({ licence, onSave, hint }: { licence: Pick<LicenceView, 'kind' | 'source' | 'notes' | 'unitLimit'> | null; onSave: (licence: LicenceInput | null) => Promise<unknown>; hint?: string }) {
+export function LicenceForm({
+  licence,
+  onSave,
+  hint,
+  onProof,
+}: {
+  licence: Pick<LicenceView, 'kind' | 'source' | 'notes' | 'unitLimit'> & Partial<Pick<LicenceView, 'proofName' | 'proofUrl'>> | null;
+  onSave: (licence: LicenceInput | null) => Promise<unknown>;
+  hint?: string;
+  onProof?: (file: File) => Promise<unknown>;
+}) {
   const [kind, setKind] = useState<LicenceKind | ''>(licence?.kind ?? '');
   const [source, setSource] = useState(licence?.source ?? '');
   const [notes, setNotes] = useState(licence?.notes ?? '');
@@ -47,6 +57,13 @@ export function LicenceForm({ licence, onSave, hint }: { licence: Pick<LicenceVi
           )}
           <textarea aria-label="Licence notes" placeholder="Notes" value={notes} onChange={(e) => setNotes(e.target.value)} rows={2} className="rounded border-2 border-paper-edge px-2 py-1" />
         </>
+      )}
+      {licence?.kind && onProof && (
+        <label className="flex flex-col gap-1">
+          <span className="font-bold">Proof (receipt, licence text)</span>
+          {licence.proofUrl && <a href={licence.proofUrl} className="text-peel-deep underline">{licence.proofName}</a>}
+          <input type="file" aria-label="Attach a licence proof" onChange={(e) => e.target.files?.[0] && void onProof(e.target.files[0])} />
+        </label>
       )}
       <button type="button" onClick={() => void save()} className="self-start rounded-full border-2 border-paper-edge px-3 py-1 font-bold hover:border-ink">Save licence</button>
       {saved && <p role="status" className="text-sage-deep">Licence saved.</p>}

@@ -7,7 +7,7 @@ import { PageTitle } from '../../../components/page-title';
 import { ApiError } from '../../../lib/api-client';
 import { useMe } from '../../auth/api/me';
 import { useTeamRole } from '../../auth/use-team-role';
-import { useArt, useDeleteArt, useUpdateArt } from '../api/art';
+import { useArt, useAttachProof, useDeleteArt, useUpdateArt } from '../api/art';
 import { useCollections } from '../api/collections';
 import { BackgroundPreview } from '../components/background-preview';
 import { LicenceForm } from '../components/licence-form';
@@ -20,6 +20,7 @@ export function ArtDetailRoute() {
   const collections = useCollections(teamId!);
   const update = useUpdateArt(teamId!, artId);
   const remove = useDeleteArt(teamId!);
+  const proof = useAttachProof(teamId!, { artId });
   const navigate = useNavigate();
   const [error, setError] = useState<string | null>(null);
   const [saved, setSaved] = useState(false);
@@ -91,6 +92,7 @@ export function ArtDetailRoute() {
                 licence={item.licence && !item.licence.inheritedFrom ? item.licence : null}
                 hint={item.licence?.inheritedFrom ? `Now inherited from ${item.licence.inheritedFrom.name}. A licence set here overrides it.` : undefined}
                 onSave={(licence) => run(() => update.mutateAsync({ licence }))}
+                onProof={(file) => run(() => proof.mutateAsync(file))}
               />
             </section>
           )}

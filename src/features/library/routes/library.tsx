@@ -35,6 +35,8 @@ export function LibraryRoute() {
       licence: (params.get('licence') as ArtFilters['licence']) ?? undefined,
       transparency: (params.get('transparency') as ArtFilters['transparency']) ?? undefined,
       uploadedBy: params.get('uploadedBy') ?? undefined,
+      from: params.get('from') ?? undefined,
+      to: params.get('to') ?? undefined,
       sort: (params.get('sort') as ArtFilters['sort']) ?? 'created',
       dir: (params.get('dir') as ArtFilters['dir']) ?? 'desc',
       page: Number(params.get('page') ?? 1),
@@ -100,6 +102,14 @@ export function LibraryRoute() {
               <option value="">Anyone</option>
               {members.data?.map((m) => <option key={m.userId} value={m.userId}>{m.name}</option>)}
             </select>
+            <label className="flex flex-col text-xs font-bold">
+              Added from
+              <input type="date" className={select} value={filters.from ?? ''} onChange={(e) => setParam({ from: e.target.value })} />
+            </label>
+            <label className="flex flex-col text-xs font-bold">
+              to
+              <input type="date" className={select} value={filters.to ?? ''} onChange={(e) => setParam({ to: e.target.value })} />
+            </label>
             <select aria-label="Sort by" className={select} value={`${filters.sort}:${filters.dir}`} onChange={(e) => { const [sort, dir] = e.target.value.split(':'); setParam({ sort, dir }); }}>
               <option value="created:desc">Newest first</option>
               <option value="created:asc">Oldest first</option>
