@@ -1,3 +1,4 @@
+import path from 'node:path';
 import { zipSync } from 'fflate';
 import JSZip from 'jszip';
 import sharp from 'sharp';
@@ -15,11 +16,14 @@ import { pngHeaderClaiming } from '../helpers/png';
 let db: DataSource;
 let pool: OutlinePool;
 let sheetsmith: ReturnType<typeof testApp>;
+// This file's own storage folder, so other suites running alongside never change its file counts.
+const storageDir = path.join(env.dataDir, 'storage-library-test');
+const storage = new LocalDiskStorage(storageDir);
 
 beforeAll(async () => {
   db = await openDatabase();
   pool = new OutlinePool(undefined, 1);
-  sheetsmith = testApp(db, {}, { outlinePool: pool, packLimits: { maxEntries: 50, maxTotalBytes: 3 * 1024 * 1024, maxEntryBytes: 20 * 1024 * 1024, maxRatio: 200 } });
+  sheetsmith = testApp(db, {}, { outlinePool: pool, storage, packLimits: { maxEntries: 50, maxTotalBytes: 3 * 1024 * 1024, maxEntryBytes: 20 * 1024 * 1024, maxRatio: 200 } });
 });
 afterAll(async () => {
   await sheetsmith.close();
@@ -187,7 +191,7 @@ describe('keywords, bulk actions and deleting', () => {
     expect((await member.get(`/api/teams/${team.id}/art`)).body.items.map((i: { id: string }) => i.id)).toEqual([theirs.id]);
     const row = await db.getRepository(ArtItem).findOneByOrFail({ id: mine.id });
     expect(row.deletedAt).not.toBeNull();
-    expect(await new LocalDiskStorage(env.storageDir).exists(row.storageKey)).toBe(true);
+    expect(await storage.exists(row.storageKey)).toBe(true);
     expect((await admin.post(`/api/teams/${team.id}/art/bulk`, { action: 'delete', ids: [theirs.id] })).body).toEqual({ changed: 1 });
     // Uploading the same bytes again brings the item back instead of storing it twice.
     const back = await uploadFile(member, team.id, await shape(40), 'mine again.png');
@@ -283,13 +287,13 @@ describe('bad uploads: a clear message each, and nothing half-stored', () => {
   for (const [label, make, status, message] of cases) {
     it(label, async () => {
       const { team, member } = await setup();
-      const filesBefore = await storedFileCount();
+      const filesBefore = await storedFileCount(storageDir);
       const [file, name] = await make();
       const res = await uploadFile(member, team.id, file, name);
       expect(res.status).toBe(status);
       expect(res.body.error.message).toMatch(message);
       expect(await db.getRepository(ArtItem).countBy({ teamId: team.id })).toBe(0);
-      expect(await storedFileCount()).toBe(filesBefore);
+      expect(await storedFileCount(storageDir)).toBe(filesBefore);
     });
   }
 });

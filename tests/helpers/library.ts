@@ -1,6 +1,5 @@
 import { readdir } from 'node:fs/promises';
 import path from 'node:path';
-import { env } from '../../server/config/env';
 import type { Client } from './app';
 
 export async function uploadFile(client: Client, teamId: string, file: Buffer, name: string, fields: Record<string, string> = {}) {
@@ -10,8 +9,8 @@ export async function uploadFile(client: Client, teamId: string, file: Buffer, n
   return req.attach('file', file, name);
 }
 
-/** Number of files in the storage folder: uploads that fail must leave it unchanged. */
-export async function storedFileCount(): Promise<number> {
+/** Number of files in a storage folder: uploads that fail must leave it unchanged. */
+export async function storedFileCount(root: string): Promise<number> {
   const walk = async (dir: string): Promise<number> => {
     let n = 0;
     for (const entry of await readdir(dir, { withFileTypes: true }).catch(() => [])) {
@@ -19,5 +18,5 @@ export async function storedFileCount(): Promise<number> {
     }
     return n;
   };
-  return walk(env.storageDir);
+  return walk(root);
 }
