@@ -152,7 +152,11 @@ export class ArtService {
       for (const s of stored) results.push({ file: s.path, status: s.status, item: views.get(s.id), suggestedKeywords: s.suggested, reason: s.status === 'duplicate' ? 'Already in the library.' : undefined });
       return results;
     } catch (error) {
-      await Promise.all(written.map((key) => this.storage.delete(key).catch(() => undefined)));
+      // Remove what this batch wrote, unless a concurrent upload has started using the same bytes.
+      for (const key of written) {
+        const [{ used }] = await this.dataSource.query('SELECT COUNT(*) AS used FROM art_items WHERE storage_key = ? OR thumbnail_key = ?', [key, key]);
+        if (Number(used) === 0) await this.storage.delete(key).catch(() => undefined);
+      }
       throw error;
     }
   }
