@@ -61,3 +61,8 @@ export function formatLength(value: Mm | number, unit: LengthUnit, digits = unit
   const text = Number(n.toFixed(digits)).toString();
   return `${text} ${unit}`;
 }
+
+/** CSS pixels for a length at a zoom where 1 = real size on a 96 DPI screen (CSS: 1in = 96px). */
+export function mmToCssPx(length: Mm | number, zoom = 1): number {
+  return (length / MM_PER_INCH) * CSS_PX_PER_INCH * zoom;
+}
