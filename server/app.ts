@@ -22,6 +22,9 @@ import { ArtService } from './modules/art/art.service';
 import { CollectionsService } from './modules/collections/collections.service';
 import { collectionsRouter } from './modules/collections/collections.router';
 import type { PackLimits } from './modules/art/zip-pack';
+import { ProfilesService } from './modules/sheets/profiles.service';
+import { SheetsService } from './modules/sheets/sheets.service';
+import { sheetsRouter } from './modules/sheets/sheets.router';
 import { OutlineService } from './modules/outlines/outline.service';
 import { outlinesRouter } from './modules/outlines/outlines.router';
 import { OutlinePool } from './engine/outline/pool';
@@ -92,6 +95,8 @@ export function createApp({
     );
   const art = new ArtService(dataSource, storage, env.OUTLINE_MAX_PIXELS, packLimits);
   const collections = new CollectionsService(dataSource, storage);
+  const profiles = new ProfilesService(dataSource);
+  const sheets = new SheetsService(dataSource, storage, profiles);
   const outlines = new OutlineService(dataSource, storage, pool);
 
   const api = express.Router();
@@ -114,7 +119,8 @@ export function createApp({
   api.use(csrfSynchronisedProtection);
   api.use(authRouter({ auth, passport, throttle, csrfToken: generateToken }));
   api.use(teamsRouter({ dataSource, teams, auth, csrfToken: generateToken }));
-  api.use(artRouter({ dataSource, art, maxBytes: env.ART_MAX_BYTES }));
+  api.use(artRouter({ dataSource, art, sheets, maxBytes: env.ART_MAX_BYTES }));
+  api.use(sheetsRouter({ dataSource, sheets, profiles }));
   api.use(collectionsRouter({ dataSource, collections }));
   api.use(outlinesRouter({ dataSource, art, outlines }));
   if (mailer.outboxDir && env.NODE_ENV !== 'production') api.use(outboxRouter(mailer.outboxDir));

@@ -1,5 +1,7 @@
 import { ArtItem } from '../modules/art/art-item.entity';
 import { Collection } from '../modules/collections/collection.entity';
+import { Sheet } from '../modules/sheets/sheet.entity';
+import { SheetProfile } from '../modules/sheets/sheet-profile.entity';
 import { OutlineCacheEntry } from '../modules/outlines/outline-cache.entity';
 import { Invite } from '../modules/teams/invite.entity';
 import { Membership } from '../modules/teams/membership.entity';
@@ -7,4 +9,4 @@ import { Team } from '../modules/teams/team.entity';
 import { PasswordReset } from '../modules/auth/password-reset.entity';
 import { User } from '../modules/auth/user.entity';
 
-export const entities = [User, Team, Membership, Invite, PasswordReset, ArtItem, Collection, OutlineCacheEntry];
+export const entities = [User, Team, Membership, Invite, PasswordReset, ArtItem, Collection, OutlineCacheEntry, SheetProfile, Sheet];

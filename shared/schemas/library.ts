@@ -66,7 +66,7 @@ export const bulkActionSchema = z.discriminatedUnion('action', [
   z.object({ action: z.literal('addKeyword'), ids: z.array(idSchema).min(1).max(500), keyword: z.string().trim().min(1, 'Type a keyword').max(60) }),
   z.object({ action: z.literal('removeKeyword'), ids: z.array(idSchema).min(1).max(500), keyword: z.string().trim().min(1, 'Type a keyword').max(60) }),
   z.object({ action: z.literal('move'), ids: z.array(idSchema).min(1).max(500), collectionId: idSchema.nullable() }),
-  z.object({ action: z.literal('delete'), ids: z.array(idSchema).min(1).max(500) }),
+  z.object({ action: z.literal('delete'), ids: z.array(idSchema).min(1).max(500), confirm: z.boolean().optional() }),
 ]);
 export type BulkAction = z.infer<typeof bulkActionSchema>;
 

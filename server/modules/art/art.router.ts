@@ -9,10 +9,12 @@ import { requirePermission, teamScope } from '../../middleware/auth';
 import { route } from '../../middleware/validate';
 import type { ArtService } from './art.service';
 import { searchArt } from './art-search';
+import type { SheetsService } from '../sheets/sheets.service';
+import { z } from 'zod';
 
 const actorOf = (req: Request) => ({ userId: req.user!.id, teamId: req.membership!.teamId, role: req.membership!.role });
 
-export function artRouter({ dataSource, art, maxBytes }: { dataSource: DataSource; art: ArtService; maxBytes: number }): Router {
+export function artRouter({ dataSource, art, sheets, maxBytes }: { dataSource: DataSource; art: ArtService; sheets: SheetsService; maxBytes: number }): Router {
   const router = Router();
   const scoped = teamScope(dataSource);
   const upload = multer({ storage: multer.memoryStorage(), limits: { fileSize: maxBytes, files: 1, fields: 20 } });
@@ -36,7 +38,18 @@ export function artRouter({ dataSource, art, maxBytes }: { dataSource: DataSourc
     }),
   );
 
-  router.post('/teams/:teamId/art/bulk', scoped, contribute, route({ params: teamParamsSchema, body: bulkActionSchema }, ({ body }, req) => art.bulk(actorOf(req), body)));
+  router.post(
+    '/teams/:teamId/art/bulk',
+    scoped,
+    contribute,
+    route({ params: teamParamsSchema, body: bulkActionSchema }, async ({ body }, req) => {
+      if (body.action === 'delete' && !body.confirm) {
+        const usedBy = await sheets.usingArt(req.membership!.teamId, body.ids);
+        if (usedBy.length) throw new AppError(409, 'art_in_use', `Some of this art is on ${usedBy.length} sheet${usedBy.length === 1 ? '' : 's'} (${usedBy.slice(0, 3).join(', ')}${usedBy.length > 3 ? ', …' : ''}). Delete it anyway? Those sheets keep their copy.`);
+      }
+      return art.bulk(actorOf(req), body);
+    }),
+  );
 
   router.get('/teams/:teamId/art/:artId', scoped, view, route({ params: artParamsSchema }, ({ params }, req) => art.view(req.membership!.teamId, params.artId)));
 
@@ -46,8 +59,14 @@ export function artRouter({ dataSource, art, maxBytes }: { dataSource: DataSourc
     '/teams/:teamId/art/:artId',
     scoped,
     contribute,
-    route({ params: artParamsSchema }, async ({ params }, req, res) => {
-      await art.remove(actorOf(req), [await art.find(req.membership!.teamId, params.artId)]);
+    route({ params: artParamsSchema, query: z.object({ confirm: z.enum(['1']).optional() }) }, async ({ params, query }, req, res) => {
+      const item = await art.find(req.membership!.teamId, params.artId);
+      // Art on sheets is asked about first; deleting it then keeps those sheets printable.
+      const usedBy = await sheets.usingArt(req.membership!.teamId, [item.id]);
+      if (usedBy.length > 0 && !query.confirm) {
+        throw new AppError(409, 'art_in_use', `“${item.name}” is on ${usedBy.length} sheet${usedBy.length === 1 ? '' : 's'} (${usedBy.slice(0, 3).join(', ')}${usedBy.length > 3 ? ', …' : ''}). Delete it anyway? Those sheets keep their copy.`, { sheets: usedBy.join(', ') });
+      }
+      await art.remove(actorOf(req), [item]);
       res.status(204).end();
     }),
   );

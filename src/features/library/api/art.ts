@@ -1,6 +1,6 @@
 import { keepPreviousData, queryOptions, useMutation, useQuery, useQueryClient } from '@tanstack/react-query';
 import type { ArtListQuery, ArtUpdateInput, ArtView, BulkAction } from '../../../../shared/schemas/library';
-import { api, apiUpload } from '../../../lib/api-client';
+import { ApiError, api, apiUpload } from '../../../lib/api-client';
 
 export type ArtPage = { items: ArtView[]; total: number; page: number; pageSize: number };
 export type ArtFilters = Partial<Omit<ArtListQuery, 'page' | 'pageSize'>> & { page?: number; pageSize?: number };
@@ -48,7 +48,23 @@ export const useUpdateArt = (teamId: string, artId: string) =>
 export const useBulkArt = (teamId: string) =>
   useLibraryMutation(teamId, (action: BulkAction) => api<{ changed: number }>('POST', `/teams/${teamId}/art/bulk`, action));
 
-export const useDeleteArt = (teamId: string) => useLibraryMutation(teamId, (artId: string) => api<void>('DELETE', `/teams/${teamId}/art/${artId}`));
+export const useDeleteArt = (teamId: string) =>
+  useLibraryMutation(teamId, ({ artId, confirm }: { artId: string; confirm?: boolean }) => api<void>('DELETE', `/teams/${teamId}/art/${artId}${confirm ? '?confirm=1' : ''}`));
+
+/** Runs a delete; when the server says sheets use the art, asks the user and repeats with confirm. */
+export async function deleteWithQuestion(run: (confirm: boolean) => Promise<unknown>): Promise<boolean> {
+  try {
+    await run(false);
+    return true;
+  } catch (error) {
+    if (error instanceof ApiError && error.code === 'art_in_use') {
+      if (!window.confirm(error.message)) return false;
+      await run(true);
+      return true;
+    }
+    throw error;
+  }
+}
 
 export const useInvalidateLibrary = (teamId: string) => {
   const client = useQueryClient();

@@ -1,7 +1,7 @@
 import { useState } from 'react';
 import type { CollectionView } from '../../../../shared/schemas/library';
 import { ApiError } from '../../../lib/api-client';
-import { useBulkArt } from '../api/art';
+import { deleteWithQuestion, useBulkArt } from '../api/art';
 
 /** Actions on every selected item at once. */
 export function BulkBar({ teamId, ids, collections, onDone }: { teamId: string; ids: string[]; collections: CollectionView[]; onDone: () => void }) {
@@ -34,7 +34,17 @@ export function BulkBar({ teamId, ids, collections, onDone }: { teamId: string; 
       <button
         type="button"
         className="ml-auto rounded-full bg-alarm px-3 py-1 font-bold text-white"
-        onClick={() => window.confirm(`Remove ${ids.length} item(s) from the library? Sheets that use them keep their copy.`) && run({ action: 'delete', ids }, 'Removed from the library.')}
+        onClick={() => {
+          if (!window.confirm(`Remove ${ids.length} item(s) from the library?`)) return;
+          void deleteWithQuestion((confirm) => bulk.mutateAsync({ action: 'delete', ids, confirm }))
+            .then((done) => {
+              if (done) {
+                setMessage('Removed from the library.');
+                onDone();
+              }
+            })
+            .catch((error) => setMessage(error instanceof ApiError ? error.message : 'That did not work.'));
+        }}
       >
         Delete
       </button>

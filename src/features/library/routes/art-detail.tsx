@@ -7,7 +7,7 @@ import { PageTitle } from '../../../components/page-title';
 import { ApiError } from '../../../lib/api-client';
 import { useMe } from '../../auth/api/me';
 import { useTeamRole } from '../../auth/use-team-role';
-import { useArt, useAttachProof, useDeleteArt, useUpdateArt } from '../api/art';
+import { deleteWithQuestion, useArt, useAttachProof, useDeleteArt, useUpdateArt } from '../api/art';
 import { useCollections } from '../api/collections';
 import { BackgroundPreview } from '../components/background-preview';
 import { LicenceForm } from '../components/licence-form';
@@ -100,10 +100,9 @@ export function ArtDetailRoute() {
             <Button
               variant="danger"
               onClick={() => {
-                if (!window.confirm(`Remove “${item.name}” from the library? Sheets that use it keep their copy.`)) return;
+                if (!window.confirm(`Remove “${item.name}” from the library?`)) return;
                 void run(async () => {
-                  await remove.mutateAsync(item.id);
-                  navigate('..', { relative: 'path' });
+                  if (await deleteWithQuestion((confirm) => remove.mutateAsync({ artId: item.id, confirm }))) navigate('..', { relative: 'path' });
                 });
               }}
             >

@@ -1,0 +1,52 @@
+import { Column, CreateDateColumn, Entity, PrimaryGeneratedColumn, UpdateDateColumn } from 'typeorm';
+
+const decimal = { type: 'decimal' as const, precision: 8, scale: 3, transformer: { to: (v: number) => v, from: (v: string) => Number(v) } };
+
+/** Paper, the cutter's print area on it, safe margin and minimum gap: one set a team prints with. */
+@Entity({ name: 'sheet_profiles' })
+export class SheetProfile {
+  @PrimaryGeneratedColumn({ type: 'bigint', unsigned: true })
+  id!: string;
+
+  @Column({ name: 'team_id', type: 'bigint', unsigned: true })
+  teamId!: string;
+
+  @Column({ type: 'varchar', length: 80 })
+  name!: string;
+
+  @Column({ type: 'enum', enum: ['letter', 'a4', 'custom'] })
+  paper!: 'letter' | 'a4' | 'custom';
+
+  @Column({ name: 'paper_width_mm', ...decimal })
+  paperWidthMm!: number;
+
+  @Column({ name: 'paper_height_mm', ...decimal })
+  paperHeightMm!: number;
+
+  @Column({ name: 'area_width_mm', ...decimal })
+  areaWidthMm!: number;
+
+  @Column({ name: 'area_height_mm', ...decimal })
+  areaHeightMm!: number;
+
+  @Column({ name: 'area_x_mm', ...decimal })
+  areaXMm!: number;
+
+  @Column({ name: 'area_y_mm', ...decimal })
+  areaYMm!: number;
+
+  @Column({ name: 'safe_margin_mm', ...decimal, precision: 6 })
+  safeMarginMm!: number;
+
+  @Column({ name: 'min_gap_mm', ...decimal, precision: 6 })
+  minGapMm!: number;
+
+  @Column({ name: 'is_default', type: 'boolean', default: false })
+  isDefault!: boolean;
+
+  @CreateDateColumn({ name: 'created_at', type: 'datetime', precision: 3 })
+  createdAt!: Date;
+
+  @UpdateDateColumn({ name: 'updated_at', type: 'datetime', precision: 3 })
+  updatedAt!: Date;
+}
