@@ -61,6 +61,9 @@ export const commands = {
   movePieces: (doc: SheetDocument, ids: Iterable<string>, dx: number, dy: number): Command =>
     update(doc, 'Move', ids, (p) => ({ x: p.x + dx, y: p.y + dy })),
 
+  /** Any per-piece changes as one named step (e.g. a transform that rotates and resizes). */
+  patchPieces: (doc: SheetDocument, name: string, patches: Map<string, Partial<Omit<Piece, 'id'>>>): Command => update(doc, name, patches.keys(), (p) => patches.get(p.id)!),
+
   /** Sets absolute positions (after a drag), one per piece. */
   placePieces: (doc: SheetDocument, positions: Map<string, { x: number; y: number; rotation?: number }>): Command =>
     update(doc, 'Move', positions.keys(), (p) => positions.get(p.id)!),

@@ -32,6 +32,7 @@ describe('commands', () => {
     ['move', (d) => commands.movePieces(d, ['a', 'b'], 1.5, -2)],
     ['place', (d) => commands.placePieces(d, new Map([['a', { x: 5, y: 6, rotation: 45 }]]))],
     ['rotate', (d) => commands.rotatePieces(d, ['a', 'b'], 90)],
+    ['patch', (d) => commands.patchPieces(d, 'Transform', new Map([['a', { width: 61, rotation: 12 }], ['b', { x: 1 }]]))],
     ['set rotation', (d) => commands.setRotation(d, ['b'], -30)],
     ['resize', (d) => commands.resizePieces(d, ['a'], 55)],
     ['border', (d) => commands.setBorder(d, ['a'], 1.5, '#fdebd0')],

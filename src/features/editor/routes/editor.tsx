@@ -1,12 +1,14 @@
-import { EmptyState, PageTitle } from '../../../components/page-title';
+import { useParams } from 'react-router';
+import { FormMessage } from '../../../components/form';
+import { useTeamRole } from '../../auth/use-team-role';
+import { useSheet } from '../api/sheet';
+import { EditorPage } from '../ui/editor-page';
 
 export function EditorRoute() {
-  return (
-    <>
-      <PageTitle title="Sheet editor" />
-      <EmptyState title="The layout bench is being built">
-        This is where pieces will be placed at true size on the cutter’s print area.
-      </EmptyState>
-    </>
-  );
+  const { sheetId = '' } = useParams();
+  const { teamId, can } = useTeamRole();
+  const sheet = useSheet(teamId!, sheetId);
+  if (sheet.isPending) return <p>Opening the sheet…</p>;
+  if (sheet.isError) return <FormMessage>{sheet.error.message}</FormMessage>;
+  return <EditorPage key={sheet.data.id} teamId={teamId!} sheet={sheet.data} canEdit={can('sheets.edit')} />;
 }

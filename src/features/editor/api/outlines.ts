@@ -1,0 +1,67 @@
+import { useQueries } from '@tanstack/react-query';
+import { useEffect, useMemo, useRef, useState } from 'react';
+import type { Ring } from '../../../../shared/geometry/polygon';
+import type { Piece } from '../../../../shared/sheet/document';
+import { api } from '../../../lib/api-client';
+
+export type PieceOutline = {
+  points: Ring;
+  svgPath: string;
+  widthMm: number;
+  heightMm: number;
+  areaMm2: number;
+  pngUrl: string;
+  effectiveDpi: number;
+};
+
+type OutlineResponse = {
+  effectiveDpi: number;
+  pieces: Array<{ cutLine: { points: Ring; svgPath: string }; widthMm: number; heightMm: number; areaMm2: number; pngUrl: string }>;
+};
+
+/** The outline a piece needs: same art, printed width, border and border colour share one request. */
+export const outlineKey = (p: Pick<Piece, 'artId' | 'width' | 'border' | 'borderColour'>) => `${p.artId}|${p.width.toFixed(2)}|${p.border.toFixed(3)}|${p.borderColour}`;
+
+function fetchOutline(teamId: string, key: string): Promise<PieceOutline> {
+  const [artId, width, border, colour] = key.split('|');
+  // 150 DPI is plenty on screen; the cut line itself is exact in millimetres at any DPI.
+  const search = new URLSearchParams({ width: `${width}mm`, border: `${border}mm`, borderColour: colour, dpi: '150' });
+  return api<OutlineResponse>('GET', `/teams/${teamId}/art/${artId}/outline?${search}`).then((r) => ({
+    points: r.pieces[0].cutLine.points,
+    svgPath: r.pieces[0].cutLine.svgPath,
+    widthMm: r.pieces[0].widthMm,
+    heightMm: r.pieces[0].heightMm,
+    areaMm2: r.pieces[0].areaMm2,
+    pngUrl: r.pieces[0].pngUrl,
+    effectiveDpi: r.effectiveDpi,
+  }));
+}
+
+/**
+ * Outlines for every piece. Size and border changes are debounced, so typing a width or dragging a
+ * handle never sends a request per frame; until the new outline arrives a piece keeps its last one
+ * and is marked pending.
+ */
+export function usePieceOutlines(teamId: string, pieces: Piece[]) {
+  const wanted = useMemo(() => new Map(pieces.map((p) => [p.id, outlineKey(p)])), [pieces]);
+  const [settled, setSettled] = useState(wanted);
+  useEffect(() => {
+    const handle = setTimeout(() => setSettled(wanted), 250);
+    return () => clearTimeout(handle);
+  }, [wanted]);
+  const keys = useMemo(() => [...new Set(settled.values())], [settled]);
+  const results = useQueries({
+    queries: keys.map((key) => ({ queryKey: ['teams', teamId, 'outline', key], queryFn: () => fetchOutline(teamId, key), staleTime: Infinity, retry: 1 })),
+  });
+  const byKey = new Map<string, PieceOutline>();
+  keys.forEach((key, i) => results[i].data && byKey.set(key, results[i].data!));
+  const errors = keys.filter((_k, i) => results[i].isError);
+  const lastGood = useRef(new Map<string, PieceOutline>());
+  const outlines = new Map<string, { outline: PieceOutline | undefined; pending: boolean }>();
+  for (const piece of pieces) {
+    const current = byKey.get(wanted.get(piece.id)!);
+    if (current) lastGood.current.set(piece.id, current);
+    outlines.set(piece.id, { outline: current ?? lastGood.current.get(piece.id), pending: !current });
+  }
+  return { outlines, errors };
+}

@@ -1,0 +1,173 @@
+import type Konva from 'konva';
+import { useQueryClient } from '@tanstack/react-query';
+import { useCallback, useEffect, useMemo, useRef, useState, useSyncExternalStore } from 'react';
+import { useNavigate } from 'react-router';
+import type { ArtView } from '../../../../shared/schemas/library';
+import type { SheetDetail } from '../../../../shared/schemas/sheets';
+import { SHEET_STATUS_LABELS, SHEET_STATUSES } from '../../../../shared/schemas/sheets';
+import { commands } from '../../../../shared/sheet/commands';
+import { sheetGuards } from '../../../../shared/sheet/guards';
+import { rotatedHalfSize } from '../../../../shared/sheet/placement';
+import { usePieceOutlines } from '../api/outlines';
+import { saveAsCopy, sheetQueryOptions } from '../api/sheet';
+import type { ActionContext } from '../core/actions';
+import { handleKey, newPiece, runAction } from '../core/actions';
+import { EditorStore } from '../core/editor-store';
+import { SheetStage } from '../render/sheet-stage';
+import { GuardsPanel } from './guards-panel';
+import { HelpPanel } from './help-panel';
+import { Inspector } from './inspector';
+import { LibraryPanel, defaultWidthMm } from './library-panel';
+import { useAutosave } from './use-autosave';
+
+const SAVE_TEXT = { saved: 'All changes saved', unsaved: 'Unsaved changes…', saving: 'Saving…', offline: 'Offline: will retry', conflict: 'Not saved: conflict' } as const;
+
+export function EditorPage({ teamId, sheet, canEdit }: { teamId: string; sheet: SheetDetail; canEdit: boolean }) {
+  const store = useMemo(() => new EditorStore(sheet.document, { name: sheet.name, status: sheet.status, forSale: sheet.forSale, unit: sheet.unit }, sheet.version), [sheet.id]); // eslint-disable-line react-hooks/exhaustive-deps
+  const state = useSyncExternalStore(store.subscribe, store.getState);
+  const stageRef = useRef<Konva.Stage | null>(null);
+  const sheetRef = useRef<Konva.Group | null>(null);
+  const client = useQueryClient();
+  const navigate = useNavigate();
+  const [artNames] = useState(() => new Map<string, string>());
+  const { outlines } = usePieceOutlines(teamId, state.doc.pieces);
+  const unit = state.meta.unit;
+
+  const sizes = useMemo(() => {
+    const map = new Map<string, { widthMm: number; heightMm: number }>();
+    for (const p of state.doc.pieces) {
+      const o = outlines.get(p.id)?.outline;
+      map.set(p.id, o ? { widthMm: o.widthMm, heightMm: o.heightMm } : { widthMm: p.width + 2 * p.border, heightMm: p.width + 2 * p.border });
+    }
+    return map;
+  }, [state.doc.pieces, outlines]);
+
+  const ctx: ActionContext = useMemo(
+    () => ({ store, canEdit, unit, halfSize: (p) => rotatedHalfSize(sizes.get(p.id)?.widthMm ?? p.width, sizes.get(p.id)?.heightMm ?? p.width, p.rotation) }),
+    [store, canEdit, unit, sizes],
+  );
+
+  const guards = useMemo(() => {
+    const ready = new Map([...outlines].filter(([, o]) => o.outline && !o.pending).map(([id, o]) => [id, o.outline!]));
+    return sheetGuards(state.doc, ready, (p) => {
+      const o = outlines.get(p.id)?.outline;
+      return o && !outlines.get(p.id)?.pending ? (o.effectiveDpi * p.width) / 25.4 : undefined;
+    });
+  }, [state.doc, outlines]);
+  const warnIds = useMemo(() => new Set(guards.filter((g) => g.kind !== 'low-resolution').flatMap((g) => g.pieceIds)), [guards]);
+  const areaUsed = useCallback(() => {
+    const total = state.doc.pieces.reduce((sum, p) => sum + (outlines.get(p.id)?.outline?.areaMm2 ?? 0), 0);
+    return total / (state.doc.printArea.width * state.doc.printArea.height);
+  }, [state.doc, outlines]);
+
+  useAutosave(store, teamId, sheet.id, canEdit, sheetRef, areaUsed);
+
+  useEffect(() => {
+    const onKey = (e: KeyboardEvent) => {
+      const target = e.target as HTMLElement;
+      if (target.closest('input, textarea, select, [contenteditable]')) return;
+      if (handleKey(e, ctx)) e.preventDefault();
+    };
+    window.addEventListener('keydown', onKey);
+    return () => window.removeEventListener('keydown', onKey);
+  }, [ctx]);
+
+  const addArt = (art: { artId: string; widthPx: number }, at?: { x: number; y: number }) => {
+    const doc = store.getState().doc;
+    store.dispatch(commands.addPieces([newPiece(art.artId, at?.x ?? doc.printArea.width / 2, at?.y ?? doc.printArea.height / 2, Math.round(defaultWidthMm(art) * 100) / 100)]));
+  };
+  const onAddFromPanel = (item: ArtView) => {
+    artNames.set(item.id, item.name);
+    addArt({ artId: item.id, widthPx: item.widthPx });
+  };
+
+  const reloadTheirs = async () => {
+    const fresh = await client.fetchQuery({ ...sheetQueryOptions(teamId, sheet.id), staleTime: 0 });
+    store.load(fresh.document, { name: fresh.name, status: fresh.status, forSale: fresh.forSale, unit: fresh.unit }, fresh.version);
+  };
+  const keepCopy = async () => {
+    const s = store.getState();
+    const id = await saveAsCopy(teamId, `${s.meta.name} (my copy)`, s.meta.unit, s.doc);
+    store.load(s.doc, s.meta, s.version); // nothing left to save here; the copy has it
+    navigate(`/t/${teamId}/sheets/${id}`);
+  };
+
+  const selectedPieces = state.doc.pieces.filter((p) => state.selection.has(p.id));
+  const name = (id: string) => {
+    const p = state.doc.pieces.find((x) => x.id === id);
+    return p ? artNames.get(p.artId) ?? `Piece ${state.doc.pieces.indexOf(p) + 1}` : 'A piece';
+  };
+
+  return (
+    <div className="flex h-[calc(100vh-7.5rem)] min-h-[560px] flex-col gap-3">
+      <div className="flex flex-wrap items-center gap-3">
+        <input aria-label="Sheet name" value={state.meta.name} disabled={!canEdit} onChange={(e) => store.setMeta({ name: e.target.value })} className="min-w-0 flex-1 rounded-lg border-2 border-transparent bg-transparent px-2 text-2xl font-extrabold hover:border-paper-edge focus:border-peel" />
+        <select aria-label="Status" value={state.meta.status} disabled={!canEdit} onChange={(e) => store.setMeta({ status: e.target.value as typeof state.meta.status })} className="rounded-lg border-2 border-paper-edge bg-white px-2 py-1 text-sm">
+          {SHEET_STATUSES.map((s) => <option key={s} value={s}>{SHEET_STATUS_LABELS[s]}</option>)}
+        </select>
+        <label className="flex items-center gap-1 text-sm font-bold"><input type="checkbox" checked={state.meta.forSale} disabled={!canEdit} onChange={(e) => store.setMeta({ forSale: e.target.checked })} />For sale</label>
+        <select aria-label="Unit" value={unit} onChange={(e) => store.setMeta({ unit: e.target.value as 'in' | 'mm' })} disabled={!canEdit} className="rounded-lg border-2 border-paper-edge bg-white px-2 py-1 text-sm">
+          <option value="in">in</option>
+          <option value="mm">mm</option>
+        </select>
+        <span role="status" data-testid="save-state" className={`rounded-full px-3 py-1 text-xs font-bold ${state.save === 'saved' ? 'bg-sage-light text-sage-deep' : state.save === 'conflict' || state.save === 'offline' ? 'bg-alarm-light text-alarm' : 'bg-paper-deep'}`}>
+          {canEdit ? SAVE_TEXT[state.save] : 'Read only: your role can view sheets'}
+        </span>
+      </div>
+      <div className="flex flex-wrap items-center gap-1 text-sm" role="toolbar" aria-label="Sheet tools">
+        {canEdit && (
+          <>
+            <button type="button" className="rounded border-2 border-paper-edge bg-white px-2 py-1 font-bold disabled:opacity-40" disabled={!store.history.canUndo} onClick={() => runAction('undo', ctx)} title="Ctrl/⌘ Z">Undo</button>
+            <button type="button" className="rounded border-2 border-paper-edge bg-white px-2 py-1 font-bold disabled:opacity-40" disabled={!store.history.canRedo} onClick={() => runAction('redo', ctx)} title="Shift Ctrl/⌘ Z">Redo</button>
+          </>
+        )}
+        <button type="button" className="rounded border-2 border-paper-edge bg-white px-2 py-1 font-bold" onClick={() => runAction('zoom-fit', ctx)}>Fit</button>
+        <button type="button" className="rounded border-2 border-paper-edge bg-white px-2 py-1 font-bold" onClick={() => runAction('zoom-real', ctx)}>100 %</button>
+        <button type="button" className="rounded border-2 border-paper-edge bg-white px-2 py-1 font-bold" onClick={() => runAction('zoom-out', ctx)} aria-label="Zoom out">−</button>
+        <button type="button" className="rounded border-2 border-paper-edge bg-white px-2 py-1 font-bold" onClick={() => runAction('zoom-in', ctx)} aria-label="Zoom in">+</button>
+        <label className="ml-2 flex items-center gap-1 font-bold"><input type="checkbox" checked={state.showCutLines} onChange={() => runAction('cut-lines', ctx)} />Cut lines</label>
+        <span className="ml-auto text-xs text-ink-soft" data-testid="area-used">{state.doc.pieces.length} pieces · {Math.round(areaUsed() * 100)} % of the print area</span>
+        <button type="button" className="rounded border-2 border-paper-edge bg-white px-2 py-1 font-bold" onClick={() => runAction('help', ctx)}>Shortcuts (?)</button>
+      </div>
+      <div className="grid min-h-0 flex-1 gap-3 lg:grid-cols-[13rem_1fr_17rem]">
+        <LibraryPanel teamId={teamId} canEdit={canEdit} onAdd={onAddFromPanel} />
+        <SheetStage
+          store={store}
+          state={state}
+          canEdit={canEdit}
+          outlines={outlines}
+          warnIds={warnIds}
+          stageRef={stageRef}
+          sheetRef={sheetRef}
+          onDropArt={(data, at) => {
+            const art = JSON.parse(data) as { artId: string; widthPx: number };
+            addArt(art, at);
+          }}
+        />
+        <aside className="flex min-h-0 flex-col gap-4 overflow-auto rounded-sticker border-2 border-paper-edge bg-white p-3" aria-label="Selection and checks">
+          <section aria-labelledby="sel-title">
+            <h2 id="sel-title" className="mb-2 text-sm font-extrabold uppercase tracking-wide text-ink-faint">Selection</h2>
+            <Inspector ctx={ctx} pieces={selectedPieces} sizes={sizes} />
+          </section>
+          <section aria-labelledby="guard-title">
+            <h2 id="guard-title" className="mb-2 text-sm font-extrabold uppercase tracking-wide text-ink-faint">Checks</h2>
+            <GuardsPanel guards={guards} unit={unit} minGap={state.doc.minGap} name={name} onSelect={(ids) => store.select(ids)} />
+          </section>
+        </aside>
+      </div>
+      {state.helpOpen && <HelpPanel onClose={() => store.setView({ helpOpen: false })} />}
+      {state.save === 'conflict' && (
+        <div role="alertdialog" aria-modal="true" aria-labelledby="conflict-title" className="fixed inset-0 z-50 flex items-center justify-center bg-ink/40 p-4">
+          <div className="w-full max-w-md rounded-sticker bg-white p-6">
+            <h2 id="conflict-title" className="mb-2 text-xl font-extrabold">Someone else saved this sheet</h2>
+            <p className="mb-4 text-sm text-ink-soft">{state.conflict} Your changes are still here; nothing was overwritten.</p>
+            <div className="flex flex-wrap gap-2">
+              <button type="button" className="rounded-full bg-ink px-4 py-2 font-bold text-paper" onClick={() => void keepCopy()}>Keep mine as a copy</button>
+              <button type="button" className="rounded-full border-2 border-ink px-4 py-2 font-bold" onClick={() => void reloadTheirs()}>Load their version</button>
+            </div>
+          </div>
+        </div>
+      )}
+    </div>
+  );
+}

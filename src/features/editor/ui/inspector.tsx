@@ -1,0 +1,82 @@
+import { useEffect, useState } from 'react';
+import { commands } from '../../../../shared/sheet/commands';
+import type { Piece } from '../../../../shared/sheet/document';
+import type { LengthUnit } from '../../../../shared/units';
+import { formatLength, fromMm, toMm } from '../../../../shared/units';
+import type { ActionContext } from '../core/actions';
+import { runAction } from '../core/actions';
+
+function LengthInput({ label, mm, unit, onCommit, min }: { label: string; mm: number; unit: LengthUnit; onCommit: (mm: number) => void; min: number }) {
+  const show = (v: number) => String(Number(fromMm(v, unit).toFixed(unit === 'in' ? 3 : 1)));
+  const [text, setText] = useState(show(mm));
+  useEffect(() => setText(show(mm)), [mm, unit]); // eslint-disable-line react-hooks/exhaustive-deps
+  const commit = () => {
+    const value = toMm(Number(text), unit);
+    if (Number.isFinite(value) && value >= min) onCommit(value);
+    else setText(show(mm));
+  };
+  return (
+    <label className="flex items-center justify-between gap-2 text-sm font-bold">
+      {label}
+      <span className="flex items-center gap-1">
+        <input value={text} inputMode="decimal" onChange={(e) => setText(e.target.value)} onBlur={commit} onKeyDown={(e) => e.key === 'Enter' && commit()} className="w-20 rounded border-2 border-paper-edge px-2 py-1 text-right font-normal" aria-label={`${label} (${unit})`} />
+        <span className="w-6 font-normal">{unit}</span>
+      </span>
+    </label>
+  );
+}
+
+/** Size, rotation, border and lock of the selection, plus align and distribute. */
+export function Inspector({ ctx, pieces, sizes }: { ctx: ActionContext; pieces: Piece[]; sizes: Map<string, { widthMm: number; heightMm: number }> }) {
+  const { store, unit, canEdit } = ctx;
+  if (pieces.length === 0) return <p className="text-sm text-ink-soft">Select a piece to size it. Drag art from the left onto the sheet.</p>;
+  const ids = pieces.map((p) => p.id);
+  const first = pieces[0];
+  const frame = sizes.get(first.id);
+  const doc = () => store.getState().doc;
+  const button = (name: string, label: string) => (
+    <button key={name} type="button" disabled={!canEdit} onClick={() => runAction(name, ctx)} className="rounded border-2 border-paper-edge px-2 py-1 text-xs font-bold hover:border-ink disabled:opacity-40">
+      {label}
+    </button>
+  );
+  return (
+    <div className="flex flex-col gap-3">
+      <p className="text-sm font-bold">{pieces.length === 1 ? 'One piece' : `${pieces.length} pieces`}{first.locked && pieces.length === 1 ? ' (locked)' : ''}</p>
+      <fieldset disabled={!canEdit} className="flex flex-col gap-2">
+        <LengthInput label="Art width" mm={first.width} unit={unit} min={2} onCommit={(w) => store.dispatch(commands.resizePieces(doc(), ids, w))} />
+        <LengthInput label="Border" mm={first.border} unit={unit} min={0} onCommit={(b) => store.dispatch(commands.setBorder(doc(), ids, b))} />
+        <label className="flex items-center justify-between gap-2 text-sm font-bold">
+          Rotation
+          <input type="number" value={Math.round(first.rotation)} onChange={(e) => store.dispatch(commands.setRotation(doc(), ids, Number(e.target.value)))} className="w-20 rounded border-2 border-paper-edge px-2 py-1 text-right font-normal" aria-label="Rotation (degrees)" />
+        </label>
+        <label className="flex items-center justify-between gap-2 text-sm font-bold">
+          Border colour
+          <input type="color" value={first.borderColour} onChange={(e) => store.dispatch(commands.setBorder(doc(), ids, first.border, e.target.value))} aria-label="Border colour" />
+        </label>
+      </fieldset>
+      {frame && (
+        <p className="text-xs text-ink-soft" data-testid="size-readout">
+          Finished sticker {formatLength(frame.widthMm, unit)} × {formatLength(frame.heightMm, unit)}
+        </p>
+      )}
+      <div className="flex flex-wrap gap-1">
+        {button('rotate-cw', 'Rotate 90°')}
+        {button('duplicate', 'Duplicate')}
+        {button('lock', first.locked ? 'Unlock' : 'Lock')}
+        {button('delete', 'Delete')}
+      </div>
+      {pieces.length > 1 && (
+        <div className="flex flex-wrap gap-1" aria-label="Align and distribute">
+          {button('align-left', 'Align left')}
+          {button('align-centre', 'Centres')}
+          {button('align-right', 'Right')}
+          {button('align-top', 'Top')}
+          {button('align-middle', 'Middles')}
+          {button('align-bottom', 'Bottom')}
+          {pieces.length > 2 && button('distribute-x', 'Space across')}
+          {pieces.length > 2 && button('distribute-y', 'Space down')}
+        </div>
+      )}
+    </div>
+  );
+}
