@@ -158,6 +158,9 @@ export function SheetStage({ store, state, canEdit, outlines, warnIds, onDropArt
       ref={box}
       className="relative h-full min-h-[420px] w-full overflow-hidden rounded-sticker border-2 border-paper-edge bg-[#dfe6e5]"
       data-testid="sheet-canvas"
+      // Where the print area's corner is and its scale, for tests that aim at a piece.
+      data-origin={`${origin.x},${origin.y}`}
+      data-px-per-mm={pxPerMm}
       onDragOver={(e) => canEdit && e.preventDefault()}
       onDrop={onDrop}
     >

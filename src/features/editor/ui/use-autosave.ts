@@ -24,6 +24,9 @@ function thumbnail(sheet: Konva.Group | null, width: number, height: number): st
 export function useAutosave(store: EditorStore, teamId: string, sheetId: string, canEdit: boolean, sheetRef: React.MutableRefObject<Konva.Group | null>, areaUsed: () => number) {
   const timer = useRef<ReturnType<typeof setTimeout>>(undefined);
   const running = useRef(false);
+  // Read at save time; kept in a ref so a new function each render does not restart the timer.
+  const area = useRef(areaUsed);
+  area.current = areaUsed;
 
   useEffect(() => {
     if (!canEdit) return;
@@ -38,7 +41,7 @@ export function useAutosave(store: EditorStore, teamId: string, sheetId: string,
           version: state.version,
           document: sent.doc,
           ...sent.meta,
-          areaUsed: Math.min(1, areaUsed()),
+          areaUsed: Math.min(1, area.current()),
           thumbnail: thumbnail(sheetRef.current, sent.doc.printArea.width, sent.doc.printArea.height),
         });
         store.saveSucceeded(sent, result.version);
@@ -74,5 +77,5 @@ export function useAutosave(store: EditorStore, teamId: string, sheetId: string,
       clearTimeout(timer.current);
       window.removeEventListener('beforeunload', warn);
     };
-  }, [store, teamId, sheetId, canEdit, sheetRef, areaUsed]);
+  }, [store, teamId, sheetId, canEdit, sheetRef]);
 }

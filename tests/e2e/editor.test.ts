@@ -1,0 +1,196 @@
+import { mkdirSync, writeFileSync } from 'node:fs';
+import path from 'node:path';
+import { afterAll, beforeAll, describe, expect, it } from 'vitest';
+import type { Browser, Page } from 'playwright-core';
+import type { DataSource } from 'typeorm';
+import type { Piece } from '../../shared/sheet/document';
+import { svgArt } from '../helpers/art';
+import { Client, TEST_PASSWORD, makeTeamWithRoles, openDatabase } from '../helpers/app';
+import { launchChromium, screenshot, serveApp } from '../helpers/browser';
+import { uploadFile } from '../helpers/library';
+
+let db: DataSource;
+let browser: Browser;
+let served: Awaited<ReturnType<typeof serveApp>>;
+
+beforeAll(async () => {
+  db = await openDatabase();
+  served = await serveApp(db);
+  browser = await launchChromium();
+});
+afterAll(async () => {
+  await browser?.close();
+  await served?.close();
+  await db?.destroy();
+});
+
+async function signIn(page: Page, email: string) {
+  await page.goto(`${served.url}/sign-in`);
+  await page.getByLabel('E-mail').fill(email);
+  await page.getByLabel('Password').fill(TEST_PASSWORD);
+  await page.getByRole('button', { name: 'Sign in' }).click();
+  await page.waitForURL(/\/t\/\d+\/library$/);
+}
+
+async function teamWithArt() {
+  const { team, users } = await makeTeamWithRoles(db);
+  const client = new Client(served.url);
+  await client.signIn(users.member.email);
+  const shapes = ['<circle cx="300" cy="300" r="270" fill="#1f618d"/>', '<rect x="45" y="45" width="510" height="510" rx="90" fill="#b9770e"/>', '<path d="M300 30 L570 570 L30 570 Z" fill="#7d3c98"/>'];
+  const art = [];
+  for (const [i, shape] of shapes.entries()) art.push((await uploadFile(client, team.id, await svgArt(1200, 1200, `<g transform="scale(2)">${shape}</g>`), `shape-${i + 1}.png`)).body.results[0].item);
+  return { team, users, client, art };
+}
+
+/** Screen position (page px) of a point given in sheet millimetres. */
+async function screenOf(page: Page, mm: { x: number; y: number }) {
+  const canvas = page.getByTestId('sheet-canvas');
+  const box = (await canvas.boundingBox())!;
+  const [ox, oy] = (await canvas.getAttribute('data-origin'))!.split(',').map(Number);
+  const scale = Number(await canvas.getAttribute('data-px-per-mm'));
+  return { x: box.x + ox + mm.x * scale, y: box.y + oy + mm.y * scale };
+}
+
+const sheetOf = async (client: Client, teamId: string, id: string) => (await client.get(`/api/teams/${teamId}/sheets/${id}`)).body;
+
+describe('sheet editor in Chromium', () => {
+  it('create, drag three pieces in, type a width, gap warning, undo/redo, reload; a second editor gets the conflict choice', async () => {
+    const { team, users, client } = await teamWithArt();
+    const page = await browser.newPage({ viewport: { width: 1280, height: 900 } });
+    await signIn(page, users.member.email);
+    await page.goto(`${served.url}/t/${team.id}/sheets`);
+    await page.getByPlaceholder('e.g. Spring market, sheet 1').fill('Editor trial');
+    await page.getByRole('button', { name: 'Start sheet' }).click();
+    await page.waitForURL(/sheets\/\d+$/);
+    const sheetId = page.url().split('/').pop()!;
+    const items = page.locator('[data-testid=library-panel] li');
+    await expect.poll(() => items.count()).toBe(3);
+
+    const canvas = page.getByTestId('sheet-canvas');
+    const targets = [{ x: 40, y: 40 }, { x: 110, y: 40 }, { x: 75, y: 150 }];
+    // The panel lists newest first: the circle (shape-1) is last; it goes top left.
+    for (const [i, at] of targets.entries()) {
+      const p = await screenOf(page, at);
+      const box = (await canvas.boundingBox())!;
+      await items.nth(2 - i).dragTo(canvas, { targetPosition: { x: p.x - box.x, y: p.y - box.y } });
+    }
+    await expect.poll(() => page.getByTestId('area-used').textContent(), { timeout: 20_000 }).toMatch(/^3 pieces · [1-9]/);
+    await expect.poll(() => page.getByTestId('guards-ok').count(), { timeout: 15_000 }).toBe(1);
+    await expect.poll(() => page.getByTestId('save-state').textContent(), { timeout: 15_000 }).toBe('All changes saved');
+    let saved = await sheetOf(client, team.id, sheetId);
+    expect(saved.document.pieces).toHaveLength(3);
+    const first = saved.document.pieces.find((p: Piece) => Math.abs(p.x - 40) < 2)!;
+    expect(first.y).toBeCloseTo(40, 0);
+    await screenshot(page, 'editor-three-pieces');
+
+    // Select the circle and type a width of 3 in: its cut line comes within 0.1 mm of the square's.
+    const firstAt = await screenOf(page, { x: first.x, y: first.y });
+    await page.mouse.click(firstAt.x, firstAt.y);
+    const width = page.getByLabel('Art width (in)');
+    await width.fill('3');
+    await width.press('Enter');
+    await expect.poll(() => page.getByTestId('guards').textContent(), { timeout: 15_000 }).toMatch(/apart; the cutter needs 0\.125 in/);
+    await screenshot(page, 'editor-gap-warning');
+
+    await page.mouse.click(5, 300); // leave the text field so shortcuts reach the editor
+    await page.keyboard.press('Control+z');
+    await expect.poll(() => page.getByTestId('guards-ok').count(), { timeout: 15_000 }).toBe(1);
+    await page.keyboard.press('Control+Shift+z');
+    await expect.poll(() => page.getByTestId('guards').count(), { timeout: 15_000 }).toBe(1);
+    await expect.poll(() => page.getByTestId('save-state').textContent(), { timeout: 15_000 }).toBe('All changes saved');
+
+    await page.reload();
+    await expect.poll(() => page.getByTestId('area-used').textContent(), { timeout: 15_000 }).toMatch(/^3 pieces/);
+    saved = await sheetOf(client, team.id, sheetId);
+    expect(saved.document.pieces.find((p: Piece) => p.id === first.id).width).toBeCloseTo(76.2, 6);
+    await expect.poll(() => page.getByTestId('guards').count(), { timeout: 15_000 }).toBe(1);
+    await screenshot(page, 'editor-after-reload');
+
+    // A teammate (second browser context) saves first; this editor's next save meets the conflict.
+    const other = await browser.newContext({ viewport: { width: 1280, height: 900 } });
+    const page2 = await other.newPage();
+    await signIn(page2, users.admin.email);
+    await page2.goto(`${served.url}/t/${team.id}/sheets/${sheetId}`);
+    await page2.getByLabel('Sheet name').fill('Editor trial (admin edit)');
+    await expect.poll(() => page2.getByTestId('save-state').textContent(), { timeout: 15_000 }).toBe('All changes saved');
+
+    await page.getByLabel('Sheet name').fill('Editor trial (member edit)');
+    await page.getByRole('alertdialog').waitFor({ timeout: 15_000 });
+    expect(await page.getByRole('alertdialog').textContent()).toMatch(/saved this sheet since you opened it/);
+    await screenshot(page, 'editor-conflict');
+    await page.getByRole('button', { name: 'Keep mine as a copy' }).click();
+    await page.waitForURL((url) => !url.pathname.endsWith(`/${sheetId}`));
+    await expect.poll(() => page.getByLabel('Sheet name').inputValue()).toBe('Editor trial (member edit) (my copy)');
+    expect((await sheetOf(client, team.id, sheetId)).name).toBe('Editor trial (admin edit)');
+    await other.close();
+    await page.close();
+  });
+
+  it('opens sheets read-only for a viewer', async () => {
+    const { team, users, client, art } = await teamWithArt();
+    const { body: sheet } = await client.post(`/api/teams/${team.id}/sheets`, { name: 'Look only' });
+    await client.send('put', `/api/teams/${team.id}/sheets/${sheet.id}`, { version: 1, document: { ...sheet.document, pieces: [{ id: 'v1', artId: art[0].id, x: 50, y: 50, rotation: 0, width: 40, border: 3, borderColour: '#ffffff', locked: false }] } });
+    const page = await browser.newPage({ viewport: { width: 1280, height: 900 } });
+    await signIn(page, users.viewer.email);
+    await page.goto(`${served.url}/t/${team.id}/sheets/${sheet.id}`);
+    await expect.poll(() => page.getByTestId('save-state').textContent()).toBe('Read only: your role can view sheets');
+    expect(await page.getByRole('button', { name: 'Undo' }).count()).toBe(0);
+    const at = await screenOf(page, { x: 50, y: 50 });
+    await page.mouse.move(at.x, at.y);
+    await page.mouse.down();
+    await page.mouse.move(at.x + 80, at.y + 40, { steps: 5 });
+    await page.mouse.up();
+    await page.keyboard.press('Delete');
+    expect((await sheetOf(client, team.id, sheet.id)).document.pieces[0]).toMatchObject({ x: 50, y: 50 });
+    await page.close();
+  });
+
+  it('benchmark: drag frame times with 150 pieces on the sheet', async () => {
+    const { team, users, client, art } = await teamWithArt();
+    const { body: sheet } = await client.post(`/api/teams/${team.id}/sheets`, { name: 'Crowded' });
+    const pieces: Piece[] = [];
+    for (let i = 0; i < 150; i++) {
+      pieces.push({ id: `b${i}`, artId: art[i % 3].id, x: 8 + (i % 13) * 12.5, y: 8 + Math.floor(i / 13) * 19, rotation: (i * 15) % 360, width: 9, border: 1.5, borderColour: '#ffffff', locked: false });
+    }
+    await client.send('put', `/api/teams/${team.id}/sheets/${sheet.id}`, { version: 1, document: { ...sheet.document, pieces } });
+    const page = await browser.newPage({ viewport: { width: 1280, height: 900 } });
+    await signIn(page, users.member.email);
+    await page.goto(`${served.url}/t/${team.id}/sheets/${sheet.id}`);
+    await expect.poll(() => page.getByTestId('area-used').textContent(), { timeout: 20_000 }).toMatch(/^150 pieces · [1-9]/);
+    await page.waitForTimeout(1500);
+    const from = await screenOf(page, { x: pieces[70].x, y: pieces[70].y });
+    await page.evaluate(() => {
+      const w = window as unknown as { frames: number[]; sampling: boolean };
+      w.frames = [];
+      w.sampling = true;
+      let last = performance.now();
+      const tick = (now: number) => {
+        w.frames.push(now - last);
+        last = now;
+        if (w.sampling) requestAnimationFrame(tick);
+      };
+      requestAnimationFrame(tick);
+    });
+    await page.mouse.move(from.x, from.y);
+    await page.mouse.down();
+    for (let i = 1; i <= 120; i++) {
+      await page.mouse.move(from.x + i * 1.5, from.y + Math.sin(i / 10) * 30);
+    }
+    await page.mouse.up();
+    const frames: number[] = await page.evaluate(() => {
+      const w = window as unknown as { frames: number[]; sampling: boolean };
+      w.sampling = false;
+      return w.frames.slice(1);
+    });
+    const sorted = [...frames].sort((a, b) => a - b);
+    const median = sorted[Math.floor(sorted.length / 2)];
+    const p95 = sorted[Math.floor(sorted.length * 0.95)];
+    const report = { pieces: 150, frames: frames.length, medianMs: Number(median.toFixed(1)), p95Ms: Number(p95.toFixed(1)) };
+    console.log(`editor drag benchmark: ${JSON.stringify(report)}`);
+    mkdirSync('tests/output', { recursive: true });
+    writeFileSync(path.join('tests/output', 'bench-editor-drag.json'), JSON.stringify(report, null, 2));
+    expect(frames.length).toBeGreaterThan(20);
+    await screenshot(page, 'editor-150-pieces');
+    await page.close();
+  });
+});
