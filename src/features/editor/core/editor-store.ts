@@ -5,7 +5,7 @@ import type { SheetDocument } from '../../../../shared/sheet/document';
 import { History } from '../../../../shared/sheet/history';
 
 export type SaveState = 'saved' | 'unsaved' | 'saving' | 'offline' | 'conflict';
-export type SheetMeta = { name: string; status: 'draft' | 'ready' | 'printed'; forSale: boolean; unit: 'in' | 'mm' };
+export type SheetMeta = { name: string; status: 'draft' | 'ready' | 'printed'; forSale: boolean; unit: 'in' | 'mm'; notes: string };
 
 export type EditorState = {
   doc: SheetDocument;

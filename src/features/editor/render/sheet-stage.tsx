@@ -3,7 +3,7 @@ import { useEffect, useRef, useState } from 'react';
 import type { DragEvent } from 'react';
 import { Group, Layer, Rect, Stage, Transformer } from 'react-konva';
 import { commands } from '../../../../shared/sheet/commands';
-import { mmToCssPx } from '../../../../shared/units';
+import { formatLength, mmToCssPx } from '../../../../shared/units';
 import type { PieceOutline } from '../api/outlines';
 import { setDrawnZoom } from '../core/actions';
 import type { EditorState, EditorStore } from '../core/editor-store';
@@ -27,6 +27,7 @@ export function SheetStage({ store, state, canEdit, outlines, warnIds, onDropArt
   const transformer = useRef<Konva.Transformer>(null);
   const [size, setSize] = useState({ width: 800, height: 600 });
   const [marquee, setMarquee] = useState<{ x0: number; y0: number; x1: number; y1: number } | null>(null);
+  const [liveWidth, setLiveWidth] = useState<number | null>(null);
   const dragStart = useRef(new Map<string, { x: number; y: number }>());
   const { doc } = state;
 
@@ -99,7 +100,15 @@ export function SheetStage({ store, state, canEdit, outlines, warnIds, onDropArt
     return () => window.removeEventListener('keydown', onKey, true);
   }, [stageRef]);
 
+  // Live readout of the printed width while a corner handle is dragged.
+  const onTransform = () => {
+    const node = transformer.current?.nodes()[0];
+    const piece = node && doc.pieces.find((p) => p.id === node.id());
+    setLiveWidth(piece ? piece.width * Math.abs(node.scaleX()) : null);
+  };
+
   const onTransformEnd = () => {
+    setLiveWidth(null);
     const patches = new Map<string, { x: number; y: number; rotation: number; width: number }>();
     for (const node of transformer.current?.nodes() ?? []) {
       const piece = doc.pieces.find((p) => p.id === node.id());
@@ -199,6 +208,7 @@ export function SheetStage({ store, state, canEdit, outlines, warnIds, onDropArt
             rotationSnapTolerance={4}
             borderStroke="#f08a5d"
             anchorStroke="#b4532a"
+            onTransform={onTransform}
             onTransformEnd={onTransformEnd}
           />
         </Layer>
@@ -209,6 +219,11 @@ export function SheetStage({ store, state, canEdit, outlines, warnIds, onDropArt
       <div className="pointer-events-none absolute bottom-2 right-3 rounded bg-white/80 px-2 text-xs font-bold" data-testid="zoom-readout">
         {Math.round(zoom * 100)} %
       </div>
+      {liveWidth !== null && (
+        <div className="pointer-events-none absolute left-1/2 top-8 -translate-x-1/2 rounded bg-ink px-3 py-1 text-sm font-bold text-paper" role="status">
+          Art width {formatLength(liveWidth, state.meta.unit)}
+        </div>
+      )}
     </div>
   );
 }

@@ -1,7 +1,7 @@
 import type Konva from 'konva';
 import { useQueryClient } from '@tanstack/react-query';
 import { useCallback, useEffect, useMemo, useRef, useState, useSyncExternalStore } from 'react';
-import { useNavigate } from 'react-router';
+import { useBlocker, useNavigate } from 'react-router';
 import type { ArtView } from '../../../../shared/schemas/library';
 import type { SheetDetail } from '../../../../shared/schemas/sheets';
 import { SHEET_STATUS_LABELS, SHEET_STATUSES } from '../../../../shared/schemas/sheets';
@@ -23,7 +23,7 @@ import { useAutosave } from './use-autosave';
 const SAVE_TEXT = { saved: 'All changes saved', unsaved: 'Unsaved changes…', saving: 'Saving…', offline: 'Offline: will retry', conflict: 'Not saved: conflict' } as const;
 
 export function EditorPage({ teamId, sheet, canEdit }: { teamId: string; sheet: SheetDetail; canEdit: boolean }) {
-  const store = useMemo(() => new EditorStore(sheet.document, { name: sheet.name, status: sheet.status, forSale: sheet.forSale, unit: sheet.unit }, sheet.version), [sheet.id]); // eslint-disable-line react-hooks/exhaustive-deps
+  const store = useMemo(() => new EditorStore(sheet.document, { name: sheet.name, status: sheet.status, forSale: sheet.forSale, unit: sheet.unit, notes: sheet.notes }, sheet.version), [sheet.id]); // eslint-disable-line react-hooks/exhaustive-deps
   const state = useSyncExternalStore(store.subscribe, store.getState);
   const stageRef = useRef<Konva.Stage | null>(null);
   const sheetRef = useRef<Konva.Group | null>(null);
@@ -61,6 +61,13 @@ export function EditorPage({ teamId, sheet, canEdit }: { teamId: string; sheet: 
   }, [state.doc, outlines]);
 
   useAutosave(store, teamId, sheet.id, canEdit, sheetRef, areaUsed);
+  // Leaving for another page of the app with unsaved work asks first (reloads are asked by the browser).
+  const blocker = useBlocker(({ currentLocation, nextLocation }) => canEdit && state.save !== 'saved' && state.save !== 'conflict' && currentLocation.pathname !== nextLocation.pathname);
+  useEffect(() => {
+    if (blocker.state !== 'blocked') return;
+    if (window.confirm('This sheet has changes that are not saved yet. Leave anyway?')) blocker.proceed();
+    else blocker.reset();
+  }, [blocker]);
 
   useEffect(() => {
     const onKey = (e: KeyboardEvent) => {
@@ -83,7 +90,7 @@ export function EditorPage({ teamId, sheet, canEdit }: { teamId: string; sheet: 
 
   const reloadTheirs = async () => {
     const fresh = await client.fetchQuery({ ...sheetQueryOptions(teamId, sheet.id), staleTime: 0 });
-    store.load(fresh.document, { name: fresh.name, status: fresh.status, forSale: fresh.forSale, unit: fresh.unit }, fresh.version);
+    store.load(fresh.document, { name: fresh.name, status: fresh.status, forSale: fresh.forSale, unit: fresh.unit, notes: fresh.notes }, fresh.version);
   };
   const keepCopy = async () => {
     const s = store.getState();
@@ -149,6 +156,10 @@ export function EditorPage({ teamId, sheet, canEdit }: { teamId: string; sheet: 
             <h2 id="sel-title" className="mb-2 text-sm font-extrabold uppercase tracking-wide text-ink-faint">Selection</h2>
             <Inspector ctx={ctx} pieces={selectedPieces} sizes={sizes} />
           </section>
+          <details>
+            <summary className="cursor-pointer text-sm font-extrabold uppercase tracking-wide text-ink-faint">Notes</summary>
+            <textarea aria-label="Sheet notes" value={state.meta.notes} disabled={!canEdit} onChange={(e) => store.setMeta({ notes: e.target.value })} rows={4} className="mt-2 w-full rounded border-2 border-paper-edge px-2 py-1 text-sm" placeholder="Stock, printer settings, who it is for…" />
+          </details>
           <section aria-labelledby="guard-title">
             <h2 id="guard-title" className="mb-2 text-sm font-extrabold uppercase tracking-wide text-ink-faint">Checks</h2>
             <GuardsPanel guards={guards} unit={unit} minGap={state.doc.minGap} name={name} onSelect={(ids) => store.select(ids)} />

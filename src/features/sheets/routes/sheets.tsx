@@ -16,10 +16,12 @@ export function SheetsRoute() {
   const { data: me } = useMe();
   const [q, setQ] = useState('');
   const [status, setStatus] = useState('');
+  const [ownerId, setOwnerId] = useState('');
   const [name, setName] = useState('');
   const [profileId, setProfileId] = useState('');
   const [error, setError] = useState<string | null>(null);
-  const sheets = useSheets(teamId!, { q, status });
+  const sheets = useSheets(teamId!, { q, status, ownerId });
+  const owners = [...new Map((sheets.data ?? []).map((s) => [s.owner.id, s.owner.name])).entries()];
   const templates = useSheets(teamId!, { templates: 'only' });
   const profiles = useProfiles(teamId!);
   const create = useCreateSheet(teamId!);
@@ -67,6 +69,10 @@ export function SheetsRoute() {
             <select aria-label="Status" value={status} onChange={(e) => setStatus(e.target.value)} className={input}>
               <option value="">Any status</option>
               {SHEET_STATUSES.map((s) => <option key={s} value={s}>{SHEET_STATUS_LABELS[s]}</option>)}
+            </select>
+            <select aria-label="Owner" value={ownerId} onChange={(e) => setOwnerId(e.target.value)} className={input}>
+              <option value="">Anyone’s</option>
+              {owners.map(([id, n]) => <option key={id} value={id}>{n}</option>)}
             </select>
           </div>
           {sheets.data?.length === 0 ? (
