@@ -89,4 +89,4 @@ export type SheetSummary = {
   thumbnailUrl: string | null;
 };
 
-export type SheetDetail = SheetSummary & { notes: string; document: z.infer<typeof sheetDocumentSchema> };
+export type SheetDetail = SheetSummary & { notes: string; document: z.infer<typeof sheetDocumentSchema>; artNames: Record<string, string> };

@@ -60,7 +60,10 @@ export class SheetsService {
   async detail(teamId: string, id: string): Promise<SheetDetail> {
     const sheet = await this.find(teamId, id);
     const [summary] = await this.summaries([sheet]);
-    return { ...summary, notes: sheet.notes ?? '', document: migrateDocument(JSON.parse(sheet.document)) };
+    const document = migrateDocument(JSON.parse(sheet.document));
+    const ids = [...new Set(document.pieces.map((p) => p.artId))];
+    const art = ids.length ? await this.dataSource.getRepository(ArtItem).findBy({ id: In(ids), teamId }) : [];
+    return { ...summary, notes: sheet.notes ?? '', document, artNames: Object.fromEntries(art.map((a) => [a.id, a.name])) };
   }
 
   /** Every art item a document uses must be the team's own (a deleted one still counts). */

@@ -29,7 +29,7 @@ export function EditorPage({ teamId, sheet, canEdit }: { teamId: string; sheet: 
   const sheetRef = useRef<Konva.Group | null>(null);
   const client = useQueryClient();
   const navigate = useNavigate();
-  const [artNames] = useState(() => new Map<string, string>());
+  const [artNames] = useState(() => new Map<string, string>(Object.entries(sheet.artNames)));
   const { outlines } = usePieceOutlines(teamId, state.doc.pieces);
   const unit = state.meta.unit;
 
@@ -102,7 +102,10 @@ export function EditorPage({ teamId, sheet, canEdit }: { teamId: string; sheet: 
   const selectedPieces = state.doc.pieces.filter((p) => state.selection.has(p.id));
   const name = (id: string) => {
     const p = state.doc.pieces.find((x) => x.id === id);
-    return p ? artNames.get(p.artId) ?? `Piece ${state.doc.pieces.indexOf(p) + 1}` : 'A piece';
+    if (!p) return 'A piece';
+    const art = artNames.get(p.artId) ?? 'Piece';
+    const same = state.doc.pieces.filter((x) => x.artId === p.artId);
+    return same.length > 1 ? `${art} ${same.indexOf(p) + 1}` : art;
   };
 
   return (
@@ -147,7 +150,8 @@ export function EditorPage({ teamId, sheet, canEdit }: { teamId: string; sheet: 
           stageRef={stageRef}
           sheetRef={sheetRef}
           onDropArt={(data, at) => {
-            const art = JSON.parse(data) as { artId: string; widthPx: number };
+            const art = JSON.parse(data) as { artId: string; widthPx: number; name?: string };
+            if (art.name) artNames.set(art.artId, art.name);
             addArt(art, at);
           }}
         />

@@ -24,7 +24,7 @@ export function LibraryPanel({ teamId, canEdit, onAdd }: { teamId: string; canEd
             key={item.id}
             draggable={canEdit}
             onDragStart={(e) => {
-              e.dataTransfer.setData('application/x-sheetsmith-art', JSON.stringify({ artId: item.id, widthPx: item.widthPx }));
+              e.dataTransfer.setData('application/x-sheetsmith-art', JSON.stringify({ artId: item.id, widthPx: item.widthPx, name: item.name }));
               e.dataTransfer.effectAllowed = 'copy';
             }}
             className="flex cursor-grab flex-col items-center rounded-lg border border-paper-edge p-1 text-center text-xs"
