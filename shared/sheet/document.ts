@@ -18,6 +18,8 @@ export const pieceSchema = z.object({
   border: z.number().min(0).max(50),
   borderColour: z.string().regex(/^#[0-9a-f]{6}$/),
   locked: z.boolean(),
+  /** How the cutter cuts this piece: through the face only (kiss, the default) or the liner too (die). */
+  cut: z.enum(['kiss', 'die']).optional(),
 });
 export type Piece = z.infer<typeof pieceSchema>;
 

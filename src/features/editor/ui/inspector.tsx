@@ -50,6 +50,13 @@ export function Inspector({ ctx, pieces, sizes }: { ctx: ActionContext; pieces: 
           <input type="number" value={Math.round(first.rotation)} onChange={(e) => store.dispatch(commands.setRotation(doc(), ids, Number(e.target.value)))} className="w-20 rounded border-2 border-paper-edge px-2 py-1 text-right font-normal" aria-label="Rotation (degrees)" />
         </label>
         <label className="flex items-center justify-between gap-2 text-sm font-bold">
+          Cut
+          <select value={first.cut ?? 'kiss'} onChange={(e) => store.dispatch(commands.patchPieces(doc(), 'Cut', new Map(ids.map((id) => [id, { cut: e.target.value as 'kiss' | 'die' }]))))} className="rounded border-2 border-paper-edge bg-white px-2 py-1 font-normal" aria-label="Cut">
+            <option value="kiss">Kiss cut (face only)</option>
+            <option value="die">Die cut (through the liner)</option>
+          </select>
+        </label>
+        <label className="flex items-center justify-between gap-2 text-sm font-bold">
           Border colour
           <input type="color" value={first.borderColour} onChange={(e) => store.dispatch(commands.setBorder(doc(), ids, first.border, e.target.value))} aria-label="Border colour" />
         </label>
