@@ -89,6 +89,11 @@ export class EditorStore {
     this.set({ doc, meta, version, saved: { doc, meta }, save: 'saved', conflict: null, selection: new Set() });
   }
 
+  /** Derived data (area used, thumbnail) changed although the document did not: save once more. */
+  requestSave() {
+    if (this.state.save === 'saved') this.set({ save: 'unsaved' });
+  }
+
   beginSave() {
     this.set({ save: 'saving' });
   }

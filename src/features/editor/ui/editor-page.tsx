@@ -60,7 +60,20 @@ export function EditorPage({ teamId, sheet, canEdit }: { teamId: string; sheet: 
     return total / (state.doc.printArea.width * state.doc.printArea.height);
   }, [state.doc, outlines]);
 
-  useAutosave(store, teamId, sheet.id, canEdit, sheetRef, areaUsed);
+  // Area used and the thumbnail depend on outlines, which arrive after the pieces: once they have
+  // all arrived and the saved figure is off, save once more (no document change, no undo step).
+  const savedArea = useRef(sheet.areaUsed);
+  useAutosave(store, teamId, sheet.id, canEdit, sheetRef, areaUsed, (used) => {
+    savedArea.current = used;
+  });
+  const allOutlined = state.doc.pieces.every((p) => outlines.get(p.id)?.outline && !outlines.get(p.id)?.pending);
+  const currentArea = areaUsed();
+  useEffect(() => {
+    if (!canEdit || !allOutlined || Math.abs(currentArea - savedArea.current) < 0.002) return;
+    // Images need a moment to paint before the thumbnail is taken.
+    const handle = setTimeout(() => store.requestSave(), 600);
+    return () => clearTimeout(handle);
+  }, [allOutlined, currentArea, canEdit, store]);
   // Leaving for another page of the app with unsaved work asks first (reloads are asked by the browser).
   const blocker = useBlocker(({ currentLocation, nextLocation }) => canEdit && state.save !== 'saved' && state.save !== 'conflict' && currentLocation.pathname !== nextLocation.pathname);
   useEffect(() => {

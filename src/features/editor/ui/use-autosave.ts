@@ -21,12 +21,22 @@ function thumbnail(sheet: Konva.Group | null, width: number, height: number): st
  * editor last had. 409 means a teammate saved first: the editor asks what to do. No connection:
  * "offline", retried every 5 s. Leaving with unsaved work warns.
  */
-export function useAutosave(store: EditorStore, teamId: string, sheetId: string, canEdit: boolean, sheetRef: React.MutableRefObject<Konva.Group | null>, areaUsed: () => number) {
+export function useAutosave(
+  store: EditorStore,
+  teamId: string,
+  sheetId: string,
+  canEdit: boolean,
+  sheetRef: React.MutableRefObject<Konva.Group | null>,
+  areaUsed: () => number,
+  onSaved: (areaUsed: number) => void,
+) {
   const timer = useRef<ReturnType<typeof setTimeout>>(undefined);
   const running = useRef(false);
   // Read at save time; kept in a ref so a new function each render does not restart the timer.
   const area = useRef(areaUsed);
   area.current = areaUsed;
+  const saved = useRef(onSaved);
+  saved.current = onSaved;
 
   useEffect(() => {
     if (!canEdit) return;
@@ -37,14 +47,16 @@ export function useAutosave(store: EditorStore, teamId: string, sheetId: string,
       const sent = { doc: state.doc, meta: state.meta };
       store.beginSave();
       try {
+        const used = Math.min(1, area.current());
         const result = await saveSheet(teamId, sheetId, {
           version: state.version,
           document: sent.doc,
           ...sent.meta,
-          areaUsed: Math.min(1, area.current()),
+          areaUsed: used,
           thumbnail: thumbnail(sheetRef.current, sent.doc.printArea.width, sent.doc.printArea.height),
         });
         store.saveSucceeded(sent, result.version);
+        saved.current(used);
       } catch (error) {
         if (error instanceof ApiError && error.status === 409) store.saveFailed(false, error.message);
         else store.saveFailed(!(error instanceof ApiError) || error.status === 0);
@@ -62,7 +74,7 @@ export function useAutosave(store: EditorStore, teamId: string, sheetId: string,
     let last = store.getState();
     const unsubscribe = store.subscribe(() => {
       const next = store.getState();
-      if ((next.doc !== last.doc || next.meta !== last.meta) && next.save === 'unsaved') schedule(800);
+      if ((next.doc !== last.doc || next.meta !== last.meta || last.save === 'saved') && next.save === 'unsaved') schedule(800);
       last = next;
     });
     const warn = (e: BeforeUnloadEvent) => {
