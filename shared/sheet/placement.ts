@@ -23,17 +23,30 @@ export function rotatedHalfSize(widthMm: number, heightMm: number, rotation: num
   return { w: (widthMm * c + heightMm * s) / 2, h: (widthMm * s + heightMm * c) / 2 };
 }
 
+// Module-level helpers (not closures): this runs millions of times while arranging.
+function pointSegment(px: number, py: number, ax: number, ay: number, bx: number, by: number): number {
+  const vx = bx - ax, vy = by - ay;
+  const len2 = vx * vx + vy * vy;
+  let t = len2 === 0 ? 0 : ((px - ax) * vx + (py - ay) * vy) / len2;
+  t = t < 0 ? 0 : t > 1 ? 1 : t;
+  const dx = px - ax - t * vx, dy = py - ay - t * vy;
+  return Math.sqrt(dx * dx + dy * dy);
+}
+
+function cross(ox: number, oy: number, px: number, py: number, qx: number, qy: number): number {
+  return (px - ox) * (qy - oy) - (py - oy) * (qx - ox);
+}
+
 function segmentDistance(a: Point, b: Point, c: Point, d: Point): number {
-  const pointSeg = (p: Point, s0: Point, s1: Point) => {
-    const vx = s1.x - s0.x, vy = s1.y - s0.y;
-    const len2 = vx * vx + vy * vy;
-    const t = len2 === 0 ? 0 : Math.max(0, Math.min(1, ((p.x - s0.x) * vx + (p.y - s0.y) * vy) / len2));
-    return Math.hypot(p.x - s0.x - t * vx, p.y - s0.y - t * vy);
-  };
-  const cross = (o: Point, p: Point, q: Point) => (p.x - o.x) * (q.y - o.y) - (p.y - o.y) * (q.x - o.x);
-  const d1 = cross(a, b, c), d2 = cross(a, b, d), d3 = cross(c, d, a), d4 = cross(c, d, b);
+  const d1 = cross(a.x, a.y, b.x, b.y, c.x, c.y), d2 = cross(a.x, a.y, b.x, b.y, d.x, d.y);
+  const d3 = cross(c.x, c.y, d.x, d.y, a.x, a.y), d4 = cross(c.x, c.y, d.x, d.y, b.x, b.y);
   if (((d1 > 0 && d2 < 0) || (d1 < 0 && d2 > 0)) && ((d3 > 0 && d4 < 0) || (d3 < 0 && d4 > 0))) return 0;
-  return Math.min(pointSeg(a, c, d), pointSeg(b, c, d), pointSeg(c, a, b), pointSeg(d, a, b));
+  return Math.min(
+    pointSegment(a.x, a.y, c.x, c.y, d.x, d.y),
+    pointSegment(b.x, b.y, c.x, c.y, d.x, d.y),
+    pointSegment(c.x, c.y, a.x, a.y, b.x, b.y),
+    pointSegment(d.x, d.y, a.x, a.y, b.x, b.y),
+  );
 }
 
 export function pointInRing(p: Point, ring: Ring): boolean {
@@ -60,6 +73,10 @@ export function cutLineDistance(a: Ring, b: Ring, stopBelow = Infinity): number 
   let best = Infinity;
   for (let i = 0; i < a.length; i++) {
     const a0 = a[i], a1 = a[(i + 1) % a.length];
+    // Segments of `a` farther than the best so far from b's box cannot improve it.
+    const sx0 = Math.min(a0.x, a1.x), sx1 = Math.max(a0.x, a1.x), sy0 = Math.min(a0.y, a1.y), sy1 = Math.max(a0.y, a1.y);
+    const gx = Math.max(0, boxB.x - sx1, sx0 - (boxB.x + boxB.width)), gy = Math.max(0, boxB.y - sy1, sy0 - (boxB.y + boxB.height));
+    if (gx * gx + gy * gy >= best * best || Math.max(gx, gy) >= stopBelow) continue;
     for (let j = 0; j < b.length; j++) {
       const d = segmentDistance(a0, a1, b[j], b[(j + 1) % b.length]);
       if (d < best) {

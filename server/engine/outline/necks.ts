@@ -1,5 +1,5 @@
 import { labelComponents } from './components';
-import { distanceTransform } from './distance-transform';
+import { distanceTransform } from '../../../shared/geometry/distance-transform';
 
 /**
  * Finds parts of a filled shape narrower than `minWidth` px: what a morphological opening with a

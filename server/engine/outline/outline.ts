@@ -9,7 +9,7 @@ import { bridgeIslands } from './bridge';
 import { clearComponents, fillHoles, labelComponents, labelRuns } from './components';
 import type { Component } from './components';
 import { decodeArt } from './decode';
-import { squaredDistanceTransform } from './distance-transform';
+import { squaredDistanceTransform } from '../../../shared/geometry/distance-transform';
 import { OutlineInputError } from './errors';
 import { findNarrowParts } from './necks';
 import { composeSticker, encodePng } from './raster';
