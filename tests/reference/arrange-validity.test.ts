@@ -1,0 +1,143 @@
+import Flatten from '@flatten-js/core';
+import { describe, expect, it } from 'vitest';
+import type { ArrangeItem, ArrangeResult, Outline } from '../../shared/arrange/nester';
+import { ArrangeInputError, arrange } from '../../shared/arrange/nester';
+import { benchmarkSet, blob, disk, lShape, star } from '../../scripts/bench/arrange-shapes';
+
+const W = 171.45, H = 234.95;
+
+/**
+ * An independent validity check: it places each cut line itself (rotation about the frame centre,
+ * then the piece position) and measures with @flatten-js/core, a general geometry package from npm,
+ * not with any of the packer's own geometry.
+ */
+function checkLayout(items: Array<{ key: string; outline: Outline }>, result: ArrangeResult, opts: { gap: number; margin: number }) {
+  const outlines = new Map(items.map((i) => [i.key, i.outline]));
+  const bySheet = new Map<number, Flatten.Polygon[]>();
+  for (const p of result.placements) {
+    const o = outlines.get(p.key)!;
+    const a = (p.rotation * Math.PI) / 180;
+    const points = o.points.map((q) => {
+      const dx = q.x - o.widthMm / 2, dy = q.y - o.heightMm / 2;
+      return new Flatten.Point(p.x + dx * Math.cos(a) - dy * Math.sin(a), p.y + dx * Math.sin(a) + dy * Math.cos(a));
+    });
+    for (const q of points) {
+      expect(q.x).toBeGreaterThanOrEqual(opts.margin - 1e-6);
+      expect(q.y).toBeGreaterThanOrEqual(opts.margin - 1e-6);
+      expect(q.x).toBeLessThanOrEqual(W - opts.margin + 1e-6);
+      expect(q.y).toBeLessThanOrEqual(H - opts.margin + 1e-6);
+    }
+    const list = bySheet.get(p.sheet) ?? [];
+    list.push(new Flatten.Polygon(points));
+    bySheet.set(p.sheet, list);
+  }
+  let closest = Infinity;
+  for (const polygons of bySheet.values()) {
+    for (let i = 0; i < polygons.length; i++) {
+      for (let j = i + 1; j < polygons.length; j++) {
+        const [distance] = polygons[i].distanceTo(polygons[j]);
+        closest = Math.min(closest, distance);
+        expect(distance).toBeGreaterThanOrEqual(opts.gap - 1e-6);
+      }
+    }
+  }
+  return closest;
+}
+
+function seededRandom(seed: number) {
+  let a = seed;
+  return () => ((a = (a * 1103515245 + 12345) % 2147483648) / 2147483648);
+}
+
+describe('arrange: every layout passes an independent validity check', () => {
+  it('on the benchmark set, filling the sheet with 90° turns', () => {
+    const set = benchmarkSet();
+    const result = arrange(set.map((s) => ({ ...s, count: 1 })), { width: W, height: H, gap: 3.175, margin: 3.175, fill: true, timeMs: 800, seed: 3 });
+    expect(result.placed).toBeGreaterThan(20);
+    const closest = checkLayout(set, result, { gap: 3.175, margin: 3.175 });
+    expect(closest).toBeLessThan(4); // tight, not merely valid
+  });
+
+  for (const seed of [1, 2, 3]) {
+    it(`on a random set with free rotation in 15° steps (seed ${seed}), over several sheets`, () => {
+      const random = seededRandom(seed);
+      const items: ArrangeItem[] = Array.from({ length: 6 }, (_, i) => {
+        const size = 20 + random() * 30;
+        const outline = [blob(size, random() * 6), star(size, 5 + (i % 3)), lShape(size, size / 3), disk(size)][i % 4];
+        return { key: `shape-${i}`, outline, count: 2 + Math.floor(random() * 5), rotate: { step: 15 } };
+      });
+      const result = arrange(items, { width: W, height: H, gap: 2, margin: 5, timeMs: 400, seed });
+      expect(result.placed).toBe(result.requested);
+      checkLayout(items, result, { gap: 2, margin: 5 });
+    });
+  }
+});
+
+describe('arrange: fill the sheet with one disk', () => {
+  it('places at least a hexagonal arrangement and no fewer than a square grid', () => {
+    // Circle packing densities: hexagonal π/√12 ≈ 0.9069, square π/4 ≈ 0.7854 (any packing handbook).
+    // Here counted constructively for this rectangle: each disk needs a circle of diameter D + gap,
+    // in an area grown by half the gap on every side.
+    const D = 25.4, gap = 3.175, pitch = D + gap;
+    const w = W + gap, h = H + gap;
+    const square = Math.floor(w / pitch) * Math.floor(h / pitch);
+    const rows = Math.floor((h - pitch) / ((pitch * Math.sqrt(3)) / 2)) + 1;
+    const long = Math.floor(w / pitch), short = Math.floor((w - pitch / 2) / pitch);
+    const hexagonal = Math.ceil(rows / 2) * long + Math.floor(rows / 2) * short;
+    expect(hexagonal).toBeGreaterThanOrEqual(square);
+    // The density bound caps what any packing can reach in this area.
+    const densityCap = Math.floor((Math.PI / Math.sqrt(12)) * (w * h) / (Math.PI * (pitch / 2) ** 2));
+
+    const items = [{ key: 'disk', outline: disk(D), count: 1 }];
+    const result = arrange(items, { width: W, height: H, gap, margin: 0, fill: true, rotate: 'none', maxIterations: 1, seed: 1 });
+    checkLayout(items, result, { gap, margin: 0 });
+    expect(result.placed).toBeGreaterThanOrEqual(hexagonal);
+    expect(result.placed).toBeGreaterThanOrEqual(square);
+    expect(result.placed).toBeLessThanOrEqual(densityCap);
+  });
+});
+
+describe('arrange: locked pieces, seeds, quantities and bad input', () => {
+  const items = () => benchmarkSet().slice(0, 6).map((s) => ({ ...s, count: 3 }));
+
+  it('never moves locked pieces and keeps clear of them', () => {
+    const locked = [{ key: 'keep-me', x: 85, y: 117, rotation: 30, outline: star(50, 5) }];
+    const result = arrange(items(), { width: W, height: H, gap: 3.175, margin: 3.175, timeMs: 300, seed: 5 }, locked);
+    expect(result.placements.some((p) => p.key === 'keep-me')).toBe(false);
+    const all = [...items(), { key: 'keep-me', outline: locked[0].outline }];
+    checkLayout(all, { ...result, placements: [...result.placements, { key: 'keep-me', sheet: 0, x: 85, y: 117, rotation: 30 }] }, { gap: 3.175, margin: 3.175 });
+  });
+
+  it('gives the same layout for the same seed', () => {
+    const options = { width: W, height: H, gap: 3.175, margin: 3.175, maxIterations: 6, timeMs: 60_000, seed: 42 };
+    const a = arrange(items(), options);
+    const b = arrange(items(), options);
+    expect(a.placements).toEqual(b.placements);
+    expect(a.iterations).toBe(6);
+  });
+
+  it('names the piece that is too large, refuses zero quantities, and still arranges the rest', () => {
+    const result = arrange(
+      [
+        { key: 'giant', name: 'Giant moon', outline: disk(260), count: 1 },
+        { key: 'none', name: 'Nothing owl', outline: disk(20), count: 0 },
+        { key: 'ok', name: 'Small fox', outline: disk(20), count: 4 },
+      ],
+      { width: W, height: H, gap: 3.175, margin: 3.175, timeMs: 200 },
+    );
+    expect(result.placements.filter((p) => p.key === 'ok')).toHaveLength(4);
+    expect(result.unplaced.map((u) => u.reason)).toEqual([
+      'Nothing owl: the quantity must be a whole number above zero.',
+      expect.stringMatching(/^Giant moon \(260\.0 × 260\.0 mm with its border\) is larger than the print area less the margin\.$/),
+    ]);
+  });
+
+  it('refuses a margin that leaves no room, and a gap no piece can keep', () => {
+    expect(() => arrange([{ key: 'a', outline: disk(20), count: 1 }], { width: W, height: H, margin: 90 })).toThrow(ArrangeInputError);
+    expect(() => arrange([{ key: 'a', outline: disk(20), count: 1 }], { width: W, height: H, margin: 90 })).toThrow(/leaves no room/);
+    // A 120 mm gap: one 60 mm disk per sheet (60 + 120 + 60 > 234.95); the rest overflow to more sheets.
+    const result = arrange([{ key: 'a', outline: disk(60), count: 3 }], { width: W, height: H, gap: 120, margin: 0, timeMs: 100, maxSheets: 3 });
+    expect(result.sheets).toBe(3);
+    expect(result.placed).toBe(3);
+  });
+});
