@@ -135,8 +135,8 @@ describe('arrange: locked pieces, seeds, quantities and bad input', () => {
   it('refuses a margin that leaves no room, and a gap no piece can keep', () => {
     expect(() => arrange([{ key: 'a', outline: disk(20), count: 1 }], { width: W, height: H, margin: 90 })).toThrow(ArrangeInputError);
     expect(() => arrange([{ key: 'a', outline: disk(20), count: 1 }], { width: W, height: H, margin: 90 })).toThrow(/leaves no room/);
-    // A 120 mm gap: one 60 mm disk per sheet (60 + 120 + 60 > 234.95); the rest overflow to more sheets.
-    const result = arrange([{ key: 'a', outline: disk(60), count: 3 }], { width: W, height: H, gap: 120, margin: 0, timeMs: 100, maxSheets: 3 });
+    // A 150 mm gap: one 60 mm disk per sheet (even corner to corner two are only 147 mm apart); the rest overflow.
+    const result = arrange([{ key: 'a', outline: disk(60), count: 3 }], { width: W, height: H, gap: 150, margin: 0, timeMs: 100, maxSheets: 3 });
     expect(result.sheets).toBe(3);
     expect(result.placed).toBe(3);
   });
