@@ -1,0 +1,125 @@
+// npm run arrange -- <art>=<count>@<width>... --sheet 6.75x9.25in [--gap 0.125in] [--margin 0in]
+//   [--border 0.125in] [--rotate 90|none|15] [--fill] [--time 2s] [--seed 1] --out <dir>
+// Outlines each art file, arranges the pieces and writes sheet.json (the sheet document with the art
+// files), sheet.svg (every cut line, in mm) and sheet.png (the print image at 300 DPI); more sheets
+// when one is not enough (sheet-2.*). Prints one JSON line. No database needed.
+import { mkdir, readFile, writeFile } from 'node:fs/promises';
+import path from 'node:path';
+import { parseArgs } from 'node:util';
+import sharp from 'sharp';
+import type { ArrangeItem, RotateMode } from '../shared/arrange/nester';
+import { ArrangeInputError, arrange } from '../shared/arrange/nester';
+import { ringToSvgPath } from '../shared/geometry/polygon';
+import type { Piece, SheetDocument } from '../shared/sheet/document';
+import { SHEET_SCHEMA_VERSION } from '../shared/sheet/document';
+import { placeCutLine } from '../shared/sheet/placement';
+import { parseLength } from '../shared/units';
+import { OutlineInputError } from '../server/engine/outline/errors';
+import { outline } from '../server/engine/outline/outline';
+
+const fail = (message: string): never => {
+  console.error(message);
+  process.exit(2);
+};
+
+const { values, positionals } = parseArgs({
+  allowPositionals: true,
+  options: {
+    sheet: { type: 'string', default: '6.75x9.25in' },
+    gap: { type: 'string', default: '0.125in' },
+    margin: { type: 'string', default: '0in' },
+    border: { type: 'string', default: '0.125in' },
+    rotate: { type: 'string', default: '90' },
+    fill: { type: 'boolean', default: false },
+    time: { type: 'string', default: '2s' },
+    seed: { type: 'string', default: '1' },
+    dpi: { type: 'string', default: '300' },
+    out: { type: 'string' },
+  },
+});
+if (!values.out || positionals.length === 0) fail('usage: npm run arrange -- <art>=<count>@<width>... --sheet 6.75x9.25in [--gap 0.125in] [--margin 0in] [--border 0.125in] [--rotate 90] [--fill] [--time 2s] [--seed 1] --out <dir>');
+
+const sheetMatch = /^([\d.]+)x([\d.]+)(mm|in)$/i.exec(values.sheet!);
+if (!sheetMatch) fail(`--sheet: give the print area like 6.75x9.25in or 171x235mm (got "${values.sheet}")`);
+const width = parseLength(`${sheetMatch![1]}${sheetMatch![3]}`)!, height = parseLength(`${sheetMatch![2]}${sheetMatch![3]}`)!;
+const length = (flag: string, text: string) => parseLength(text, 'mm') ?? fail(`--${flag}: give a length like 0.125in or 3mm (got "${text}")`);
+const gap = length('gap', values.gap!), margin = length('margin', values.margin!), border = length('border', values.border!);
+const rotate: RotateMode = values.rotate === 'none' || values.rotate === '0' ? 'none' : values.rotate === '90' ? '90' : { step: Number(values.rotate) };
+if (typeof rotate === 'object' && !(rotate.step > 0)) fail(`--rotate: give none, 90 or a step in degrees such as 15`);
+const timeMs = /^([\d.]+)(ms|s)?$/.exec(values.time!) ? Number(/^([\d.]+)/.exec(values.time!)![1]) * (values.time!.endsWith('ms') ? 1 : 1000) : fail('--time: give a duration like 2s');
+const dpi = Number(values.dpi);
+
+const problems: string[] = [];
+const items: Array<ArrangeItem & { width: number }> = [];
+const files = new Map<string, { file: string; png: Buffer; widthMm: number; heightMm: number }>();
+for (const [index, spec] of positionals.entries()) {
+  const match = /^(.+)=(\d+)@(.+)$/.exec(spec);
+  if (!match) {
+    problems.push(`${spec}: write each piece as <art>=<count>@<width>, e.g. fox.png=6@2in`);
+    continue;
+  }
+  const [, file, countText, widthText] = match;
+  const artWidth = parseLength(widthText, 'mm');
+  if (!artWidth) {
+    problems.push(`${file}: "${widthText}" is not a width like 2in or 50mm`);
+    continue;
+  }
+  try {
+    const result = await outline(await readFile(file), { width: artWidth, border, dpi });
+    const piece = result.pieces[0];
+    const key = String(index + 1);
+    files.set(key, { file: path.resolve(file), png: piece.png, widthMm: piece.widthMm, heightMm: piece.heightMm });
+    items.push({ key, name: path.basename(file), count: Number(countText), outline: { points: piece.cutLine.points, widthMm: piece.widthMm, heightMm: piece.heightMm }, width: artWidth });
+  } catch (error) {
+    problems.push(`${file}: ${error instanceof OutlineInputError ? error.message : (error as NodeJS.ErrnoException).code === 'ENOENT' ? 'no such file' : (error as Error).message}`);
+  }
+}
+
+let result;
+try {
+  result = arrange(items, { width, height, gap, margin, rotate, fill: values.fill, timeMs, seed: Number(values.seed) });
+} catch (error) {
+  if (error instanceof ArrangeInputError) fail(error.message);
+  throw error;
+}
+for (const u of result.unplaced) problems.push(u.reason);
+
+await mkdir(values.out!, { recursive: true });
+const widthOf = new Map(items.map((i) => [i.key, i.width]));
+for (let s = 0; s < result.sheets; s++) {
+  const suffix = s === 0 ? '' : `-${s + 1}`;
+  const placements = result.placements.filter((p) => p.sheet === s);
+  const pieces: Piece[] = placements.map((p, i) => ({ id: `p${i + 1}`, artId: p.key, x: p.x, y: p.y, rotation: p.rotation, width: widthOf.get(p.key)!, border, borderColour: '#ffffff', locked: false }));
+  const document: SheetDocument = { schemaVersion: SHEET_SCHEMA_VERSION, printArea: { width, height }, safeMargin: margin, minGap: gap, pieces };
+  const art = Object.fromEntries([...new Set(pieces.map((p) => p.artId))].map((key) => [key, files.get(key)!.file]));
+  await writeFile(path.join(values.out!, `sheet${suffix}.json`), `${JSON.stringify({ document, art }, null, 2)}\n`);
+
+  const num = (v: number) => Number(v.toFixed(4));
+  const paths = placements.map((p, i) => {
+    const o = items.find((it) => it.key === p.key)!.outline;
+    return `  <path id="cut-${i + 1}" d="${ringToSvgPath(placeCutLine(p, o))}"/>`;
+  });
+  await writeFile(
+    path.join(values.out!, `sheet${suffix}.svg`),
+    `<?xml version="1.0" encoding="UTF-8"?>\n<svg xmlns="http://www.w3.org/2000/svg" width="${num(width)}mm" height="${num(height)}mm" viewBox="0 0 ${num(width)} ${num(height)}">\n <g id="cut-lines" fill="none" stroke="#ff00ff" stroke-width="0.1">\n${paths.join('\n')}\n </g>\n</svg>\n`,
+  );
+
+  // The print image: each bordered sticker turned and placed at its centre, transparent around.
+  const pxPerMm = dpi / 25.4;
+  const canvasW = Math.round(width * pxPerMm), canvasH = Math.round(height * pxPerMm);
+  const layers = [];
+  for (const p of placements) {
+    const f = files.get(p.key)!;
+    const turned = await sharp(f.png).rotate(p.rotation, { background: { r: 0, g: 0, b: 0, alpha: 0 } }).png().toBuffer({ resolveWithObject: true });
+    layers.push({ input: turned.data, left: Math.round(p.x * pxPerMm - turned.info.width / 2), top: Math.round(p.y * pxPerMm - turned.info.height / 2) });
+  }
+  await sharp({ create: { width: canvasW, height: canvasH, channels: 4, background: { r: 0, g: 0, b: 0, alpha: 0 } } })
+    .composite(layers)
+    .png()
+    .withMetadata({ density: dpi })
+    .toFile(path.join(values.out!, `sheet${suffix}.png`));
+}
+
+for (const problem of problems) console.error(`problem: ${problem}`);
+console.log(JSON.stringify({ requested: result.requested, placed: result.placed, sheets: result.sheets, areaUsed: result.areaUsed.map((a) => Number(a.toFixed(4))), ms: result.ms, problems }));
+process.exit(problems.length > 0 && result.placed === 0 ? 1 : problems.length > 0 ? 1 : 0);
