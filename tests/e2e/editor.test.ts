@@ -126,6 +126,36 @@ describe('sheet editor in Chromium', () => {
     await page.close();
   });
 
+  it('auto-arranges the sheet in a Web Worker: preview, keep, and undo in one step', async () => {
+    const { team, users, client, art } = await teamWithArt();
+    const { body: sheet } = await client.post(`/api/teams/${team.id}/sheets`, { name: 'Pile' });
+    // Nine pieces piled in the middle, all overlapping.
+    const pile = Array.from({ length: 9 }, (_, i) => ({ id: `pile${i}`, artId: art[i % 3].id, x: 80 + i, y: 110 + i, rotation: 0, width: 38, border: 3.175, borderColour: '#ffffff', locked: false }));
+    await client.send('put', `/api/teams/${team.id}/sheets/${sheet.id}`, { version: 1, document: { ...sheet.document, pieces: pile } });
+    const page = await browser.newPage({ viewport: { width: 1280, height: 900 } });
+    await signIn(page, users.member.email);
+    await page.goto(`${served.url}/t/${team.id}/sheets/${sheet.id}`);
+    await expect.poll(() => page.getByTestId('area-used').textContent(), { timeout: 20_000 }).toMatch(/^9 pieces · [1-9]/);
+    await expect.poll(() => page.getByTestId('guards').textContent(), { timeout: 15_000 }).toMatch(/apart/);
+    await page.getByRole('button', { name: 'Auto-arrange…' }).click();
+    await page.getByRole('dialog', { name: 'Auto-arrange' }).getByRole('button', { name: 'Arrange' }).click();
+    await expect.poll(() => page.getByTestId('arrange-summary').textContent(), { timeout: 20_000 }).toMatch(/^Preview: 9 of 9 placed/);
+    await page.waitForTimeout(600);
+    await screenshot(page, 'editor-arrange-preview');
+    await page.getByRole('button', { name: 'Keep this layout' }).click();
+    await expect.poll(() => page.getByTestId('guards-ok').count(), { timeout: 15_000 }).toBe(1);
+    await expect.poll(() => page.getByTestId('save-state').textContent(), { timeout: 15_000 }).toBe('All changes saved');
+    const arranged = (await sheetOf(client, team.id, sheet.id)).document.pieces as Piece[];
+    expect(arranged.filter((p) => p.x === pile.find((q) => q.id === p.id)!.x)).toHaveLength(0);
+    await screenshot(page, 'editor-arranged');
+    await page.mouse.click(5, 300);
+    await page.keyboard.press('Control+z');
+    await expect.poll(() => page.getByTestId('save-state').textContent(), { timeout: 15_000 }).toBe('All changes saved');
+    const undone = (await sheetOf(client, team.id, sheet.id)).document.pieces as Piece[];
+    expect(undone.map((p) => [p.x, p.y]).sort()).toEqual(pile.map((p) => [p.x, p.y]).sort());
+    await page.close();
+  });
+
   it('opens sheets read-only for a viewer', async () => {
     const { team, users, client, art } = await teamWithArt();
     const { body: sheet } = await client.post(`/api/teams/${team.id}/sheets`, { name: 'Look only' });

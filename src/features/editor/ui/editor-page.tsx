@@ -19,28 +19,34 @@ import { HelpPanel } from './help-panel';
 import { Inspector } from './inspector';
 import { LibraryPanel, defaultWidthMm } from './library-panel';
 import { useAutosave } from './use-autosave';
+import { ArrangePanel } from './arrange-panel';
+import type { SheetDocument } from '../../../../shared/sheet/document';
 
 const SAVE_TEXT = { saved: 'All changes saved', unsaved: 'Unsaved changes…', saving: 'Saving…', offline: 'Offline: will retry', conflict: 'Not saved: conflict' } as const;
 
 export function EditorPage({ teamId, sheet, canEdit }: { teamId: string; sheet: SheetDetail; canEdit: boolean }) {
   const store = useMemo(() => new EditorStore(sheet.document, { name: sheet.name, status: sheet.status, forSale: sheet.forSale, unit: sheet.unit, notes: sheet.notes }, sheet.version), [sheet.id]); // eslint-disable-line react-hooks/exhaustive-deps
   const state = useSyncExternalStore(store.subscribe, store.getState);
+  const [arranging, setArranging] = useState(false);
+  const [preview, setPreview] = useState<SheetDocument | null>(null);
   const stageRef = useRef<Konva.Stage | null>(null);
   const sheetRef = useRef<Konva.Group | null>(null);
   const client = useQueryClient();
   const navigate = useNavigate();
   const [artNames] = useState(() => new Map<string, string>(Object.entries(sheet.artNames)));
-  const { outlines } = usePieceOutlines(teamId, state.doc.pieces);
+  // While an arrange preview is shown, everything drawn and measured is the preview's.
+  const shown = preview ?? state.doc;
+  const { outlines } = usePieceOutlines(teamId, shown.pieces);
   const unit = state.meta.unit;
 
   const sizes = useMemo(() => {
     const map = new Map<string, { widthMm: number; heightMm: number }>();
-    for (const p of state.doc.pieces) {
+    for (const p of shown.pieces) {
       const o = outlines.get(p.id)?.outline;
       map.set(p.id, o ? { widthMm: o.widthMm, heightMm: o.heightMm } : { widthMm: p.width + 2 * p.border, heightMm: p.width + 2 * p.border });
     }
     return map;
-  }, [state.doc.pieces, outlines]);
+  }, [shown.pieces, outlines]);
 
   const ctx: ActionContext = useMemo(
     () => ({ store, canEdit, unit, halfSize: (p) => rotatedHalfSize(sizes.get(p.id)?.widthMm ?? p.width, sizes.get(p.id)?.heightMm ?? p.width, p.rotation) }),
@@ -49,16 +55,16 @@ export function EditorPage({ teamId, sheet, canEdit }: { teamId: string; sheet: 
 
   const guards = useMemo(() => {
     const ready = new Map([...outlines].filter(([, o]) => o.outline && !o.pending).map(([id, o]) => [id, o.outline!]));
-    return sheetGuards(state.doc, ready, (p) => {
+    return sheetGuards(shown, ready, (p) => {
       const o = outlines.get(p.id)?.outline;
       return o && !outlines.get(p.id)?.pending ? (o.effectiveDpi * p.width) / 25.4 : undefined;
     });
-  }, [state.doc, outlines]);
+  }, [shown, outlines]);
   const warnIds = useMemo(() => new Set(guards.filter((g) => g.kind !== 'low-resolution').flatMap((g) => g.pieceIds)), [guards]);
   const areaUsed = useCallback(() => {
-    const total = state.doc.pieces.reduce((sum, p) => sum + (outlines.get(p.id)?.outline?.areaMm2 ?? 0), 0);
-    return total / (state.doc.printArea.width * state.doc.printArea.height);
-  }, [state.doc, outlines]);
+    const total = shown.pieces.reduce((sum, p) => sum + (outlines.get(p.id)?.outline?.areaMm2 ?? 0), 0);
+    return total / (shown.printArea.width * shown.printArea.height);
+  }, [shown, outlines]);
 
   // Area used and the thumbnail depend on outlines, which arrive after the pieces: once they have
   // all arrived and the saved figure is off, save once more (no document change, no undo step).
@@ -66,7 +72,7 @@ export function EditorPage({ teamId, sheet, canEdit }: { teamId: string; sheet: 
   useAutosave(store, teamId, sheet.id, canEdit, sheetRef, areaUsed, (used) => {
     savedArea.current = used;
   });
-  const allOutlined = state.doc.pieces.every((p) => outlines.get(p.id)?.outline && !outlines.get(p.id)?.pending);
+  const allOutlined = !preview && state.doc.pieces.every((p) => outlines.get(p.id)?.outline && !outlines.get(p.id)?.pending);
   const currentArea = areaUsed();
   useEffect(() => {
     if (!canEdit || !allOutlined || Math.abs(currentArea - savedArea.current) < 0.002) return;
@@ -149,15 +155,21 @@ export function EditorPage({ teamId, sheet, canEdit }: { teamId: string; sheet: 
         <button type="button" className="rounded border-2 border-paper-edge bg-white px-2 py-1 font-bold" onClick={() => runAction('zoom-out', ctx)} aria-label="Zoom out">−</button>
         <button type="button" className="rounded border-2 border-paper-edge bg-white px-2 py-1 font-bold" onClick={() => runAction('zoom-in', ctx)} aria-label="Zoom in">+</button>
         <label className="ml-2 flex items-center gap-1 font-bold"><input type="checkbox" checked={state.showCutLines} onChange={() => runAction('cut-lines', ctx)} />Cut lines</label>
-        <span className="ml-auto text-xs text-ink-soft" data-testid="area-used">{state.doc.pieces.length} pieces · {Math.round(areaUsed() * 100)} % of the print area</span>
+        {canEdit && (
+          <button type="button" className="ml-2 rounded-full bg-peel px-3 py-1 font-bold text-ink" onClick={() => setArranging(true)} disabled={arranging}>
+            Auto-arrange…
+          </button>
+        )}
+        <span className="ml-auto text-xs text-ink-soft" data-testid="area-used">{shown.pieces.length} pieces · {Math.round(areaUsed() * 100)} % of the print area{preview ? ' (preview)' : ''}</span>
         <button type="button" className="rounded border-2 border-paper-edge bg-white px-2 py-1 font-bold" onClick={() => runAction('help', ctx)}>Shortcuts (?)</button>
       </div>
       <div className="grid min-h-0 flex-1 gap-3 lg:grid-cols-[13rem_1fr_17rem]">
         <LibraryPanel teamId={teamId} canEdit={canEdit} onAdd={onAddFromPanel} />
+        <div className="relative min-h-0 min-w-0">
         <SheetStage
           store={store}
-          state={state}
-          canEdit={canEdit}
+          state={preview ? { ...state, doc: preview } : state}
+          canEdit={canEdit && !preview}
           outlines={outlines}
           warnIds={warnIds}
           stageRef={stageRef}
@@ -168,6 +180,8 @@ export function EditorPage({ teamId, sheet, canEdit }: { teamId: string; sheet: 
             addArt(art, at);
           }}
         />
+        {arranging && <ArrangePanel store={store} outlines={outlines} onPreview={setPreview} onClose={() => setArranging(false)} />}
+        </div>
         <aside className="flex min-h-0 flex-col gap-4 overflow-auto rounded-sticker border-2 border-paper-edge bg-white p-3" aria-label="Selection and checks">
           <section aria-labelledby="sel-title">
             <h2 id="sel-title" className="mb-2 text-sm font-extrabold uppercase tracking-wide text-ink-faint">Selection</h2>

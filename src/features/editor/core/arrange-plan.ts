@@ -1,0 +1,52 @@
+// Turns a sheet and arrange options into the nester's input, and its result back into one command.
+import type { ArrangeItem, ArrangeResult, LockedPiece, RotateMode } from '../../../../shared/arrange/nester';
+import type { Command } from '../../../../shared/sheet/commands';
+import { newPieceId } from '../../../../shared/sheet/commands';
+import type { Piece, SheetDocument } from '../../../../shared/sheet/document';
+import type { PieceOutline } from '../api/outlines';
+import { outlineKey } from '../api/outlines';
+
+export type ArrangeChoice = { scope: 'sheet' | 'selection'; rotate: RotateMode; fill: boolean; seconds: number; seed: number };
+
+export function planArrange(doc: SheetDocument, selection: ReadonlySet<string>, outlines: Map<string, { outline: PieceOutline | undefined }>, choice: ArrangeChoice) {
+  const movable = doc.pieces.filter((p) => !p.locked && (choice.scope === 'sheet' || selection.has(p.id)));
+  const fixed = doc.pieces.filter((p) => !movable.includes(p));
+  const groups = new Map<string, Piece[]>();
+  for (const p of movable) {
+    const key = outlineKey(p);
+    groups.set(key, [...(groups.get(key) ?? []), p]);
+  }
+  const items: ArrangeItem[] = [];
+  for (const [key, pieces] of groups) {
+    const o = outlines.get(pieces[0].id)?.outline;
+    if (!o) continue;
+    items.push({ key, outline: { points: o.points, widthMm: o.widthMm, heightMm: o.heightMm }, count: pieces.length });
+  }
+  const locked: LockedPiece[] = fixed.flatMap((p) => {
+    const o = outlines.get(p.id)?.outline;
+    return o ? [{ key: p.id, x: p.x, y: p.y, rotation: p.rotation, outline: { points: o.points, widthMm: o.widthMm, heightMm: o.heightMm } }] : [];
+  });
+  return {
+    items,
+    locked,
+    groups,
+    options: { width: doc.printArea.width, height: doc.printArea.height, gap: doc.minGap, margin: doc.safeMargin, rotate: choice.rotate, fill: choice.fill, timeMs: choice.seconds * 1000, seed: choice.seed, maxSheets: 1 },
+  };
+}
+
+/** The arranged layout as one command: moved pieces, new copies (fill) and nothing else. */
+export function arrangeCommand(doc: SheetDocument, groups: Map<string, Piece[]>, result: ArrangeResult): Command {
+  const queue = new Map([...groups].map(([key, pieces]) => [key, [...pieces]]));
+  const updated: Command['diff']['updated'] = [];
+  const added: Piece[] = [];
+  for (const p of result.placements.filter((pl) => pl.sheet === 0)) {
+    const existing = queue.get(p.key)?.shift();
+    if (existing) updated.push({ from: existing, to: { ...existing, x: p.x, y: p.y, rotation: p.rotation } });
+    else {
+      const template = groups.get(p.key)![0];
+      added.push({ ...template, id: newPieceId(), x: p.x, y: p.y, rotation: p.rotation, locked: false });
+    }
+  }
+  void doc;
+  return { name: 'Arrange', diff: { added, updated, removed: [] } };
+}
