@@ -141,3 +141,27 @@ describe('arrange: locked pieces, seeds, quantities and bad input', () => {
     expect(result.placed).toBe(3);
   });
 });
+
+describe('arrange: the benchmark claim', () => {
+  it('places at least 20 % more of the irregular set than a bounding-box packer (maxrects-packer)', async () => {
+    const { MaxRectsPacker } = await import('maxrects-packer/dist/maxrects-packer.mjs');
+    const set = benchmarkSet();
+    const gap = 3.175, margin = 3.175;
+    const packer = new MaxRectsPacker(W - 2 * margin + gap, H - 2 * margin + gap, 0, { smart: true, pot: false, square: false, allowRotation: true });
+    let boxes = 0;
+    for (let round = 0, any = true; any && round < 50; round++) {
+      any = false;
+      for (const s of set) {
+        packer.add(s.outline.widthMm + gap, s.outline.heightMm + gap, {});
+        if (packer.bins.length > 1) packer.bins.pop();
+        else {
+          boxes++;
+          any = true;
+        }
+      }
+    }
+    const ours = arrange(set.map((s) => ({ ...s, count: 1 })), { width: W, height: H, gap, margin, fill: true, maxIterations: 8, timeMs: 60_000, seed: 1 });
+    checkLayout(set, ours, { gap, margin });
+    expect(ours.placed).toBeGreaterThanOrEqual(Math.ceil(boxes * 1.2));
+  });
+});
