@@ -1,0 +1,46 @@
+import type { Ring } from '../../../shared/geometry/polygon';
+import { ringToSvgPath } from '../../../shared/geometry/polygon';
+import type { ExportSheet } from './types';
+
+const num = (v: number) => Number(v.toFixed(4)).toString();
+const escape = (text: string) => text.replace(/[<&>"]/g, (c) => ({ '<': '&lt;', '&': '&amp;', '>': '&gt;', '"': '&quot;' })[c]!);
+
+/** width, height and viewBox in the sheet's unit (CSS/SVG absolute units: 1in = 25.4mm). */
+function frame(sheet: ExportSheet) {
+  const k = sheet.unit === 'in' ? 1 / 25.4 : 1;
+  const w = num(sheet.doc.printArea.width * k), h = num(sheet.doc.printArea.height * k);
+  return { k, open: `<svg xmlns="http://www.w3.org/2000/svg" xmlns:xlink="http://www.w3.org/1999/xlink" width="${w}${sheet.unit}" height="${h}${sheet.unit}" viewBox="0 0 ${w} ${h}">` };
+}
+
+const scaled = (ring: Ring, k: number) => ring.map((p) => ({ x: p.x * k, y: p.y * k }));
+
+function cutGroups(lines: Array<{ id: string; name: string; ring: Ring; kind: 'kiss' | 'die' }>, k: number, strokeWidth: number) {
+  const group = (kind: 'kiss' | 'die', label: string) => {
+    const paths = lines.filter((l) => l.kind === kind).map((l) => `    <path id="cut-${escape(l.id)}" data-name="${escape(l.name)}" d="${ringToSvgPath(scaled(l.ring, k), 4)}"/>`);
+    return paths.length ? [`  <g id="${label}" fill="none" stroke="#ff00ff" stroke-width="${num(strokeWidth)}">`, ...paths, '  </g>'] : [];
+  };
+  return [...group('kiss', 'kiss-cut'), ...group('die', 'die-cut')];
+}
+
+/** The cut file: one closed stroked path per piece in sheet coordinates, kiss and die cuts grouped. */
+export function cutSvg(sheet: ExportSheet, lines: Array<{ id: string; name: string; ring: Ring; kind: 'kiss' | 'die' }>): string {
+  const { k, open } = frame(sheet);
+  return ['<?xml version="1.0" encoding="UTF-8"?>', open, `  <title>${escape(sheet.name)}: cut lines</title>`, ...cutGroups(lines, k, 0.25 * k), '</svg>', ''].join('\n');
+}
+
+/** The print image embedded under the cut lines, in separate named groups. */
+export function combinedSvg(sheet: ExportSheet, lines: Array<{ id: string; name: string; ring: Ring; kind: 'kiss' | 'die' }>, printPng: Buffer): string {
+  const { k, open } = frame(sheet);
+  const w = num(sheet.doc.printArea.width * k), h = num(sheet.doc.printArea.height * k);
+  return [
+    '<?xml version="1.0" encoding="UTF-8"?>',
+    open,
+    `  <title>${escape(sheet.name)}</title>`,
+    `  <g id="print"><image x="0" y="0" width="${w}" height="${h}" preserveAspectRatio="none" xlink:href="data:image/png;base64,${printPng.toString('base64')}"/></g>`,
+    `  <g id="cut-lines">`,
+    ...cutGroups(lines, k, 0.25 * k).map((l) => `  ${l}`),
+    '  </g>',
+    '</svg>',
+    '',
+  ].join('\n');
+}

@@ -1,0 +1,49 @@
+import type { Ring } from '../../../shared/geometry/polygon';
+import type { Piece, SheetDocument } from '../../../shared/sheet/document';
+
+export type ExportFormat = 'png' | 'svg' | 'combined' | 'pdf' | 'dxf';
+export const EXPORT_FORMATS: ExportFormat[] = ['png', 'svg', 'combined', 'pdf', 'dxf'];
+
+/** One piece ready to export: its cut line (sticker frame, mm) and its bordered raster. */
+export type ExportPiece = {
+  piece: Piece;
+  name: string;
+  cutLine: { points: Ring; widthMm: number; heightMm: number };
+  /** The bordered raster at the export DPI (grown by the bleed, if any), centred on the piece. */
+  raster: { png: Buffer; widthMm: number; heightMm: number };
+};
+
+export type PaperPlacement = { paperWidthMm: number; paperHeightMm: number; areaXMm: number; areaYMm: number };
+
+export type ExportOptions = {
+  dpi: number;
+  background: 'transparent' | 'white';
+  bleedMm: number;
+  formats: ExportFormat[];
+  dxfUnit: 'mm' | 'in';
+  /** A cut around the whole sheet: a rounded rectangle this far inside the print area's edge. */
+  sheetCut: { marginMm: number; radiusMm: number } | null;
+  /** Name of the spot colour the cutter's software looks for on the PDF's cut layer. */
+  spotColour: string;
+  summaryPage: boolean;
+};
+
+export type ExportSheet = {
+  name: string;
+  unit: 'in' | 'mm';
+  doc: SheetDocument;
+  pieces: ExportPiece[];
+  paper: PaperPlacement;
+  preflight?: string[];
+};
+
+export const DEFAULT_EXPORT_OPTIONS: ExportOptions = {
+  dpi: 300,
+  background: 'transparent',
+  bleedMm: 0,
+  formats: EXPORT_FORMATS,
+  dxfUnit: 'mm',
+  sheetCut: null,
+  spotColour: 'CutContour',
+  summaryPage: true,
+};
