@@ -1,0 +1,55 @@
+import { formatLength } from '../../../shared/units';
+import { cutDxf } from './dxf';
+import { sheetCutLines } from './geometry';
+import { sheetPdf } from './pdf';
+import { renderPrintImage } from './print-image';
+import { combinedSvg, cutSvg } from './svg';
+import { zipFiles } from './bundle';
+import type { ExportOptions, ExportSheet } from './types';
+
+export class ExportInputError extends Error {}
+
+const slug = (name: string) => name.toLowerCase().replace(/[^a-z0-9]+/g, '-').replace(/^-|-$/g, '').slice(0, 60) || 'sheet';
+
+/**
+ * Renders every requested format of one sheet from one set of placed cut lines, and a short text
+ * of sizes and settings; returns the files and the zip of them all.
+ */
+export async function exportSheet(sheet: ExportSheet, options: ExportOptions, onProgress?: (fraction: number, step: string) => void) {
+  if (sheet.pieces.length === 0) throw new ExportInputError('The sheet has no pieces to export.');
+  if (!(options.dpi >= 150 && options.dpi <= 600)) throw new ExportInputError('Choose a resolution from 150 to 600 DPI.');
+  const base = slug(sheet.name);
+  const lines = sheetCutLines(sheet, options.sheetCut);
+  const files: Array<{ name: string; data: Buffer | string }> = [];
+  const wants = new Set(options.formats);
+  onProgress?.(0.05, 'Rendering the print image');
+  const needsPng = wants.has('png') || wants.has('combined') || wants.has('pdf');
+  const png = needsPng ? await renderPrintImage(sheet, options.dpi, options.background, (d, t) => onProgress?.(0.05 + 0.6 * (d / t), 'Rendering the print image')) : null;
+  if (wants.has('png')) files.push({ name: `${base}-print.png`, data: png! });
+  onProgress?.(0.7, 'Writing the cut files');
+  if (wants.has('svg')) files.push({ name: `${base}-cut.svg`, data: cutSvg(sheet, lines) });
+  if (wants.has('combined')) files.push({ name: `${base}-print-and-cut.svg`, data: combinedSvg(sheet, lines, png!) });
+  if (wants.has('dxf')) files.push({ name: `${base}-cut.dxf`, data: cutDxf(sheet, lines, options.dxfUnit) });
+  const u = sheet.unit;
+  const settings = [
+    `Sheetsmith export: ${sheet.name}`,
+    `Print area: ${formatLength(sheet.doc.printArea.width, u)} x ${formatLength(sheet.doc.printArea.height, u)}, placed ${formatLength(sheet.paper.areaXMm, u)} from the left and ${formatLength(sheet.paper.areaYMm, u)} from the top of ${formatLength(sheet.paper.paperWidthMm, u)} x ${formatLength(sheet.paper.paperHeightMm, u)} paper`,
+    `Resolution: ${options.dpi} DPI; background ${options.background}; bleed ${formatLength(options.bleedMm, u)}`,
+    `Minimum gap ${formatLength(sheet.doc.minGap, u)}; safe margin ${formatLength(sheet.doc.safeMargin, u)}`,
+    `Cut lines: ${lines.length} (${lines.filter((l) => l.kind === 'die').length} die cut), PDF spot colour ${options.spotColour}, DXF in ${options.dxfUnit}`,
+    `Pieces: ${sheet.pieces.length}`,
+    ...sheet.pieces.map((p, i) => `  ${i + 1}. ${p.name}: ${formatLength(p.piece.width, u)} wide, border ${formatLength(p.piece.border, u)}, at (${formatLength(p.piece.x, u)}, ${formatLength(p.piece.y, u)}), turned ${Math.round(p.piece.rotation)} deg`),
+    ...(sheet.preflight?.length ? ['Preflight:', ...sheet.preflight.map((f) => `  - ${f}`)] : []),
+    '',
+    'Cutting: follow your machine instructions; keep fingers away from the carriage while it moves and change blades with the tool the maker provides.',
+  ];
+  if (wants.has('pdf')) {
+    onProgress?.(0.8, 'Writing the PDF');
+    files.push({ name: `${base}.pdf`, data: await sheetPdf(sheet, lines, png!, options.spotColour, options.summaryPage ? settings.filter(Boolean) : null) });
+  }
+  files.push({ name: `${base}-settings.txt`, data: `${settings.join('\n')}\n` });
+  onProgress?.(0.95, 'Zipping');
+  const zip = await zipFiles(files);
+  onProgress?.(1, 'Done');
+  return { files, zip, zipName: `${base}.zip` };
+}
