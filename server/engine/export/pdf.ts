@@ -30,7 +30,8 @@ export async function sheetPdf(
   pdf.setTitle(sheet.name);
   pdf.setCreator('Sheetsmith');
   const { paperWidthMm, paperHeightMm, areaXMm, areaYMm } = sheet.paper;
-  const page = pdf.addPage([paperWidthMm * PT_PER_MM, paperHeightMm * PT_PER_MM]);
+  const pt = (mm: number) => Math.round(mm * PT_PER_MM * 1000) / 1000;
+  const page = pdf.addPage([pt(paperWidthMm), pt(paperHeightMm)]);
   const image = await pdf.embedPng(printPng);
   const area = sheet.doc.printArea;
   // PDF y runs up from the bottom of the page; the print area is placed from the top.
@@ -61,7 +62,7 @@ export async function sheetPdf(
   page.pushOperators(...ops);
 
   if (summary) {
-    const info = pdf.addPage([paperWidthMm * PT_PER_MM, paperHeightMm * PT_PER_MM]);
+    const info = pdf.addPage([pt(paperWidthMm), pt(paperHeightMm)]);
     const font = await pdf.embedFont(StandardFonts.Helvetica);
     let cursor = info.getHeight() - 60;
     for (const [i, text] of summary.entries()) {
@@ -72,5 +73,6 @@ export async function sheetPdf(
       if (cursor < 40) break;
     }
   }
-  return Buffer.from(await pdf.save());
+  // Plain (not compressed) object streams: older RIP and cutter software reads them more reliably.
+  return Buffer.from(await pdf.save({ useObjectStreams: false }));
 }
