@@ -25,6 +25,7 @@ import type { PackLimits } from './modules/art/zip-pack';
 import { ProfilesService } from './modules/sheets/profiles.service';
 import { SheetsService } from './modules/sheets/sheets.service';
 import { sheetsRouter } from './modules/sheets/sheets.router';
+import { ExportsService } from './modules/sheets/exports.service';
 import { OutlineService } from './modules/outlines/outline.service';
 import { outlinesRouter } from './modules/outlines/outlines.router';
 import { OutlinePool } from './engine/outline/pool';
@@ -97,6 +98,7 @@ export function createApp({
   const collections = new CollectionsService(dataSource, storage);
   const profiles = new ProfilesService(dataSource);
   const sheets = new SheetsService(dataSource, storage, profiles);
+  const exportsService = new ExportsService(dataSource, storage, pool, sheets);
   const outlines = new OutlineService(dataSource, storage, pool);
 
   const api = express.Router();
@@ -120,7 +122,7 @@ export function createApp({
   api.use(authRouter({ auth, passport, throttle, csrfToken: generateToken }));
   api.use(teamsRouter({ dataSource, teams, auth, csrfToken: generateToken }));
   api.use(artRouter({ dataSource, art, sheets, maxBytes: env.ART_MAX_BYTES }));
-  api.use(sheetsRouter({ dataSource, sheets, profiles }));
+  api.use(sheetsRouter({ dataSource, sheets, profiles, exports: exportsService }));
   api.use(collectionsRouter({ dataSource, collections }));
   api.use(outlinesRouter({ dataSource, art, outlines }));
   if (mailer.outboxDir && env.NODE_ENV !== 'production') api.use(outboxRouter(mailer.outboxDir));

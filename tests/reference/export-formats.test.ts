@@ -130,7 +130,7 @@ describe('export: the cut SVG, read with fast-xml-parser and svg-path-bbox', () 
 describe('export: the DXF, read back with dxf-parser', () => {
   it('gives the same vertices within 0.001 in (y up from the bottom edge)', () => {
     const dxf = new DxfParser().parseSync(file('-cut.dxf') as string)!;
-    const polylines = dxf.entities.filter((e) => e.type === 'POLYLINE') as Array<{ vertices: Array<{ x: number; y: number }>; shape?: boolean; layer: string }>;
+    const polylines = dxf.entities.filter((e) => e.type === 'POLYLINE') as unknown as Array<{ vertices: Array<{ x: number; y: number }>; shape?: boolean; layer: string }>;
     expect(polylines).toHaveLength(5);
     for (const [i, p] of sheet.pieces.entries()) {
       const expected = place(p).map((q) => ({ x: q.x / IN, y: (H - q.y) / IN }));

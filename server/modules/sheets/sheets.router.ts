@@ -7,10 +7,14 @@ import { requirePermission, teamScope } from '../../middleware/auth';
 import { route } from '../../middleware/validate';
 import type { ProfilesService } from './profiles.service';
 import type { SheetsService } from './sheets.service';
+import type { ExportsService } from './exports.service';
+import { exportRequestSchema } from '../../../shared/schemas/exports';
+import { idSchema } from '../../../shared/schemas/team';
+import { z } from 'zod';
 
 const actorOf = (req: Request) => ({ userId: req.user!.id, teamId: req.membership!.teamId, role: req.membership!.role });
 
-export function sheetsRouter({ dataSource, sheets, profiles }: { dataSource: DataSource; sheets: SheetsService; profiles: ProfilesService }): Router {
+export function sheetsRouter({ dataSource, sheets, profiles, exports }: { dataSource: DataSource; sheets: SheetsService; profiles: ProfilesService; exports: ExportsService }): Router {
   const router = Router();
   const scoped = teamScope(dataSource);
   const view = requirePermission('team.view');
@@ -79,6 +83,27 @@ export function sheetsRouter({ dataSource, sheets, profiles }: { dataSource: Dat
     view,
     route({ params: sheetParamsSchema }, async ({ params }, req, res) => {
       res.type('png').set('Cache-Control', 'private, max-age=86400').send(await sheets.thumbnail(teamId(req), params.sheetId));
+    }),
+  );
+  const exportParams = z.object({ teamId: idSchema, sheetId: idSchema, exportId: idSchema });
+  router.post(
+    '/teams/:teamId/sheets/:sheetId/exports',
+    scoped,
+    edit,
+    route({ params: sheetParamsSchema, body: exportRequestSchema }, async ({ params, body }, req, res) => {
+      res.status(202);
+      return exports.start(teamId(req), req.user!.id, params.sheetId, body);
+    }),
+  );
+  router.get('/teams/:teamId/sheets/:sheetId/exports/latest', scoped, view, route({ params: sheetParamsSchema }, async ({ params }, req) => ({ export: await exports.latest(teamId(req), params.sheetId) })));
+  router.get('/teams/:teamId/sheets/:sheetId/exports/:exportId', scoped, view, route({ params: exportParams }, ({ params }, req) => exports.get(teamId(req), params.sheetId, params.exportId)));
+  router.get(
+    '/teams/:teamId/sheets/:sheetId/exports/:exportId/download',
+    scoped,
+    view,
+    route({ params: exportParams }, async ({ params }, req, res) => {
+      const file = await exports.download(teamId(req), params.sheetId, params.exportId);
+      res.attachment(file.name).type('zip').send(file.data);
     }),
   );
   return router;

@@ -1,0 +1,81 @@
+import JSZip from 'jszip';
+import { afterAll, beforeAll, describe, expect, it } from 'vitest';
+import type { DataSource } from 'typeorm';
+import { OutlinePool } from '../../server/engine/outline/pool';
+import { svgArt } from '../helpers/art';
+import { Client, makeTeamWithRoles, openDatabase, testApp } from '../helpers/app';
+import { uploadFile } from '../helpers/library';
+
+let db: DataSource;
+let pool: OutlinePool;
+let sheetsmith: ReturnType<typeof testApp>;
+
+beforeAll(async () => {
+  db = await openDatabase();
+  pool = new OutlinePool(undefined, 1);
+  sheetsmith = testApp(db, {}, { outlinePool: pool });
+});
+afterAll(async () => {
+  await sheetsmith.close();
+  await pool.close();
+  await db.destroy();
+});
+
+async function sheetWithPieces(pieces: number) {
+  const { team, users } = await makeTeamWithRoles(db);
+  const member = new Client(sheetsmith.app);
+  await member.signIn(users.member.email);
+  const art = (await uploadFile(member, team.id, await svgArt(600, 600, '<circle cx="300" cy="300" r="280" fill="#2471a3"/>'), 'drop.png')).body.results[0].item;
+  const { body: sheet } = await member.post(`/api/teams/${team.id}/sheets`, { name: 'Export me' });
+  const doc = { ...sheet.document, pieces: Array.from({ length: pieces }, (_, i) => ({ id: `e${i}`, artId: art.id, x: 40 + (i % 3) * 50, y: 40 + Math.floor(i / 3) * 50, rotation: i * 20, width: 38, border: 3.175, borderColour: '#ffffff', locked: false })) };
+  await member.send('put', `/api/teams/${team.id}/sheets/${sheet.id}`, { version: 1, document: doc });
+  return { team, users, member, sheet };
+}
+
+async function waitFor(client: Client, url: string) {
+  for (let i = 0; i < 120; i++) {
+    const res = await client.get(url);
+    if (res.body.status !== 'running') return res.body;
+    await new Promise((r) => setTimeout(r, 250));
+  }
+  throw new Error('export did not finish');
+}
+
+describe('sheet exports', () => {
+  it('runs in the background with progress, keeps the bundle for the version and serves it again', async () => {
+    const { team, member, sheet } = await sheetWithPieces(4);
+    const started = await member.post(`/api/teams/${team.id}/sheets/${sheet.id}/exports`, { dpi: 150, formats: ['png', 'svg', 'pdf', 'dxf'] });
+    expect(started.status).toBe(202);
+    expect(started.body).toMatchObject({ status: 'running', sheetVersion: 2 });
+    const done = await waitFor(member, `/api/teams/${team.id}/sheets/${sheet.id}/exports/${started.body.id}`);
+    expect(done).toMatchObject({ status: 'done', progress: 1 });
+    const latest = await member.get(`/api/teams/${team.id}/sheets/${sheet.id}/exports/latest`);
+    expect(latest.body.export.id).toBe(started.body.id);
+    const zip = await member.get(done.downloadUrl).buffer(true).parse((res, cb) => {
+      const parts: Buffer[] = [];
+      res.on('data', (c: Buffer) => parts.push(c));
+      res.on('end', () => cb(null, Buffer.concat(parts)));
+    });
+    expect(zip.status).toBe(200);
+    // Read back with JSZip: every promised file is there.
+    const names = Object.keys((await JSZip.loadAsync(zip.body as Buffer)).files).sort();
+    expect(names).toEqual(['export-me-cut.dxf', 'export-me-cut.svg', 'export-me-print.png', 'export-me-settings.txt', 'export-me.pdf']);
+  });
+
+  it('gives clear errors: another team’s sheet (404), an empty sheet (422), a DPI out of range (400), a viewer (403)', async () => {
+    const a = await sheetWithPieces(1);
+    const b = await sheetWithPieces(1);
+    expect((await a.member.post(`/api/teams/${a.team.id}/sheets/${b.sheet.id}/exports`, {})).status).toBe(404);
+    expect((await a.member.post(`/api/teams/${b.team.id}/sheets/${b.sheet.id}/exports`, {})).status).toBe(404);
+    const { body: empty } = await a.member.post(`/api/teams/${a.team.id}/sheets`, { name: 'Nothing here' });
+    const emptyRes = await a.member.post(`/api/teams/${a.team.id}/sheets/${empty.id}/exports`, {});
+    expect(emptyRes.status).toBe(422);
+    expect(emptyRes.body.error.message).toMatch(/no pieces yet/);
+    const dpi = await a.member.post(`/api/teams/${a.team.id}/sheets/${a.sheet.id}/exports`, { dpi: 2400 });
+    expect(dpi.status).toBe(400);
+    expect(dpi.body.error.fields.dpi).toBe('At most 600 DPI');
+    const viewer = new Client(sheetsmith.app);
+    await viewer.signIn(a.users.viewer.email);
+    expect((await viewer.post(`/api/teams/${a.team.id}/sheets/${a.sheet.id}/exports`, {})).status).toBe(403);
+  });
+});
