@@ -20,6 +20,7 @@ import { Inspector } from './inspector';
 import { LibraryPanel, defaultWidthMm } from './library-panel';
 import { useAutosave } from './use-autosave';
 import { ArrangePanel } from './arrange-panel';
+import { ExportPanel } from './export-panel';
 import type { SheetDocument } from '../../../../shared/sheet/document';
 
 const SAVE_TEXT = { saved: 'All changes saved', unsaved: 'Unsaved changes…', saving: 'Saving…', offline: 'Offline: will retry', conflict: 'Not saved: conflict' } as const;
@@ -28,6 +29,7 @@ export function EditorPage({ teamId, sheet, canEdit }: { teamId: string; sheet: 
   const store = useMemo(() => new EditorStore(sheet.document, { name: sheet.name, status: sheet.status, forSale: sheet.forSale, unit: sheet.unit, notes: sheet.notes }, sheet.version), [sheet.id]); // eslint-disable-line react-hooks/exhaustive-deps
   const state = useSyncExternalStore(store.subscribe, store.getState);
   const [arranging, setArranging] = useState(false);
+  const [exporting, setExporting] = useState(false);
   const [preview, setPreview] = useState<SheetDocument | null>(null);
   const stageRef = useRef<Konva.Stage | null>(null);
   const sheetRef = useRef<Konva.Group | null>(null);
@@ -160,6 +162,11 @@ export function EditorPage({ teamId, sheet, canEdit }: { teamId: string; sheet: 
             Auto-arrange…
           </button>
         )}
+        {canEdit && (
+          <button type="button" className="rounded-full bg-sage px-3 py-1 font-bold text-white" onClick={() => setExporting(true)} disabled={exporting}>
+            Export…
+          </button>
+        )}
         <span className="ml-auto text-xs text-ink-soft" data-testid="area-used">{shown.pieces.length} pieces · {Math.round(areaUsed() * 100)} % of the print area{preview ? ' (preview)' : ''}</span>
         <button type="button" className="rounded border-2 border-paper-edge bg-white px-2 py-1 font-bold" onClick={() => runAction('help', ctx)}>Shortcuts (?)</button>
       </div>
@@ -180,6 +187,7 @@ export function EditorPage({ teamId, sheet, canEdit }: { teamId: string; sheet: 
             addArt(art, at);
           }}
         />
+        {exporting && <ExportPanel teamId={teamId} sheetId={sheet.id} unsaved={state.save !== 'saved'} onClose={() => setExporting(false)} />}
         {arranging && <ArrangePanel store={store} outlines={outlines} onPreview={setPreview} onClose={() => setArranging(false)} />}
         </div>
         <aside className="flex min-h-0 flex-col gap-4 overflow-auto rounded-sticker border-2 border-paper-edge bg-white p-3" aria-label="Selection and checks">

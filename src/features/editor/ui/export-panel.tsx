@@ -1,0 +1,65 @@
+import { useQuery } from '@tanstack/react-query';
+import { useEffect, useState } from 'react';
+import type { ExportJobView } from '../../../../shared/schemas/exports';
+import { ApiError } from '../../../lib/api-client';
+import { getExport, latestExport, startExport } from '../api/exports';
+
+/** Export settings, the running job's progress, and the bundle to download (kept per sheet version). */
+export function ExportPanel({ teamId, sheetId, unsaved, onClose }: { teamId: string; sheetId: string; unsaved: boolean; onClose: () => void }) {
+  const [dpi, setDpi] = useState(300);
+  const [background, setBackground] = useState<'transparent' | 'white'>('transparent');
+  const [bleed, setBleed] = useState(0);
+  const [sheetCut, setSheetCut] = useState(false);
+  const [job, setJob] = useState<ExportJobView | null>(null);
+  const [error, setError] = useState<string | null>(null);
+  const latest = useQuery({ queryKey: ['teams', teamId, 'sheets', sheetId, 'export-latest'], queryFn: () => latestExport(teamId, sheetId) });
+
+  useEffect(() => {
+    if (!job || job.status !== 'running') return;
+    const t = setTimeout(() => void getExport(teamId, sheetId, job.id).then(setJob).catch(() => undefined), 400);
+    return () => clearTimeout(t);
+  }, [job, teamId, sheetId]);
+
+  const start = async () => {
+    setError(null);
+    try {
+      setJob(await startExport(teamId, sheetId, { dpi, background, bleedMm: bleed, sheetCut: sheetCut ? { marginMm: 1.5, radiusMm: 3 } : null }));
+    } catch (e) {
+      setError(e instanceof ApiError ? e.message : 'The export could not start.');
+    }
+  };
+  const shown = job ?? latest.data?.export ?? null;
+
+  return (
+    <section role="dialog" aria-labelledby="export-title" className="absolute right-3 top-3 z-30 w-80 rounded-sticker border-2 border-sage bg-white p-4 text-sm shadow-lg">
+      <h2 id="export-title" className="mb-2 text-lg font-extrabold">Export for print and cut</h2>
+      {unsaved && <p className="mb-2 text-peel-deep">Saving your latest changes first; the export uses the saved sheet.</p>}
+      <div className="flex flex-col gap-2">
+        <label className="flex items-center justify-between font-bold">Resolution
+          <select value={dpi} onChange={(e) => setDpi(Number(e.target.value))} className="rounded border-2 border-paper-edge px-1">{[150, 300, 600].map((d) => <option key={d} value={d}>{d} DPI</option>)}</select>
+        </label>
+        <label className="flex items-center justify-between font-bold">Around the stickers
+          <select value={background} onChange={(e) => setBackground(e.target.value as 'transparent' | 'white')} className="rounded border-2 border-paper-edge px-1"><option value="transparent">Transparent</option><option value="white">White</option></select>
+        </label>
+        <label className="flex items-center justify-between font-bold">Bleed (mm)
+          <input type="number" min={0} max={5} step={0.5} value={bleed} onChange={(e) => setBleed(Number(e.target.value))} className="w-16 rounded border-2 border-paper-edge px-1 text-right" />
+        </label>
+        <p className="text-xs text-ink-faint">White borders need no bleed; coloured borders: 0.5 to 1.5 mm (common practice).</p>
+        <label className="flex items-center gap-2 font-bold"><input type="checkbox" checked={sheetCut} onChange={(e) => setSheetCut(e.target.checked)} />Die cut around the whole sheet</label>
+      </div>
+      {shown && (
+        <div className="mt-3" role="status" data-testid="export-status">
+          <progress max={1} value={shown.progress} className="h-2 w-full accent-sage" aria-label="Export progress" />
+          <p>{shown.status === 'done' ? `Ready (sheet version ${shown.sheetVersion}).` : shown.status === 'failed' ? shown.error : `${shown.step}…`}</p>
+          {shown.downloadUrl && <a href={shown.downloadUrl} className="font-bold text-peel-deep underline">Download the bundle (zip)</a>}
+        </div>
+      )}
+      {error && <p role="alert" className="mt-2 font-semibold text-alarm">{error}</p>}
+      <p className="mt-3 text-xs text-ink-faint">Before cutting: follow your cutter's manual, keep fingers clear of the moving carriage, and change blades with the tool it provides.</p>
+      <div className="mt-3 flex gap-2">
+        <button type="button" onClick={() => void start()} disabled={unsaved || job?.status === 'running'} className="rounded-full bg-ink px-4 py-1 font-bold text-paper disabled:opacity-50">Export</button>
+        <button type="button" onClick={onClose} className="rounded-full border-2 border-paper-edge px-3 py-1 font-bold">Close</button>
+      </div>
+    </section>
+  );
+}
