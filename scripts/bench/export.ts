@@ -6,11 +6,12 @@ import { inchToMm } from '../../shared/units';
 import { exportSheet } from '../../server/engine/export/export';
 import { exportPiece } from '../../server/engine/export/prepare';
 import { DEFAULT_EXPORT_OPTIONS } from '../../server/engine/export/types';
+import type { ExportPiece } from '../../server/engine/export/types';
 import { outline } from '../../server/engine/outline/outline';
 
 const W = inchToMm(6.75), H = inchToMm(9.25);
 const art = await sharp(Buffer.from('<svg xmlns="http://www.w3.org/2000/svg" width="800" height="800"><defs><filter id="f"><feGaussianBlur stdDeviation="8"/></filter></defs><g filter="url(#f)"><circle cx="400" cy="400" r="330" fill="#7d3c98"/></g><circle cx="400" cy="400" r="90" fill="none" stroke="#f4d03f" stroke-width="30"/></svg>')).png().toBuffer();
-const pieces = [];
+const pieces: ExportPiece[] = [];
 for (let i = 0; i < 40; i++) {
   const piece: Piece = { id: `b${i}`, artId: '1', x: 14 + (i % 5) * 35, y: 14 + Math.floor(i / 5) * 29, rotation: (i * 37) % 360, width: 22, border: 2, borderColour: '#ffffff', locked: false };
   pieces.push(await exportPiece(piece, 'disc.png', 300, 0, (o) => outline(art, o)));
