@@ -87,6 +87,8 @@ export type SheetSummary = {
   profile: { id: string; name: string } | null;
   updatedAt: string;
   thumbnailUrl: string | null;
+  /** The newest export of any version: its state, and whether it matches the current version. */
+  lastExport: { status: 'running' | 'done' | 'failed'; progress: number; current: boolean; downloadUrl: string | null } | null;
 };
 
 export type SheetDetail = SheetSummary & { notes: string; document: z.infer<typeof sheetDocumentSchema>; artNames: Record<string, string> };

@@ -51,6 +51,8 @@ describe('sheet exports', () => {
     expect(done).toMatchObject({ status: 'done', progress: 1 });
     const latest = await member.get(`/api/teams/${team.id}/sheets/${sheet.id}/exports/latest`);
     expect(latest.body.export.id).toBe(started.body.id);
+    const list = await member.get(`/api/teams/${team.id}/sheets`);
+    expect(list.body.sheets[0].lastExport).toMatchObject({ status: 'done', current: true, downloadUrl: done.downloadUrl });
     const zip = await member.get(done.downloadUrl).buffer(true).parse((res, cb) => {
       const parts: Buffer[] = [];
       res.on('data', (c: Buffer) => parts.push(c));

@@ -26,6 +26,12 @@ export class SheetsService {
     const users = new Map((await this.dataSource.getRepository(User).findBy({ id: In([...new Set(rows.map((r) => r.ownerId))]) })).map((u) => [u.id, u]));
     const profileIds = [...new Set(rows.map((r) => r.profileId).filter((id): id is string => id !== null))];
     const profiles = new Map((profileIds.length ? await this.dataSource.getRepository(SheetProfile).findBy({ id: In(profileIds) }) : []).map((p) => [p.id, p]));
+    const exportRows: Array<{ id: string; sheet_id: string; sheet_version: number; status: 'running' | 'done' | 'failed'; progress: string }> = await this.dataSource.query(
+      `SELECT e.id, e.sheet_id, e.sheet_version, e.status, e.progress FROM sheet_exports e
+       JOIN (SELECT sheet_id, MAX(id) AS id FROM sheet_exports WHERE sheet_id IN (${rows.map(() => '?').join(',')}) GROUP BY sheet_id) last ON last.id = e.id`,
+      rows.map((r) => r.id),
+    );
+    const exportsBySheet = new Map(exportRows.map((e) => [String(e.sheet_id), e]));
     return rows.map((r) => ({
       id: r.id,
       name: r.name,
@@ -40,6 +46,11 @@ export class SheetsService {
       profile: r.profileId && profiles.get(r.profileId) ? { id: r.profileId, name: profiles.get(r.profileId)!.name } : null,
       updatedAt: r.updatedAt.toISOString(),
       thumbnailUrl: r.thumbnailKey ? `/api/teams/${r.teamId}/sheets/${r.id}/thumbnail?v=${r.version}` : null,
+      lastExport: (() => {
+        const e = exportsBySheet.get(r.id);
+        if (!e) return null;
+        return { status: e.status, progress: Number(e.progress), current: e.sheet_version === r.version, downloadUrl: e.status === 'done' ? `/api/teams/${r.teamId}/sheets/${r.id}/exports/${e.id}/download` : null };
+      })(),
     }));
   }
 

@@ -13,7 +13,9 @@ export const sheetsQueryOptions = (teamId: string, filters: SheetFilters) =>
     },
   });
 
-export const useSheets = (teamId: string, filters: SheetFilters) => useQuery(sheetsQueryOptions(teamId, filters));
+/** Polls while an export is running so its progress shows in the list. */
+export const useSheets = (teamId: string, filters: SheetFilters) =>
+  useQuery({ ...sheetsQueryOptions(teamId, filters), refetchInterval: (q) => (q.state.data?.some((s) => s.lastExport?.status === 'running') ? 1000 : false) });
 
 export const profilesQueryOptions = (teamId: string) =>
   queryOptions({

@@ -80,7 +80,7 @@ export function SheetsRoute() {
           ) : (
             <table className="w-full rounded-sticker bg-white text-sm" data-testid="sheets-table">
               <thead className="text-left text-ink-soft">
-                <tr><th className="p-2"><span className="sr-only">Preview</span></th><th>Name</th><th>Pieces</th><th>Area used</th><th>Status</th><th>Updated</th><th>Owner</th><th><span className="sr-only">Actions</span></th></tr>
+                <tr><th className="p-2"><span className="sr-only">Preview</span></th><th>Name</th><th>Pieces</th><th>Area used</th><th>Status</th><th>Updated</th><th>Owner</th><th>Export</th><th><span className="sr-only">Actions</span></th></tr>
               </thead>
               <tbody>
                 {sheets.data?.map((s) => (
@@ -92,6 +92,11 @@ export function SheetsRoute() {
                     <td>{SHEET_STATUS_LABELS[s.status]}</td>
                     <td>{new Date(s.updatedAt).toLocaleString()}</td>
                     <td>{s.owner.name}</td>
+                    <td className="text-xs">
+                      {s.lastExport?.status === 'running' && <progress max={1} value={s.lastExport.progress} className="h-2 w-16" aria-label="Export progress" />}
+                      {s.lastExport?.downloadUrl && <a href={s.lastExport.downloadUrl} className="font-bold underline">{s.lastExport.current ? 'Download' : 'Older version'}</a>}
+                      {s.lastExport?.status === 'failed' && <span className="text-alarm">Failed</span>}
+                    </td>
                     <td className="whitespace-nowrap text-right">
                       {edit && (
                         <>
