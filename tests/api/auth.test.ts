@@ -1,33 +1,22 @@
 import request from 'supertest';
-import { afterAll, beforeAll, describe, expect, it } from 'vitest';
-import type { DataSource } from 'typeorm';
+import { describe, expect, it } from 'vitest';
 import { User } from '../../server/modules/auth/user.entity';
 import { Membership } from '../../server/modules/teams/membership.entity';
 import { Team } from '../../server/modules/teams/team.entity';
-import { Client, TEST_PASSWORD, makeUser, openDatabase, testApp, unique, uniqueEmail } from '../helpers/app';
+import { Client, TEST_PASSWORD, makeUser, testApp, unique, uniqueEmail, useTestApp } from '../helpers/app';
 
-let db: DataSource;
-let sheetsmith: ReturnType<typeof testApp>;
-
-beforeAll(async () => {
-  db = await openDatabase();
-  sheetsmith = testApp(db);
-});
-afterAll(async () => {
-  await sheetsmith.close();
-  await db.destroy();
-});
+const t = useTestApp();
 
 describe('health', () => {
   it('reports the app and the database up', async () => {
-    const res = await request(sheetsmith.app).get('/api/health').expect(200);
+    const res = await request(t.sheetsmith.app).get('/api/health').expect(200);
     expect(res.body).toMatchObject({ app: 'up', database: 'up' });
   });
 });
 
 describe('sign-up', () => {
   it('creates the account, a personal studio it owns, and signs in', async () => {
-    const client = new Client(sheetsmith.app);
+    const client = new Client(t.sheetsmith.app);
     const email = uniqueEmail('maker');
     // E-mails are stored trimmed and lower-cased, so "ADA@…" and "ada@…" are one account.
     const res = await client.post('/api/auth/sign-up', { name: 'Ada Pennywhistle', email: ` ${email.toUpperCase()}`, password: 'long-enough-pw' });
@@ -36,27 +25,27 @@ describe('sign-up', () => {
     expect(res.body.teams).toHaveLength(1);
     expect(res.body.teams[0]).toMatchObject({ role: 'owner', personal: true, teamName: "Ada Pennywhistle's studio" });
 
-    const stored = await db.getRepository(User).findOneByOrFail({ email });
+    const stored = await t.db.getRepository(User).findOneByOrFail({ email });
     // bcrypt, cost 12 (modular crypt format "$2b$12$…")
     expect(stored.passwordHash).toMatch(/^\$2[aby]\$12\$/);
-    const memberships = await db.getRepository(Membership).findBy({ userId: stored.id });
+    const memberships = await t.db.getRepository(Membership).findBy({ userId: stored.id });
     expect(memberships.map((m) => m.role)).toEqual(['owner']);
 
     await client.get('/api/me').expect(200);
   });
 
   it('refuses a taken e-mail with a field message and creates nothing', async () => {
-    const existing = await makeUser(db, 'taken');
+    const existing = await makeUser(t.db, 'taken');
     const name = unique('Second Comer');
-    const res = await new Client(sheetsmith.app).post('/api/auth/sign-up', { name, email: existing.email, password: 'long-enough-pw' });
+    const res = await new Client(t.sheetsmith.app).post('/api/auth/sign-up', { name, email: existing.email, password: 'long-enough-pw' });
     expect(res.status).toBe(409);
     expect(res.body.error.fields.email).toMatch(/already exists/);
     // The transaction rolled back: no personal studio was left behind for the refused sign-up.
-    expect(await db.getRepository(Team).countBy({ name: `${name}'s studio` })).toBe(0);
+    expect(await t.db.getRepository(Team).countBy({ name: `${name}'s studio` })).toBe(0);
   });
 
   it('answers bad fields with 400 and one message per field (zod)', async () => {
-    const res = await new Client(sheetsmith.app).post('/api/auth/sign-up', { name: '', email: 'not-an-email', password: 'short' });
+    const res = await new Client(t.sheetsmith.app).post('/api/auth/sign-up', { name: '', email: 'not-an-email', password: 'short' });
     expect(res.status).toBe(400);
     expect(res.body.error.code).toBe('validation_failed');
     expect(Object.keys(res.body.error.fields).sort()).toEqual(['email', 'name', 'password']);
@@ -65,7 +54,7 @@ describe('sign-up', () => {
   });
 
   it('answers a malformed JSON body with 400, not 500', async () => {
-    const client = new Client(sheetsmith.app);
+    const client = new Client(t.sheetsmith.app);
     await client.refreshCsrf();
     const res = await client.agent
       .post('/api/auth/sign-up')
@@ -79,8 +68,8 @@ describe('sign-up', () => {
 
 describe('sign-in and sign-out', () => {
   it('signs in, regenerating the session id, and signs out', async () => {
-    const user = await makeUser(db, 'signin');
-    const client = new Client(sheetsmith.app);
+    const user = await makeUser(t.db, 'signin');
+    const client = new Client(t.sheetsmith.app);
     const before = await client.agent.get('/api/auth/csrf');
     const cookieBefore = String(before.headers['set-cookie']);
     const res = await client.signIn(user.email);
@@ -102,9 +91,9 @@ describe('sign-in and sign-out', () => {
   });
 
   it('gives one generic message for a wrong password and for an unknown e-mail', async () => {
-    const user = await makeUser(db, 'wrongpw');
-    const wrongPassword = await new Client(sheetsmith.app).post('/api/auth/sign-in', { email: user.email, password: 'nope-nope-nope' });
-    const unknownEmail = await new Client(sheetsmith.app).post('/api/auth/sign-in', { email: uniqueEmail('ghost'), password: TEST_PASSWORD });
+    const user = await makeUser(t.db, 'wrongpw');
+    const wrongPassword = await new Client(t.sheetsmith.app).post('/api/auth/sign-in', { email: user.email, password: 'nope-nope-nope' });
+    const unknownEmail = await new Client(t.sheetsmith.app).post('/api/auth/sign-in', { email: uniqueEmail('ghost'), password: TEST_PASSWORD });
     expect(wrongPassword.status).toBe(401);
     expect(unknownEmail.status).toBe(401);
     expect(wrongPassword.body).toEqual(unknownEmail.body);
@@ -112,20 +101,20 @@ describe('sign-in and sign-out', () => {
   });
 
   it('answers 401 for protected routes when signed out', async () => {
-    const res = await request(sheetsmith.app).get('/api/me');
+    const res = await request(t.sheetsmith.app).get('/api/me');
     expect(res.status).toBe(401);
     expect(res.body.error.code).toBe('unauthenticated');
   });
 
   it('keeps the session across a server restart (sessions live in MariaDB)', async () => {
-    const user = await makeUser(db, 'restart');
-    const first = testApp(db);
+    const user = await makeUser(t.db, 'restart');
+    const first = testApp(t.db);
     const client = new Client(first.app);
     const res = await client.signIn(user.email);
     const cookie = String(res.headers['set-cookie']).split(';')[0];
     await first.close();
 
-    const second = testApp(db);
+    const second = testApp(t.db);
     try {
       const me = await request(second.app).get('/api/me').set('cookie', cookie);
       expect(me.status).toBe(200);
@@ -138,8 +127,8 @@ describe('sign-in and sign-out', () => {
 
 describe('CSRF protection', () => {
   it('rejects a state-changing request without the token, and with a wrong one', async () => {
-    const user = await makeUser(db, 'csrf');
-    const client = new Client(sheetsmith.app);
+    const user = await makeUser(t.db, 'csrf');
+    const client = new Client(t.sheetsmith.app);
     await client.signIn(user.email);
 
     const missing = await client.agent.patch('/api/me').send({ name: 'Changed' });
@@ -147,25 +136,25 @@ describe('CSRF protection', () => {
     expect(missing.body.error.code).toBe('csrf_invalid');
     const wrong = await client.agent.patch('/api/me').set('x-csrf-token', 'f'.repeat(64)).send({ name: 'Changed' });
     expect(wrong.status).toBe(403);
-    expect((await db.getRepository(User).findOneByOrFail({ id: user.id })).name).toBe('csrf');
+    expect((await t.db.getRepository(User).findOneByOrFail({ id: user.id })).name).toBe('csrf');
 
     const ok = await client.send('patch', '/api/me', { name: 'Changed' });
     expect(ok.status).toBe(200);
-    expect((await db.getRepository(User).findOneByOrFail({ id: user.id })).name).toBe('Changed');
+    expect((await t.db.getRepository(User).findOneByOrFail({ id: user.id })).name).toBe('Changed');
   });
 
   it('rejects a sign-in posted without a token (login CSRF)', async () => {
-    const user = await makeUser(db, 'logincsrf');
-    const res = await request(sheetsmith.app).post('/api/auth/sign-in').send({ email: user.email, password: TEST_PASSWORD });
+    const user = await makeUser(t.db, 'logincsrf');
+    const res = await request(t.sheetsmith.app).post('/api/auth/sign-in').send({ email: user.email, password: TEST_PASSWORD });
     expect(res.status).toBe(403);
   });
 });
 
 describe('sign-in throttling', () => {
   it('blocks an e-mail after the set number of failures, even with the right password, with Retry-After', async () => {
-    const throttled = testApp(db, { LOGIN_MAX_FAILURES: 3, LOGIN_BLOCK_SECONDS: 600 });
+    const throttled = testApp(t.db, { LOGIN_MAX_FAILURES: 3, LOGIN_BLOCK_SECONDS: 600 });
     try {
-      const user = await makeUser(db, 'throttle');
+      const user = await makeUser(t.db, 'throttle');
       const client = new Client(throttled.app);
       for (let i = 0; i < 3; i++) {
         const res = await client.post('/api/auth/sign-in', { email: user.email, password: 'wrong-password' });
@@ -177,7 +166,7 @@ describe('sign-in throttling', () => {
       expect(Number(blocked.headers['retry-after'])).toBeGreaterThan(500);
 
       // Another account from the same address is not locked by those failures.
-      const other = await makeUser(db, 'throttle-other');
+      const other = await makeUser(t.db, 'throttle-other');
       await new Client(throttled.app).signIn(other.email);
     } finally {
       await throttled.close();

@@ -1,29 +1,14 @@
 import JSZip from 'jszip';
-import { afterAll, beforeAll, describe, expect, it } from 'vitest';
-import type { DataSource } from 'typeorm';
-import { OutlinePool } from '../../server/engine/outline/pool';
+import { describe, expect, it } from 'vitest';
 import { svgArt } from '../helpers/art';
-import { Client, makeTeamWithRoles, openDatabase, testApp } from '../helpers/app';
+import { Client, makeTeamWithRoles, useTestApp } from '../helpers/app';
 import { uploadFile } from '../helpers/library';
 
-let db: DataSource;
-let pool: OutlinePool;
-let sheetsmith: ReturnType<typeof testApp>;
-
-beforeAll(async () => {
-  db = await openDatabase();
-  pool = new OutlinePool(undefined, 1);
-  sheetsmith = testApp(db, {}, { outlinePool: pool });
-});
-afterAll(async () => {
-  await sheetsmith.close();
-  await pool.close();
-  await db.destroy();
-});
+const t = useTestApp({ pool: true });
 
 async function sheetWithPieces(pieces: number) {
-  const { team, users } = await makeTeamWithRoles(db);
-  const member = new Client(sheetsmith.app);
+  const { team, users } = await makeTeamWithRoles(t.db);
+  const member = new Client(t.sheetsmith.app);
   await member.signIn(users.member.email);
   const art = (await uploadFile(member, team.id, await svgArt(600, 600, '<circle cx="300" cy="300" r="280" fill="#2471a3"/>'), 'drop.png')).body.results[0].item;
   const { body: sheet } = await member.post(`/api/teams/${team.id}/sheets`, { name: 'Export me' });
@@ -76,7 +61,7 @@ describe('sheet exports', () => {
     const dpi = await a.member.post(`/api/teams/${a.team.id}/sheets/${a.sheet.id}/exports`, { dpi: 2400 });
     expect(dpi.status).toBe(400);
     expect(dpi.body.error.fields.dpi).toBe('At most 600 DPI');
-    const viewer = new Client(sheetsmith.app);
+    const viewer = new Client(t.sheetsmith.app);
     await viewer.signIn(a.users.viewer.email);
     expect((await viewer.post(`/api/teams/${a.team.id}/sheets/${a.sheet.id}/exports`, {})).status).toBe(403);
   });

@@ -2,45 +2,31 @@ import path from 'node:path';
 import { zipSync } from 'fflate';
 import JSZip from 'jszip';
 import sharp from 'sharp';
-import { afterAll, beforeAll, describe, expect, it } from 'vitest';
-import type { DataSource } from 'typeorm';
-import { OutlinePool } from '../../server/engine/outline/pool';
+import { describe, expect, it } from 'vitest';
 import { ArtItem } from '../../server/modules/art/art-item.entity';
 import { LocalDiskStorage } from '../../server/storage/local-disk';
 import { env } from '../../server/config/env';
 import { svgArt } from '../helpers/art';
-import { Client, makeTeamWithRoles, openDatabase, testApp } from '../helpers/app';
+import { Client, makeTeamWithRoles, useTestApp } from '../helpers/app';
 import { uploadFile, storedFileCount } from '../helpers/library';
 import { pngHeaderClaiming } from '../helpers/png';
 
-let db: DataSource;
-let pool: OutlinePool;
-let sheetsmith: ReturnType<typeof testApp>;
 // This file's own storage folder, so other suites running alongside never change its file counts.
 const storageDir = path.join(env.dataDir, 'storage-library-test');
 const storage = new LocalDiskStorage(storageDir);
 
-beforeAll(async () => {
-  db = await openDatabase();
-  pool = new OutlinePool(undefined, 1);
-  sheetsmith = testApp(db, {}, { outlinePool: pool, storage, packLimits: { maxEntries: 50, maxTotalBytes: 3 * 1024 * 1024, maxEntryBytes: 20 * 1024 * 1024, maxRatio: 200 } });
-});
-afterAll(async () => {
-  await sheetsmith.close();
-  await pool.close();
-  await db.destroy();
-});
+const t = useTestApp({ pool: true, extra: () => ({ storage, packLimits: { maxEntries: 50, maxTotalBytes: 3 * 1024 * 1024, maxEntryBytes: 20 * 1024 * 1024, maxRatio: 200 } }) });
 
 const shape = (i: number) => svgArt(160, 160, `<circle cx="80" cy="80" r="${30 + i}" fill="#${(0x224466 + i * 0x101010).toString(16).slice(-6)}"/>`);
 
 async function signedIn(email: string) {
-  const client = new Client(sheetsmith.app);
+  const client = new Client(t.sheetsmith.app);
   await client.signIn(email);
   return client;
 }
 
 async function setup() {
-  const { team, users } = await makeTeamWithRoles(db);
+  const { team, users } = await makeTeamWithRoles(t.db);
   const owner = await signedIn(users.owner.email);
   const admin = await signedIn(users.admin.email);
   const member = await signedIn(users.member.email);
@@ -189,7 +175,7 @@ describe('keywords, bulk actions and deleting', () => {
     expect((await member.send('delete', `/api/teams/${team.id}/art/${mine.id}`)).status).toBe(204);
     expect((await member.get(`/api/teams/${team.id}/art/${mine.id}`)).status).toBe(404);
     expect((await member.get(`/api/teams/${team.id}/art`)).body.items.map((i: { id: string }) => i.id)).toEqual([theirs.id]);
-    const row = await db.getRepository(ArtItem).findOneByOrFail({ id: mine.id });
+    const row = await t.db.getRepository(ArtItem).findOneByOrFail({ id: mine.id });
     expect(row.deletedAt).not.toBeNull();
     expect(await storage.exists(row.storageKey)).toBe(true);
     expect((await admin.post(`/api/teams/${team.id}/art/bulk`, { action: 'delete', ids: [theirs.id] })).body).toEqual({ changed: 1 });
@@ -250,7 +236,7 @@ describe('zip packs', () => {
     expect((await member.get(`/api/teams/${team.id}/art?q=tulips`)).body.total).toBe(2);
     const again = await uploadFile(member, team.id, zip, 'garden.zip');
     expect(again.body.results.filter((r: { status: string }) => r.status === 'stored')).toEqual([]);
-    expect(await db.getRepository(ArtItem).countBy({ teamId: team.id })).toBe(3);
+    expect(await t.db.getRepository(ArtItem).countBy({ teamId: team.id })).toBe(3);
   });
 });
 
@@ -292,7 +278,7 @@ describe('bad uploads: a clear message each, and nothing half-stored', () => {
       const res = await uploadFile(member, team.id, file, name);
       expect(res.status).toBe(status);
       expect(res.body.error.message).toMatch(message);
-      expect(await db.getRepository(ArtItem).countBy({ teamId: team.id })).toBe(0);
+      expect(await t.db.getRepository(ArtItem).countBy({ teamId: team.id })).toBe(0);
       expect(await storedFileCount(storageDir)).toBe(filesBefore);
     });
   }

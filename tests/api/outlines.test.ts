@@ -1,37 +1,20 @@
 import request from 'supertest';
-import { afterAll, beforeAll, describe, expect, it } from 'vitest';
-import type { DataSource } from 'typeorm';
-import { OutlinePool } from '../../server/engine/outline/pool';
+import { describe, expect, it } from 'vitest';
 import { ArtItem } from '../../server/modules/art/art-item.entity';
 import { OutlineCacheEntry } from '../../server/modules/outlines/outline-cache.entity';
 import { svgArt } from '../helpers/art';
-import { Client, makeTeamWithRoles, openDatabase, testApp } from '../helpers/app';
+import { Client, makeTeamWithRoles, useTestApp } from '../helpers/app';
 import { pngPhys, pngSize } from '../helpers/png';
+import { uploadFile } from '../helpers/library';
 
-let db: DataSource;
-let pool: OutlinePool;
-let sheetsmith: ReturnType<typeof testApp>;
+const upload = (client: Client, teamId: string, file: Buffer, name = 'fox.png') => uploadFile(client, teamId, file, name);
 
-beforeAll(async () => {
-  db = await openDatabase();
-  pool = new OutlinePool(undefined, 1);
-  sheetsmith = testApp(db, {}, { outlinePool: pool });
-});
-afterAll(async () => {
-  await sheetsmith.close();
-  await pool.close();
-  await db.destroy();
-});
-
-async function upload(client: Client, teamId: string, file: Buffer, name = 'fox.png') {
-  if (!client.csrf) await client.refreshCsrf();
-  return client.agent.post(`/api/teams/${teamId}/art`).set('x-csrf-token', client.csrf).attach('file', file, name);
-}
+const t = useTestApp({ pool: true });
 
 describe('art upload', () => {
   it('stores an image once per team, sniffing the type from the bytes', async () => {
-    const { team, users } = await makeTeamWithRoles(db);
-    const member = new Client(sheetsmith.app);
+    const { team, users } = await makeTeamWithRoles(t.db);
+    const member = new Client(t.sheetsmith.app);
     await member.signIn(users.member.email);
     const art = await svgArt(400, 300, '<ellipse cx="200" cy="150" rx="150" ry="100" fill="#ca6f1e"/>');
     const first = await upload(member, team.id, art, 'Autumn Fox.png');
@@ -40,15 +23,15 @@ describe('art upload', () => {
     const again = await upload(member, team.id, art, 'copy.jpg');
     expect(again.status).toBe(200);
     expect(again.body.results[0]).toMatchObject({ status: 'duplicate', item: { id: first.body.results[0].item.id } });
-    expect(await db.getRepository(ArtItem).countBy({ teamId: team.id })).toBe(1);
+    expect(await t.db.getRepository(ArtItem).countBy({ teamId: team.id })).toBe(1);
   });
 
   it('refuses a viewer (403), a non-image named .png (415) and an SVG (415), storing nothing', async () => {
-    const { team, users } = await makeTeamWithRoles(db);
-    const viewer = new Client(sheetsmith.app);
+    const { team, users } = await makeTeamWithRoles(t.db);
+    const viewer = new Client(t.sheetsmith.app);
     await viewer.signIn(users.viewer.email);
     expect((await upload(viewer, team.id, await svgArt(50, 50, '<circle cx="25" cy="25" r="20"/>'))).status).toBe(403);
-    const member = new Client(sheetsmith.app);
+    const member = new Client(t.sheetsmith.app);
     await member.signIn(users.member.email);
     const fake = await upload(member, team.id, Buffer.from('this is a text file'), 'sneaky.png');
     expect(fake.status).toBe(415);
@@ -56,14 +39,14 @@ describe('art upload', () => {
     const svg = await upload(member, team.id, Buffer.from('<svg xmlns="http://www.w3.org/2000/svg" width="9" height="9"/>'), 'logo.svg');
     expect(svg.status).toBe(415);
     expect(svg.body.error.message).toMatch(/SVG files are not supported yet/);
-    expect(await db.getRepository(ArtItem).countBy({ teamId: team.id })).toBe(0);
+    expect(await t.db.getRepository(ArtItem).countBy({ teamId: team.id })).toBe(0);
   });
 });
 
 describe('GET /api/teams/:teamId/art/:artId/outline', () => {
   it('computes an outline once, then answers the same request from the cache', async () => {
-    const { team, users } = await makeTeamWithRoles(db);
-    const member = new Client(sheetsmith.app);
+    const { team, users } = await makeTeamWithRoles(t.db);
+    const member = new Client(t.sheetsmith.app);
     await member.signIn(users.member.email);
     const art = await svgArt(1000, 1000, '<circle cx="500" cy="500" r="400" fill="#2e86c1"/>');
     const artId = (await upload(member, team.id, art)).body.results[0].item.id;
@@ -76,13 +59,13 @@ describe('GET /api/teams/:teamId/art/:artId/outline', () => {
     const piece = first.body.pieces[0];
     expect(piece.widthMm).toBeCloseTo(2.25 * 25.4, 6);
     expect(piece.cutLine.svgPath).toMatch(/^M[\d. ]+(L[\d. -]+)+Z$/);
-    const rows = await db.getRepository(OutlineCacheEntry).count();
+    const rows = await t.db.getRepository(OutlineCacheEntry).count();
 
     const second = await member.get(`/api/teams/${team.id}/art/${artId}/outline?border=3.175mm&width=50.8`);
     expect(second.status).toBe(200);
     expect(second.body.cached).toBe(true); // same options written differently: same key
     expect(second.body.key).toBe(first.body.key);
-    expect(await db.getRepository(OutlineCacheEntry).count()).toBe(rows);
+    expect(await t.db.getRepository(OutlineCacheEntry).count()).toBe(rows);
 
     const png = await member.get(piece.pngUrl).buffer(true);
     expect(png.status).toBe(200);
@@ -92,9 +75,9 @@ describe('GET /api/teams/:teamId/art/:artId/outline', () => {
   });
 
   it('answers bad options with 400 field messages, and another team with 404', async () => {
-    const mine = await makeTeamWithRoles(db);
-    const theirs = await makeTeamWithRoles(db);
-    const owner = new Client(sheetsmith.app);
+    const mine = await makeTeamWithRoles(t.db);
+    const theirs = await makeTeamWithRoles(t.db);
+    const owner = new Client(t.sheetsmith.app);
     await owner.signIn(theirs.users.owner.email);
     const artId = (await upload(owner, theirs.team.id, await svgArt(200, 200, '<rect x="20" y="20" width="160" height="160"/>'))).body.results[0].item.id;
 
@@ -102,7 +85,7 @@ describe('GET /api/teams/:teamId/art/:artId/outline', () => {
     expect(bad.status).toBe(400);
     expect(bad.body.error.fields).toMatchObject({ 'query.width': expect.stringMatching(/length like 2in/), 'query.dpi': 'At least 72 DPI' });
 
-    const stranger = new Client(sheetsmith.app);
+    const stranger = new Client(t.sheetsmith.app);
     await stranger.signIn(mine.users.owner.email);
     expect((await stranger.get(`/api/teams/${mine.team.id}/art/${artId}/outline?width=1in`)).status).toBe(404);
     expect((await stranger.get(`/api/teams/${theirs.team.id}/art/${artId}/outline?width=1in`)).status).toBe(404);
@@ -111,8 +94,8 @@ describe('GET /api/teams/:teamId/art/:artId/outline', () => {
   });
 
   it('ten outlines at once never stall the API: health answers while they run', async () => {
-    const { team, users } = await makeTeamWithRoles(db);
-    const member = new Client(sheetsmith.app);
+    const { team, users } = await makeTeamWithRoles(t.db);
+    const member = new Client(t.sheetsmith.app);
     await member.signIn(users.member.email);
     const artId = (await upload(member, team.id, await svgArt(2000, 2000, '<circle cx="1000" cy="1000" r="900" fill="#7b241c"/>'))).body.results[0].item.id;
     const finished: number[] = [];
@@ -123,7 +106,7 @@ describe('GET /api/teams/:teamId/art/:artId/outline', () => {
       }),
     );
     await new Promise((resolve) => setTimeout(resolve, 50));
-    const health = await request(sheetsmith.app).get('/api/health');
+    const health = await request(t.sheetsmith.app).get('/api/health');
     const healthAt = Date.now();
     expect(health.status).toBe(200);
     const results = await Promise.all(jobs);

@@ -1,10 +1,9 @@
-import { afterAll, beforeAll, describe, expect, it } from 'vitest';
-import type { DataSource } from 'typeorm';
+import { describe, expect, it } from 'vitest';
 import type { Permission, Role } from '../../shared/permissions';
 import { PERMISSIONS } from '../../shared/permissions';
 import { requirePermission, teamScope } from '../../server/middleware/auth';
 import { Team } from '../../server/modules/teams/team.entity';
-import { Client, makeTeamWithRoles, makeUser, openDatabase, testApp, uniqueEmail } from '../helpers/app';
+import { Client, makeTeamWithRoles, makeUser, useTestApp, uniqueEmail } from '../helpers/app';
 
 // The role table written out by hand, independently of shared/permissions.ts: if someone edits
 // the shared table, this test says which cell changed.
@@ -19,26 +18,18 @@ const EXPECTED: Record<Permission, Record<Role, boolean>> = {
 };
 const ROLE_LIST: Role[] = ['owner', 'admin', 'member', 'viewer'];
 
-let db: DataSource;
-let sheetsmith: ReturnType<typeof testApp>;
-
-beforeAll(async () => {
-  db = await openDatabase();
-  // A probe route per permission, guarded by the same middleware the real routes use. Library and
-  // sheet routes arrive with their issues; until then the probe stands in for their guard.
-  sheetsmith = testApp(db, {}, {
+// A probe route per permission, guarded by the same middleware the real routes use. Library and
+// sheet routes arrive with their issues; until then the probe stands in for their guard.
+const t = useTestApp({
+  extra: (dataSource) => ({
     extraApi: (api) => {
-      api.post('/teams/:teamId/probe/:permission', teamScope(db), (req, res, next) =>
+      api.post('/teams/:teamId/probe/:permission', teamScope(dataSource), (req, res, next) =>
         requirePermission(req.params.permission as Permission)(req, res, (error?: unknown) =>
           error ? next(error) : res.json({ allowed: true }),
         ),
       );
     },
-  });
-});
-afterAll(async () => {
-  await sheetsmith.close();
-  await db.destroy();
+  }),
 });
 
 describe('the role table', () => {
@@ -47,9 +38,9 @@ describe('the role table', () => {
   });
 
   it('lets each role do exactly what the table says, through the permission middleware', async () => {
-    const { team, users } = await makeTeamWithRoles(db);
+    const { team, users } = await makeTeamWithRoles(t.db);
     for (const role of ROLE_LIST) {
-      const client = new Client(sheetsmith.app);
+      const client = new Client(t.sheetsmith.app);
       await client.signIn(users[role].email);
       for (const permission of Object.keys(EXPECTED) as Permission[]) {
         const res = await client.post(`/api/teams/${team.id}/probe/${permission}`);
@@ -62,8 +53,8 @@ describe('the role table', () => {
 
   it('enforces the table on the real team routes for every role', async () => {
     for (const role of ROLE_LIST) {
-      const { team, users } = await makeTeamWithRoles(db);
-      const client = new Client(sheetsmith.app);
+      const { team, users } = await makeTeamWithRoles(t.db);
+      const client = new Client(t.sheetsmith.app);
       await client.signIn(users[role].email);
 
       const view = await client.get(`/api/teams/${team.id}`);
@@ -81,19 +72,19 @@ describe('the role table', () => {
 
       const remove = await client.send('delete', `/api/teams/${team.id}`);
       expect(remove.status).toBe(EXPECTED['team.delete'][role] ? 204 : 403);
-      expect(await db.getRepository(Team).existsBy({ id: team.id })).toBe(!EXPECTED['team.delete'][role]);
+      expect(await t.db.getRepository(Team).existsBy({ id: team.id })).toBe(!EXPECTED['team.delete'][role]);
     }
   });
 
   it('keeps admins from touching owners and keeps one owner in every team', async () => {
-    const { team, users } = await makeTeamWithRoles(db);
-    const admin = new Client(sheetsmith.app);
+    const { team, users } = await makeTeamWithRoles(t.db);
+    const admin = new Client(t.sheetsmith.app);
     await admin.signIn(users.admin.email);
     expect((await admin.send('patch', `/api/teams/${team.id}/members/${users.owner.id}`, { role: 'viewer' })).status).toBe(403);
     expect((await admin.send('patch', `/api/teams/${team.id}/members/${users.member.id}`, { role: 'owner' })).status).toBe(403);
     expect((await admin.post(`/api/teams/${team.id}/invites`, { email: uniqueEmail('o'), role: 'owner' })).status).toBe(403);
 
-    const owner = new Client(sheetsmith.app);
+    const owner = new Client(t.sheetsmith.app);
     await owner.signIn(users.owner.email);
     const leave = await owner.send('delete', `/api/teams/${team.id}/members/${users.owner.id}`);
     expect(leave.status).toBe(409);
@@ -102,9 +93,9 @@ describe('the role table', () => {
 
 describe('cross-team access', () => {
   it('answers 404 for another team, the same as for a team that does not exist', async () => {
-    const mine = await makeTeamWithRoles(db);
-    const theirs = await makeTeamWithRoles(db);
-    const client = new Client(sheetsmith.app);
+    const mine = await makeTeamWithRoles(t.db);
+    const theirs = await makeTeamWithRoles(t.db);
+    const client = new Client(t.sheetsmith.app);
     await client.signIn(mine.users.owner.email);
 
     const other = await client.get(`/api/teams/${theirs.team.id}`);
@@ -118,15 +109,15 @@ describe('cross-team access', () => {
     expect((await client.post(`/api/teams/${theirs.team.id}/invites`, { email: uniqueEmail('x'), role: 'member' })).status).toBe(404);
     expect((await client.send('delete', `/api/teams/${theirs.team.id}/members/${theirs.users.viewer.id}`)).status).toBe(404);
     expect((await client.send('put', '/api/me/active-team', { teamId: theirs.team.id })).status).toBe(404);
-    expect((await db.getRepository(Team).findOneByOrFail({ id: theirs.team.id })).name).toBe(theirs.team.name);
+    expect((await t.db.getRepository(Team).findOneByOrFail({ id: theirs.team.id })).name).toBe(theirs.team.name);
   });
 
   it('lets a user in several teams switch between them', async () => {
-    const a = await makeTeamWithRoles(db);
-    const b = await makeTeamWithRoles(db);
-    const user = await makeUser(db, 'both', { teamId: a.team.id, role: 'member' });
-    await db.query('INSERT INTO memberships (team_id, user_id, role) VALUES (?, ?, ?)', [b.team.id, user.id, 'viewer']);
-    const client = new Client(sheetsmith.app);
+    const a = await makeTeamWithRoles(t.db);
+    const b = await makeTeamWithRoles(t.db);
+    const user = await makeUser(t.db, 'both', { teamId: a.team.id, role: 'member' });
+    await t.db.query('INSERT INTO memberships (team_id, user_id, role) VALUES (?, ?, ?)', [b.team.id, user.id, 'viewer']);
+    const client = new Client(t.sheetsmith.app);
     await client.signIn(user.email);
     const switched = await client.send('put', '/api/me/active-team', { teamId: b.team.id });
     expect(switched.status).toBe(200);

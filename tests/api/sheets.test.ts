@@ -1,31 +1,16 @@
-import { afterAll, beforeAll, describe, expect, it } from 'vitest';
-import type { DataSource } from 'typeorm';
-import { OutlinePool } from '../../server/engine/outline/pool';
+import { describe, expect, it } from 'vitest';
 import type { Piece } from '../../shared/sheet/document';
 import { svgArt } from '../helpers/art';
-import { Client, makeTeamWithRoles, openDatabase, testApp } from '../helpers/app';
+import { Client, makeTeamWithRoles, useTestApp } from '../helpers/app';
 import { uploadFile } from '../helpers/library';
 
-let db: DataSource;
-let pool: OutlinePool;
-let sheetsmith: ReturnType<typeof testApp>;
-
-beforeAll(async () => {
-  db = await openDatabase();
-  pool = new OutlinePool(undefined, 1);
-  sheetsmith = testApp(db, {}, { outlinePool: pool });
-});
-afterAll(async () => {
-  await sheetsmith.close();
-  await pool.close();
-  await db.destroy();
-});
+const t = useTestApp({ pool: true });
 
 async function setup() {
-  const { team, users } = await makeTeamWithRoles(db);
+  const { team, users } = await makeTeamWithRoles(t.db);
   const clients = {} as Record<'owner' | 'admin' | 'member' | 'viewer', Client>;
   for (const role of ['owner', 'admin', 'member', 'viewer'] as const) {
-    clients[role] = new Client(sheetsmith.app);
+    clients[role] = new Client(t.sheetsmith.app);
     await clients[role].signIn(users[role].email);
   }
   const art = (await uploadFile(clients.member, team.id, await svgArt(300, 300, '<circle cx="150" cy="150" r="120" fill="#1e8449"/>'), 'leaf.png')).body.results[0].item;

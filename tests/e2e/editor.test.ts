@@ -1,40 +1,20 @@
 import { mkdirSync, writeFileSync } from 'node:fs';
 import path from 'node:path';
-import { afterAll, beforeAll, describe, expect, it } from 'vitest';
-import type { Browser, Page } from 'playwright-core';
-import type { DataSource } from 'typeorm';
+import { describe, expect, it } from 'vitest';
+import type { Page } from 'playwright-core';
 import type { Piece } from '../../shared/sheet/document';
 import { svgArt } from '../helpers/art';
-import { Client, TEST_PASSWORD, makeTeamWithRoles, openDatabase } from '../helpers/app';
-import { launchChromium, screenshot, serveApp } from '../helpers/browser';
+import { Client, makeTeamWithRoles } from '../helpers/app';
+import { screenshot, signInThroughForm, useBrowserApp } from '../helpers/browser';
 import { uploadFile } from '../helpers/library';
 
-let db: DataSource;
-let browser: Browser;
-let served: Awaited<ReturnType<typeof serveApp>>;
+const t = useBrowserApp();
 
-beforeAll(async () => {
-  db = await openDatabase();
-  served = await serveApp(db);
-  browser = await launchChromium();
-});
-afterAll(async () => {
-  await browser?.close();
-  await served?.close();
-  await db?.destroy();
-});
-
-async function signIn(page: Page, email: string) {
-  await page.goto(`${served.url}/sign-in`);
-  await page.getByLabel('E-mail').fill(email);
-  await page.getByLabel('Password').fill(TEST_PASSWORD);
-  await page.getByRole('button', { name: 'Sign in' }).click();
-  await page.waitForURL(/\/t\/\d+\/library$/);
-}
+const signIn = (page: Page, email: string) => signInThroughForm(page, t.served.url, email);
 
 async function teamWithArt() {
-  const { team, users } = await makeTeamWithRoles(db);
-  const client = new Client(served.url);
+  const { team, users } = await makeTeamWithRoles(t.db);
+  const client = new Client(t.served.url);
   await client.signIn(users.member.email);
   const shapes = ['<circle cx="300" cy="300" r="270" fill="#1f618d"/>', '<rect x="45" y="45" width="510" height="510" rx="90" fill="#b9770e"/>', '<path d="M300 30 L570 570 L30 570 Z" fill="#7d3c98"/>'];
   const art = [];
@@ -56,9 +36,9 @@ const sheetOf = async (client: Client, teamId: string, id: string) => (await cli
 describe('sheet editor in Chromium', () => {
   it('create, drag three pieces in, type a width, gap warning, undo/redo, reload; a second editor gets the conflict choice', async () => {
     const { team, users, client } = await teamWithArt();
-    const page = await browser.newPage({ viewport: { width: 1280, height: 900 } });
+    const page = await t.browser.newPage({ viewport: { width: 1280, height: 900 } });
     await signIn(page, users.member.email);
-    await page.goto(`${served.url}/t/${team.id}/sheets`);
+    await page.goto(`${t.served.url}/t/${team.id}/sheets`);
     await page.getByPlaceholder('e.g. Spring market, sheet 1').fill('Editor trial');
     await page.getByRole('button', { name: 'Start sheet' }).click();
     await page.waitForURL(/sheets\/\d+$/);
@@ -107,10 +87,10 @@ describe('sheet editor in Chromium', () => {
     await screenshot(page, 'editor-after-reload');
 
     // A teammate (second browser context) saves first; this editor's next save meets the conflict.
-    const other = await browser.newContext({ viewport: { width: 1280, height: 900 } });
+    const other = await t.browser.newContext({ viewport: { width: 1280, height: 900 } });
     const page2 = await other.newPage();
     await signIn(page2, users.admin.email);
-    await page2.goto(`${served.url}/t/${team.id}/sheets/${sheetId}`);
+    await page2.goto(`${t.served.url}/t/${team.id}/sheets/${sheetId}`);
     await page2.getByLabel('Sheet name').fill('Editor trial (admin edit)');
     await expect.poll(() => page2.getByTestId('save-state').textContent(), { timeout: 15_000 }).toBe('All changes saved');
 
@@ -132,9 +112,9 @@ describe('sheet editor in Chromium', () => {
     // Nine pieces piled in the middle, all overlapping.
     const pile = Array.from({ length: 9 }, (_, i) => ({ id: `pile${i}`, artId: art[i % 3].id, x: 80 + i, y: 110 + i, rotation: 0, width: 38, border: 3.175, borderColour: '#ffffff', locked: false }));
     await client.send('put', `/api/teams/${team.id}/sheets/${sheet.id}`, { version: 1, document: { ...sheet.document, pieces: pile } });
-    const page = await browser.newPage({ viewport: { width: 1280, height: 900 } });
+    const page = await t.browser.newPage({ viewport: { width: 1280, height: 900 } });
     await signIn(page, users.member.email);
-    await page.goto(`${served.url}/t/${team.id}/sheets/${sheet.id}`);
+    await page.goto(`${t.served.url}/t/${team.id}/sheets/${sheet.id}`);
     await expect.poll(() => page.getByTestId('area-used').textContent(), { timeout: 20_000 }).toMatch(/^9 pieces · [1-9]/);
     await expect.poll(() => page.getByTestId('guards').textContent(), { timeout: 15_000 }).toMatch(/apart/);
     await page.getByRole('button', { name: 'Auto-arrange…' }).click();
@@ -160,9 +140,9 @@ describe('sheet editor in Chromium', () => {
     const { team, users, client, art } = await teamWithArt();
     const { body: sheet } = await client.post(`/api/teams/${team.id}/sheets`, { name: 'Look only' });
     await client.send('put', `/api/teams/${team.id}/sheets/${sheet.id}`, { version: 1, document: { ...sheet.document, pieces: [{ id: 'v1', artId: art[0].id, x: 50, y: 50, rotation: 0, width: 40, border: 3, borderColour: '#ffffff', locked: false }] } });
-    const page = await browser.newPage({ viewport: { width: 1280, height: 900 } });
+    const page = await t.browser.newPage({ viewport: { width: 1280, height: 900 } });
     await signIn(page, users.viewer.email);
-    await page.goto(`${served.url}/t/${team.id}/sheets/${sheet.id}`);
+    await page.goto(`${t.served.url}/t/${team.id}/sheets/${sheet.id}`);
     await expect.poll(() => page.getByTestId('save-state').textContent()).toBe('Read only: your role can view sheets');
     expect(await page.getByRole('button', { name: 'Undo' }).count()).toBe(0);
     const at = await screenOf(page, { x: 50, y: 50 });
@@ -183,9 +163,9 @@ describe('sheet editor in Chromium', () => {
       pieces.push({ id: `b${i}`, artId: art[i % 3].id, x: 8 + (i % 13) * 12.5, y: 8 + Math.floor(i / 13) * 19, rotation: (i * 15) % 360, width: 9, border: 1.5, borderColour: '#ffffff', locked: false });
     }
     await client.send('put', `/api/teams/${team.id}/sheets/${sheet.id}`, { version: 1, document: { ...sheet.document, pieces } });
-    const page = await browser.newPage({ viewport: { width: 1280, height: 900 } });
+    const page = await t.browser.newPage({ viewport: { width: 1280, height: 900 } });
     await signIn(page, users.member.email);
-    await page.goto(`${served.url}/t/${team.id}/sheets/${sheet.id}`);
+    await page.goto(`${t.served.url}/t/${team.id}/sheets/${sheet.id}`);
     await expect.poll(() => page.getByTestId('area-used').textContent(), { timeout: 20_000 }).toMatch(/^150 pieces · [1-9]/);
     await page.waitForTimeout(1500);
     const from = await screenOf(page, { x: pieces[70].x, y: pieces[70].y });

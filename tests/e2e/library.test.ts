@@ -3,27 +3,13 @@ import { tmpdir } from 'node:os';
 import path from 'node:path';
 import { zipSync } from 'fflate';
 import sharp from 'sharp';
-import { afterAll, beforeAll, describe, expect, it } from 'vitest';
-import type { Browser, Page } from 'playwright-core';
-import type { DataSource } from 'typeorm';
+import { describe, expect, it } from 'vitest';
+import type { Page } from 'playwright-core';
 import { svgArt } from '../helpers/art';
-import { TEST_PASSWORD, makeTeamWithRoles, openDatabase } from '../helpers/app';
-import { launchChromium, screenshot, serveApp } from '../helpers/browser';
+import { makeTeamWithRoles } from '../helpers/app';
+import { screenshot, signInThroughForm, useBrowserApp } from '../helpers/browser';
 
-let db: DataSource;
-let browser: Browser;
-let served: Awaited<ReturnType<typeof serveApp>>;
-
-beforeAll(async () => {
-  db = await openDatabase();
-  served = await serveApp(db);
-  browser = await launchChromium();
-});
-afterAll(async () => {
-  await browser?.close();
-  await served?.close();
-  await db?.destroy();
-});
+const t = useBrowserApp();
 
 async function critterPack(): Promise<string> {
   const files: Record<string, Uint8Array> = {};
@@ -46,21 +32,15 @@ async function critterPack(): Promise<string> {
   return file;
 }
 
-async function signIn(page: Page, email: string) {
-  await page.goto(`${served.url}/sign-in`);
-  await page.getByLabel('E-mail').fill(email);
-  await page.getByLabel('Password').fill(TEST_PASSWORD);
-  await page.getByRole('button', { name: 'Sign in' }).click();
-  await page.waitForURL(/\/t\/\d+\/library$/);
-}
+const signIn = (page: Page, email: string) => signInThroughForm(page, t.served.url, email);
 
 describe('art library in Chromium', () => {
   it('uploads a zip of twelve images with progress, tags the batch, and finds them by search', async () => {
-    const { team, users } = await makeTeamWithRoles(db);
+    const { team, users } = await makeTeamWithRoles(t.db);
     const zip = await critterPack();
-    const page = await browser.newPage({ viewport: { width: 1280, height: 900 } });
+    const page = await t.browser.newPage({ viewport: { width: 1280, height: 900 } });
     await signIn(page, users.member.email);
-    await page.goto(`${served.url}/t/${team.id}/library`);
+    await page.goto(`${t.served.url}/t/${team.id}/library`);
     await page.getByRole('button', { name: 'Add art' }).click();
     await page.getByLabel('Keywords for this batch').fill('woodland, autumn fair');
     // Record every value the overall progress bar shows while the upload runs.
@@ -101,10 +81,10 @@ describe('art library in Chromium', () => {
   });
 
   it('shows a viewer the library without upload or bulk actions', async () => {
-    const { team, users } = await makeTeamWithRoles(db);
-    const page = await browser.newPage({ viewport: { width: 1280, height: 800 } });
+    const { team, users } = await makeTeamWithRoles(t.db);
+    const page = await t.browser.newPage({ viewport: { width: 1280, height: 800 } });
     await signIn(page, users.viewer.email);
-    await page.goto(`${served.url}/t/${team.id}/library`);
+    await page.goto(`${t.served.url}/t/${team.id}/library`);
     await page.getByRole('heading', { name: 'Art library' }).waitFor();
     expect(await page.getByRole('button', { name: 'Add art' }).count()).toBe(0);
     expect(await page.getByLabel('New collection name').count()).toBe(0);

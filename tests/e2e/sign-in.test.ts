@@ -1,34 +1,17 @@
-import { afterAll, beforeAll, describe, expect, it } from 'vitest';
-import type { Browser } from 'playwright-core';
-import type { DataSource } from 'typeorm';
+import { describe, expect, it } from 'vitest';
 import { DEMO_ACCOUNTS, DEMO_PASSWORD, DEMO_SHOP } from '../../scripts/demo-accounts';
 import { seedDemo } from '../../server/db/seed-demo';
-import { openDatabase } from '../helpers/app';
-import { launchChromium, screenshot, serveApp } from '../helpers/browser';
+import { screenshot, useBrowserApp } from '../helpers/browser';
 
-let db: DataSource;
-let browser: Browser;
-let served: Awaited<ReturnType<typeof serveApp>>;
-
-beforeAll(async () => {
-  db = await openDatabase();
-  await seedDemo(db);
-  served = await serveApp(db);
-  browser = await launchChromium();
-});
-afterAll(async () => {
-  await browser?.close();
-  await served?.close();
-  await db?.destroy();
-});
+const t = useBrowserApp((db) => seedDemo(db));
 
 const ROLE_LABEL = { owner: 'Owner', admin: 'Admin', member: 'Member', viewer: 'Viewer' } as const;
 
 describe('signing in as each demo account in Chromium', () => {
   for (const account of DEMO_ACCOUNTS) {
     it(`${account.email} reaches the shell with the ${account.role} role`, async () => {
-      const page = await browser.newPage({ viewport: { width: 1280, height: 800 } });
-      await page.goto(`${served.url}/`);
+      const page = await t.browser.newPage({ viewport: { width: 1280, height: 800 } });
+      await page.goto(`${t.served.url}/`);
       await page.waitForURL(/\/sign-in/);
       await page.getByLabel('E-mail').fill(account.email);
       await page.getByLabel('Password').fill(DEMO_PASSWORD);
@@ -53,8 +36,8 @@ describe('signing in as each demo account in Chromium', () => {
 
 describe('sign-in form', () => {
   it('shows inline field errors and keeps what the user typed', async () => {
-    const page = await browser.newPage({ viewport: { width: 1280, height: 800 } });
-    await page.goto(`${served.url}/sign-in`);
+    const page = await t.browser.newPage({ viewport: { width: 1280, height: 800 } });
+    await page.goto(`${t.served.url}/sign-in`);
     await page.getByLabel('E-mail').fill('owner@demo');
     await page.getByRole('button', { name: 'Sign in' }).click();
     await expect.poll(() => page.getByText('Enter an e-mail address like name@example.com').count()).toBe(1);
@@ -71,8 +54,8 @@ describe('sign-in form', () => {
   });
 
   it('can be completed with the keyboard alone', async () => {
-    const page = await browser.newPage({ viewport: { width: 1280, height: 800 } });
-    await page.goto(`${served.url}/sign-in`);
+    const page = await t.browser.newPage({ viewport: { width: 1280, height: 800 } });
+    await page.goto(`${t.served.url}/sign-in`);
     await page.getByLabel('E-mail').waitFor();
     // The e-mail field has focus on arrival.
     await expect.poll(() => page.evaluate(() => document.activeElement?.getAttribute('name'))).toBe('email');

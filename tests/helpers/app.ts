@@ -1,6 +1,9 @@
 import { randomBytes } from 'node:crypto';
 import bcrypt from 'bcryptjs';
 import request from 'supertest';
+import { afterAll, beforeAll } from 'vitest';
+import { OutlinePool } from '../../server/engine/outline/pool';
+import type { SheetsmithApp } from '../../server/app';
 import type TestAgent from 'supertest/lib/agent';
 import type { DataSource } from 'typeorm';
 import type { Role } from '../../shared/permissions';
@@ -23,6 +26,25 @@ export async function openDatabase(): Promise<DataSource> {
 
 export function testApp(dataSource: DataSource, overrides: Partial<Env> = {}, extra: Partial<AppOptions> = {}) {
   return createApp({ env: { ...baseEnv, ...overrides }, dataSource, ...extra });
+}
+
+/**
+ * One test database connection and one app for a test file, closed after it. `pool` gives the file
+ * its own single-thread outline pool; `extra` adds app options that need the connection.
+ */
+export function useTestApp(options: { pool?: boolean; overrides?: Partial<Env>; extra?: (db: DataSource) => Partial<AppOptions> } = {}) {
+  const t = {} as { db: DataSource; sheetsmith: SheetsmithApp; pool?: OutlinePool };
+  beforeAll(async () => {
+    t.db = await openDatabase();
+    if (options.pool) t.pool = new OutlinePool(undefined, 1);
+    t.sheetsmith = testApp(t.db, options.overrides, { ...(t.pool ? { outlinePool: t.pool } : {}), ...options.extra?.(t.db) });
+  });
+  afterAll(async () => {
+    await t.sheetsmith?.close();
+    await t.pool?.close();
+    await t.db?.destroy();
+  });
+  return t;
 }
 
 export const unique = (label: string) => `${label}-${randomBytes(4).toString('hex')}`;

@@ -2,8 +2,10 @@ import { mkdirSync } from 'node:fs';
 import type { AddressInfo } from 'node:net';
 import type { Server } from 'node:http';
 import path from 'node:path';
+import { afterAll, beforeAll } from 'vitest';
 import { chromium } from 'playwright-core';
 import type { Browser, Page } from 'playwright-core';
+import { TEST_PASSWORD, openDatabase } from './app';
 import type { DataSource } from 'typeorm';
 import { createApp } from '../../server/app';
 import { env } from '../../server/config/env';
@@ -49,4 +51,33 @@ export async function screenshot(page: Page, name: string) {
   const file = path.join(SCREENSHOT_DIR, `${name}.png`);
   await page.screenshot({ path: file, fullPage: true });
   return file;
+}
+
+/**
+ * For a browser test file: the test database, the real app on a free port, and Chromium; all closed
+ * after the file. `prepare` runs on the database before the app starts (e.g. seeding).
+ */
+export function useBrowserApp(prepare?: (db: DataSource) => Promise<unknown>) {
+  const t = {} as { db: DataSource; served: Awaited<ReturnType<typeof serveApp>>; browser: Browser };
+  beforeAll(async () => {
+    t.db = await openDatabase();
+    await prepare?.(t.db);
+    t.served = await serveApp(t.db);
+    t.browser = await launchChromium();
+  });
+  afterAll(async () => {
+    await t.browser?.close();
+    await t.served?.close();
+    await t.db?.destroy();
+  });
+  return t;
+}
+
+/** Signs in through the form and waits for the library of the user's active team. */
+export async function signInThroughForm(page: Page, baseUrl: string, email: string, password = TEST_PASSWORD) {
+  await page.goto(`${baseUrl}/sign-in`);
+  await page.getByLabel('E-mail').fill(email);
+  await page.getByLabel('Password').fill(password);
+  await page.getByRole('button', { name: 'Sign in' }).click();
+  await page.waitForURL(/\/t\/\d+\/library$/);
 }
