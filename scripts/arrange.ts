@@ -6,21 +6,19 @@
 import { mkdir, readFile, writeFile } from 'node:fs/promises';
 import path from 'node:path';
 import { parseArgs } from 'node:util';
-import sharp from 'sharp';
+import { fail } from './cli';
 import type { ArrangeItem, RotateMode } from '../shared/arrange/nester';
 import { ArrangeInputError, arrange } from '../shared/arrange/nester';
-import { ringToSvgPath } from '../shared/geometry/polygon';
 import type { Piece, SheetDocument } from '../shared/sheet/document';
 import { SHEET_SCHEMA_VERSION } from '../shared/sheet/document';
-import { placeCutLine } from '../shared/sheet/placement';
 import { parseLength } from '../shared/units';
 import { OutlineInputError } from '../server/engine/outline/errors';
 import { outline } from '../server/engine/outline/outline';
+import { sheetCutLines } from '../server/engine/export/geometry';
+import { renderPrintImage } from '../server/engine/export/print-image';
+import { cutSvg } from '../server/engine/export/svg';
+import type { ExportSheet } from '../server/engine/export/types';
 
-const fail = (message: string): never => {
-  console.error(message);
-  process.exit(2);
-};
 
 const { values, positionals } = parseArgs({
   allowPositionals: true,
@@ -94,32 +92,22 @@ for (let s = 0; s < result.sheets; s++) {
   const art = Object.fromEntries([...new Set(pieces.map((p) => p.artId))].map((key) => [key, files.get(key)!.file]));
   await writeFile(path.join(values.out!, `sheet${suffix}.json`), `${JSON.stringify({ document, art }, null, 2)}\n`);
 
-  const num = (v: number) => Number(v.toFixed(4));
-  const paths = placements.map((p, i) => {
-    const o = items.find((it) => it.key === p.key)!.outline;
-    return `  <path id="cut-${i + 1}" d="${ringToSvgPath(placeCutLine(p, o))}"/>`;
-  });
-  await writeFile(
-    path.join(values.out!, `sheet${suffix}.svg`),
-    `<?xml version="1.0" encoding="UTF-8"?>\n<svg xmlns="http://www.w3.org/2000/svg" width="${num(width)}mm" height="${num(height)}mm" viewBox="0 0 ${num(width)} ${num(height)}">\n <g id="cut-lines" fill="none" stroke="#ff00ff" stroke-width="0.1">\n${paths.join('\n')}\n </g>\n</svg>\n`,
-  );
-
-  // The print image: each bordered sticker turned and placed at its centre, transparent around.
-  const pxPerMm = dpi / 25.4;
-  const canvasW = Math.round(width * pxPerMm), canvasH = Math.round(height * pxPerMm);
-  const layers = [];
-  for (const p of placements) {
-    const f = files.get(p.key)!;
-    const turned = await sharp(f.png).rotate(p.rotation, { background: { r: 0, g: 0, b: 0, alpha: 0 } }).png().toBuffer({ resolveWithObject: true });
-    layers.push({ input: turned.data, left: Math.round(p.x * pxPerMm - turned.info.width / 2), top: Math.round(p.y * pxPerMm - turned.info.height / 2) });
-  }
-  await sharp({ create: { width: canvasW, height: canvasH, channels: 4, background: { r: 0, g: 0, b: 0, alpha: 0 } } })
-    .composite(layers)
-    .png()
-    .withMetadata({ density: dpi })
-    .toFile(path.join(values.out!, `sheet${suffix}.png`));
+  // The cut file and the print image come from the exporter, so they match what a sheet exports.
+  const sheet: ExportSheet = {
+    name: `sheet${suffix}`,
+    unit: 'mm',
+    doc: document,
+    pieces: pieces.map((piece) => {
+      const f = files.get(piece.artId)!;
+      const o = items.find((it) => it.key === piece.artId)!.outline;
+      return { piece, name: path.basename(f.file), cutLine: o, raster: { png: f.png, widthMm: f.widthMm, heightMm: f.heightMm } };
+    }),
+    paper: { paperWidthMm: width, paperHeightMm: height, areaXMm: 0, areaYMm: 0 },
+  };
+  await writeFile(path.join(values.out!, `sheet${suffix}.svg`), cutSvg(sheet, sheetCutLines(sheet, null)));
+  await writeFile(path.join(values.out!, `sheet${suffix}.png`), await renderPrintImage(sheet, dpi, 'transparent'));
 }
 
 for (const problem of problems) console.error(`problem: ${problem}`);
 console.log(JSON.stringify({ requested: result.requested, placed: result.placed, sheets: result.sheets, areaUsed: result.areaUsed.map((a) => Number(a.toFixed(4))), ms: result.ms, problems }));
-process.exit(problems.length > 0 && result.placed === 0 ? 1 : problems.length > 0 ? 1 : 0);
+process.exit(problems.length > 0 ? 1 : 0);

@@ -5,6 +5,7 @@
 import { mkdir, readFile, writeFile } from 'node:fs/promises';
 import path from 'node:path';
 import { parseArgs } from 'node:util';
+import { fail } from './cli';
 import { z } from 'zod';
 import { sheetDocumentSchema } from '../shared/sheet/document';
 import { PAPER_SIZES } from '../shared/schemas/sheets';
@@ -16,10 +17,6 @@ import { DEFAULT_EXPORT_OPTIONS, EXPORT_FORMATS } from '../server/engine/export/
 import { OutlineInputError } from '../server/engine/outline/errors';
 import { outline } from '../server/engine/outline/outline';
 
-const fail = (message: string): never => {
-  console.error(message);
-  process.exit(2);
-};
 
 const { values, positionals } = parseArgs({
   allowPositionals: true,

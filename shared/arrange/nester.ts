@@ -194,7 +194,6 @@ export function arrange(items: ArrangeItem[], options: ArrangeOptions, locked: L
     return true;
   });
   const shapes = prepare(usable, o);
-  const lockedShapes = prepare(locked.map((l) => ({ key: `locked:${l.key}`, outline: l.outline, count: 1, rotate: { step: 360 } })), { ...o, rotate: 'none' });
   for (const [key, shape] of shapes) {
     // Too large for the usable area in every allowed rotation: say so and leave it out.
     const fits = shape.masks.some((m) => m.maxX - m.minX <= o.width - 2 * o.margin && m.maxY - m.minY <= o.height - 2 * o.margin);
@@ -216,10 +215,9 @@ export function arrange(items: ArrangeItem[], options: ArrangeOptions, locked: L
       const board = new Board(o);
       if (boards.length === 0) {
         for (const l of locked) {
-          const mask = lockedShapes.get(`locked:${l.key}`)!.masks[0];
           const turned = shapeMask(l.outline, l.rotation, o.cell, o.gap / 2);
           const ring = turned.ring.map((p) => ({ x: p.x + l.x, y: p.y + l.y }));
-          board.place(turned, l.x, l.y, ring, area(mask.ring));
+          board.place(turned, l.x, l.y, ring, area(l.outline.points));
         }
       }
       boards.push(board);

@@ -35,7 +35,7 @@ export function planArrange(doc: SheetDocument, selection: ReadonlySet<string>, 
 }
 
 /** The arranged layout as one command: moved pieces, new copies (fill) and nothing else. */
-export function arrangeCommand(doc: SheetDocument, groups: Map<string, Piece[]>, result: ArrangeResult): Command {
+export function arrangeCommand(groups: Map<string, Piece[]>, result: ArrangeResult): Command {
   const queue = new Map([...groups].map(([key, pieces]) => [key, [...pieces]]));
   const updated: Command['diff']['updated'] = [];
   const added: Piece[] = [];
@@ -47,6 +47,5 @@ export function arrangeCommand(doc: SheetDocument, groups: Map<string, Piece[]>,
       added.push({ ...template, id: newPieceId(), x: p.x, y: p.y, rotation: p.rotation, locked: false });
     }
   }
-  void doc;
   return { name: 'Arrange', diff: { added, updated, removed: [] } };
 }

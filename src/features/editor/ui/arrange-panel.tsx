@@ -38,7 +38,7 @@ export function ArrangePanel({ store, outlines, onPreview, onClose }: { store: E
       if (message.type === 'progress') setProgress(message.progress);
       if (message.type === 'error') setError(message.message);
       if (message.type === 'done') {
-        const command = arrangeCommand(state.doc, plan.groups, message.result);
+        const command = arrangeCommand(plan.groups, message.result);
         setResult({ command, summary: message.result });
         onPreview(applyDiff(state.doc, command.diff));
         w.terminate();

@@ -1,7 +1,7 @@
 import { useState } from 'react';
 import type { CollectionView } from '../../../../shared/schemas/library';
 import { LICENCE_LABELS } from '../../../../shared/schemas/library';
-import { ApiError } from '../../../lib/api-client';
+import { useAction } from '../../../hooks/use-action';
 import type { LicenceInput } from '../../../../shared/schemas/library';
 import { useAttachProof } from '../api/art';
 import { useCreateCollection, useReorderCollections, useUpdateCollection } from '../api/collections';
@@ -24,19 +24,11 @@ export function CollectionsSidebar({ teamId, collections, selected, onSelect, ca
   const update = useUpdateCollection(teamId);
   const reorder = useReorderCollections(teamId);
   const [name, setName] = useState('');
-  const [error, setError] = useState<string | null>(null);
+  const { error, run } = useAction({ preferField: true });
   const [editing, setEditing] = useState<string | null>(null);
   const active = collections.filter((c) => !c.archived);
   const archived = collections.filter((c) => c.archived);
 
-  const run = async (action: () => Promise<unknown>) => {
-    setError(null);
-    try {
-      await action();
-    } catch (e) {
-      setError(e instanceof ApiError ? (Object.values(e.fields)[0] ?? e.message) : 'That did not work.');
-    }
-  };
   const move = (id: string, by: -1 | 1) => {
     const ids = collections.map((c) => c.id);
     const i = ids.indexOf(id);
@@ -128,7 +120,7 @@ export function CollectionsSidebar({ teamId, collections, selected, onSelect, ca
   );
 }
 
-function CollectionLicence({ teamId, collection, run, save }: { teamId: string; collection: CollectionView; run: (action: () => Promise<unknown>) => Promise<void>; save: (licence: LicenceInput | null) => Promise<unknown> }) {
+function CollectionLicence({ teamId, collection, run, save }: { teamId: string; collection: CollectionView; run: (action: () => Promise<unknown>) => Promise<unknown>; save: (licence: LicenceInput | null) => Promise<unknown> }) {
   const proof = useAttachProof(teamId, { collectionId: collection.id });
   return (
     <LicenceForm

@@ -4,7 +4,7 @@ import { LICENCE_LABELS } from '../../../../shared/schemas/library';
 import { formatLength } from '../../../../shared/units';
 import { Button, FormMessage } from '../../../components/form';
 import { PageTitle } from '../../../components/page-title';
-import { ApiError } from '../../../lib/api-client';
+import { useAction } from '../../../hooks/use-action';
 import { useMe } from '../../auth/api/me';
 import { useTeamRole } from '../../auth/use-team-role';
 import { deleteWithQuestion, useArt, useAttachProof, useDeleteArt, useUpdateArt } from '../api/art';
@@ -22,8 +22,13 @@ export function ArtDetailRoute() {
   const remove = useDeleteArt(teamId!);
   const proof = useAttachProof(teamId!, { artId });
   const navigate = useNavigate();
-  const [error, setError] = useState<string | null>(null);
+  const action = useAction();
   const [saved, setSaved] = useState(false);
+  const error = action.error;
+  const run = async (work: () => Promise<unknown>) => {
+    setSaved(false);
+    setSaved(await action.run(work));
+  };
 
   if (art.isPending) return <p>Loading…</p>;
   if (art.isError) return <FormMessage>{art.error.message}</FormMessage>;
@@ -32,16 +37,6 @@ export function ArtDetailRoute() {
   const size = (p: { widthMm: number; heightMm: number }) => `${formatLength(p.widthMm, unit, unit === 'in' ? 2 : 0)} × ${formatLength(p.heightMm, unit, unit === 'in' ? 2 : 0)}`;
   const edit = can('library.contribute');
 
-  const run = async (action: () => Promise<unknown>) => {
-    setError(null);
-    setSaved(false);
-    try {
-      await action();
-      setSaved(true);
-    } catch (e) {
-      setError(e instanceof ApiError ? e.message : 'That did not work.');
-    }
-  };
 
   return (
     <>

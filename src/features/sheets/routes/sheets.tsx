@@ -3,7 +3,7 @@ import { Link, useNavigate } from 'react-router';
 import { SHEET_STATUS_LABELS, SHEET_STATUSES } from '../../../../shared/schemas/sheets';
 import { Button, FormMessage } from '../../../components/form';
 import { EmptyState, PageTitle } from '../../../components/page-title';
-import { ApiError } from '../../../lib/api-client';
+import { useAction } from '../../../hooks/use-action';
 import { useMe } from '../../auth/api/me';
 import { useTeamRole } from '../../auth/use-team-role';
 import { useCreateSheet, useDeleteSheet, useDuplicateSheet, useProfiles, useSheets } from '../api/sheets';
@@ -19,7 +19,7 @@ export function SheetsRoute() {
   const [ownerId, setOwnerId] = useState('');
   const [name, setName] = useState('');
   const [profileId, setProfileId] = useState('');
-  const [error, setError] = useState<string | null>(null);
+  const { error, run } = useAction();
   const sheets = useSheets(teamId!, { q, status, ownerId });
   const owners = [...new Map((sheets.data ?? []).map((s) => [s.owner.id, s.owner.name])).entries()];
   const templates = useSheets(teamId!, { templates: 'only' });
@@ -30,14 +30,6 @@ export function SheetsRoute() {
   const navigate = useNavigate();
   const edit = can('sheets.edit');
 
-  const run = async (action: () => Promise<unknown>) => {
-    setError(null);
-    try {
-      await action();
-    } catch (e) {
-      setError(e instanceof ApiError ? e.message : 'That did not work.');
-    }
-  };
   const open = (id: string) => navigate(`/t/${teamId}/sheets/${id}`);
 
   return (

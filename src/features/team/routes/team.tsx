@@ -6,7 +6,7 @@ import { createInviteSchema, updateTeamSchema } from '../../../../shared/schemas
 import { Button, FormMessage, SelectField, TextField } from '../../../components/form';
 import { PageTitle } from '../../../components/page-title';
 import { useZodForm } from '../../../hooks/use-zod-form';
-import { ApiError } from '../../../lib/api-client';
+import { useAction } from '../../../hooks/use-action';
 import { useMe } from '../../auth/api/me';
 import { useTeamRole } from '../../auth/use-team-role';
 import { useChangeRole, useInvite, useRemoveMember, useRenameTeam, useRevokeInvite, useTeam } from '../api/team';
@@ -21,7 +21,7 @@ export function TeamRoute() {
   const changeRole = useChangeRole(teamId!);
   const removeMember = useRemoveMember(teamId!);
   const revokeInvite = useRevokeInvite(teamId!);
-  const [actionError, setActionError] = useState<string | null>(null);
+  const { error: actionError, run } = useAction();
 
   if (team.isPending) return <p>Loading the team…</p>;
   if (team.isError) return <FormMessage>{team.error.message}</FormMessage>;
@@ -29,14 +29,6 @@ export function TeamRoute() {
   const manage = can('team.members');
   const assignable = role ? assignableRoles(role) : [];
 
-  const run = async (action: () => Promise<unknown>) => {
-    setActionError(null);
-    try {
-      await action();
-    } catch (error) {
-      setActionError(error instanceof ApiError ? error.message : 'That did not work. Try again.');
-    }
-  };
 
   return (
     <>
