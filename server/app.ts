@@ -29,6 +29,12 @@ import { ExportsService } from './modules/sheets/exports.service';
 import { OutlineService } from './modules/outlines/outline.service';
 import { outlinesRouter } from './modules/outlines/outlines.router';
 import { OutlinePool } from './engine/outline/pool';
+import { CostingService } from './modules/shop/costing.service';
+import { MachinesService } from './modules/shop/machines.service';
+import { RunsService } from './modules/shop/runs.service';
+import { SheetAnalysisService } from './modules/shop/sheet-analysis.service';
+import { shopRouter } from './modules/shop/shop.router';
+import { StockService } from './modules/shop/stock.service';
 import { LocalDiskStorage } from './storage/local-disk';
 import type { Storage } from './storage/storage';
 
@@ -98,8 +104,13 @@ export function createApp({
   const collections = new CollectionsService(dataSource, storage);
   const profiles = new ProfilesService(dataSource);
   const sheets = new SheetsService(dataSource, storage, profiles);
-  const exportsService = new ExportsService(dataSource, storage, pool, sheets);
   const outlines = new OutlineService(dataSource, storage, pool);
+  const analysis = new SheetAnalysisService(dataSource, storage, outlines);
+  const exportsService = new ExportsService(dataSource, storage, pool, sheets, analysis);
+  const stock = new StockService(dataSource);
+  const machines = new MachinesService(dataSource);
+  const runs = new RunsService(dataSource, storage, sheets, stock, machines, analysis);
+  const costing = new CostingService(dataSource, sheets, analysis);
 
   const api = express.Router();
   api.use(express.json({ limit: '1mb' }));
@@ -122,7 +133,8 @@ export function createApp({
   api.use(authRouter({ auth, passport, throttle, csrfToken: generateToken }));
   api.use(teamsRouter({ dataSource, teams, auth, csrfToken: generateToken }));
   api.use(artRouter({ dataSource, art, sheets, maxBytes: env.ART_MAX_BYTES }));
-  api.use(sheetsRouter({ dataSource, sheets, profiles, exports: exportsService }));
+  api.use(sheetsRouter({ dataSource, sheets, profiles, exports: exportsService, costing }));
+  api.use(shopRouter({ dataSource, sheets, stock, machines, runs, costing, analysis }));
   api.use(collectionsRouter({ dataSource, collections }));
   api.use(outlinesRouter({ dataSource, art, outlines }));
   if (mailer.outboxDir && env.NODE_ENV !== 'production') api.use(outboxRouter(mailer.outboxDir));

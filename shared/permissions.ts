@@ -12,13 +12,15 @@ export const PERMISSIONS = {
   'library.manage': 'Create, rename, archive and reorder shared collections',
   'library.contribute': 'Upload art and add it to shared collections',
   'sheets.edit': 'Create, edit and print sheets',
+  'shop.record': 'Log print runs, change blades and count stock on hand',
+  'shop.manage': 'Add and change stock, printers, cutters, prices and shop rates',
 } as const;
 export type Permission = keyof typeof PERMISSIONS;
 
 export const ROLE_PERMISSIONS: Record<Role, readonly Permission[]> = {
-  owner: ['team.view', 'team.settings', 'team.members', 'team.delete', 'library.manage', 'library.contribute', 'sheets.edit'],
-  admin: ['team.view', 'team.settings', 'team.members', 'library.manage', 'library.contribute', 'sheets.edit'],
-  member: ['team.view', 'library.contribute', 'sheets.edit'],
+  owner: ['team.view', 'team.settings', 'team.members', 'team.delete', 'library.manage', 'library.contribute', 'sheets.edit', 'shop.record', 'shop.manage'],
+  admin: ['team.view', 'team.settings', 'team.members', 'library.manage', 'library.contribute', 'sheets.edit', 'shop.record', 'shop.manage'],
+  member: ['team.view', 'library.contribute', 'sheets.edit', 'shop.record'],
   viewer: ['team.view'],
 };
 

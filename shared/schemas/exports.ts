@@ -9,6 +9,8 @@ export const exportRequestSchema = z.object({
   sheetCut: z.object({ marginMm: z.number().min(0).max(50), radiusMm: z.number().min(0).max(50) }).nullable().default(null),
   spotColour: z.string().regex(/^[A-Za-z0-9_-]{1,40}$/, 'Letters, digits, - and _ only').default('CutContour'),
   summaryPage: z.boolean().default(true),
+  /** Export even though preflight found errors: the maker has read them and said so. */
+  acceptErrors: z.boolean().default(false),
 });
 export type ExportRequest = z.infer<typeof exportRequestSchema>;
 

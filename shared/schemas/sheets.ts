@@ -20,6 +20,8 @@ export const profileInputSchema = z
     areaYMm: mm('Print area top').optional(),
     safeMarginMm: mm('Safe margin', 0, 50),
     minGapMm: mm('Minimum gap', 0, 50),
+    smallestStickerMm: mm('Smallest sticker', 1, 200).optional().default(12.7),
+    minFeatureMm: mm('Smallest cuttable feature', 0.1, 20).optional().default(1),
   })
   .transform((p, ctx) => {
     const paper = p.paper === 'custom' ? { width: p.paperWidthMm, height: p.paperHeightMm } : PAPER_SIZES[p.paper];
@@ -32,7 +34,7 @@ export const profileInputSchema = z
     if (x < 0 || x + p.areaWidthMm > paper.width + 1e-6) ctx.addIssue({ code: 'custom', message: 'The print area does not fit across the paper', path: ['areaWidthMm'] });
     if (y < 0 || y + p.areaHeightMm > paper.height + 1e-6) ctx.addIssue({ code: 'custom', message: 'The print area does not fit down the paper', path: ['areaHeightMm'] });
     if (2 * p.safeMarginMm >= Math.min(p.areaWidthMm, p.areaHeightMm)) ctx.addIssue({ code: 'custom', message: 'The safe margin leaves no room on the print area', path: ['safeMarginMm'] });
-    return { name: p.name, paper: p.paper, paperWidthMm: paper.width, paperHeightMm: paper.height, areaWidthMm: p.areaWidthMm, areaHeightMm: p.areaHeightMm, areaXMm: x, areaYMm: y, safeMarginMm: p.safeMarginMm, minGapMm: p.minGapMm };
+    return { name: p.name, paper: p.paper, paperWidthMm: paper.width, paperHeightMm: paper.height, areaWidthMm: p.areaWidthMm, areaHeightMm: p.areaHeightMm, areaXMm: x, areaYMm: y, safeMarginMm: p.safeMarginMm, minGapMm: p.minGapMm, smallestStickerMm: p.smallestStickerMm, minFeatureMm: p.minFeatureMm };
   });
 export type ProfileInput = z.output<typeof profileInputSchema>;
 export type ProfileView = ProfileInput & { id: string; isDefault: boolean };
@@ -88,7 +90,17 @@ export type SheetSummary = {
   updatedAt: string;
   thumbnailUrl: string | null;
   /** The newest export of any version: its state, and whether it matches the current version. */
+  /** Cost of one printed sheet from its last analysis; `current` is false when the sheet changed since. */
+  cost?: { sheet: number; perSticker: number | null; currency: string; current: boolean } | null;
   lastExport: { status: 'running' | 'done' | 'failed'; progress: number; current: boolean; downloadUrl: string | null } | null;
 };
 
-export type SheetDetail = SheetSummary & { notes: string; document: z.infer<typeof sheetDocumentSchema>; artNames: Record<string, string> };
+export type SheetDetail = SheetSummary & {
+  notes: string;
+  document: z.infer<typeof sheetDocumentSchema>;
+  artNames: Record<string, string>;
+  /** Each art item's effective licence kind (its own or its collection's), for preflight. */
+  artLicences: Record<string, string | null>;
+  /** The profile's preflight limits (mm). */
+  limits: { smallestStickerMm: number; minFeatureMm: number };
+};

@@ -87,3 +87,12 @@ export function cutLineDistance(a: Ring, b: Ring, stopBelow = Infinity): number 
   }
   return best;
 }
+
+/**
+ * The outline request for a piece, as query text: the editor sends it and the server builds the same
+ * options from it, so both hit one cached outline. 150 DPI is plenty on screen and for preflight; the
+ * cut line itself is exact in millimetres at any DPI.
+ */
+export function pieceOutlineQuery(p: Pick<Piece, 'width' | 'border' | 'borderColour'>, minFeatureMm: number): Record<string, string> {
+  return { width: `${p.width.toFixed(2)}mm`, border: `${p.border.toFixed(3)}mm`, borderColour: p.borderColour, dpi: '150', minFeature: `${minFeatureMm.toFixed(2)}mm` };
+}

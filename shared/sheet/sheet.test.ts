@@ -4,7 +4,6 @@ import { inchToMm, mmToCssPx } from '../units';
 import { applyDiff, commands, invertDiff } from './commands';
 import type { Piece, SheetDocument } from './document';
 import { emptyDocument, sheetDocumentSchema } from './document';
-import { sheetGuards } from './guards';
 import { History } from './history';
 import { cutLineDistance, placeCutLine } from './placement';
 
@@ -92,16 +91,5 @@ describe('gap between cut lines', () => {
     expect(cutLineDistance(a, b)).toBeCloseTo(25, 3);
     const touching = placeCutLine({ x: 44.9, y: 30, rotation: 0 }, circle(15));
     expect(cutLineDistance(a, touching)).toBe(0);
-  });
-
-  it('flags pieces closer than the minimum gap and pieces outside the print area', () => {
-    const d: SheetDocument = { ...doc(), pieces: [piece('a', 20, 20), piece('b', 42, 20), piece('c', 200, 20)] };
-    const outlines = new Map(d.pieces.map((p) => [p.id, circle(10)]));
-    const guards = sheetGuards(d, outlines, () => 600);
-    expect(guards.filter((g) => g.kind === 'too-close').map((g) => g.pieceIds)).toEqual([['a', 'b']]);
-    expect(guards.find((g) => g.kind === 'too-close' && g.pieceIds[0] === 'a')).toMatchObject({ distanceMm: expect.closeTo(2, 3) });
-    expect(guards.filter((g) => g.kind === 'outside-print-area').map((g) => g.pieceIds)).toEqual([['c']]);
-    // 600 px across 40 mm = 381 DPI: no resolution guard; 200 px = 127 DPI: a warning.
-    expect(sheetGuards(d, outlines, () => 200).filter((g) => g.kind === 'low-resolution').every((g) => g.severity === 'warning')).toBe(true);
   });
 });

@@ -15,6 +15,8 @@ const EXPECTED: Record<Permission, Record<Role, boolean>> = {
   'library.manage': { owner: true, admin: true, member: false, viewer: false },
   'library.contribute': { owner: true, admin: true, member: true, viewer: false },
   'sheets.edit': { owner: true, admin: true, member: true, viewer: false },
+  'shop.record': { owner: true, admin: true, member: true, viewer: false },
+  'shop.manage': { owner: true, admin: true, member: false, viewer: false },
 };
 const ROLE_LIST: Role[] = ['owner', 'admin', 'member', 'viewer'];
 

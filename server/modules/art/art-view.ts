@@ -62,3 +62,13 @@ export async function artViews(manager: EntityManager, items: ArtItem[]): Promis
     };
   });
 }
+
+/** Each art item's effective licence kind: its own, else its collection's, else null. */
+export async function effectiveLicenceKinds(dataSource: { query: (sql: string, args: unknown[]) => Promise<unknown> }, teamId: string, ids: string[]): Promise<Map<string, string | null>> {
+  if (ids.length === 0) return new Map();
+  const rows = (await dataSource.query(
+    `SELECT a.id, COALESCE(a.licence_kind, c.licence_kind) AS kind FROM art_items a LEFT JOIN collections c ON c.id = a.collection_id WHERE a.team_id = ? AND a.id IN (${ids.map(() => '?').join(',')})`,
+    [teamId, ...ids],
+  )) as Array<{ id: string; kind: string | null }>;
+  return new Map(rows.map((r) => [String(r.id), r.kind]));
+}

@@ -28,6 +28,14 @@ export function outlineCacheKey(artSha256: string, options: OutlineOptions): str
   return createHash('sha256').update(`${OUTLINE_ENGINE_VERSION}\n${artSha256}\n${canonical(options)}`).digest('hex');
 }
 
+/** Without a background in the request, the art item's saved background setting applies. */
+export function withArtBackground(item: ArtItem, options: OutlineOptions, explicitBackground: boolean): OutlineOptions {
+  if (explicitBackground) return options;
+  if (item.backgroundMode === 'keep') return { ...options, background: 'keep' };
+  if (item.backgroundMode === 'colour') return { ...options, background: { colour: item.backgroundColour!, tolerance: item.backgroundTolerance } };
+  return { ...options, backgroundTolerance: item.backgroundTolerance };
+}
+
 export class OutlineService {
   private readonly inFlight = new Map<string, Promise<{ entry: OutlineCacheEntry; cached: boolean }>>();
 

@@ -7,6 +7,7 @@ import { requirePermission, teamScope } from '../../middleware/auth';
 import { route } from '../../middleware/validate';
 import type { ArtService } from '../art/art.service';
 import type { OutlineService } from './outline.service';
+import { withArtBackground } from './outline.service';
 
 const artParams = z.object({ teamId: idSchema, artId: idSchema });
 const pieceParams = z.object({
@@ -30,13 +31,7 @@ export function outlinesRouter({ dataSource, art, outlines }: { dataSource: Data
     route({ params: artParams, query: outlineQuerySchema }, async ({ params, query }, req) => {
       const teamId = req.membership!.teamId;
       const item = await art.find(teamId, params.artId);
-      // Without a background in the request, the item's saved background setting applies.
-      const options =
-        req.query.background === undefined && item.backgroundMode !== 'auto'
-          ? { ...query, background: item.backgroundMode === 'keep' ? ('keep' as const) : { colour: item.backgroundColour!, tolerance: item.backgroundTolerance } }
-          : req.query.background === undefined
-            ? { ...query, backgroundTolerance: item.backgroundTolerance }
-            : query;
+      const options = withArtBackground(item, query, req.query.background !== undefined);
       const { key, cached, outline } = await outlines.forArt(item, options);
       return {
         key,

@@ -9,6 +9,8 @@ import type { Storage } from '../../storage/storage';
 import { ArtItem } from '../art/art-item.entity';
 import type { SheetsService } from './sheets.service';
 import { SheetProfile } from './sheet-profile.entity';
+import type { SheetAnalysisService } from '../shop/sheet-analysis.service';
+import type { Finding } from '../../../shared/sheet/preflight';
 
 type Row = { id: string; sheet_version: number; status: ExportJobView['status']; progress: string; step: string; error: string | null; zip_key: string | null; created_at: Date };
 
@@ -23,6 +25,7 @@ export class ExportsService {
     private readonly storage: Storage,
     private readonly pool: OutlinePool,
     private readonly sheets: SheetsService,
+    private readonly analysis: SheetAnalysisService,
   ) {}
 
   private view(teamId: string, sheetId: string, r: Row): ExportJobView {
@@ -42,12 +45,17 @@ export class ExportsService {
     const sheet = await this.sheets.find(teamId, sheetId);
     const doc = migrateDocument(JSON.parse(sheet.document));
     if (doc.pieces.length === 0) throw new AppError(422, 'empty_sheet', 'This sheet has no pieces yet: add art before exporting.');
+    const findings = await this.analysis.preflightFor(teamId, sheet, options.bleedMm);
+    const errors = findings.filter((f) => f.severity === 'error');
+    if (errors.length > 0 && !options.acceptErrors) {
+      throw new AppError(409, 'preflight_errors', `Preflight found ${errors.length} error${errors.length === 1 ? '' : 's'}: ${errors.map((f) => f.message).join(' ')} Fix them, or confirm to export anyway.`);
+    }
     const insert = await this.dataSource.query(
       "INSERT INTO sheet_exports (team_id, sheet_id, sheet_version, status, options_json, created_by, step) VALUES (?, ?, ?, 'running', ?, ?, 'Queued')",
       [teamId, sheetId, sheet.version, JSON.stringify(options), userId],
     );
     const id = String(insert.insertId);
-    void this.run(teamId, id, sheet, doc, options);
+    void this.run(teamId, id, sheet, doc, options, findings);
     return this.get(teamId, sheetId, id);
   }
 
@@ -55,7 +63,7 @@ export class ExportsService {
     await this.dataSource.query('UPDATE sheet_exports SET progress = ?, step = ? WHERE id = ?', [Math.min(1, fraction).toFixed(3), step, id]);
   }
 
-  private async run(teamId: string, id: string, sheet: Awaited<ReturnType<SheetsService['find']>>, doc: ReturnType<typeof migrateDocument>, options: ExportRequest) {
+  private async run(teamId: string, id: string, sheet: Awaited<ReturnType<SheetsService['find']>>, doc: ReturnType<typeof migrateDocument>, options: ExportRequest, findings: Finding[]) {
     try {
       const profile = sheet.profileId ? await this.dataSource.getRepository(SheetProfile).findOneBy({ id: sheet.profileId }) : null;
       const arts = new Map((await this.dataSource.getRepository(ArtItem).findBy({ teamId })).filter((a) => doc.pieces.some((p) => p.artId === a.id)).map((a) => [a.id, a]));
@@ -73,7 +81,7 @@ export class ExportsService {
         ? { paperWidthMm: profile.paperWidthMm, paperHeightMm: profile.paperHeightMm, areaXMm: profile.areaXMm, areaYMm: profile.areaYMm }
         : { paperWidthMm: 215.9, paperHeightMm: 279.4, areaXMm: (215.9 - doc.printArea.width) / 2, areaYMm: (279.4 - doc.printArea.height) / 2 };
       let last = 0;
-      const result = await exportSheet({ name: sheet.name, unit: sheet.unit, doc, pieces, paper }, options, (fraction, step) => {
+      const result = await exportSheet({ name: sheet.name, unit: sheet.unit, doc, pieces, paper, preflight: findings.map((f) => `${f.severity.toUpperCase()}: ${f.message}`) }, options, (fraction, step) => {
         if (fraction - last >= 0.1 || fraction === 1) {
           last = fraction;
           void this.progress(id, 0.4 + 0.55 * fraction, step);

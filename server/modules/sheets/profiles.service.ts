@@ -16,6 +16,9 @@ export const DEFAULT_PROFILE: ProfileInput = {
   areaYMm: (279.4 - inchToMm(9.25)) / 2,
   safeMarginMm: inchToMm(0.125),
   minGapMm: inchToMm(0.125),
+  // Common practice: stickers under about 0.5 in lift off the liner; necks under 1 mm tear.
+  smallestStickerMm: inchToMm(0.5),
+  minFeatureMm: 1,
 };
 
 const view = (p: SheetProfile): ProfileView => ({
@@ -30,6 +33,8 @@ const view = (p: SheetProfile): ProfileView => ({
   areaYMm: p.areaYMm,
   safeMarginMm: p.safeMarginMm,
   minGapMm: p.minGapMm,
+  smallestStickerMm: p.smallestStickerMm,
+  minFeatureMm: p.minFeatureMm,
   isDefault: p.isDefault,
 });
 
@@ -65,8 +70,8 @@ export class ProfilesService {
 
   async update(teamId: string, id: string, input: ProfileInput, makeDefault: boolean): Promise<ProfileView> {
     await this.find(teamId, id);
-    const { name, paper, paperWidthMm, paperHeightMm, areaWidthMm, areaHeightMm, areaXMm, areaYMm, safeMarginMm, minGapMm } = input;
-    const fields = { name, paper, paperWidthMm, paperHeightMm, areaWidthMm, areaHeightMm, areaXMm, areaYMm, safeMarginMm, minGapMm };
+    const { name, paper, paperWidthMm, paperHeightMm, areaWidthMm, areaHeightMm, areaXMm, areaYMm, safeMarginMm, minGapMm, smallestStickerMm, minFeatureMm } = input;
+    const fields = { name, paper, paperWidthMm, paperHeightMm, areaWidthMm, areaHeightMm, areaXMm, areaYMm, safeMarginMm, minGapMm, smallestStickerMm, minFeatureMm };
     await this.dataSource.transaction(async (manager) => {
       if (makeDefault) await manager.update(SheetProfile, { teamId }, { isDefault: false });
       await manager.update(SheetProfile, { id, teamId }, { ...fields, ...(makeDefault ? { isDefault: true } : {}) });

@@ -41,6 +41,12 @@ export class SheetProfile {
   @Column({ name: 'min_gap_mm', ...decimal, precision: 6 })
   minGapMm!: number;
 
+  @Column({ name: 'smallest_sticker_mm', ...decimal, precision: 6 })
+  smallestStickerMm!: number;
+
+  @Column({ name: 'min_feature_mm', ...decimal, precision: 6 })
+  minFeatureMm!: number;
+
   @Column({ name: 'is_default', type: 'boolean', default: false })
   isDefault!: boolean;
 

@@ -8,13 +8,14 @@ import { route } from '../../middleware/validate';
 import type { ProfilesService } from './profiles.service';
 import type { SheetsService } from './sheets.service';
 import type { ExportsService } from './exports.service';
+import type { CostingService } from '../shop/costing.service';
 import { exportRequestSchema } from '../../../shared/schemas/exports';
 import { idSchema } from '../../../shared/schemas/team';
 import { z } from 'zod';
 
 const actorOf = (req: Request) => ({ userId: req.user!.id, teamId: req.membership!.teamId, role: req.membership!.role });
 
-export function sheetsRouter({ dataSource, sheets, profiles, exports }: { dataSource: DataSource; sheets: SheetsService; profiles: ProfilesService; exports: ExportsService }): Router {
+export function sheetsRouter({ dataSource, sheets, profiles, exports, costing }: { dataSource: DataSource; sheets: SheetsService; profiles: ProfilesService; exports: ExportsService; costing: CostingService }): Router {
   const router = Router();
   const scoped = teamScope(dataSource);
   const view = requirePermission('team.view');
@@ -47,7 +48,7 @@ export function sheetsRouter({ dataSource, sheets, profiles, exports }: { dataSo
     }),
   );
 
-  router.get('/teams/:teamId/sheets', scoped, view, route({ params: teamParamsSchema, query: sheetListQuerySchema }, async ({ query }, req) => ({ sheets: await sheets.list(teamId(req), query) })));
+  router.get('/teams/:teamId/sheets', scoped, view, route({ params: teamParamsSchema, query: sheetListQuerySchema }, async ({ query }, req) => ({ sheets: await costing.attach(teamId(req), await sheets.list(teamId(req), query)) })));
   router.post(
     '/teams/:teamId/sheets',
     scoped,

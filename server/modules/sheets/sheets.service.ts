@@ -8,9 +8,11 @@ import { AppError, notFound, validationError } from '../../lib/errors';
 import type { Storage } from '../../storage/storage';
 import { User } from '../auth/user.entity';
 import { ArtItem } from '../art/art-item.entity';
+import { effectiveLicenceKinds } from '../art/art-view';
 import type { ProfilesService } from './profiles.service';
 import { SheetProfile } from './sheet-profile.entity';
 import { Sheet } from './sheet.entity';
+import { DEFAULT_PREFLIGHT_LIMITS } from '../../../shared/sheet/preflight';
 
 type Actor = { userId: string; teamId: string; role: Role };
 
@@ -74,7 +76,16 @@ export class SheetsService {
     const document = migrateDocument(JSON.parse(sheet.document));
     const ids = [...new Set(document.pieces.map((p) => p.artId))];
     const art = ids.length ? await this.dataSource.getRepository(ArtItem).findBy({ id: In(ids), teamId }) : [];
-    return { ...summary, notes: sheet.notes ?? '', document, artNames: Object.fromEntries(art.map((a) => [a.id, a.name])) };
+    const licences = await effectiveLicenceKinds(this.dataSource, teamId, ids);
+    const profile = sheet.profileId ? await this.dataSource.getRepository(SheetProfile).findOneBy({ id: sheet.profileId }) : null;
+    return {
+      ...summary,
+      notes: sheet.notes ?? '',
+      document,
+      artNames: Object.fromEntries(art.map((a) => [a.id, a.name])),
+      artLicences: Object.fromEntries(licences),
+      limits: { smallestStickerMm: profile?.smallestStickerMm ?? DEFAULT_PREFLIGHT_LIMITS.smallestStickerMm, minFeatureMm: profile?.minFeatureMm ?? DEFAULT_PREFLIGHT_LIMITS.minFeatureMm },
+    };
   }
 
   /** Every art item a document uses must be the team's own (a deleted one still counts). */

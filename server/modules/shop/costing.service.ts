@@ -1,0 +1,117 @@
+import type { DataSource } from 'typeorm';
+import type { z } from 'zod';
+import type { SheetSummary } from '../../../shared/schemas/sheets';
+import type { costingInputSchema, SheetAnalysis, SheetCostView, ShopSettings } from '../../../shared/schemas/shop';
+import { costPerSheet, sheetCost } from '../../../shared/production/cost';
+import { notFound } from '../../lib/errors';
+import type { SheetsService } from '../sheets/sheets.service';
+import type { SheetAnalysisService } from './sheet-analysis.service';
+
+type Costing = z.infer<typeof costingInputSchema>;
+const DEFAULT_SETTINGS: ShopSettings = { currency: '$', labourRatePerHour: 0, markupPercent: 100 };
+
+/**
+ * What a sheet costs: the stock's price per sheet, ink from the print image's coverage, the
+ * blade's wear share and optional labour, with a price at the shop's markup. Inputs the maker has
+ * not chosen count as zero and are listed as missing.
+ */
+export class CostingService {
+  constructor(
+    private readonly dataSource: DataSource,
+    private readonly sheets: SheetsService,
+    private readonly analysis: SheetAnalysisService,
+  ) {}
+
+  async settings(teamId: string): Promise<ShopSettings> {
+    const [row] = await this.dataSource.query('SELECT * FROM shop_settings WHERE team_id = ?', [teamId]);
+    return row ? { currency: row.currency, labourRatePerHour: Number(row.labour_rate), markupPercent: Number(row.markup_percent) } : DEFAULT_SETTINGS;
+  }
+
+  async saveSettings(teamId: string, s: ShopSettings): Promise<ShopSettings> {
+    await this.dataSource.query(
+      'INSERT INTO shop_settings (team_id, currency, labour_rate, markup_percent) VALUES (?,?,?,?) ON DUPLICATE KEY UPDATE currency = VALUES(currency), labour_rate = VALUES(labour_rate), markup_percent = VALUES(markup_percent)',
+      [teamId, s.currency, s.labourRatePerHour, s.markupPercent],
+    );
+    return this.settings(teamId);
+  }
+
+  private async costingOf(teamId: string, sheetId: string): Promise<Costing> {
+    const [row] = await this.dataSource.query('SELECT stock_id, printer_id, cutter_id, labour_minutes FROM sheets WHERE id = ? AND team_id = ?', [sheetId, teamId]);
+    if (!row) throw notFound('That sheet');
+    const id = (v: unknown) => (v === null ? null : String(v));
+    return { stockId: id(row.stock_id), printerId: id(row.printer_id), cutterId: id(row.cutter_id), labourMinutes: Number(row.labour_minutes) };
+  }
+
+  /** Chooses what a sheet is costed on. Not part of the document: no new version, no save conflict. */
+  async setCosting(teamId: string, sheetId: string, c: Costing): Promise<SheetCostView> {
+    await this.sheets.find(teamId, sheetId);
+    const owned = async (table: string, id: string | null, extra = '') => {
+      if (id === null) return;
+      const [row] = await this.dataSource.query(`SELECT id FROM ${table} WHERE id = ? AND team_id = ?${extra}`, [id, teamId]);
+      if (!row) throw notFound(table === 'stock_items' ? 'That stock' : 'That machine');
+    };
+    await owned('stock_items', c.stockId);
+    await owned('machines', c.printerId, " AND kind = 'printer'");
+    await owned('machines', c.cutterId, " AND kind = 'cutter'");
+    await this.dataSource.query('UPDATE sheets SET stock_id = ?, printer_id = ?, cutter_id = ?, labour_minutes = ? WHERE id = ?', [c.stockId, c.printerId, c.cutterId, c.labourMinutes, sheetId]);
+    return this.cost(teamId, sheetId);
+  }
+
+  private async compute(teamId: string, analysis: SheetAnalysis, costing: Costing, settings: ShopSettings): Promise<Omit<SheetCostView, 'analysis'>> {
+    const [stock] = costing.stockId ? await this.dataSource.query('SELECT name, pack_price, sheets_per_pack FROM stock_items WHERE id = ? AND team_id = ?', [costing.stockId, teamId]) : [];
+    const [printer] = costing.printerId ? await this.dataSource.query('SELECT name, ink_full_page FROM machines WHERE id = ? AND team_id = ?', [costing.printerId, teamId]) : [];
+    const [blade] = costing.cutterId ? await this.dataSource.query('SELECT label, price, life_m FROM blades WHERE cutter_id = ? AND team_id = ? AND removed_on IS NULL ORDER BY id DESC LIMIT 1', [costing.cutterId, teamId]) : [];
+    const inputs: SheetCostView['inputs'] = {
+      stock: stock ? { name: stock.name, packPrice: Number(stock.pack_price), sheetsPerPack: stock.sheets_per_pack, perSheet: costPerSheet(Number(stock.pack_price), stock.sheets_per_pack) } : null,
+      printer: printer ? { name: printer.name, inkFullPage: Number(printer.ink_full_page ?? 0) } : null,
+      blade: blade ? { label: blade.label, price: Number(blade.price), lifeM: Number(blade.life_m) } : null,
+      labourRatePerHour: settings.labourRatePerHour,
+      markupPercent: settings.markupPercent,
+      currency: settings.currency,
+    };
+    const missing = [!inputs.stock && 'stock', !inputs.printer && 'printer', !inputs.blade && 'cutter blade'].filter((m): m is string => !!m);
+    const cost = sheetCost({
+      stockPerSheet: inputs.stock?.perSheet ?? 0,
+      coverage: analysis.coverage.total,
+      printAreaShare: analysis.printAreaShare,
+      inkFullPage: inputs.printer?.inkFullPage ?? 0,
+      cutLengthMm: analysis.cutLengthMm,
+      bladePrice: inputs.blade?.price ?? 0,
+      bladeLifeM: inputs.blade?.lifeM ?? 0,
+      labourMinutes: costing.labourMinutes,
+      labourRatePerHour: settings.labourRatePerHour,
+      pieces: analysis.pieces,
+      markupPercent: settings.markupPercent,
+    });
+    return { costing, inputs, cost, missing };
+  }
+
+  async cost(teamId: string, sheetId: string): Promise<SheetCostView> {
+    const sheet = await this.sheets.find(teamId, sheetId);
+    const analysis = await this.analysis.analyse(teamId, sheet);
+    return { analysis, ...(await this.compute(teamId, analysis, await this.costingOf(teamId, sheetId), await this.settings(teamId))) };
+  }
+
+  /** Adds each sheet's cost from its last analysis (marked stale when the sheet changed since). */
+  async attach(teamId: string, list: SheetSummary[]): Promise<SheetSummary[]> {
+    if (list.length === 0) return list;
+    const rows: Array<{ id: string; version: number; analysis_json: string | null; analysis_version: number | null; stock_id: string | null; printer_id: string | null; cutter_id: string | null; labour_minutes: string }> = await this.dataSource.query(
+      `SELECT id, version, analysis_json, analysis_version, stock_id, printer_id, cutter_id, labour_minutes FROM sheets WHERE team_id = ? AND id IN (${list.map(() => '?').join(',')})`,
+      [teamId, ...list.map((s) => s.id)],
+    );
+    const settings = await this.settings(teamId);
+    const byId = new Map(rows.map((r) => [String(r.id), r]));
+    const out: SheetSummary[] = [];
+    for (const s of list) {
+      const r = byId.get(s.id);
+      if (!r?.analysis_json) {
+        out.push({ ...s, cost: null });
+        continue;
+      }
+      const id = (v: unknown) => (v === null ? null : String(v));
+      const { cost } = await this.compute(teamId, JSON.parse(r.analysis_json), { stockId: id(r.stock_id), printerId: id(r.printer_id), cutterId: id(r.cutter_id), labourMinutes: Number(r.labour_minutes) }, settings);
+      out.push({ ...s, cost: { sheet: cost.sheet, perSticker: cost.perSticker, currency: settings.currency, current: r.analysis_version === r.version } });
+    }
+    return out;
+  }
+}

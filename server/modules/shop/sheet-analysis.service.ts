@@ -1,0 +1,128 @@
+import sharp from 'sharp';
+import type { DataSource } from 'typeorm';
+import { In } from 'typeorm';
+import { outlineOptionsSchema } from '../../../shared/schemas/outline';
+import type { SheetAnalysis } from '../../../shared/schemas/shop';
+import { cutLength } from '../../../shared/production/cost';
+import { inkCoverage } from '../../../shared/production/coverage';
+import type { SheetDocument } from '../../../shared/sheet/document';
+import { migrateDocument } from '../../../shared/sheet/document';
+import { pieceOutlineQuery, placeCutLine } from '../../../shared/sheet/placement';
+import type { Finding, PreflightLimits, PreflightOutline } from '../../../shared/sheet/preflight';
+import { DEFAULT_PREFLIGHT_LIMITS, preflight } from '../../../shared/sheet/preflight';
+import { renderPrintImage } from '../../engine/export/print-image';
+import type { ExportPiece } from '../../engine/export/types';
+import type { Storage } from '../../storage/storage';
+import { ArtItem } from '../art/art-item.entity';
+import { effectiveLicenceKinds } from '../art/art-view';
+import type { OutlineService, StoredOutline } from '../outlines/outline.service';
+import { withArtBackground } from '../outlines/outline.service';
+import { SheetProfile } from '../sheets/sheet-profile.entity';
+import type { Sheet } from '../sheets/sheet.entity';
+
+const ANALYSIS_DPI = 150;
+
+type Gathered = { doc: SheetDocument; outlines: Map<string, PreflightOutline>; stored: Map<string, StoredOutline>; names: Map<string, string>; licences: Map<string, string | null>; paperArea: number; limits: PreflightLimits };
+
+/**
+ * What the server knows of a sheet version without exporting it: preflight findings, total cut
+ * length and ink coverage. Outlines come from the same cache the editor fills (same options), and
+ * coverage from the print image rendered at 150 DPI, which is plenty for a mean. Results are kept
+ * on the sheet row for its version.
+ */
+export class SheetAnalysisService {
+  constructor(
+    private readonly dataSource: DataSource,
+    private readonly storage: Storage,
+    private readonly outlines: OutlineService,
+  ) {}
+
+  private async gather(teamId: string, sheet: Sheet): Promise<Gathered> {
+    const doc = migrateDocument(JSON.parse(sheet.document));
+    const profile = sheet.profileId ? await this.dataSource.getRepository(SheetProfile).findOneBy({ id: sheet.profileId }) : null;
+    const minFeature = profile?.minFeatureMm ?? DEFAULT_PREFLIGHT_LIMITS.minFeatureMm;
+    const ids = [...new Set(doc.pieces.map((p) => p.artId))];
+    const arts = new Map((ids.length ? await this.dataSource.getRepository(ArtItem).findBy({ id: In(ids), teamId }) : []).map((a) => [a.id, a]));
+    const outlines = new Map<string, PreflightOutline>();
+    const stored = new Map<string, StoredOutline>();
+    const byQuery = new Map<string, StoredOutline>();
+    for (const piece of doc.pieces) {
+      const art = arts.get(piece.artId);
+      if (!art) continue;
+      const query = pieceOutlineQuery(piece, minFeature);
+      const key = `${art.id}|${JSON.stringify(query)}`;
+      let outline = byQuery.get(key);
+      if (!outline) {
+        outline = (await this.outlines.forArt(art, withArtBackground(art, outlineOptionsSchema.parse(query), false))).outline;
+        byQuery.set(key, outline);
+      }
+      const first = outline.pieces[0];
+      stored.set(piece.id, outline);
+      outlines.set(piece.id, {
+        points: first.cutLine.points,
+        widthMm: first.widthMm,
+        heightMm: first.heightMm,
+        effectiveDpi: outline.effectiveDpi,
+        narrowNecks: outline.warnings.filter((w) => w.code === 'narrow-neck').length,
+      });
+    }
+    const names = new Map(doc.pieces.map((p) => {
+      const same = doc.pieces.filter((x) => x.artId === p.artId);
+      const art = arts.get(p.artId)?.name ?? 'Piece';
+      return [p.id, same.length > 1 ? `${art} ${same.indexOf(p) + 1}` : art];
+    }));
+    const paperArea = profile ? profile.paperWidthMm * profile.paperHeightMm : 215.9 * 279.4;
+    return { doc, outlines, stored, names, licences: await effectiveLicenceKinds(this.dataSource, teamId, ids), paperArea, limits: profile ? { smallestStickerMm: profile.smallestStickerMm, minFeatureMm: profile.minFeatureMm } : DEFAULT_PREFLIGHT_LIMITS };
+  }
+
+  private findings(g: Gathered, sheet: Sheet, bleedMm?: number): Finding[] {
+    return preflight({
+      doc: g.doc,
+      outlines: g.outlines,
+      unit: sheet.unit,
+      limits: g.limits,
+      forSale: sheet.forSale,
+      licenceOf: (p) => g.licences.get(p.artId),
+      name: (p) => g.names.get(p.id) ?? 'A piece',
+      bleedMm,
+    });
+  }
+
+  /** Preflight as an export with this bleed would see it. */
+  async preflightFor(teamId: string, sheet: Sheet, bleedMm: number): Promise<Finding[]> {
+    return this.findings(await this.gather(teamId, sheet), sheet, bleedMm);
+  }
+
+  /** The analysis of the sheet's current version, computed once per version. */
+  async analyse(teamId: string, sheet: Sheet): Promise<SheetAnalysis> {
+    const [row] = await this.dataSource.query('SELECT analysis_json, analysis_version FROM sheets WHERE id = ?', [sheet.id]);
+    if (row?.analysis_json && row.analysis_version === sheet.version) return JSON.parse(row.analysis_json);
+    const g = await this.gather(teamId, sheet);
+    const rings = g.doc.pieces.filter((p) => g.outlines.has(p.id)).map((p) => placeCutLine(p, g.outlines.get(p.id)!));
+    const analysis: SheetAnalysis = {
+      version: sheet.version,
+      pieces: g.doc.pieces.length,
+      cutLengthMm: cutLength(rings),
+      coverage: await this.coverage(g),
+      printAreaShare: (g.doc.printArea.width * g.doc.printArea.height) / g.paperArea,
+      findings: this.findings(g, sheet),
+    };
+    // Only if the sheet is still at that version: a save meanwhile makes this one stale.
+    await this.dataSource.query('UPDATE sheets SET analysis_json = ?, analysis_version = ? WHERE id = ? AND version = ?', [JSON.stringify(analysis), sheet.version, sheet.id, sheet.version]);
+    return analysis;
+  }
+
+  private async coverage(g: Gathered) {
+    const pieces: ExportPiece[] = [];
+    for (const piece of g.doc.pieces) {
+      const outline = g.stored.get(piece.id);
+      if (!outline) continue;
+      const first = outline.pieces[0];
+      pieces.push({ piece, name: '', cutLine: { points: first.cutLine.points, widthMm: first.widthMm, heightMm: first.heightMm }, raster: { png: await this.storage.get(first.pngKey), widthMm: first.widthMm, heightMm: first.heightMm } });
+    }
+    const paper = { paperWidthMm: 0, paperHeightMm: 0, areaXMm: 0, areaYMm: 0 };
+    const png = await renderPrintImage({ name: '', unit: 'mm', doc: g.doc, pieces, paper }, ANALYSIS_DPI, 'transparent');
+    const { data, info } = await sharp(png).ensureAlpha().raw().toBuffer({ resolveWithObject: true });
+    return inkCoverage(data, info.width * info.height);
+  }
+}
