@@ -3,6 +3,7 @@ import { useEffect, useMemo, useRef, useState } from 'react';
 import type { Ring } from '../../../../shared/geometry/polygon';
 import type { Piece } from '../../../../shared/sheet/document';
 import { api } from '../../../lib/api-client';
+import { pieceOutlineQuery } from '../../../../shared/sheet/placement';
 
 export type PieceOutline = {
   points: Ring;
@@ -12,20 +13,20 @@ export type PieceOutline = {
   areaMm2: number;
   pngUrl: string;
   effectiveDpi: number;
+  narrowNecks: number;
 };
 
 type OutlineResponse = {
   effectiveDpi: number;
+  warnings: Array<{ code: string }>;
   pieces: Array<{ cutLine: { points: Ring; svgPath: string }; widthMm: number; heightMm: number; areaMm2: number; pngUrl: string }>;
 };
 
 /** The outline a piece needs: same art, printed width, border and border colour share one request. */
-export const outlineKey = (p: Pick<Piece, 'artId' | 'width' | 'border' | 'borderColour'>) => `${p.artId}|${p.width.toFixed(2)}|${p.border.toFixed(3)}|${p.borderColour}`;
+export const outlineKey = (p: Pick<Piece, 'artId' | 'width' | 'border' | 'borderColour'>, minFeatureMm: number) => `${p.artId}?${new URLSearchParams(pieceOutlineQuery(p, minFeatureMm))}`;
 
 function fetchOutline(teamId: string, key: string): Promise<PieceOutline> {
-  const [artId, width, border, colour] = key.split('|');
-  // 150 DPI is plenty on screen; the cut line itself is exact in millimetres at any DPI.
-  const search = new URLSearchParams({ width: `${width}mm`, border: `${border}mm`, borderColour: colour, dpi: '150' });
+  const [artId, search] = key.split('?');
   return api<OutlineResponse>('GET', `/teams/${teamId}/art/${artId}/outline?${search}`).then((r) => ({
     points: r.pieces[0].cutLine.points,
     svgPath: r.pieces[0].cutLine.svgPath,
@@ -34,6 +35,7 @@ function fetchOutline(teamId: string, key: string): Promise<PieceOutline> {
     areaMm2: r.pieces[0].areaMm2,
     pngUrl: r.pieces[0].pngUrl,
     effectiveDpi: r.effectiveDpi,
+    narrowNecks: r.warnings.filter((w) => w.code === 'narrow-neck').length,
   }));
 }
 
@@ -42,8 +44,8 @@ function fetchOutline(teamId: string, key: string): Promise<PieceOutline> {
  * handle never sends a request per frame; until the new outline arrives a piece keeps its last one
  * and is marked pending.
  */
-export function usePieceOutlines(teamId: string, pieces: Piece[]) {
-  const wanted = useMemo(() => new Map(pieces.map((p) => [p.id, outlineKey(p)])), [pieces]);
+export function usePieceOutlines(teamId: string, pieces: Piece[], minFeatureMm: number) {
+  const wanted = useMemo(() => new Map(pieces.map((p) => [p.id, outlineKey(p, minFeatureMm)])), [pieces, minFeatureMm]);
   const [settled, setSettled] = useState(wanted);
   useEffect(() => {
     const handle = setTimeout(() => setSettled(wanted), 250);

@@ -6,7 +6,7 @@ import type { ArtView } from '../../../../shared/schemas/library';
 import type { SheetDetail } from '../../../../shared/schemas/sheets';
 import { SHEET_STATUS_LABELS, SHEET_STATUSES } from '../../../../shared/schemas/sheets';
 import { commands } from '../../../../shared/sheet/commands';
-import { sheetGuards } from '../../../../shared/sheet/guards';
+import { preflight } from '../../../../shared/sheet/preflight';
 import { rotatedHalfSize } from '../../../../shared/sheet/placement';
 import { usePieceOutlines } from '../api/outlines';
 import { saveAsCopy, sheetQueryOptions } from '../api/sheet';
@@ -14,7 +14,8 @@ import type { ActionContext } from '../core/actions';
 import { handleKey, newPiece, runAction } from '../core/actions';
 import { EditorStore } from '../core/editor-store';
 import { SheetStage } from '../render/sheet-stage';
-import { GuardsPanel } from './guards-panel';
+import { PreflightPanel } from './preflight-panel';
+import { CostPanel } from './cost-panel';
 import { HelpPanel } from './help-panel';
 import { Inspector } from './inspector';
 import { LibraryPanel, defaultWidthMm } from './library-panel';
@@ -36,9 +37,10 @@ export function EditorPage({ teamId, sheet, canEdit }: { teamId: string; sheet: 
   const client = useQueryClient();
   const navigate = useNavigate();
   const [artNames] = useState(() => new Map<string, string>(Object.entries(sheet.artNames)));
+  const [artLicences] = useState(() => new Map<string, string | null>(Object.entries(sheet.artLicences)));
   // While an arrange preview is shown, everything drawn and measured is the preview's.
   const shown = preview ?? state.doc;
-  const { outlines } = usePieceOutlines(teamId, shown.pieces);
+  const { outlines } = usePieceOutlines(teamId, shown.pieces, sheet.limits.minFeatureMm);
   const unit = state.meta.unit;
 
   const sizes = useMemo(() => {
@@ -55,14 +57,11 @@ export function EditorPage({ teamId, sheet, canEdit }: { teamId: string; sheet: 
     [store, canEdit, unit, sizes],
   );
 
-  const guards = useMemo(() => {
+  const findings = useMemo(() => {
     const ready = new Map([...outlines].filter(([, o]) => o.outline && !o.pending).map(([id, o]) => [id, o.outline!]));
-    return sheetGuards(shown, ready, (p) => {
-      const o = outlines.get(p.id)?.outline;
-      return o && !outlines.get(p.id)?.pending ? (o.effectiveDpi * p.width) / 25.4 : undefined;
-    });
-  }, [shown, outlines]);
-  const warnIds = useMemo(() => new Set(guards.filter((g) => g.kind !== 'low-resolution').flatMap((g) => g.pieceIds)), [guards]);
+    return preflight({ doc: shown, outlines: ready, unit, limits: sheet.limits, forSale: state.meta.forSale, licenceOf: (p) => artLicences.get(p.artId), name: (p) => name(p.id) });
+  }, [shown, outlines, unit, state.meta.forSale]); // eslint-disable-line react-hooks/exhaustive-deps
+  const warnIds = useMemo(() => new Set(findings.filter((f) => f.severity !== 'notice').flatMap((f) => f.pieceIds)), [findings]);
   const areaUsed = useCallback(() => {
     const total = shown.pieces.reduce((sum, p) => sum + (outlines.get(p.id)?.outline?.areaMm2 ?? 0), 0);
     return total / (shown.printArea.width * shown.printArea.height);
@@ -106,6 +105,7 @@ export function EditorPage({ teamId, sheet, canEdit }: { teamId: string; sheet: 
   };
   const onAddFromPanel = (item: ArtView) => {
     artNames.set(item.id, item.name);
+    artLicences.set(item.id, item.licence?.kind ?? null);
     addArt({ artId: item.id, widthPx: item.widthPx });
   };
 
@@ -121,13 +121,13 @@ export function EditorPage({ teamId, sheet, canEdit }: { teamId: string; sheet: 
   };
 
   const selectedPieces = state.doc.pieces.filter((p) => state.selection.has(p.id));
-  const name = (id: string) => {
-    const p = state.doc.pieces.find((x) => x.id === id);
+  function name(id: string) {
+    const p = shown.pieces.find((x) => x.id === id);
     if (!p) return 'A piece';
     const art = artNames.get(p.artId) ?? 'Piece';
-    const same = state.doc.pieces.filter((x) => x.artId === p.artId);
+    const same = shown.pieces.filter((x) => x.artId === p.artId);
     return same.length > 1 ? `${art} ${same.indexOf(p) + 1}` : art;
-  };
+  }
 
   return (
     <div className="flex h-[calc(100vh-7.5rem)] min-h-[560px] flex-col gap-3">
@@ -187,7 +187,7 @@ export function EditorPage({ teamId, sheet, canEdit }: { teamId: string; sheet: 
             addArt(art, at);
           }}
         />
-        {exporting && <ExportPanel teamId={teamId} sheetId={sheet.id} unsaved={state.save !== 'saved'} onClose={() => setExporting(false)} />}
+        {exporting && <ExportPanel teamId={teamId} sheetId={sheet.id} unsaved={state.save !== 'saved'} findings={findings} onClose={() => setExporting(false)} />}
         {arranging && <ArrangePanel store={store} outlines={outlines} onPreview={setPreview} onClose={() => setArranging(false)} />}
         </div>
         <aside className="flex min-h-0 flex-col gap-4 overflow-auto rounded-sticker border-2 border-paper-edge bg-white p-3" aria-label="Selection and checks">
@@ -199,10 +199,14 @@ export function EditorPage({ teamId, sheet, canEdit }: { teamId: string; sheet: 
             <summary className="cursor-pointer text-sm font-extrabold uppercase tracking-wide text-ink-faint">Notes</summary>
             <textarea aria-label="Sheet notes" value={state.meta.notes} disabled={!canEdit} onChange={(e) => store.setMeta({ notes: e.target.value })} rows={4} className="mt-2 w-full rounded border-2 border-paper-edge px-2 py-1 text-sm" placeholder="Stock, printer settings, who it is for…" />
           </details>
-          <section aria-labelledby="guard-title">
-            <h2 id="guard-title" className="mb-2 text-sm font-extrabold uppercase tracking-wide text-ink-faint">Checks</h2>
-            <GuardsPanel guards={guards} unit={unit} minGap={state.doc.minGap} name={name} onSelect={(ids) => store.select(ids)} />
+          <section aria-labelledby="preflight-title">
+            <h2 id="preflight-title" className="mb-2 text-sm font-extrabold uppercase tracking-wide text-ink-faint">Preflight</h2>
+            <PreflightPanel findings={findings} onSelect={(ids) => store.select(ids)} />
           </section>
+          <details>
+            <summary className="cursor-pointer text-sm font-extrabold uppercase tracking-wide text-ink-faint">Cost</summary>
+            <CostPanel teamId={teamId} sheetId={sheet.id} version={state.version} canEdit={canEdit} />
+          </details>
         </aside>
       </div>
       {state.helpOpen && <HelpPanel onClose={() => store.setView({ helpOpen: false })} />}

@@ -3,9 +3,12 @@ import { useEffect, useState } from 'react';
 import type { ExportJobView } from '../../../../shared/schemas/exports';
 import { ApiError } from '../../../lib/api-client';
 import { getExport, latestExport, startExport } from '../api/exports';
+import type { Finding } from '../../../../shared/sheet/preflight';
 
 /** Export settings, the running job's progress, and the bundle to download (kept per sheet version). */
-export function ExportPanel({ teamId, sheetId, unsaved, onClose }: { teamId: string; sheetId: string; unsaved: boolean; onClose: () => void }) {
+export function ExportPanel({ teamId, sheetId, unsaved, findings, onClose }: { teamId: string; sheetId: string; unsaved: boolean; findings: Finding[]; onClose: () => void }) {
+  const errors = findings.filter((f) => f.severity === 'error');
+  const [acceptErrors, setAcceptErrors] = useState(false);
   const [dpi, setDpi] = useState(300);
   const [background, setBackground] = useState<'transparent' | 'white'>('transparent');
   const [bleed, setBleed] = useState(0);
@@ -23,7 +26,7 @@ export function ExportPanel({ teamId, sheetId, unsaved, onClose }: { teamId: str
   const start = async () => {
     setError(null);
     try {
-      setJob(await startExport(teamId, sheetId, { dpi, background, bleedMm: bleed, sheetCut: sheetCut ? { marginMm: 1.5, radiusMm: 3 } : null }));
+      setJob(await startExport(teamId, sheetId, { dpi, background, bleedMm: bleed, sheetCut: sheetCut ? { marginMm: 1.5, radiusMm: 3 } : null, acceptErrors }));
     } catch (e) {
       setError(e instanceof ApiError ? e.message : 'The export could not start.');
     }
@@ -47,6 +50,13 @@ export function ExportPanel({ teamId, sheetId, unsaved, onClose }: { teamId: str
         <p className="text-xs text-ink-faint">White borders need no bleed; coloured borders: 0.5 to 1.5 mm (common practice).</p>
         <label className="flex items-center gap-2 font-bold"><input type="checkbox" checked={sheetCut} onChange={(e) => setSheetCut(e.target.checked)} />Die cut around the whole sheet</label>
       </div>
+      {errors.length > 0 && (
+        <div className="mt-3 rounded-lg border-l-4 border-alarm bg-alarm-light p-2" data-testid="export-preflight">
+          <p className="font-bold">Preflight found {errors.length} error{errors.length === 1 ? '' : 's'}:</p>
+          <ul className="ml-4 list-disc text-xs">{errors.map((f, i) => <li key={i}>{f.message}</li>)}</ul>
+          <label className="mt-1 flex items-center gap-2 font-bold"><input type="checkbox" checked={acceptErrors} onChange={(e) => setAcceptErrors(e.target.checked)} />Export anyway: I have read these</label>
+        </div>
+      )}
       {shown && (
         <div className="mt-3" role="status" data-testid="export-status">
           <progress max={1} value={shown.progress} className="h-2 w-full accent-sage" aria-label="Export progress" />
@@ -57,7 +67,7 @@ export function ExportPanel({ teamId, sheetId, unsaved, onClose }: { teamId: str
       {error && <p role="alert" className="mt-2 font-semibold text-alarm">{error}</p>}
       <p className="mt-3 text-xs text-ink-faint">Before cutting: follow your cutter's manual, keep fingers clear of the moving carriage, and change blades with the tool it provides.</p>
       <div className="mt-3 flex gap-2">
-        <button type="button" onClick={() => void start()} disabled={unsaved || job?.status === 'running'} className="rounded-full bg-ink px-4 py-1 font-bold text-paper disabled:opacity-50">Export</button>
+        <button type="button" onClick={() => void start()} disabled={unsaved || job?.status === 'running' || (errors.length > 0 && !acceptErrors)} className="rounded-full bg-ink px-4 py-1 font-bold text-paper disabled:opacity-50">Export</button>
         <button type="button" onClick={onClose} className="rounded-full border-2 border-paper-edge px-3 py-1 font-bold">Close</button>
       </div>
     </section>

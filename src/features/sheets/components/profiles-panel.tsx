@@ -11,7 +11,7 @@ import { useCreateProfile, useMakeDefaultProfile } from '../api/sheets';
 export function ProfilesPanel({ teamId, profiles, unit, canManage }: { teamId: string; profiles: ProfileView[]; unit: LengthUnit; canManage: boolean }) {
   const create = useCreateProfile(teamId);
   const makeDefault = useMakeDefaultProfile(teamId);
-  const [form, setForm] = useState({ name: '', paper: 'letter', paperWidth: '', paperHeight: '', areaWidth: unit === 'in' ? '6.75' : '171.45', areaHeight: unit === 'in' ? '9.25' : '234.95', margin: unit === 'in' ? '0.125' : '3', gap: unit === 'in' ? '0.125' : '3' });
+  const [form, setForm] = useState({ name: '', paper: 'letter', paperWidth: '', paperHeight: '', areaWidth: unit === 'in' ? '6.75' : '171.45', areaHeight: unit === 'in' ? '9.25' : '234.95', margin: unit === 'in' ? '0.125' : '3', gap: unit === 'in' ? '0.125' : '3', smallest: unit === 'in' ? '0.5' : '12.7', feature: unit === 'in' ? '0.04' : '1' });
   const [errors, setErrors] = useState<Record<string, string>>({});
   const [message, setMessage] = useState<string | null>(null);
   const f = (n: number) => formatLength(n, unit, unit === 'in' ? 3 : 1);
@@ -34,6 +34,8 @@ export function ProfilesPanel({ teamId, profiles, unit, canManage }: { teamId: s
         areaHeightMm: mm(form.areaHeight),
         safeMarginMm: mm(form.margin),
         minGapMm: mm(form.gap),
+        smallestStickerMm: mm(form.smallest),
+        minFeatureMm: mm(form.feature),
       });
       setMessage('Profile added.');
     } catch (e) {
@@ -51,7 +53,7 @@ export function ProfilesPanel({ teamId, profiles, unit, canManage }: { teamId: s
           <li key={p.id} className="rounded-lg bg-paper px-3 py-2">
             <strong>{p.name}</strong> {p.isDefault && <span className="rounded-full bg-sage-light px-2 text-xs text-sage-deep">default</span>}
             <div className="text-ink-soft">
-              Print area {f(p.areaWidthMm)} × {f(p.areaHeightMm)} on {p.paper === 'custom' ? `${f(p.paperWidthMm)} × ${f(p.paperHeightMm)}` : PAPER_SIZES[p.paper].label} · margin {f(p.safeMarginMm)} · gap {f(p.minGapMm)}
+              Print area {f(p.areaWidthMm)} × {f(p.areaHeightMm)} on {p.paper === 'custom' ? `${f(p.paperWidthMm)} × ${f(p.paperHeightMm)}` : PAPER_SIZES[p.paper].label} · margin {f(p.safeMarginMm)} · gap {f(p.minGapMm)} · smallest sticker {f(p.smallestStickerMm)} · smallest feature {f(p.minFeatureMm)}
             </div>
             {canManage && !p.isDefault && (
               <button type="button" className="text-xs font-bold underline" onClick={() => makeDefault.mutate(p.id)}>Make default</button>
@@ -78,6 +80,8 @@ export function ProfilesPanel({ teamId, profiles, unit, canManage }: { teamId: s
             {field('areaHeight', `Print area height (${unit})`)}
             {field('margin', `Safe margin (${unit})`)}
             {field('gap', `Minimum gap (${unit})`)}
+            {field('smallest', `Smallest sticker (${unit})`)}
+            {field('feature', `Smallest cuttable feature (${unit})`)}
             <button type="button" onClick={() => void submit()} className="rounded-full bg-ink px-4 py-1 font-bold text-paper">Add profile</button>
           </div>
           <p className="mt-1 text-xs text-ink-faint">The print area is centred on the paper. Common practice for home cutters: 6.75 × 9.25 in on Letter, gaps of at least 1/8 in.</p>

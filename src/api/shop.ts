@@ -1,0 +1,28 @@
+// The print shop's API, shared by the print-room screens, the editor's cost panel and the sheets list.
+import { queryOptions, useQuery } from '@tanstack/react-query';
+import type { MachineView, PrintRunView, SheetCostView, ShopSettings, StockView } from '../../shared/schemas/shop';
+import { api } from '../lib/api-client';
+
+const base = (teamId: string) => `/teams/${teamId}`;
+export const shopKeys = { all: (teamId: string) => ['teams', teamId, 'shop'] as const };
+
+export const stockQueryOptions = (teamId: string) => queryOptions({ queryKey: [...shopKeys.all(teamId), 'stock'], queryFn: () => api<{ stock: StockView[] }>('GET', `${base(teamId)}/stock`).then((r) => r.stock) });
+export const machinesQueryOptions = (teamId: string) => queryOptions({ queryKey: [...shopKeys.all(teamId), 'machines'], queryFn: () => api<{ machines: MachineView[] }>('GET', `${base(teamId)}/machines`).then((r) => r.machines) });
+export const settingsQueryOptions = (teamId: string) => queryOptions({ queryKey: [...shopKeys.all(teamId), 'settings'], queryFn: () => api<ShopSettings>('GET', `${base(teamId)}/shop-settings`) });
+export const runsQueryOptions = (teamId: string, filters: Record<string, string>) =>
+  queryOptions({ queryKey: [...shopKeys.all(teamId), 'runs', filters], queryFn: () => api<{ runs: PrintRunView[] }>('GET', `${base(teamId)}/print-runs?${new URLSearchParams(Object.entries(filters).filter(([, v]) => v))}`).then((r) => r.runs) });
+export const costQueryOptions = (teamId: string, sheetId: string, version: number) =>
+  queryOptions({ queryKey: [...shopKeys.all(teamId), 'cost', sheetId, version], queryFn: () => api<SheetCostView>('GET', `${base(teamId)}/sheets/${sheetId}/cost`) });
+
+export const useStock = (teamId: string) => useQuery(stockQueryOptions(teamId));
+export const useMachines = (teamId: string) => useQuery(machinesQueryOptions(teamId));
+
+export const shopApi = {
+  createStock: (teamId: string, body: unknown) => api<StockView>('POST', `${base(teamId)}/stock`, body),
+  adjustStock: (teamId: string, id: string, change: number, confirmNegative = false) => api<StockView>('POST', `${base(teamId)}/stock/${id}/adjust`, { change, confirmNegative }),
+  createMachine: (teamId: string, body: unknown) => api<MachineView>('POST', `${base(teamId)}/machines`, body),
+  fitBlade: (teamId: string, cutterId: string, body: unknown) => api<MachineView>('POST', `${base(teamId)}/machines/${cutterId}/blades`, body),
+  recordRun: (teamId: string, body: unknown) => api<PrintRunView>('POST', `${base(teamId)}/print-runs`, body),
+  saveSettings: (teamId: string, body: ShopSettings) => api<ShopSettings>('PUT', `${base(teamId)}/shop-settings`, body),
+  setCosting: (teamId: string, sheetId: string, body: unknown) => api<SheetCostView>('PUT', `${base(teamId)}/sheets/${sheetId}/costing`, body),
+};
