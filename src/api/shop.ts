@@ -26,3 +26,7 @@ export const shopApi = {
   saveSettings: (teamId: string, body: ShopSettings) => api<ShopSettings>('PUT', `${base(teamId)}/shop-settings`, body),
   setCosting: (teamId: string, sheetId: string, body: unknown) => api<SheetCostView>('PUT', `${base(teamId)}/sheets/${sheetId}/costing`, body),
 };
+
+/** Sheet names and ids for the run form (the sheets list itself belongs to the sheets feature). */
+export const sheetChoicesQueryOptions = (teamId: string) =>
+  queryOptions({ queryKey: ['teams', teamId, 'sheets', 'choices'], queryFn: () => api<{ sheets: Array<{ id: string; name: string; pieceCount: number }> }>('GET', `/teams/${teamId}/sheets`).then((r) => r.sheets) });

@@ -57,6 +57,9 @@ export function AppShell() {
             <NavLink to={teamPath(teamId, 'sheets')} className={navClass}>
               Sheets
             </NavLink>
+            <NavLink to={teamPath(teamId, 'print-room')} className={navClass}>
+              Print room
+            </NavLink>
             <NavLink to={teamPath(teamId, 'team')} className={navClass}>
               Team
             </NavLink>

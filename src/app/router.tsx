@@ -12,6 +12,7 @@ import { LibraryRoute } from '../features/library/routes/library';
 import { ArtDetailRoute } from '../features/library/routes/art-detail';
 import { SheetsRoute } from '../features/sheets/routes/sheets';
 import { EditorRoute } from '../features/editor/routes/editor';
+import { PrintRoomRoute } from '../features/shop/routes/print-room';
 import { AccountRoute } from '../features/account/routes/account';
 import { OutboxRoute } from '../features/dev/routes/outbox';
 import { AppShell } from './app-shell';
@@ -59,6 +60,7 @@ export const router = createBrowserRouter([
           { path: '/t/:teamId/library/:artId', element: <ArtDetailRoute /> },
           { path: '/t/:teamId/sheets', element: <SheetsRoute /> },
           { path: '/t/:teamId/sheets/:sheetId', element: <EditorRoute /> },
+          { path: '/t/:teamId/print-room', element: <PrintRoomRoute /> },
           { path: '/t/:teamId/team', element: <TeamRoute /> },
         ],
       },

@@ -72,7 +72,7 @@ export function SheetsRoute() {
           ) : (
             <table className="w-full rounded-sticker bg-white text-sm" data-testid="sheets-table">
               <thead className="text-left text-ink-soft">
-                <tr><th className="p-2"><span className="sr-only">Preview</span></th><th>Name</th><th>Pieces</th><th>Area used</th><th>Status</th><th>Updated</th><th>Owner</th><th>Export</th><th><span className="sr-only">Actions</span></th></tr>
+                <tr><th className="p-2"><span className="sr-only">Preview</span></th><th>Name</th><th>Pieces</th><th>Area used</th><th>Cost / sheet</th><th>Status</th><th>Updated</th><th>Owner</th><th>Export</th><th><span className="sr-only">Actions</span></th></tr>
               </thead>
               <tbody>
                 {sheets.data?.map((s) => (
@@ -81,6 +81,9 @@ export function SheetsRoute() {
                     <td><Link to={s.id} className="font-bold underline">{s.name}</Link>{s.forSale && <span className="ml-2 rounded-full bg-peel-light px-2 text-xs text-peel-deep">for sale</span>}</td>
                     <td>{s.pieceCount}</td>
                     <td>{Math.round(s.areaUsed * 100)} %</td>
+                    <td className="text-xs" data-testid="sheet-cost" title={s.cost && !s.cost.current ? 'Worked out for an earlier version' : undefined}>
+                      {s.cost ? `${s.cost.current ? '' : '≈ '}${s.cost.currency}${s.cost.sheet.toFixed(2)}${s.cost.perSticker !== null ? ` (${s.cost.currency}${s.cost.perSticker.toFixed(2)} each)` : ''}` : '—'}
+                    </td>
                     <td>{SHEET_STATUS_LABELS[s.status]}</td>
                     <td>{new Date(s.updatedAt).toLocaleString()}</td>
                     <td>{s.owner.name}</td>
