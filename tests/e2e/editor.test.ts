@@ -55,7 +55,7 @@ describe('sheet editor in Chromium', () => {
       await items.nth(2 - i).dragTo(canvas, { targetPosition: { x: p.x - box.x, y: p.y - box.y } });
     }
     await expect.poll(() => page.getByTestId('area-used').textContent(), { timeout: 20_000 }).toMatch(/^3 pieces · [1-9]/);
-    await expect.poll(() => page.getByTestId('guards-ok').count(), { timeout: 15_000 }).toBe(1);
+    await expect.poll(() => page.getByTestId('preflight-ok').count(), { timeout: 15_000 }).toBe(1);
     await expect.poll(() => page.getByTestId('save-state').textContent(), { timeout: 15_000 }).toBe('All changes saved');
     let saved = await sheetOf(client, team.id, sheetId);
     expect(saved.document.pieces).toHaveLength(3);
@@ -69,21 +69,21 @@ describe('sheet editor in Chromium', () => {
     const width = page.getByLabel('Art width (in)');
     await width.fill('3');
     await width.press('Enter');
-    await expect.poll(() => page.getByTestId('guards').textContent(), { timeout: 15_000 }).toMatch(/apart; the cutter needs 0\.125 in/);
+    await expect.poll(() => page.getByTestId('preflight').textContent(), { timeout: 15_000 }).toMatch(/apart; the cutter needs 0\.125 in/);
     await screenshot(page, 'editor-gap-warning');
 
     await page.mouse.click(5, 300); // leave the text field so shortcuts reach the editor
     await page.keyboard.press('Control+z');
-    await expect.poll(() => page.getByTestId('guards-ok').count(), { timeout: 15_000 }).toBe(1);
+    await expect.poll(() => page.getByTestId('preflight-ok').count(), { timeout: 15_000 }).toBe(1);
     await page.keyboard.press('Control+Shift+z');
-    await expect.poll(() => page.getByTestId('guards').count(), { timeout: 15_000 }).toBe(1);
+    await expect.poll(() => page.getByTestId('preflight').count(), { timeout: 15_000 }).toBe(1);
     await expect.poll(() => page.getByTestId('save-state').textContent(), { timeout: 15_000 }).toBe('All changes saved');
 
     await page.reload();
     await expect.poll(() => page.getByTestId('area-used').textContent(), { timeout: 15_000 }).toMatch(/^3 pieces/);
     saved = await sheetOf(client, team.id, sheetId);
     expect(saved.document.pieces.find((p: Piece) => p.id === first.id).width).toBeCloseTo(76.2, 6);
-    await expect.poll(() => page.getByTestId('guards').count(), { timeout: 15_000 }).toBe(1);
+    await expect.poll(() => page.getByTestId('preflight').count(), { timeout: 15_000 }).toBe(1);
     await screenshot(page, 'editor-after-reload');
 
     // A teammate (second browser context) saves first; this editor's next save meets the conflict.
@@ -116,14 +116,14 @@ describe('sheet editor in Chromium', () => {
     await signIn(page, users.member.email);
     await page.goto(`${t.served.url}/t/${team.id}/sheets/${sheet.id}`);
     await expect.poll(() => page.getByTestId('area-used').textContent(), { timeout: 20_000 }).toMatch(/^9 pieces · [1-9]/);
-    await expect.poll(() => page.getByTestId('guards').textContent(), { timeout: 15_000 }).toMatch(/apart/);
+    await expect.poll(() => page.getByTestId('preflight').textContent(), { timeout: 15_000 }).toMatch(/overlap|apart/);
     await page.getByRole('button', { name: 'Auto-arrange…' }).click();
     await page.getByRole('dialog', { name: 'Auto-arrange' }).getByRole('button', { name: 'Arrange' }).click();
     await expect.poll(() => page.getByTestId('arrange-summary').textContent(), { timeout: 20_000 }).toMatch(/^Preview: 9 of 9 placed/);
     await page.waitForTimeout(600);
     await screenshot(page, 'editor-arrange-preview');
     await page.getByRole('button', { name: 'Keep this layout' }).click();
-    await expect.poll(() => page.getByTestId('guards-ok').count(), { timeout: 15_000 }).toBe(1);
+    await expect.poll(() => page.getByTestId('preflight-ok').count(), { timeout: 15_000 }).toBe(1);
     await expect.poll(() => page.getByTestId('save-state').textContent(), { timeout: 15_000 }).toBe('All changes saved');
     const arranged = (await sheetOf(client, team.id, sheet.id)).document.pieces as Piece[];
     expect(arranged.filter((p) => p.x === pile.find((q) => q.id === p.id)!.x)).toHaveLength(0);

@@ -43,7 +43,7 @@ export function StockShelf({ teamId, currency, canManage, canRecord }: { teamId:
     <section aria-labelledby="stock-title" className="rounded-sticker border-2 border-paper-edge bg-white p-4 text-sm">
       <h2 id="stock-title" className="mb-1 text-lg font-extrabold">Stock shelf</h2>
       <p className="mb-2 text-xs text-ink-soft">Inkjet sticker paper is not food-safe or skin-safe unless its maker says so: check the pack before using it on food, cups or skin.</p>
-      <table className="w-full" data-testid="stock-table">
+      <table className="w-full [&_td]:pr-2" data-testid="stock-table">
         <thead className="text-left text-xs text-ink-soft"><tr><th>Name</th><th>Finish</th><th>Per sheet</th><th>On hand</th><th>Cutter settings</th><th>Rating</th><th><span className="sr-only">Count</span></th></tr></thead>
         <tbody>
           {stock.data?.map((s) => (

@@ -1,0 +1,66 @@
+import { describe, expect, it } from 'vitest';
+import { svgArt } from '../helpers/art';
+import { Client, makeTeamWithRoles } from '../helpers/app';
+import { screenshot, signInThroughForm, useBrowserApp } from '../helpers/browser';
+import { uploadFile } from '../helpers/library';
+
+const t = useBrowserApp();
+
+describe('print shop in Chromium', () => {
+  it('preflight lists a too-close pair and a low-DPI piece and selects them; logging a run moves the blade and the stock', async () => {
+    const { team, users } = await makeTeamWithRoles(t.db);
+    const owner = new Client(t.served.url);
+    await owner.signIn(users.owner.email);
+    const base = `/api/teams/${team.id}`;
+    const sharp = (await uploadFile(owner, team.id, await svgArt(1200, 1200, '<circle cx="600" cy="600" r="600" fill="#117a65"/>'), 'fern-badge.png')).body.results[0].item;
+    const soft = (await uploadFile(owner, team.id, await svgArt(80, 80, '<circle cx="40" cy="40" r="40" fill="#a93226"/>'), 'tiny-berry.png')).body.results[0].item;
+    const { body: sheet } = await owner.post(`${base}/sheets`, { name: 'Market sheet' });
+    // Two 38 mm badges with a 1/8 in border (44.35 mm across) 2 mm apart, under the 1/8 in gap;
+    // an 80 px berry printed 30 mm wide: 68 DPI, under 150.
+    const piece = (id: string, artId: string, x: number, y: number, width: number) => ({ id, artId, x, y, rotation: 0, width, border: 3.175, borderColour: '#ffffff', locked: false });
+    const pieces = [piece('b1', sharp.id, 40, 40, 38), piece('b2', sharp.id, 86.35, 40, 38), piece('berry', soft.id, 40, 120, 30)];
+    expect((await owner.send('put', `${base}/sheets/${sheet.id}`, { version: 1, document: { ...sheet.document, pieces } })).status).toBe(200);
+    const stock = (await owner.post(`${base}/stock`, { name: 'Matte sticker paper', finish: 'matte', paper: 'letter', packPrice: 18, sheetsPerPack: 100, onHand: 20, cutterSettings: { material: 'Matte sticker', pressure: '4', passes: 1, blade: '' } })).body;
+    const cutter = (await owner.post(`${base}/machines`, { kind: 'cutter', name: 'Bench cutter' })).body;
+    await owner.post(`${base}/machines/${cutter.id}/blades`, { label: 'Fine blade', fittedOn: '2026-11-20', lifeM: 600, price: 9 });
+
+    const page = await t.browser.newPage({ viewport: { width: 1280, height: 900 } });
+    await signInThroughForm(page, t.served.url, users.member.email);
+    await page.goto(`${t.served.url}/t/${team.id}/sheets/${sheet.id}`);
+    const list = page.getByTestId('preflight');
+    await expect.poll(() => list.textContent(), { timeout: 20_000 }).toMatch(/fern-badge 1 and fern-badge 2 are 0\.0[78]\d in apart; the cutter needs 0\.125 in/);
+    await expect.poll(() => list.textContent()).toMatch(/tiny-berry prints at 68 DPI: under 150 looks soft/);
+    await screenshot(page, 'preflight-in-editor');
+
+    await list.locator('[data-code=low-resolution]').click();
+    await expect.poll(() => page.getByText('One piece', { exact: true }).count()).toBe(1);
+    expect(await page.getByLabel('Art width (in)').inputValue()).toBe('1.181'); // the 30 mm berry
+    await list.locator('[data-code=too-close]').click();
+    await expect.poll(() => page.getByText('2 pieces', { exact: true }).count()).toBe(1);
+    await screenshot(page, 'preflight-pair-selected');
+
+    // The export asks before going past errors: none here (warnings only), so Export is enabled.
+    await page.getByRole('button', { name: 'Export…' }).click();
+    expect(await page.getByTestId('export-preflight').count()).toBe(0);
+    await page.getByRole('button', { name: 'Close' }).click();
+
+    const { body: analysis } = await owner.get(`${base}/sheets/${sheet.id}/analysis`);
+    await page.goto(`${t.served.url}/t/${team.id}/print-room`);
+    const form = page.getByRole('form', { name: 'Log a print run' });
+    await form.getByLabel('Sheet').selectOption({ label: 'Market sheet' });
+    await form.getByLabel('Copies').fill('3');
+    await form.getByLabel('Stock').selectOption({ label: 'Matte sticker paper' });
+    await form.getByLabel('Cutter').selectOption({ label: 'Bench cutter' });
+    await form.getByLabel('Result').selectOption('tore');
+    await form.getByLabel('Notes').fill('Berry corner lifted');
+    await form.getByRole('button', { name: 'Log run' }).click();
+    const metres = ((3 * analysis.cutLengthMm) / 1000).toFixed(2);
+    await expect.poll(() => page.getByTestId('run-logged').textContent(), { timeout: 15_000 }).toBe(`Logged: 3 × Market sheet, ${metres} m of cut.`);
+    await expect.poll(() => page.getByTestId(`blade-${cutter.id}`).getByTestId('blade-length').textContent()).toBe(`${metres} m`);
+    await expect.poll(() => page.getByTestId(`stock-${stock.id}`).getByTestId('on-hand').textContent()).toBe('17');
+    expect(await page.getByTestId('runs-table').textContent()).toMatch(/Market sheet v2.*3.*3.*Matte sticker paper.*Bench cutter \/ Fine blade.*Tore.*Berry corner lifted/);
+    expect(await page.getByTestId('run-chart').count()).toBe(1);
+    await screenshot(page, 'print-room-after-run');
+    await page.close();
+  });
+});
