@@ -11,11 +11,33 @@ import { User } from '../modules/auth/user.entity';
 import { Membership } from '../modules/teams/membership.entity';
 import { Team } from '../modules/teams/team.entity';
 import { createUserWithTeam } from '../modules/auth/auth.service';
+import { stockInputSchema } from '../../shared/schemas/shop';
+import { saveShopSettings } from '../modules/shop/costing.service';
+import { MachinesService } from '../modules/shop/machines.service';
+import { StockService } from '../modules/shop/stock.service';
 
 /** Adds whatever part of the demo shop is missing; returns how many rows it added. */
 export async function seedDemo(dataSource: DataSource, storage?: Storage): Promise<number> {
   const added = await seedPeople(dataSource);
-  return added + (storage ? await seedArt(dataSource, storage) : 0);
+  return added + (storage ? await seedArt(dataSource, storage) : 0) + (await seedShop(dataSource));
+}
+
+/** The invented shop's shelf and bench: two stocks, a printer, a cutter with its blade, shop rates. */
+async function seedShop(dataSource: DataSource): Promise<number> {
+  const team = await dataSource.getRepository(Team).findOneByOrFail({ name: DEMO_SHOP, personal: false });
+  const [{ n }] = await dataSource.query('SELECT COUNT(*) AS n FROM stock_items WHERE team_id = ?', [team.id]);
+  if (Number(n) > 0) return 0;
+  const owner = await dataSource.getRepository(User).findOneByOrFail({ email: 'owner@demo.test' });
+  const stock = new StockService(dataSource);
+  const machines = new MachinesService(dataSource);
+  const blank = { colour: '', other: '' };
+  await stock.create(team.id, stockInputSchema.parse({ name: 'Puddle glossy sticker paper', finish: 'glossy', paper: 'letter', packPrice: 18, sheetsPerPack: 100, onHand: 64, rating: 4, printerSettings: { paperSetting: 'Photo paper glossy', quality: 'High', ...blank }, cutterSettings: { material: 'Sticker paper glossy', pressure: '3', passes: 1, blade: 'depth 2' } }));
+  await stock.create(team.id, stockInputSchema.parse({ name: 'Frosted clear vinyl', finish: 'clear', paper: 'letter', packPrice: 14.5, sheetsPerPack: 20, onHand: 6, rating: 3, notes: 'Needs a white underlay behind pale art.', printerSettings: { paperSetting: 'Transparency', quality: 'Standard', ...blank }, cutterSettings: { material: 'Vinyl clear', pressure: '4', passes: 2, blade: 'depth 3' } }));
+  await machines.create(team.id, { kind: 'printer', name: 'Studio inkjet', notes: '', inkFullPage: 2 });
+  const cutter = await machines.create(team.id, { kind: 'cutter', name: 'Bench cutter', notes: 'Lives on the back table.', inkFullPage: null });
+  await machines.fitBlade(team.id, cutter.id, owner.id, { label: 'Fine-point blade', fittedOn: '2026-10-05', lifeM: 600, price: 9, note: '' });
+  await saveShopSettings(dataSource, team.id, { currency: '$', labourRatePerHour: 18, markupPercent: 150 });
+  return 6;
 }
 
 /** The two invented clip-art packs, each in its own shared collection, uploaded by the admin. */

@@ -10,6 +10,14 @@ import type { SheetAnalysisService } from './sheet-analysis.service';
 type Costing = z.infer<typeof costingInputSchema>;
 const DEFAULT_SETTINGS: ShopSettings = { currency: '$', labourRatePerHour: 0, markupPercent: 100 };
 
+/** Stores a team's shop rates (used by the API and by the demo seed). */
+export async function saveShopSettings(dataSource: DataSource, teamId: string, s: ShopSettings): Promise<void> {
+  await dataSource.query(
+    'INSERT INTO shop_settings (team_id, currency, labour_rate, markup_percent) VALUES (?,?,?,?) ON DUPLICATE KEY UPDATE currency = VALUES(currency), labour_rate = VALUES(labour_rate), markup_percent = VALUES(markup_percent)',
+    [teamId, s.currency, s.labourRatePerHour, s.markupPercent],
+  );
+}
+
 /**
  * What a sheet costs: the stock's price per sheet, ink from the print image's coverage, the
  * blade's wear share and optional labour, with a price at the shop's markup. Inputs the maker has
@@ -28,10 +36,7 @@ export class CostingService {
   }
 
   async saveSettings(teamId: string, s: ShopSettings): Promise<ShopSettings> {
-    await this.dataSource.query(
-      'INSERT INTO shop_settings (team_id, currency, labour_rate, markup_percent) VALUES (?,?,?,?) ON DUPLICATE KEY UPDATE currency = VALUES(currency), labour_rate = VALUES(labour_rate), markup_percent = VALUES(markup_percent)',
-      [teamId, s.currency, s.labourRatePerHour, s.markupPercent],
-    );
+    await saveShopSettings(this.dataSource, teamId, s);
     return this.settings(teamId);
   }
 
