@@ -39,6 +39,13 @@ describe('print shop in Chromium', () => {
     await expect.poll(() => page.getByText('2 pieces', { exact: true }).count()).toBe(1);
     await screenshot(page, 'preflight-pair-selected');
 
+    // The cost section: pick the stock; the sheet's cost is the stock's 0.18 plus blade wear (no cutter yet: 0).
+    await page.getByText('Cost', { exact: true }).click();
+    await page.getByTestId('cost-panel').getByLabel('Stock').selectOption({ label: 'Matte sticker paper' });
+    await expect.poll(() => page.getByTestId('cost-sheet').textContent(), { timeout: 15_000 }).toBe('$0.18');
+    await page.getByTestId('cost-panel').scrollIntoViewIfNeeded();
+    await screenshot(page, 'editor-cost');
+
     // The export asks before going past errors: none here (warnings only), so Export is enabled.
     await page.getByRole('button', { name: 'Export…' }).click();
     expect(await page.getByTestId('export-preflight').count()).toBe(0);
