@@ -1,24 +1,26 @@
-import { useQuery, useQueryClient } from '@tanstack/react-query';
+import { keepPreviousData, useQuery, useQueryClient } from '@tanstack/react-query';
 import { formatMoney } from '../../../../shared/production/cost';
-import { costQueryOptions, machinesQueryOptions, shopApi, shopKeys, stockQueryOptions } from '../../../api/shop';
+import { costQueryOptions, machinesQueryOptions, shopApi, stockQueryOptions } from '../../../api/shop';
 import { useAction } from '../../../hooks/use-action';
 
 /** What one printed sheet costs, with every input shown, and the choices it is costed on. */
 export function CostPanel({ teamId, sheetId, version, canEdit }: { teamId: string; sheetId: string; version: number; canEdit: boolean }) {
   const client = useQueryClient();
-  const cost = useQuery(costQueryOptions(teamId, sheetId, version));
+  // A saved edit makes a new version: keep showing the last figures (marked as updating) rather than blanking the panel.
+  const cost = useQuery({ ...costQueryOptions(teamId, sheetId, version), placeholderData: keepPreviousData });
   const stock = useQuery(stockQueryOptions(teamId));
   const machines = useQuery(machinesQueryOptions(teamId));
   const { error, run } = useAction({ preferField: true });
   if (cost.isPending) return <p className="text-xs text-ink-faint">Working out the cost…</p>;
-  if (cost.isError) return <p className="text-xs text-alarm">The cost could not be worked out.</p>;
+  if (!cost.data) return <p className="text-xs text-alarm">The cost could not be worked out.</p>;
   const { costing, inputs, cost: c, analysis, missing } = cost.data;
   const money = (v: number) => formatMoney(v, inputs.currency);
   const choose = (patch: Partial<typeof costing>) =>
     void run(async () => {
       const fresh = await shopApi.setCosting(teamId, sheetId, { ...costing, ...patch });
       client.setQueryData(costQueryOptions(teamId, sheetId, version).queryKey, fresh);
-      void client.invalidateQueries({ queryKey: shopKeys.all(teamId) });
+      // The sheets table shows this cost too.
+      void client.invalidateQueries({ queryKey: ['teams', teamId, 'sheets', 'list'] });
     });
   const select = (label: string, value: string | null, options: Array<{ id: string; name: string }>, key: 'stockId' | 'printerId' | 'cutterId') => (
     <label className="flex items-center justify-between gap-2">{label}
@@ -49,6 +51,8 @@ export function CostPanel({ teamId, sheetId, version, canEdit }: { teamId: strin
           <tr className="text-sage-deep"><td>Price at {inputs.markupPercent} % markup</td><td className="text-right">{money(c.suggestedSheet)}{c.suggestedSticker !== null ? ` · ${money(c.suggestedSticker)} each` : ''}</td></tr>
         </tbody>
       </table>
+      {cost.isError && <p className="text-alarm">These figures could not be brought up to date; they are from an earlier version.</p>}
+      {cost.isPlaceholderData && <p className="text-ink-faint">Updating for the latest edit…</p>}
       {missing.length > 0 && <p className="text-ink-faint">Not counted yet: {missing.join(', ')}.</p>}
       {error && <p role="alert" className="text-alarm">{error}</p>}
     </div>
