@@ -19,8 +19,12 @@ export const useMachines = (teamId: string) => useQuery(machinesQueryOptions(tea
 
 export const shopApi = {
   createStock: (teamId: string, body: unknown) => api<StockView>('POST', `${base(teamId)}/stock`, body),
+  updateStock: (teamId: string, id: string, body: unknown) => api<StockView>('PUT', `${base(teamId)}/stock/${id}`, body),
+  archiveStock: (teamId: string, id: string) => api<void>('DELETE', `${base(teamId)}/stock/${id}`),
   adjustStock: (teamId: string, id: string, change: number, confirmNegative = false) => api<StockView>('POST', `${base(teamId)}/stock/${id}/adjust`, { change, confirmNegative }),
   createMachine: (teamId: string, body: unknown) => api<MachineView>('POST', `${base(teamId)}/machines`, body),
+  updateMachine: (teamId: string, id: string, body: unknown) => api<MachineView>('PUT', `${base(teamId)}/machines/${id}`, body),
+  archiveMachine: (teamId: string, id: string) => api<void>('DELETE', `${base(teamId)}/machines/${id}`),
   fitBlade: (teamId: string, cutterId: string, body: unknown) => api<MachineView>('POST', `${base(teamId)}/machines/${cutterId}/blades`, body),
   recordRun: (teamId: string, body: unknown) => api<PrintRunView>('POST', `${base(teamId)}/print-runs`, body),
   saveSettings: (teamId: string, body: ShopSettings) => api<ShopSettings>('PUT', `${base(teamId)}/shop-settings`, body),

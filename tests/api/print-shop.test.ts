@@ -84,6 +84,31 @@ describe('stock and machines', () => {
     expect((await a.member.get(`${b.base}/stock`)).status).toBe(404);
     expect((await a.member.get(`${a.base}/print-runs`)).body.runs).toEqual([]);
   });
+  it('edits stock without touching the count on hand; retired stock and machines leave the lists, logged runs keep their names', async () => {
+    const s = await shop(1);
+    const other = await shop(1);
+    const { stock, cutter } = await withCutter(s);
+    await s.member.post(`${s.base}/stock/${stock.id}/adjust`, { change: -3 });
+    const edited = await s.owner.send('put', `${s.base}/stock/${stock.id}`, { ...STOCK, name: 'Glossy sticker paper (new pack)', packPrice: 20, onHand: 999, paper: 'custom', paperWidthMm: 101.6, paperHeightMm: 152.4, printerSettings: { paperSetting: 'Photo glossy', quality: 'Best', colour: '', other: '' }, skinSafe: true });
+    expect(edited.status).toBe(200);
+    expect(edited.body).toMatchObject({ name: 'Glossy sticker paper (new pack)', onHand: 7, paper: 'custom', paperWidthMm: 101.6, paperHeightMm: 152.4, skinSafe: true, printerSettings: { paperSetting: 'Photo glossy', quality: 'Best' } });
+    expect(edited.body.costPerSheet).toBeCloseTo(0.2, 10);
+    const tooSmall = await s.owner.send('put', `${s.base}/stock/${stock.id}`, { ...STOCK, paper: 'custom', paperWidthMm: 5, paperHeightMm: 152.4 });
+    expect(tooSmall.status).toBe(400);
+    expect(tooSmall.body.error.fields.paperWidthMm).toMatch(/at least 20 mm/);
+    expect((await s.owner.get(`${s.base}/stock`)).body.stock[0].name).toBe('Glossy sticker paper (new pack)');
+
+    await s.member.post(`${s.base}/print-runs`, { sheetId: s.sheet.id, copies: 1, stockId: stock.id, cutterId: cutter.id, result: 'good' });
+    expect((await other.owner.send('delete', `${other.base}/stock/${stock.id}`)).status).toBe(404);
+    expect((await other.owner.send('delete', `${other.base}/machines/${cutter.id}`)).status).toBe(404);
+    expect((await s.member.send('delete', `${s.base}/stock/${stock.id}`)).status).toBe(403);
+    expect((await s.owner.send('delete', `${s.base}/stock/${stock.id}`)).status).toBe(204);
+    expect((await s.owner.send('delete', `${s.base}/machines/${cutter.id}`)).status).toBe(204);
+    expect((await s.owner.get(`${s.base}/stock`)).body.stock).toEqual([]);
+    expect((await s.owner.get(`${s.base}/machines`)).body.machines).toEqual([]);
+    const [run] = (await s.owner.get(`${s.base}/print-runs`)).body.runs;
+    expect(run).toMatchObject({ stock: { name: 'Glossy sticker paper (new pack)' }, cutter: { name: 'Desk cutter' } });
+  });
 });
 
 describe('print runs', () => {

@@ -60,15 +60,66 @@ describe('print shop in Chromium', () => {
     await form.getByLabel('Stock').selectOption({ label: 'Matte sticker paper' });
     await form.getByLabel('Cutter').selectOption({ label: 'Bench cutter' });
     await form.getByLabel('Result').selectOption('tore');
+    // The settings used start as the stock's; this run went at a heavier pressure.
+    await form.getByText(/^Settings used/).click();
+    expect(await form.getByLabel('Material setting').inputValue()).toBe('Matte sticker');
+    await form.getByLabel('Pressure').fill('5');
     await form.getByLabel('Notes').fill('Berry corner lifted');
     await form.getByRole('button', { name: 'Log run' }).click();
     const metres = ((3 * analysis.cutLengthMm) / 1000).toFixed(2);
     await expect.poll(() => page.getByTestId('run-logged').textContent(), { timeout: 15_000 }).toBe(`Logged: 3 × Market sheet, ${metres} m of cut.`);
     await expect.poll(() => page.getByTestId(`blade-${cutter.id}`).getByTestId('blade-length').textContent()).toBe(`${metres} m`);
     await expect.poll(() => page.getByTestId(`stock-${stock.id}`).getByTestId('on-hand').textContent()).toBe('17');
+    expect((await owner.get(`${base}/print-runs`)).body.runs[0].cutterSettings).toEqual({ material: 'Matte sticker', pressure: '5', passes: 1, blade: '' });
     await expect.poll(() => page.getByTestId('runs-table').textContent()).toMatch(/Market sheet v\d.*3.*3.*Matte sticker paper.*Bench cutter \/ Fine blade.*Tore.*Berry corner lifted/);
     expect(await page.getByTestId('run-chart').count()).toBe(1);
     await screenshot(page, 'print-room-after-run');
+    await page.close();
+  });
+
+  it('adds stock by keyboard with a clear message for a bad field, edits its settings in the user’s unit, retires a machine', async () => {
+    const { team, users } = await makeTeamWithRoles(t.db);
+    const owner = new Client(t.served.url);
+    await owner.signIn(users.owner.email);
+    const printer = (await owner.post(`/api/teams/${team.id}/machines`, { kind: 'printer', name: 'Old inkjet', inkFullPage: 1.2 })).body;
+    const page = await t.browser.newPage({ viewport: { width: 1280, height: 900 } });
+    page.on('dialog', (d) => void d.accept());
+    await signInThroughForm(page, t.served.url, users.owner.email);
+    await page.goto(`${t.served.url}/t/${team.id}/print-room`);
+
+    await page.getByRole('button', { name: 'New stock…' }).click();
+    const add = page.getByRole('form', { name: 'Add stock' });
+    await add.getByLabel('Name').fill('Clear vinyl');
+    await add.getByLabel('Finish').selectOption('clear');
+    await add.getByLabel(/^Pack price/).fill('twelve');
+    await add.getByLabel('Sheets per pack').fill('10');
+    await add.getByLabel('Sheets per pack').press('Enter');
+    await expect.poll(() => add.getByRole('alert').textContent()).toMatch(/Pack price: give an amount/);
+    expect(await page.getByTestId('stock-table').locator('tbody tr').count()).toBe(0);
+    await add.getByLabel(/^Pack price/).fill('12');
+    await add.getByLabel('Material setting').fill('Clear vinyl');
+    await add.getByLabel('Material setting').press('Enter');
+    const row = page.getByTestId('stock-table').locator('tbody tr').first();
+    await expect.poll(() => row.textContent()).toMatch(/Clear vinyl.*Clear.*\$1\.20/);
+
+    // Edit: an other-size sheet typed in inches (the user's unit) and the printer setting that worked.
+    await row.getByRole('button', { name: 'Edit Clear vinyl' }).click();
+    const edit = page.getByRole('form', { name: 'Edit Clear vinyl' });
+    await edit.getByRole('combobox', { name: /^Paper/ }).selectOption('custom');
+    await edit.getByLabel('Width (in)').fill('4');
+    await edit.getByLabel('Height (in)').fill('6');
+    await edit.getByLabel('Paper setting').fill('Glossy photo');
+    await edit.getByRole('button', { name: 'Save stock' }).click();
+    await expect.poll(() => edit.count()).toBe(0);
+    await row.getByRole('button', { name: 'Clear vinyl', exact: true }).click(); // shows the settings that worked
+    await expect.poll(() => page.getByTestId('stock-settings').textContent()).toMatch(/Paper: 4 in × 6 in.*Printer: paper: Glossy photo/);
+    const { body } = await owner.get(`/api/teams/${team.id}/stock`);
+    expect(body.stock[0]).toMatchObject({ paper: 'custom', paperWidthMm: 101.6, paperHeightMm: 152.4, packPrice: 12 });
+    await screenshot(page, 'print-room-stock-edited');
+
+    await page.getByTestId(`machine-${printer.id}`).getByRole('button', { name: 'Retire Old inkjet' }).click();
+    await expect.poll(() => page.getByTestId(`machine-${printer.id}`).count()).toBe(0);
+    expect((await owner.get(`/api/teams/${team.id}/machines`)).body.machines).toEqual([]);
     await page.close();
   });
 });

@@ -1,9 +1,10 @@
 import { useQueryClient } from '@tanstack/react-query';
 import { useState } from 'react';
-import { formatMoney, fullCoverageCost } from '../../../../shared/production/cost';
+import { formatMoney } from '../../../../shared/production/cost';
 import type { MachineView } from '../../../../shared/schemas/shop';
 import { shopApi, shopKeys, useMachines } from '../../../api/shop';
 import { useAction } from '../../../hooks/use-action';
+import { MachineForm } from './machine-form';
 
 const input = 'rounded border-2 border-paper-edge px-2 py-1';
 const WEAR = { ok: 'bg-sage', near: 'bg-peel', due: 'bg-alarm' } as const;
@@ -52,34 +53,45 @@ export function MachinesBench({ teamId, currency, canManage, canRecord }: { team
   const client = useQueryClient();
   const machines = useMachines(teamId);
   const { error, run } = useAction({ preferField: true });
-  const [form, setForm] = useState({ kind: 'printer', name: '', cartridge: '', yieldPages: '' });
-  const ink = Number(form.cartridge) > 0 && Number(form.yieldPages) > 0 ? fullCoverageCost(Number(form.cartridge), Number(form.yieldPages)) : null;
-  const refresh = () => void client.invalidateQueries({ queryKey: shopKeys.all(teamId) });
+  const [editing, setEditing] = useState<string | null>(null);
+  const refresh = () => client.invalidateQueries({ queryKey: shopKeys.all(teamId) });
+  const retire = (m: MachineView) =>
+    run(async () => {
+      if (!window.confirm(`Retire ${m.name}? Runs already logged on it keep its name.`)) return;
+      await shopApi.archiveMachine(teamId, m.id);
+      await refresh();
+    });
   return (
     <section aria-labelledby="machines-title" className="rounded-sticker border-2 border-paper-edge bg-white p-4 text-sm">
       <h2 id="machines-title" className="mb-1 text-lg font-extrabold">Machines and blades</h2>
       <p className="mb-2 text-xs text-ink-soft">While a cutter runs, keep fingers, hair and sleeves clear of the carriage and never reach under it; your machine's manual and local rules come first.</p>
       <ul className="flex flex-col gap-2">
         {machines.data?.map((m) => (
-          <li key={m.id} className="rounded-lg bg-paper px-3 py-2">
-            <strong>{m.name}</strong> <span className="text-xs text-ink-faint">{m.kind === 'printer' ? 'printer' : 'cutter'}</span>
-            {m.kind === 'printer' && m.inkFullPage !== null && <span className="ml-2 text-xs">Ink for a fully covered page: {formatMoney(m.inkFullPage, currency)}</span>}
-            {m.kind === 'cutter' && <BladeLine cutter={m} teamId={teamId} canRecord={canRecord} onChanged={refresh} />}
+          <li key={m.id} className="rounded-lg bg-paper px-3 py-2" data-testid={`machine-${m.id}`}>
+            <div className="flex flex-wrap items-baseline gap-2">
+              <strong>{m.name}</strong> <span className="text-xs text-ink-faint">{m.kind === 'printer' ? 'printer' : 'cutter'}</span>
+              {m.kind === 'printer' && m.inkFullPage !== null && <span className="text-xs">Ink for a fully covered page: {formatMoney(m.inkFullPage, currency)}</span>}
+              {canManage && (
+                <span className="ml-auto flex gap-1 text-xs">
+                  <button type="button" className="rounded border-2 border-paper-edge px-2 font-bold" aria-expanded={editing === m.id} onClick={() => setEditing(editing === m.id ? null : m.id)}>Edit<span className="sr-only"> {m.name}</span></button>
+                  <button type="button" className="rounded border-2 border-paper-edge px-2 font-bold" onClick={() => void retire(m)}>Retire<span className="sr-only"> {m.name}</span></button>
+                </span>
+              )}
+            </div>
+            {m.notes && <p className="text-xs text-ink-soft">{m.notes}</p>}
+            {editing === m.id && (
+              <div className="mt-1 rounded-lg bg-white p-2">
+                <MachineForm machine={m} currency={currency} onCancel={() => setEditing(null)} onSave={async (body) => { await shopApi.updateMachine(teamId, m.id, body); setEditing(null); await refresh(); }} />
+              </div>
+            )}
+            {m.kind === 'cutter' && <BladeLine cutter={m} teamId={teamId} canRecord={canRecord} onChanged={() => void refresh()} />}
           </li>
         ))}
       </ul>
+      {machines.data?.length === 0 && <p className="py-2 text-ink-soft">No machines yet.</p>}
       {canManage && (
-        <div className="mt-3 flex flex-wrap items-end gap-2 border-t border-paper-deep pt-3 text-xs">
-          <label className="flex flex-col font-bold">Kind<select value={form.kind} onChange={(e) => setForm({ ...form, kind: e.target.value })} className={input}><option value="printer">Printer</option><option value="cutter">Cutter</option></select></label>
-          <label className="flex flex-col font-bold">Name<input value={form.name} onChange={(e) => setForm({ ...form, name: e.target.value })} className={`${input} w-40 font-normal`} /></label>
-          {form.kind === 'printer' && (
-            <>
-              <label className="flex flex-col font-bold">Cartridge set price<input value={form.cartridge} onChange={(e) => setForm({ ...form, cartridge: e.target.value })} className={`${input} w-20 font-normal`} /></label>
-              <label className="flex flex-col font-bold">Rated yield (pages)<input value={form.yieldPages} onChange={(e) => setForm({ ...form, yieldPages: e.target.value })} className={`${input} w-20 font-normal`} /></label>
-              <span className="pb-1">= {ink === null ? '—' : formatMoney(ink, currency)} a fully covered page (yields are rated at about 5 % coverage)</span>
-            </>
-          )}
-          <button type="button" className="rounded-full bg-ink px-4 py-1 font-bold text-paper" onClick={() => void run(async () => { await shopApi.createMachine(teamId, { kind: form.kind, name: form.name, inkFullPage: form.kind === 'printer' ? ink : null }); setForm({ ...form, name: '' }); refresh(); })}>Add machine</button>
+        <div className="mt-3 border-t border-paper-deep pt-3">
+          <MachineForm currency={currency} onSave={async (body) => { await shopApi.createMachine(teamId, body); await refresh(); }} />
         </div>
       )}
       {error && <p role="alert" className="mt-2 font-semibold text-alarm">{error}</p>}

@@ -1,7 +1,7 @@
 import { useQuery, useQueryClient } from '@tanstack/react-query';
 import { useState } from 'react';
 import { RUN_RESULT_LABELS, RUN_RESULTS } from '../../../../shared/schemas/shop';
-import type { PrintRunView } from '../../../../shared/schemas/shop';
+import type { PrintRunView, StockView } from '../../../../shared/schemas/shop';
 import { runsQueryOptions, sheetChoicesQueryOptions, shopApi, shopKeys, useMachines, useStock } from '../../../api/shop';
 import { ApiError, apiUpload } from '../../../lib/api-client';
 import { useAction } from '../../../hooks/use-action';
@@ -38,6 +38,12 @@ function RunChart({ runs }: { runs: PrintRunView[] }) {
   );
 }
 
+const runSettings = (r: PrintRunView) => {
+  const p = r.printerSettings, c = r.cutterSettings;
+  const parts = [p.paperSetting && `paper ${p.paperSetting}`, p.quality && `quality ${p.quality}`, p.colour && `colour ${p.colour}`, c.material && `cutter ${c.material}`, c.pressure && `pressure ${c.pressure}`, `${c.passes} pass${c.passes === 1 ? '' : 'es'}`, c.blade && `blade ${c.blade}`];
+  return parts.filter(Boolean).join(' · ');
+};
+
 /** Record a print run and read the history: filters, chart and table. */
 export function RunLog({ teamId, canRecord }: { teamId: string; canRecord: boolean }) {
   const client = useQueryClient();
@@ -46,7 +52,20 @@ export function RunLog({ teamId, canRecord }: { teamId: string; canRecord: boole
   const sheets = useQuery(sheetChoicesQueryOptions(teamId));
   const [filters, setFilters] = useState({ result: '', stockId: '', cutterId: '', from: '', to: '' });
   const runs = useQuery(runsQueryOptions(teamId, filters));
-  const [form, setForm] = useState({ sheetId: '', copies: '1', stockId: '', printerId: '', cutterId: '', result: 'good', notes: '' });
+  const [form, setForm] = useState({ sheetId: '', copies: '1', wasted: '', printedOn: '', stockId: '', printerId: '', cutterId: '', result: 'good', notes: '' });
+  // What the printer and cutter were set to: the stock's settings that worked, changed where this run differed.
+  const [used, setUsed] = useState<Pick<StockView, 'printerSettings' | 'cutterSettings'> | null>(null);
+  const chooseStock = (stockId: string) => {
+    const s = stock.data?.find((x) => x.id === stockId);
+    setForm({ ...form, stockId });
+    setUsed(s ? { printerSettings: s.printerSettings, cutterSettings: s.cutterSettings } : null);
+  };
+  const setting = (group: 'printerSettings' | 'cutterSettings', key: string, label: string, w = 'w-28') =>
+    used && (
+      <label className="flex flex-col text-xs font-bold">{label}
+        <input value={String((used[group] as Record<string, unknown>)[key] ?? '')} onChange={(e) => setUsed({ ...used, [group]: { ...used[group], [key]: e.target.value } })} className={`${input} ${w} font-normal`} />
+      </label>
+    );
   const [photo, setPhoto] = useState<File | null>(null);
   const [done, setDone] = useState<string | null>(null);
   const { error, run } = useAction({ preferField: true });
@@ -54,13 +73,18 @@ export function RunLog({ teamId, canRecord }: { teamId: string; canRecord: boole
   const cutters = (machines.data ?? []).filter((m) => m.kind === 'cutter');
   const pick = (key: keyof typeof form, label: string, options: Array<{ id: string; name: string }>, none = 'None') => (
     <label className="flex flex-col text-xs font-bold">{label}
-      <select value={form[key]} onChange={(e) => setForm({ ...form, [key]: e.target.value })} className={`${input} font-normal`}><option value="">{none}</option>{options.map((o) => <option key={o.id} value={o.id}>{o.name}</option>)}</select>
+      <select value={form[key]} onChange={(e) => (key === 'stockId' ? chooseStock(e.target.value) : setForm({ ...form, [key]: e.target.value }))} className={`${input} font-normal`}><option value="">{none}</option>{options.map((o) => <option key={o.id} value={o.id}>{o.name}</option>)}</select>
     </label>
   );
   const record = () =>
     run(async () => {
       setDone(null);
-      const body = { sheetId: form.sheetId, copies: form.copies, stockId: form.stockId, printerId: form.printerId || null, cutterId: form.cutterId || null, result: form.result, notes: form.notes };
+      const body = {
+        sheetId: form.sheetId, copies: form.copies, stockId: form.stockId, printerId: form.printerId || null, cutterId: form.cutterId || null, result: form.result, notes: form.notes,
+        ...(form.wasted !== '' && { wasted: form.wasted }),
+        ...(form.printedOn !== '' && { printedOn: form.printedOn }),
+        ...(used && { printerSettings: used.printerSettings, cutterSettings: used.cutterSettings }),
+      };
       let saved: PrintRunView;
       try {
         saved = await shopApi.recordRun(teamId, body);
@@ -86,14 +110,30 @@ export function RunLog({ teamId, canRecord }: { teamId: string; canRecord: boole
         <form className="mb-4 flex flex-wrap items-end gap-2 rounded-lg bg-paper p-3" onSubmit={(e) => { e.preventDefault(); void record(); }} aria-label="Log a print run">
           {pick('sheetId', 'Sheet', (sheets.data ?? []).map((s) => ({ id: s.id, name: s.name })), 'Choose…')}
           <label className="flex flex-col text-xs font-bold">Copies<input value={form.copies} onChange={(e) => setForm({ ...form, copies: e.target.value })} className={`${input} w-16 font-normal`} inputMode="numeric" /></label>
+          <label className="flex flex-col text-xs font-bold">Wasted<input value={form.wasted} placeholder={form.result === 'good' ? '0' : 'all'} onChange={(e) => setForm({ ...form, wasted: e.target.value })} className={`${input} w-14 font-normal`} inputMode="numeric" /></label>
           {pick('stockId', 'Stock', stock.data ?? [], 'Choose…')}
           {pick('printerId', 'Printer', printers)}
           {pick('cutterId', 'Cutter', cutters)}
           <label className="flex flex-col text-xs font-bold">Result<select value={form.result} onChange={(e) => setForm({ ...form, result: e.target.value })} className={`${input} font-normal`}>{RUN_RESULTS.map((r) => <option key={r} value={r}>{RUN_RESULT_LABELS[r]}</option>)}</select></label>
           <label className="flex flex-col text-xs font-bold">Notes<input value={form.notes} onChange={(e) => setForm({ ...form, notes: e.target.value })} className={`${input} w-48 font-normal`} /></label>
           <label className="flex flex-col text-xs font-bold">Photo (optional)<input type="file" accept="image/*" onChange={(e) => setPhoto(e.target.files?.[0] ?? null)} className="text-xs font-normal" /></label>
+          <label className="flex flex-col text-xs font-bold">Printed on<input type="date" value={form.printedOn} onChange={(e) => setForm({ ...form, printedOn: e.target.value })} className={`${input} font-normal`} /></label>
           <button type="submit" className="rounded-full bg-ink px-4 py-1 font-bold text-paper">Log run</button>
-          <p className="w-full text-xs text-ink-faint">The run takes its copies from the stock on hand and adds the sheet's cut length × copies to the cutter's fitted blade. Printer and cutter settings are copied from the stock.</p>
+          {used && (
+            <details className="w-full text-xs">
+              <summary className="cursor-pointer font-bold">Settings used (from the stock; change what differed on this run)</summary>
+              <div className="mt-1 flex flex-wrap items-end gap-2">
+                {setting('printerSettings', 'paperSetting', 'Paper setting')}
+                {setting('printerSettings', 'quality', 'Quality')}
+                {setting('printerSettings', 'colour', 'Colour')}
+                {setting('cutterSettings', 'material', 'Material setting')}
+                {setting('cutterSettings', 'pressure', 'Pressure', 'w-16')}
+                {setting('cutterSettings', 'passes', 'Passes', 'w-12')}
+                {setting('cutterSettings', 'blade', 'Blade')}
+              </div>
+            </details>
+          )}
+          <p className="w-full text-xs text-ink-faint">The run takes its copies from the stock on hand and adds the sheet's cut length × copies to the cutter's fitted blade. Wasted sheets count as none for a good run and all copies otherwise unless you give a number; the date is today unless you pick one.</p>
         </form>
       )}
       {done && <p role="status" className="mb-2 font-semibold text-sage-deep" data-testid="run-logged">{done}</p>}
@@ -114,7 +154,10 @@ export function RunLog({ teamId, canRecord }: { teamId: string; canRecord: boole
               <td className="py-1">{r.printedOn}</td><td>{r.sheet.name} <span className="text-ink-faint">v{r.sheet.version}</span></td><td>{r.copies}</td><td>{r.wasted}</td>
               <td>{r.stock?.name ?? '—'}</td><td>{r.cutter ? `${r.cutter.name}${r.blade ? ` / ${r.blade.label}` : ''}` : '—'}</td><td>{r.cutLengthM.toFixed(2)} m</td>
               <td className={r.result === 'good' ? 'text-sage-deep' : 'font-bold text-alarm'}>{RUN_RESULT_LABELS[r.result]}</td>
-              <td>{r.notes}{r.photoUrl && <> <a href={r.photoUrl} className="underline" target="_blank" rel="noreferrer">photo</a></>}</td><td>{r.by}</td>
+              <td>
+                {r.notes}{r.photoUrl && <> <a href={r.photoUrl} className="underline" target="_blank" rel="noreferrer">photo</a></>}
+                <details><summary className="cursor-pointer text-ink-faint">settings</summary>{runSettings(r)}</details>
+              </td><td>{r.by}</td>
             </tr>
           ))}
         </tbody>

@@ -3,6 +3,7 @@ import { useEffect, useState } from 'react';
 import { settingsQueryOptions, shopApi } from '../../../api/shop';
 import { PageTitle } from '../../../components/page-title';
 import { useAction } from '../../../hooks/use-action';
+import { useMe } from '../../auth/api/me';
 import { useTeamRole } from '../../auth/use-team-role';
 import { MachinesBench } from '../components/machines-bench';
 import { RunLog } from '../components/run-log';
@@ -39,6 +40,7 @@ function ShopRates({ teamId, canManage }: { teamId: string; canManage: boolean }
 /** The print room: stock, machines and blades, the run log and the shop's rates. */
 export function PrintRoomRoute() {
   const { teamId, can } = useTeamRole();
+  const { data: me } = useMe();
   const settings = useQuery({ ...settingsQueryOptions(teamId ?? ''), enabled: !!teamId });
   if (!teamId) return null;
   const currency = settings.data?.currency ?? '$';
@@ -47,11 +49,11 @@ export function PrintRoomRoute() {
     <div className="flex flex-col gap-4">
       <PageTitle title="Print room"><p className="text-sm text-ink-soft">What you print on, what you cut with, and how each run came out.</p></PageTitle>
       <RunLog teamId={teamId} canRecord={rights.canRecord} />
-      <div className="grid gap-4 xl:grid-cols-2">
-        <StockShelf {...rights} />
+      <StockShelf {...rights} unit={me?.user.unit ?? 'in'} />
+      <div className="grid items-start gap-4 xl:grid-cols-[3fr_2fr]">
         <MachinesBench {...rights} />
+        <ShopRates teamId={teamId} canManage={rights.canManage} />
       </div>
-      <ShopRates teamId={teamId} canManage={rights.canManage} />
     </div>
   );
 }
