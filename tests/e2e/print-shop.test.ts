@@ -122,4 +122,35 @@ describe('print shop in Chromium', () => {
     expect((await owner.get(`/api/teams/${team.id}/machines`)).body.machines).toEqual([]);
     await page.close();
   });
+
+  it('edits a sheet profile in the user’s unit: a larger smallest sticker shows in the editor’s preflight', async () => {
+    const { team, users } = await makeTeamWithRoles(t.db);
+    const owner = new Client(t.served.url);
+    await owner.signIn(users.owner.email);
+    const base = `/api/teams/${team.id}`;
+    const profile = (await owner.post(`${base}/sheet-profiles`, { name: 'Letter market', paper: 'letter', areaWidthMm: 171.45, areaHeightMm: 234.95, safeMarginMm: 3.175, minGapMm: 3.175 })).body;
+    const art = (await uploadFile(owner, team.id, await svgArt(1200, 1200, '<circle cx="600" cy="600" r="600" fill="#6c3483"/>'), 'plum.png')).body.results[0].item;
+    const { body: sheet } = await owner.post(`${base}/sheets`, { name: 'Plums', profileId: profile.id });
+    const doc = { ...sheet.document, pieces: [{ id: 'p1', artId: art.id, x: 40, y: 40, rotation: 0, width: 19.05, border: 3.175, borderColour: '#ffffff', locked: false }] };
+    expect((await owner.send('put', `${base}/sheets/${sheet.id}`, { version: 1, document: doc })).status).toBe(200);
+
+    const page = await t.browser.newPage({ viewport: { width: 1280, height: 900 } });
+    await signInThroughForm(page, t.served.url, users.owner.email);
+    await page.goto(`${t.served.url}/t/${team.id}/sheets`);
+    await page.getByRole('button', { name: 'Edit Letter market' }).click();
+    const edit = page.getByRole('form', { name: 'Edit Letter market' });
+    expect(await edit.getByLabel('Smallest sticker (in)').inputValue()).toBe('0.5');
+    await edit.getByLabel('Smallest sticker (in)').fill('1.5');
+    await screenshot(page, 'profile-edit');
+    await edit.getByLabel('Smallest sticker (in)').press('Enter');
+    await expect.poll(async () => (await owner.get(`${base}/sheet-profiles`)).body.profiles.find((p: { id: string }) => p.id === profile.id)?.smallestStickerMm).toBeCloseTo(38.1, 6);
+    const saved = (await owner.get(`${base}/sheet-profiles`)).body.profiles.find((p: { id: string }) => p.id === profile.id);
+    for (const key of ['areaXMm', 'areaYMm', 'areaWidthMm', 'minGapMm'] as const) expect(saved[key]).toBeCloseTo(profile[key], 3);
+
+    // A 3/4 in plum with a 1/8 in border is 1 in across: under the new 1.5 in smallest sticker.
+    await page.goto(`${t.served.url}/t/${team.id}/sheets/${sheet.id}`);
+    await expect.poll(() => page.getByTestId('preflight').textContent(), { timeout: 20_000 }).toMatch(/plum is 1 in across, under the 1\.5 in smallest practical sticker/);
+    await screenshot(page, 'preflight-after-profile-edit');
+    await page.close();
+  });
 });

@@ -167,7 +167,7 @@ export function EditorPage({ teamId, sheet, canEdit }: { teamId: string; sheet: 
             Export…
           </button>
         )}
-        <span className="ml-auto text-xs text-ink-soft" data-testid="area-used">{shown.pieces.length} pieces · {Math.round(areaUsed() * 100)} % of the print area{preview ? ' (preview)' : ''}</span>
+        <span className="ml-auto text-xs text-ink-soft" data-testid="area-used">{shown.pieces.length} piece{shown.pieces.length === 1 ? '' : 's'} · {Math.round(areaUsed() * 100)} % of the print area{preview ? ' (preview)' : ''}</span>
         <button type="button" className="rounded border-2 border-paper-edge bg-white px-2 py-1 font-bold" onClick={() => runAction('help', ctx)}>Shortcuts (?)</button>
       </div>
       <div className="grid min-h-0 flex-1 gap-3 lg:grid-cols-[13rem_1fr_17rem]">

@@ -40,6 +40,7 @@ function useProfileMutation<I, O>(teamId: string, fn: (input: I) => Promise<O>) 
   const client = useQueryClient();
   return useMutation({ mutationFn: fn, onSettled: () => void client.invalidateQueries({ queryKey: ['teams', teamId, 'sheet-profiles'] }) });
 }
-export type ProfileForm = Omit<ProfileInput, 'paperWidthMm' | 'paperHeightMm' | 'areaXMm' | 'areaYMm'> & { paperWidthMm?: number; paperHeightMm?: number };
+export type ProfileForm = Omit<ProfileInput, 'paperWidthMm' | 'paperHeightMm' | 'areaXMm' | 'areaYMm'> & { paperWidthMm?: number; paperHeightMm?: number; areaXMm?: number; areaYMm?: number };
 export const useCreateProfile = (teamId: string) => useProfileMutation(teamId, (input: ProfileForm) => api<ProfileView>('POST', `/teams/${teamId}/sheet-profiles`, input));
+export const useUpdateProfile = (teamId: string) => useProfileMutation(teamId, ({ id, ...input }: ProfileForm & { id: string }) => api<ProfileView>('PUT', `/teams/${teamId}/sheet-profiles/${id}`, input));
 export const useMakeDefaultProfile = (teamId: string) => useProfileMutation(teamId, (id: string) => api<ProfileView>('POST', `/teams/${teamId}/sheet-profiles/${id}/default`));
