@@ -163,7 +163,7 @@ export function EditorPage({ teamId, sheet, canEdit }: { teamId: string; sheet: 
           </button>
         )}
         {canEdit && (
-          <button type="button" className="rounded-full bg-sage px-3 py-1 font-bold text-white" onClick={() => setExporting(true)} disabled={exporting}>
+          <button type="button" className="rounded-full bg-sage-deep px-3 py-1 font-bold text-white" onClick={() => setExporting(true)} disabled={exporting}>
             Export…
           </button>
         )}

@@ -24,7 +24,7 @@ function RunChart({ runs }: { runs: PrintRunView[] }) {
   const bar = 40, h = 90;
   return (
     <figure className="mb-3" aria-label="Cut length and wasted sheets by week">
-      <svg width={rows.length * bar + 10} height={h + 30} role="img" data-testid="run-chart">
+      <svg width={rows.length * bar + 10} height={h + 30} role="img" aria-label={`Bars for ${rows.length} week${rows.length === 1 ? "" : "s"}: metres cut and sheets wasted`} data-testid="run-chart">
         {rows.map(([week, w], i) => (
           <g key={week} transform={`translate(${5 + i * bar},0)`}>
             <rect x={4} y={h - (h * w.cut) / maxCut} width={14} height={(h * w.cut) / maxCut} className="fill-sage"><title>{`${week}: ${w.cut.toFixed(1)} m cut`}</title></rect>
