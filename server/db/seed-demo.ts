@@ -15,11 +15,15 @@ import { stockInputSchema } from '../../shared/schemas/shop';
 import { saveShopSettings } from '../modules/shop/costing.service';
 import { MachinesService } from '../modules/shop/machines.service';
 import { StockService } from '../modules/shop/stock.service';
+import { seedSheets } from './seed-demo-sheets';
 
 /** Adds whatever part of the demo shop is missing; returns how many rows it added. */
 export async function seedDemo(dataSource: DataSource, storage?: Storage): Promise<number> {
   const added = await seedPeople(dataSource);
-  return added + (storage ? await seedArt(dataSource, storage) : 0) + (await seedShop(dataSource));
+  const art = storage ? await seedArt(dataSource, storage) : 0;
+  const shop = await seedShop(dataSource);
+  // Sheets need the art's pixels for their outlines, so only where there is storage.
+  return added + art + shop + (storage ? await seedSheets(dataSource, storage) : 0);
 }
 
 /** The invented shop's shelf and bench: two stocks, a printer, a cutter with its blade, shop rates. */

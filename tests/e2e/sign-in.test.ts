@@ -1,9 +1,14 @@
 import { describe, expect, it } from 'vitest';
 import { DEMO_ACCOUNTS, DEMO_PASSWORD, DEMO_SHOP } from '../../scripts/demo-accounts';
+import { env } from '../../server/config/env';
 import { seedDemo } from '../../server/db/seed-demo';
+import { LocalDiskStorage } from '../../server/storage/local-disk';
+import { Client } from '../helpers/app';
 import { screenshot, useBrowserApp } from '../helpers/browser';
 
-const t = useBrowserApp((db) => seedDemo(db));
+// The whole demo shop, art and sheets included, in the storage the served app reads.
+const storage = new LocalDiskStorage(env.storageDir);
+const t = useBrowserApp((db) => seedDemo(db, storage));
 
 const ROLE_LABEL = { owner: 'Owner', admin: 'Admin', member: 'Member', viewer: 'Viewer' } as const;
 
@@ -65,5 +70,33 @@ describe('sign-in form', () => {
     await page.keyboard.press('Enter');
     await page.waitForURL(/\/t\/\d+\/library$/);
     await page.close();
+  });
+});
+
+describe('the demo shop', () => {
+  it('has two arranged sheets without preflight errors, costed, whose logged runs moved stock and the blade; seeding again adds nothing', async () => {
+    const owner = new Client(t.served.url);
+    await owner.signIn('owner@demo.test', DEMO_PASSWORD);
+    const teamId = (await owner.get('/api/me')).body.teams.find((x: { teamName: string }) => x.teamName === DEMO_SHOP).teamId;
+    const base = `/api/teams/${teamId}`;
+    const { sheets } = (await owner.get(`${base}/sheets`)).body;
+    expect(sheets.map((s: { name: string }) => s.name).sort()).toEqual(['Garden party, market sheet', 'Space doodles for the Hartwell kids']);
+    for (const sheet of sheets) {
+      expect(sheet.pieceCount).toBeGreaterThanOrEqual(9);
+      expect(sheet.cost?.sheet).toBeGreaterThan(0);
+      const analysis = (await owner.get(`${base}/sheets/${sheet.id}/analysis`)).body;
+      expect(analysis.findings.filter((f: { severity: string }) => f.severity === 'error')).toEqual([]);
+      expect(analysis.findings.filter((f: { code: string }) => f.code === 'too-close' || f.code === 'overlap')).toEqual([]);
+    }
+    const { runs } = (await owner.get(`${base}/print-runs`)).body;
+    expect(runs).toHaveLength(5);
+    const { stock } = (await owner.get(`${base}/stock`)).body;
+    const used = (name: string) => runs.filter((r: { stock: { name: string } }) => r.stock.name === name).reduce((n: number, r: { copies: number }) => n + r.copies, 0);
+    expect(stock.find((s: { name: string }) => s.name === 'Puddle glossy sticker paper').onHand).toBe(64 - used('Puddle glossy sticker paper'));
+    expect(stock.find((s: { name: string }) => s.name === 'Frosted clear vinyl').onHand).toBe(6 - used('Frosted clear vinyl'));
+    const cutter = (await owner.get(`${base}/machines`)).body.machines.find((m: { kind: string }) => m.kind === 'cutter');
+    const total = runs.reduce((m: number, r: { cutLengthM: number }) => m + r.cutLengthM, 0);
+    expect(cutter.blade.cutLengthM).toBeCloseTo(total, 6);
+    expect(await seedDemo(t.db, storage)).toBe(0);
   });
 });

@@ -146,7 +146,7 @@ export function RunLog({ teamId, canRecord }: { teamId: string; canRecord: boole
         <label className="flex items-center gap-1">To<input type="date" value={filters.to} onChange={(e) => setFilters({ ...filters, to: e.target.value })} className={input} /></label>
       </div>
       <RunChart runs={runs.data ?? []} />
-      <table className="w-full text-xs" data-testid="runs-table">
+      <table className="w-full text-xs [&_td]:pr-3 [&_th]:pr-3" data-testid="runs-table">
         <thead className="text-left text-ink-soft"><tr><th>Date</th><th>Sheet</th><th>Copies</th><th>Wasted</th><th>Stock</th><th>Cutter / blade</th><th>Cut</th><th>Result</th><th>Notes</th><th>By</th></tr></thead>
         <tbody>
           {runs.data?.map((r) => (
