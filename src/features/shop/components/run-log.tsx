@@ -151,8 +151,8 @@ export function RunLog({ teamId, canRecord }: { teamId: string; canRecord: boole
         <tbody>
           {runs.data?.map((r) => (
             <tr key={r.id} className="border-t border-paper-deep">
-              <td className="py-1">{r.printedOn}</td><td>{r.sheet.name} <span className="text-ink-faint">v{r.sheet.version}</span></td><td>{r.copies}</td><td>{r.wasted}</td>
-              <td>{r.stock?.name ?? '—'}</td><td>{r.cutter ? `${r.cutter.name}${r.blade ? ` / ${r.blade.label}` : ''}` : '—'}</td><td>{r.cutLengthM.toFixed(2)} m</td>
+              <td className="whitespace-nowrap py-1">{r.printedOn}</td><td>{r.sheet.name} <span className="text-ink-faint">v{r.sheet.version}</span></td><td>{r.copies}</td><td>{r.wasted}</td>
+              <td>{r.stock?.name ?? '—'}</td><td>{r.cutter ? `${r.cutter.name}${r.blade ? ` / ${r.blade.label}` : ''}` : '—'}</td><td className="whitespace-nowrap">{r.cutLengthM.toFixed(2)} m</td>
               <td className={r.result === 'good' ? 'text-sage-deep' : 'font-bold text-alarm'}>{RUN_RESULT_LABELS[r.result]}</td>
               <td>
                 {r.notes}{r.photoUrl && <> <a href={r.photoUrl} className="underline" target="_blank" rel="noreferrer">photo</a></>}
