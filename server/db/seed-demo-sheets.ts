@@ -7,24 +7,21 @@ import { In } from 'typeorm';
 import { DEMO_SHOP } from '../../scripts/demo-accounts';
 import { arrange } from '../../shared/arrange/nester';
 import type { ArrangeItem } from '../../shared/arrange/nester';
-import { outlineOptionsSchema } from '../../shared/schemas/outline';
 import { printRunInputSchema } from '../../shared/schemas/shop';
 import type { Piece, SheetDocument } from '../../shared/sheet/document';
 import { DEFAULT_PREFLIGHT_LIMITS } from '../../shared/sheet/preflight';
-import { pieceOutlineQuery } from '../../shared/sheet/placement';
 import { inchToMm } from '../../shared/units';
 import { env } from '../config/env';
 import { renderPrintImage } from '../engine/export/print-image';
-import type { ExportPiece } from '../engine/export/types';
 import { OutlinePool } from '../engine/outline/pool';
 import { ArtItem } from '../modules/art/art-item.entity';
 import { User } from '../modules/auth/user.entity';
 import type { StoredOutline } from '../modules/outlines/outline.service';
-import { OutlineService, withArtBackground } from '../modules/outlines/outline.service';
+import { OutlineService } from '../modules/outlines/outline.service';
 import { CostingService } from '../modules/shop/costing.service';
 import { MachinesService } from '../modules/shop/machines.service';
 import { RunsService } from '../modules/shop/runs.service';
-import { SheetAnalysisService } from '../modules/shop/sheet-analysis.service';
+import { ANALYSIS_DPI, SheetAnalysisService, toExportPiece } from '../modules/shop/sheet-analysis.service';
 import { StockService } from '../modules/shop/stock.service';
 import { ProfilesService } from '../modules/sheets/profiles.service';
 import { SheetsService } from '../modules/sheets/sheets.service';
@@ -106,9 +103,7 @@ export async function seedSheets(dataSource: DataSource, storage: Storage): Prom
         const art = arts.get(name);
         if (!art) continue;
         const template: Piece = { id: '', artId: art.id, x: 0, y: 0, rotation: 0, width: inchToMm(widthIn), border: BORDER_MM, borderColour: '#ffffff', locked: false };
-        // The editor's own outline request for this piece, so the cache serves both.
-        const query = outlineOptionsSchema.parse(pieceOutlineQuery(template, DEFAULT_PREFLIGHT_LIMITS.minFeatureMm));
-        const { outline } = await outlines.forArt(art, withArtBackground(art, query, false));
+        const { outline } = await outlines.forPiece(art, template, DEFAULT_PREFLIGHT_LIMITS.minFeatureMm);
         const first = outline.pieces[0];
         items.push({ key: name, outline: { points: first.cutLine.points, widthMm: first.widthMm, heightMm: first.heightMm }, count });
         templates.set(name, template);
@@ -141,13 +136,9 @@ export async function seedSheets(dataSource: DataSource, storage: Storage): Prom
 
 /** A small PNG of the sheet for the sheets table (the editor replaces it with its own on the next save). */
 async function renderThumbnail(storage: Storage, doc: SheetDocument, pieces: Array<{ piece: Piece; outline: StoredOutline }>): Promise<string> {
-  const parts: ExportPiece[] = [];
-  for (const { piece, outline } of pieces) {
-    const first = outline.pieces[0];
-    parts.push({ piece, name: '', cutLine: { points: first.cutLine.points, widthMm: first.widthMm, heightMm: first.heightMm }, raster: { png: await storage.get(first.pngKey), widthMm: first.widthMm, heightMm: first.heightMm } });
-  }
-  // Rendered at the analysis resolution and scaled down: the print-image compositor wants pieces no larger than the canvas.
-  const full = await renderPrintImage({ name: '', unit: 'in', doc, pieces: parts, paper: { paperWidthMm: 0, paperHeightMm: 0, areaXMm: 0, areaYMm: 0 } }, 150, 'white');
+  const parts = await Promise.all(pieces.map(({ piece, outline }) => toExportPiece(storage, piece, outline)));
+  // The cached piece images are at the analysis resolution, so the sheet is drawn at it and scaled down.
+  const full = await renderPrintImage({ name: '', unit: 'in', doc, pieces: parts, paper: { paperWidthMm: 0, paperHeightMm: 0, areaXMm: 0, areaYMm: 0 } }, ANALYSIS_DPI, 'white');
   const png = await sharp(full).resize({ width: 240 }).png().toBuffer();
   return `data:image/png;base64,${png.toString('base64')}`;
 }

@@ -1,6 +1,9 @@
 import { createHash } from 'node:crypto';
 import type { DataSource } from 'typeorm';
 import type { OutlineOptions } from '../../../shared/schemas/outline';
+import { outlineOptionsSchema } from '../../../shared/schemas/outline';
+import type { Piece } from '../../../shared/sheet/document';
+import { pieceOutlineQuery } from '../../../shared/sheet/placement';
 import type { OutlineResult } from '../../engine/outline/outline';
 import type { OutlinePool } from '../../engine/outline/pool';
 import { notFound } from '../../lib/errors';
@@ -44,6 +47,11 @@ export class OutlineService {
     private readonly storage: Storage,
     private readonly pool: OutlinePool,
   ) {}
+
+  /** The outline the editor requests for a placed piece: the same options, so the same cache entry. */
+  forPiece(art: ArtItem, piece: Pick<Piece, 'width' | 'border' | 'borderColour'>, minFeatureMm: number) {
+    return this.forArt(art, withArtBackground(art, outlineOptionsSchema.parse(pieceOutlineQuery(piece, minFeatureMm)), false));
+  }
 
   /** The outline of a team's art at the given options, from cache when it was computed before. */
   async forArt(art: ArtItem, options: OutlineOptions): Promise<{ key: string; cached: boolean; outline: StoredOutline }> {

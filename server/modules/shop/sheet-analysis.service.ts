@@ -1,7 +1,6 @@
 import sharp from 'sharp';
 import type { DataSource } from 'typeorm';
 import { In } from 'typeorm';
-import { outlineOptionsSchema } from '../../../shared/schemas/outline';
 import type { SheetAnalysis } from '../../../shared/schemas/shop';
 import { cutLength } from '../../../shared/production/cost';
 import { inkCoverage } from '../../../shared/production/coverage';
@@ -16,11 +15,17 @@ import type { Storage } from '../../storage/storage';
 import { ArtItem } from '../art/art-item.entity';
 import { effectiveLicenceKinds } from '../art/art-view';
 import type { OutlineService, StoredOutline } from '../outlines/outline.service';
-import { withArtBackground } from '../outlines/outline.service';
 import { SheetProfile } from '../sheets/sheet-profile.entity';
 import type { Sheet } from '../sheets/sheet.entity';
 
-const ANALYSIS_DPI = 150;
+/** The resolution of the piece images the editor's outline requests cache, so the one a sheet can be rendered at from them. */
+export const ANALYSIS_DPI = 150;
+
+/** A placed piece with its cached outline, as the print-image renderer takes it. */
+export async function toExportPiece(storage: Storage, piece: SheetDocument['pieces'][number], outline: StoredOutline): Promise<ExportPiece> {
+  const first = outline.pieces[0];
+  return { piece, name: '', cutLine: { points: first.cutLine.points, widthMm: first.widthMm, heightMm: first.heightMm }, raster: { png: await storage.get(first.pngKey), widthMm: first.widthMm, heightMm: first.heightMm } };
+}
 
 type Gathered = { doc: SheetDocument; outlines: Map<string, PreflightOutline>; stored: Map<string, StoredOutline>; names: Map<string, string>; licences: Map<string, string | null>; paperArea: number; limits: PreflightLimits };
 
@@ -49,11 +54,10 @@ export class SheetAnalysisService {
     for (const piece of doc.pieces) {
       const art = arts.get(piece.artId);
       if (!art) continue;
-      const query = pieceOutlineQuery(piece, minFeature);
-      const key = `${art.id}|${JSON.stringify(query)}`;
+      const key = `${art.id}|${JSON.stringify(pieceOutlineQuery(piece, minFeature))}`;
       let outline = byQuery.get(key);
       if (!outline) {
-        outline = (await this.outlines.forArt(art, withArtBackground(art, outlineOptionsSchema.parse(query), false))).outline;
+        outline = (await this.outlines.forPiece(art, piece, minFeature)).outline;
         byQuery.set(key, outline);
       }
       const first = outline.pieces[0];
@@ -116,9 +120,7 @@ export class SheetAnalysisService {
     const pieces: ExportPiece[] = [];
     for (const piece of g.doc.pieces) {
       const outline = g.stored.get(piece.id);
-      if (!outline) continue;
-      const first = outline.pieces[0];
-      pieces.push({ piece, name: '', cutLine: { points: first.cutLine.points, widthMm: first.widthMm, heightMm: first.heightMm }, raster: { png: await this.storage.get(first.pngKey), widthMm: first.widthMm, heightMm: first.heightMm } });
+      if (outline) pieces.push(await toExportPiece(this.storage, piece, outline));
     }
     const paper = { paperWidthMm: 0, paperHeightMm: 0, areaXMm: 0, areaYMm: 0 };
     const png = await renderPrintImage({ name: '', unit: 'mm', doc: g.doc, pieces, paper }, ANALYSIS_DPI, 'transparent');

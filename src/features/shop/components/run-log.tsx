@@ -5,6 +5,7 @@ import type { PrintRunView, StockView } from '../../../../shared/schemas/shop';
 import { runsQueryOptions, sheetChoicesQueryOptions, shopApi, shopKeys, useMachines, useStock } from '../../../api/shop';
 import { ApiError, apiUpload } from '../../../lib/api-client';
 import { useAction } from '../../../hooks/use-action';
+import { cutterSettingsText, printerSettingsText } from '../settings-text';
 
 const input = 'rounded border-2 border-paper-edge px-2 py-1';
 
@@ -37,12 +38,6 @@ function RunChart({ runs }: { runs: PrintRunView[] }) {
     </figure>
   );
 }
-
-const runSettings = (r: PrintRunView) => {
-  const p = r.printerSettings, c = r.cutterSettings;
-  const parts = [p.paperSetting && `paper ${p.paperSetting}`, p.quality && `quality ${p.quality}`, p.colour && `colour ${p.colour}`, c.material && `cutter ${c.material}`, c.pressure && `pressure ${c.pressure}`, `${c.passes} pass${c.passes === 1 ? '' : 'es'}`, c.blade && `blade ${c.blade}`];
-  return parts.filter(Boolean).join(' · ');
-};
 
 /** Record a print run and read the history: filters, chart and table. */
 export function RunLog({ teamId, canRecord }: { teamId: string; canRecord: boolean }) {
@@ -156,7 +151,7 @@ export function RunLog({ teamId, canRecord }: { teamId: string; canRecord: boole
               <td className={r.result === 'good' ? 'text-sage-deep' : 'font-bold text-alarm'}>{RUN_RESULT_LABELS[r.result]}</td>
               <td>
                 {r.notes}{r.photoUrl && <> <a href={r.photoUrl} className="underline" target="_blank" rel="noreferrer">photo</a></>}
-                <details><summary className="cursor-pointer text-ink-faint">settings</summary>{runSettings(r)}</details>
+                <details><summary className="cursor-pointer text-ink-faint">settings</summary>{[printerSettingsText(r.printerSettings), cutterSettingsText(r.cutterSettings)].filter(Boolean).join(' · ')}</details>
               </td><td>{r.by}</td>
             </tr>
           ))}

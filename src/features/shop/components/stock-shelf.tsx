@@ -7,23 +7,19 @@ import type { LengthUnit } from '../../../../shared/units';
 import { formatLength } from '../../../../shared/units';
 import { shopApi, shopKeys, useStock } from '../../../api/shop';
 import { useAction } from '../../../hooks/use-action';
+import { cutterSettingsText, printerSettingsText } from '../settings-text';
 import { StockForm } from './stock-form';
 
 const small = 'rounded border-2 border-paper-edge px-2 font-bold';
 
-/** Everything the shelf keeps on one stock, for the row's "Settings" disclosure. */
+/** Everything the shelf keeps on one stock, for the row's settings disclosure. */
 function StockSettings({ s, unit }: { s: StockView; unit: LengthUnit }) {
-  const p = s.printerSettings;
-  const c = s.cutterSettings;
-  const line = (label: string, parts: Array<string | false>) => {
-    const text = parts.filter(Boolean).join(' · ');
-    return <p><strong>{label}:</strong> {text || <span className="text-ink-faint">not noted</span>}</p>;
-  };
+  const line = (label: string, text: string) => <p><strong>{label}:</strong> {text || <span className="text-ink-faint">not noted</span>}</p>;
   return (
     <div className="text-xs">
-      {line('Paper', [s.paper === 'custom' ? `${formatLength(s.paperWidthMm, unit)} × ${formatLength(s.paperHeightMm, unit)}` : s.paper === 'a4' ? 'A4' : 'Letter'])}
-      {line('Printer', [p.paperSetting && `paper: ${p.paperSetting}`, p.quality && `quality: ${p.quality}`, p.colour && `colour: ${p.colour}`, p.other])}
-      {line('Cutter', [c.material && `material: ${c.material}`, c.pressure && `pressure ${c.pressure}`, `${c.passes} pass${c.passes === 1 ? '' : 'es'}`, c.blade && `blade: ${c.blade}`])}
+      {line('Paper', s.paper === 'custom' ? `${formatLength(s.paperWidthMm, unit)} × ${formatLength(s.paperHeightMm, unit)}` : s.paper === 'a4' ? 'A4' : 'Letter')}
+      {line('Printer', printerSettingsText(s.printerSettings))}
+      {line('Cutter', cutterSettingsText(s.cutterSettings))}
       {s.notes && <p><strong>Notes:</strong> {s.notes}</p>}
     </div>
   );
