@@ -11,6 +11,7 @@ export default defineConfig({
     port: 5173,
     proxy: { '/api': `http://${apiHost}:${apiPort}` },
   },
-  // One app bundle for now (about 0.5 MB before gzip); route-level splitting comes with the canvas editor.
-  build: { outDir: 'dist', emptyOutDir: true, sourcemap: true, chunkSizeWarningLimit: 800 },
+  // The sheet editor (with the canvas library) is split off by the router's lazy route. The main
+  // chunk (about 560 kB before gzip, 170 kB after) is mostly react-dom, react-router and zod.
+  build: { outDir: 'dist', emptyOutDir: true, sourcemap: true, chunkSizeWarningLimit: 600 },
 });

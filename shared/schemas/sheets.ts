@@ -89,9 +89,9 @@ export type SheetSummary = {
   profile: { id: string; name: string } | null;
   updatedAt: string;
   thumbnailUrl: string | null;
-  /** The newest export of any version: its state, and whether it matches the current version. */
   /** Cost of one printed sheet from its last analysis; `current` is false when the sheet changed since. */
   cost?: { sheet: number; perSticker: number | null; currency: string; current: boolean } | null;
+  /** The newest export of any version: its state, and whether it matches the current version. */
   lastExport: { status: 'running' | 'done' | 'failed'; progress: number; current: boolean; downloadUrl: string | null } | null;
 };
 

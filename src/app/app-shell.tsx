@@ -1,4 +1,4 @@
-import { NavLink, Outlet, useNavigate, useParams } from 'react-router';
+import { NavLink, Outlet, useNavigate, useNavigation, useParams } from 'react-router';
 import { ROLE_LABELS } from '../../shared/permissions';
 import { Logo } from '../components/logo';
 import { useMe, useSignOut, useSwitchTeam } from '../features/auth/api/me';
@@ -12,6 +12,7 @@ export function AppShell() {
   const { data: me } = useMe();
   const { teamId = me?.activeTeamId ?? '' } = useParams();
   const navigate = useNavigate();
+  const navigation = useNavigation();
   const switchTeam = useSwitchTeam();
   const signOut = useSignOut();
   if (!me) return null;
@@ -81,6 +82,10 @@ export function AppShell() {
           </div>
         </div>
       </header>
+      {/* A page whose code is still on its way (the sheet editor, the first time) shows that it is coming. */}
+      <div className="h-1" role="status" aria-label={navigation.state === 'loading' ? 'Opening the page' : undefined}>
+        {navigation.state === 'loading' && <div className="h-1 w-full animate-pulse bg-peel" />}
+      </div>
       <main id="main" className="mx-auto w-full max-w-7xl flex-1 px-4 py-6">
         <Outlet />
       </main>

@@ -11,7 +11,6 @@ import { TeamRoute } from '../features/team/routes/team';
 import { LibraryRoute } from '../features/library/routes/library';
 import { ArtDetailRoute } from '../features/library/routes/art-detail';
 import { SheetsRoute } from '../features/sheets/routes/sheets';
-import { EditorRoute } from '../features/editor/routes/editor';
 import { PrintRoomRoute } from '../features/shop/routes/print-room';
 import { AccountRoute } from '../features/account/routes/account';
 import { OutboxRoute } from '../features/dev/routes/outbox';
@@ -59,7 +58,8 @@ export const router = createBrowserRouter([
           { path: '/t/:teamId/library', element: <LibraryRoute /> },
           { path: '/t/:teamId/library/:artId', element: <ArtDetailRoute /> },
           { path: '/t/:teamId/sheets', element: <SheetsRoute /> },
-          { path: '/t/:teamId/sheets/:sheetId', element: <EditorRoute /> },
+          // The editor brings the canvas library: its own chunk, fetched when a sheet is first opened.
+          { path: '/t/:teamId/sheets/:sheetId', lazy: () => import('../features/editor/routes/editor').then((m) => ({ Component: m.EditorRoute })) },
           { path: '/t/:teamId/print-room', element: <PrintRoomRoute /> },
           { path: '/t/:teamId/team', element: <TeamRoute /> },
         ],

@@ -106,6 +106,14 @@ describe('stock and machines', () => {
     expect((await s.owner.send('delete', `${s.base}/machines/${cutter.id}`)).status).toBe(204);
     expect((await s.owner.get(`${s.base}/stock`)).body.stock).toEqual([]);
     expect((await s.owner.get(`${s.base}/machines`)).body.machines).toEqual([]);
+    const onRetired = await s.member.post(`${s.base}/print-runs`, { sheetId: s.sheet.id, copies: 1, stockId: stock.id, result: 'good' });
+    expect(onRetired.status).toBe(400);
+    expect(onRetired.body.error.fields.stockId).toMatch(/retired/);
+    const fresh = (await s.owner.post(`${s.base}/stock`, STOCK)).body;
+    const withRetiredCutter = await s.member.post(`${s.base}/print-runs`, { sheetId: s.sheet.id, copies: 1, stockId: fresh.id, cutterId: cutter.id, result: 'good' });
+    expect(withRetiredCutter.status).toBe(400);
+    expect(withRetiredCutter.body.error.fields.cutterId).toMatch(/retired/);
+    expect((await s.owner.get(`${s.base}/stock`)).body.stock[0].onHand).toBe(STOCK.onHand); // nothing taken
     const [run] = (await s.owner.get(`${s.base}/print-runs`)).body.runs;
     expect(run).toMatchObject({ stock: { name: 'Glossy sticker paper (new pack)' }, cutter: { name: 'Desk cutter' } });
   });

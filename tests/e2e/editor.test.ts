@@ -5,7 +5,7 @@ import type { Page } from 'playwright-core';
 import type { Piece } from '../../shared/sheet/document';
 import { svgArt } from '../helpers/art';
 import { Client, makeTeamWithRoles } from '../helpers/app';
-import { screenshot, signInThroughForm, useBrowserApp } from '../helpers/browser';
+import { BROWSER_TEST_TIMEOUT, screenshot, signInThroughForm, useBrowserApp } from '../helpers/browser';
 import { uploadFile } from '../helpers/library';
 
 const t = useBrowserApp();
@@ -22,19 +22,33 @@ async function teamWithArt() {
   return { team, users, client, art };
 }
 
-/** Screen position (page px) of a point given in sheet millimetres. */
+/**
+ * Screen position (page px) of a point given in sheet millimetres. The canvas re-fits itself when
+ * its box changes (a full-page screenshot resizes the page for a moment, panels grow as data
+ * arrives), so the position is read until two readings 150 ms apart agree.
+ */
 async function screenOf(page: Page, mm: { x: number; y: number }) {
   const canvas = page.getByTestId('sheet-canvas');
-  const box = (await canvas.boundingBox())!;
-  const [ox, oy] = (await canvas.getAttribute('data-origin'))!.split(',').map(Number);
-  const scale = Number(await canvas.getAttribute('data-px-per-mm'));
-  return { x: box.x + ox + mm.x * scale, y: box.y + oy + mm.y * scale };
+  const read = async () => {
+    const box = (await canvas.boundingBox())!;
+    const [ox, oy] = (await canvas.getAttribute('data-origin'))!.split(',').map(Number);
+    const scale = Number(await canvas.getAttribute('data-px-per-mm'));
+    return { x: box.x + ox + mm.x * scale, y: box.y + oy + mm.y * scale };
+  };
+  let last = await read();
+  for (let i = 0; i < 20; i++) {
+    await page.waitForTimeout(150);
+    const next = await read();
+    if (next.x === last.x && next.y === last.y) return next;
+    last = next;
+  }
+  throw new Error('The sheet canvas kept moving');
 }
 
 const sheetOf = async (client: Client, teamId: string, id: string) => (await client.get(`/api/teams/${teamId}/sheets/${id}`)).body;
 
-describe('sheet editor in Chromium', () => {
-  it('create, drag three pieces in, type a width, gap warning, undo/redo, reload; a second editor gets the conflict choice', async () => {
+describe('sheet editor in Chromium', { timeout: BROWSER_TEST_TIMEOUT }, () => {
+  it('create, drag three pieces in, type a width, gap warning, undo/redo, reload', async () => {
     const { team, users, client } = await teamWithArt();
     const page = await t.browser.newPage({ viewport: { width: 1280, height: 900 } });
     await signIn(page, users.member.email);
@@ -85,8 +99,24 @@ describe('sheet editor in Chromium', () => {
     expect(saved.document.pieces.find((p: Piece) => p.id === first.id).width).toBeCloseTo(76.2, 6);
     await expect.poll(() => page.getByTestId('preflight').count(), { timeout: 15_000 }).toBe(1);
     await screenshot(page, 'editor-after-reload');
+    await page.close();
+  });
 
-    // A teammate (second browser context) saves first; this editor's next save meets the conflict.
+  it('a teammate saves first: this editor gets the conflict choice and keeps its edit as a copy', async () => {
+    const { team, users, client, art } = await teamWithArt();
+    const { body: sheet } = await client.post(`/api/teams/${team.id}/sheets`, { name: 'Editor trial' });
+    await client.send('put', `/api/teams/${team.id}/sheets/${sheet.id}`, { version: 1, document: { ...sheet.document, pieces: [{ id: 'c1', artId: art[0].id, x: 50, y: 50, rotation: 0, width: 40, border: 3, borderColour: '#ffffff', locked: false }] } });
+    const sheetId = String(sheet.id);
+    const page = await t.browser.newPage({ viewport: { width: 1280, height: 900 } });
+    await signIn(page, users.member.email);
+    await page.goto(`${t.served.url}/t/${team.id}/sheets/${sheetId}`);
+    await expect.poll(() => page.getByTestId('area-used').textContent(), { timeout: 15_000 }).toMatch(/^1 piece/);
+    // A sheet written through the API has no area figure or thumbnail yet: the editor saves them
+    // once its outlines arrive. Let that save land before the teammate opens the sheet.
+    await expect.poll(async () => (await sheetOf(client, team.id, sheetId)).areaUsed, { timeout: 15_000 }).toBeGreaterThan(0);
+    await expect.poll(() => page.getByTestId('save-state').textContent(), { timeout: 15_000 }).toBe('All changes saved');
+
+    // The teammate (second browser context) saves first; this editor's next save meets the conflict.
     const other = await t.browser.newContext({ viewport: { width: 1280, height: 900 } });
     const page2 = await other.newPage();
     await signIn(page2, users.admin.email);

@@ -7,7 +7,7 @@ import { describe, expect, it } from 'vitest';
 import type { Page } from 'playwright-core';
 import { svgArt } from '../helpers/art';
 import { makeTeamWithRoles } from '../helpers/app';
-import { screenshot, signInThroughForm, useBrowserApp } from '../helpers/browser';
+import { BROWSER_TEST_TIMEOUT, screenshot, signInThroughForm, useBrowserApp } from '../helpers/browser';
 
 const t = useBrowserApp();
 
@@ -34,7 +34,7 @@ async function critterPack(): Promise<string> {
 
 const signIn = (page: Page, email: string) => signInThroughForm(page, t.served.url, email);
 
-describe('art library in Chromium', () => {
+describe('art library in Chromium', { timeout: BROWSER_TEST_TIMEOUT }, () => {
   it('uploads a zip of twelve images with progress, tags the batch, and finds them by search', async () => {
     const { team, users } = await makeTeamWithRoles(t.db);
     const zip = await critterPack();

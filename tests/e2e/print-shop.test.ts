@@ -1,12 +1,12 @@
 import { describe, expect, it } from 'vitest';
 import { svgArt } from '../helpers/art';
 import { Client, makeTeamWithRoles } from '../helpers/app';
-import { screenshot, signInThroughForm, useBrowserApp } from '../helpers/browser';
+import { BROWSER_TEST_TIMEOUT, screenshot, signInThroughForm, useBrowserApp } from '../helpers/browser';
 import { uploadFile } from '../helpers/library';
 
 const t = useBrowserApp();
 
-describe('print shop in Chromium', () => {
+describe('print shop in Chromium', { timeout: BROWSER_TEST_TIMEOUT }, () => {
   it('preflight lists a too-close pair and a low-DPI piece and selects them; logging a run moves the blade and the stock', async () => {
     const { team, users } = await makeTeamWithRoles(t.db);
     const owner = new Client(t.served.url);

@@ -4,7 +4,7 @@ import { env } from '../../server/config/env';
 import { seedDemo } from '../../server/db/seed-demo';
 import { LocalDiskStorage } from '../../server/storage/local-disk';
 import { Client } from '../helpers/app';
-import { screenshot, useBrowserApp } from '../helpers/browser';
+import { BROWSER_TEST_TIMEOUT, screenshot, useBrowserApp } from '../helpers/browser';
 
 // The whole demo shop, art and sheets included, in the storage the served app reads.
 const storage = new LocalDiskStorage(env.storageDir);
@@ -12,7 +12,7 @@ const t = useBrowserApp((db) => seedDemo(db, storage));
 
 const ROLE_LABEL = { owner: 'Owner', admin: 'Admin', member: 'Member', viewer: 'Viewer' } as const;
 
-describe('signing in as each demo account in Chromium', () => {
+describe('signing in as each demo account in Chromium', { timeout: BROWSER_TEST_TIMEOUT }, () => {
   for (const account of DEMO_ACCOUNTS) {
     it(`${account.email} reaches the shell with the ${account.role} role`, async () => {
       const page = await t.browser.newPage({ viewport: { width: 1280, height: 800 } });
@@ -39,7 +39,7 @@ describe('signing in as each demo account in Chromium', () => {
   }
 });
 
-describe('sign-in form', () => {
+describe('sign-in form', { timeout: BROWSER_TEST_TIMEOUT }, () => {
   it('shows inline field errors and keeps what the user typed', async () => {
     const page = await t.browser.newPage({ viewport: { width: 1280, height: 800 } });
     await page.goto(`${t.served.url}/sign-in`);
@@ -73,7 +73,7 @@ describe('sign-in form', () => {
   });
 });
 
-describe('the demo shop', () => {
+describe('the demo shop', { timeout: BROWSER_TEST_TIMEOUT }, () => {
   it('has two arranged sheets without preflight errors, costed, whose logged runs moved stock and the blade; seeding again adds nothing', async () => {
     const owner = new Client(t.served.url);
     await owner.signIn('owner@demo.test', DEMO_PASSWORD);

@@ -12,6 +12,13 @@ import { env } from '../../server/config/env';
 
 export const SCREENSHOT_DIR = path.resolve('tests/output/screenshots');
 
+/**
+ * Time allowed for one browser test. A browser test is a chain of real steps (sign-in, uploads,
+ * outlines, saves), and with Chromium, the app and MariaDB sharing two cores beside another test
+ * worker, it can take well past the 30 s the other tests get. Each wait inside has its own limit.
+ */
+export const BROWSER_TEST_TIMEOUT = 90_000;
+
 /** Debian's Chromium, headless, with the flags this machine needs (no background networking). */
 export function launchChromium(): Promise<Browser> {
   return chromium.launch({

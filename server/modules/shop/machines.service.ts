@@ -4,7 +4,7 @@ import type { BladeFit, BladeView, MachineView, machineInputSchema } from '../..
 import { BLADE_NEAR_SHARE } from '../../../shared/schemas/shop';
 import { notFound, validationError } from '../../lib/errors';
 
-type MachineRow = { id: string; kind: 'printer' | 'cutter'; name: string; notes: string | null; ink_full_page: string | null };
+type MachineRow = { id: string; kind: 'printer' | 'cutter'; name: string; notes: string | null; ink_full_page: string | null; archived_at: Date | null };
 type BladeRow = { id: string; cutter_id: string; label: string; fitted_on: string | Date; removed_on: string | Date | null; cut_length_mm: number; life_m: string; price: string; note: string | null };
 
 const isoDay = (d: string | Date | null) => (d === null ? null : typeof d === 'string' ? d.slice(0, 10) : `${d.getFullYear()}-${String(d.getMonth() + 1).padStart(2, '0')}-${String(d.getDate()).padStart(2, '0')}`);

@@ -37,10 +37,12 @@ export class RunsService {
     const runCut = cutLengthMm * input.copies;
     const id = await this.dataSource.transaction(async (manager) => {
       const stock = await this.stock.row(teamId, input.stockId, manager, true);
-      if (input.printerId) await this.machines.machineIn(manager, teamId, input.printerId, 'printer');
+      // Retired things stay for the runs that used them, but take no new runs.
+      if (stock.archived_at) throw validationError({ stockId: 'This stock is retired: pick stock from the shelf' }, 'This stock is retired.');
+      if (input.printerId && (await this.machines.machineIn(manager, teamId, input.printerId, 'printer')).archived_at) throw validationError({ printerId: 'This printer is retired: pick another' }, 'This printer is retired.');
       let bladeId: string | null = null;
       if (input.cutterId) {
-        await this.machines.machineIn(manager, teamId, input.cutterId, 'cutter');
+        if ((await this.machines.machineIn(manager, teamId, input.cutterId, 'cutter')).archived_at) throw validationError({ cutterId: 'This cutter is retired: pick another' }, 'This cutter is retired.');
         const blade = await this.machines.fittedBlade(manager, input.cutterId);
         if (!blade) throw validationError({ cutterId: 'This cutter has no blade logged: fit one first' }, 'This cutter has no blade logged: fit one first.');
         bladeId = String(blade.id);
