@@ -83,8 +83,13 @@ export function AppShell() {
         </div>
       </header>
       {/* A page whose code is still on its way (the sheet editor, the first time) shows that it is coming. */}
-      <div className="h-1" role="status" aria-label={navigation.state === 'loading' ? 'Opening the page' : undefined}>
-        {navigation.state === 'loading' && <div className="h-1 w-full animate-pulse bg-peel" />}
+      <div className="h-1" role="status">
+        {navigation.state === 'loading' && (
+          <>
+            <span className="sr-only">Opening the page…</span>
+            <div className="h-1 w-full animate-pulse bg-peel" />
+          </>
+        )}
       </div>
       <main id="main" className="mx-auto w-full max-w-7xl flex-1 px-4 py-6">
         <Outlet />
