@@ -3,7 +3,7 @@ import type { Page } from 'playwright-core';
 import { describe, expect, it } from 'vitest';
 import { svgArt } from '../helpers/art';
 import { Client, makeTeamWithRoles } from '../helpers/app';
-import { screenshot, signInThroughForm, useBrowserApp } from '../helpers/browser';
+import { BROWSER_TEST_TIMEOUT, screenshot, signInThroughForm, useBrowserApp } from '../helpers/browser';
 import { uploadFile } from '../helpers/library';
 
 const t = useBrowserApp();
@@ -72,5 +72,5 @@ describe('accessibility in Chromium', () => {
       await screenshot(page, `accessibility-account-${viewport.width}`);
       await page.context().close();
     }
-  }, 120_000);
+  }, 2 * BROWSER_TEST_TIMEOUT); // every screen twice: two browser tests' worth
 });
