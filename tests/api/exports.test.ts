@@ -3,6 +3,7 @@ import { describe, expect, it } from 'vitest';
 import { svgArt } from '../helpers/art';
 import { Client, makeTeamWithRoles, useTestApp } from '../helpers/app';
 import { uploadFile } from '../helpers/library';
+import { placePieces, testPiece } from '../helpers/sheets';
 
 const t = useTestApp({ pool: true });
 
@@ -12,8 +13,7 @@ async function sheetWithPieces(pieces: number) {
   await member.signIn(users.member.email);
   const art = (await uploadFile(member, team.id, await svgArt(600, 600, '<circle cx="300" cy="300" r="280" fill="#2471a3"/>'), 'drop.png')).body.results[0].item;
   const { body: sheet } = await member.post(`/api/teams/${team.id}/sheets`, { name: 'Export me' });
-  const doc = { ...sheet.document, pieces: Array.from({ length: pieces }, (_, i) => ({ id: `e${i}`, artId: art.id, x: 40 + (i % 3) * 50, y: 40 + Math.floor(i / 3) * 50, rotation: i * 20, width: 38, border: 3.175, borderColour: '#ffffff', locked: false })) };
-  await member.send('put', `/api/teams/${team.id}/sheets/${sheet.id}`, { version: 1, document: doc });
+  await placePieces(member, team.id, sheet, Array.from({ length: pieces }, (_, i) => testPiece(`e${i}`, art.id, 40 + (i % 3) * 50, 40 + Math.floor(i / 3) * 50, { rotation: i * 20 })));
   return { team, users, member, sheet };
 }
 

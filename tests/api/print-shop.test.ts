@@ -4,6 +4,7 @@ import { describe, expect, it } from 'vitest';
 import { svgArt } from '../helpers/art';
 import { Client, makeTeamWithRoles, useTestApp } from '../helpers/app';
 import { uploadFile } from '../helpers/library';
+import { placePieces, testPiece } from '../helpers/sheets';
 
 const t = useTestApp({ pool: true });
 const STOCK = { name: 'Glossy inkjet sticker paper', finish: 'glossy', paper: 'letter', packPrice: 18, sheetsPerPack: 100, onHand: 10, cutterSettings: { material: 'Sticker paper, glossy', pressure: '3', passes: 1, blade: 'standard, depth 2' } };
@@ -18,8 +19,7 @@ async function shop(pieces = 3, spacing = 50) {
   }
   const art = (await uploadFile(clients.member, team.id, await svgArt(600, 600, '<circle cx="300" cy="300" r="300" fill="#1b4f72"/>'), 'moon.png')).body.results[0].item;
   const { body: sheet } = await clients.member.post(`/api/teams/${team.id}/sheets`, { name: 'Moons' });
-  const doc = { ...sheet.document, pieces: Array.from({ length: pieces }, (_, i) => ({ id: `m${i}`, artId: art.id, x: 40 + i * spacing, y: 40, rotation: 0, width: 38, border: 3.175, borderColour: '#ffffff', locked: false })) };
-  const saved = await clients.member.send('put', `/api/teams/${team.id}/sheets/${sheet.id}`, { version: 1, document: doc });
+  const saved = await placePieces(clients.member, team.id, sheet, Array.from({ length: pieces }, (_, i) => testPiece(`m${i}`, art.id, 40 + i * spacing, 40)));
   expect(saved.status).toBe(200);
   return { team, users, ...clients, art, sheet: saved.body, base: `/api/teams/${team.id}` };
 }

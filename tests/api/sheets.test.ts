@@ -3,6 +3,7 @@ import type { Piece } from '../../shared/sheet/document';
 import { svgArt } from '../helpers/art';
 import { Client, makeTeamWithRoles, useTestApp } from '../helpers/app';
 import { uploadFile } from '../helpers/library';
+import { testPiece } from '../helpers/sheets';
 
 const t = useTestApp({ pool: true });
 
@@ -17,7 +18,7 @@ async function setup() {
   return { team, users, ...clients, art };
 }
 
-const piece = (artId: string, x: number, extra: Partial<Piece> = {}): Piece => ({ id: `p${x}`, artId, x, y: 40, rotation: 0, width: 40, border: 3.175, borderColour: '#ffffff', locked: false, ...extra });
+const piece = (artId: string, x: number, extra: Partial<Piece> = {}): Piece => testPiece(`p${x}`, artId, x, 40, { width: 40, ...extra });
 
 describe('sheet profiles', () => {
   it('start with the common-practice Letter print-and-cut profile; owners and admins manage them; the print area must fit', async () => {

@@ -5,6 +5,7 @@ import { svgArt } from '../helpers/art';
 import { Client, makeTeamWithRoles } from '../helpers/app';
 import { BROWSER_TEST_TIMEOUT, screenshot, signInThroughForm, useBrowserApp } from '../helpers/browser';
 import { uploadFile } from '../helpers/library';
+import { benchCutter, placePieces, testPiece } from '../helpers/sheets';
 
 const t = useBrowserApp();
 
@@ -25,11 +26,9 @@ describe('accessibility in Chromium', () => {
     const base = `/api/teams/${team.id}`;
     const art = (await uploadFile(owner, team.id, await svgArt(600, 600, '<circle cx="300" cy="300" r="300" fill="#1b4f72"/>'), 'moon.png')).body.results[0].item;
     const { body: sheet } = await owner.post(`${base}/sheets`, { name: 'Moons' });
-    const doc = { ...sheet.document, pieces: [{ id: 'm1', artId: art.id, x: 40, y: 40, rotation: 0, width: 38, border: 3.175, borderColour: '#ffffff', locked: false }] };
-    expect((await owner.send('put', `${base}/sheets/${sheet.id}`, { version: 1, document: doc })).status).toBe(200);
+    expect((await placePieces(owner, team.id, sheet, [testPiece('m1', art.id, 40, 40)])).status).toBe(200);
     const stock = (await owner.post(`${base}/stock`, { name: 'Matte sticker paper', finish: 'matte', paper: 'letter', packPrice: 18, sheetsPerPack: 100, onHand: 20 })).body;
-    const cutter = (await owner.post(`${base}/machines`, { kind: 'cutter', name: 'Bench cutter' })).body;
-    await owner.post(`${base}/machines/${cutter.id}/blades`, { label: 'Fine blade', fittedOn: '2026-11-20', lifeM: 600, price: 9 });
+    const cutter = await benchCutter(owner, team.id);
     await owner.post(`${base}/print-runs`, { sheetId: sheet.id, copies: 1, stockId: stock.id, cutterId: cutter.id, result: 'good' });
 
     // axe needs a page from an explicit browser context.

@@ -7,6 +7,7 @@ import { svgArt } from '../helpers/art';
 import { Client, makeTeamWithRoles } from '../helpers/app';
 import { BROWSER_TEST_TIMEOUT, screenshot, signInThroughForm, useBrowserApp } from '../helpers/browser';
 import { uploadFile } from '../helpers/library';
+import { placePieces, testPiece } from '../helpers/sheets';
 
 const t = useBrowserApp();
 
@@ -105,7 +106,7 @@ describe('sheet editor in Chromium', { timeout: BROWSER_TEST_TIMEOUT }, () => {
   it('a teammate saves first: this editor gets the conflict choice and keeps its edit as a copy', async () => {
     const { team, users, client, art } = await teamWithArt();
     const { body: sheet } = await client.post(`/api/teams/${team.id}/sheets`, { name: 'Editor trial' });
-    await client.send('put', `/api/teams/${team.id}/sheets/${sheet.id}`, { version: 1, document: { ...sheet.document, pieces: [{ id: 'c1', artId: art[0].id, x: 50, y: 50, rotation: 0, width: 40, border: 3, borderColour: '#ffffff', locked: false }] } });
+    await placePieces(client, team.id, sheet, [testPiece('c1', art[0].id, 50, 50, { width: 40, border: 3 })]);
     const sheetId = String(sheet.id);
     const page = await t.browser.newPage({ viewport: { width: 1280, height: 900 } });
     await signIn(page, users.member.email);
@@ -140,8 +141,8 @@ describe('sheet editor in Chromium', { timeout: BROWSER_TEST_TIMEOUT }, () => {
     const { team, users, client, art } = await teamWithArt();
     const { body: sheet } = await client.post(`/api/teams/${team.id}/sheets`, { name: 'Pile' });
     // Nine pieces piled in the middle, all overlapping.
-    const pile = Array.from({ length: 9 }, (_, i) => ({ id: `pile${i}`, artId: art[i % 3].id, x: 80 + i, y: 110 + i, rotation: 0, width: 38, border: 3.175, borderColour: '#ffffff', locked: false }));
-    await client.send('put', `/api/teams/${team.id}/sheets/${sheet.id}`, { version: 1, document: { ...sheet.document, pieces: pile } });
+    const pile = Array.from({ length: 9 }, (_, i) => testPiece(`pile${i}`, art[i % 3].id, 80 + i, 110 + i));
+    await placePieces(client, team.id, sheet, pile);
     const page = await t.browser.newPage({ viewport: { width: 1280, height: 900 } });
     await signIn(page, users.member.email);
     await page.goto(`${t.served.url}/t/${team.id}/sheets/${sheet.id}`);
@@ -169,7 +170,7 @@ describe('sheet editor in Chromium', { timeout: BROWSER_TEST_TIMEOUT }, () => {
   it('opens sheets read-only for a viewer', async () => {
     const { team, users, client, art } = await teamWithArt();
     const { body: sheet } = await client.post(`/api/teams/${team.id}/sheets`, { name: 'Look only' });
-    await client.send('put', `/api/teams/${team.id}/sheets/${sheet.id}`, { version: 1, document: { ...sheet.document, pieces: [{ id: 'v1', artId: art[0].id, x: 50, y: 50, rotation: 0, width: 40, border: 3, borderColour: '#ffffff', locked: false }] } });
+    await placePieces(client, team.id, sheet, [testPiece('v1', art[0].id, 50, 50, { width: 40, border: 3 })]);
     const page = await t.browser.newPage({ viewport: { width: 1280, height: 900 } });
     await signIn(page, users.viewer.email);
     await page.goto(`${t.served.url}/t/${team.id}/sheets/${sheet.id}`);
@@ -190,9 +191,9 @@ describe('sheet editor in Chromium', { timeout: BROWSER_TEST_TIMEOUT }, () => {
     const { body: sheet } = await client.post(`/api/teams/${team.id}/sheets`, { name: 'Crowded' });
     const pieces: Piece[] = [];
     for (let i = 0; i < 150; i++) {
-      pieces.push({ id: `b${i}`, artId: art[i % 3].id, x: 8 + (i % 13) * 12.5, y: 8 + Math.floor(i / 13) * 19, rotation: (i * 15) % 360, width: 9, border: 1.5, borderColour: '#ffffff', locked: false });
+      pieces.push(testPiece(`b${i}`, art[i % 3].id, 8 + (i % 13) * 12.5, 8 + Math.floor(i / 13) * 19, { rotation: (i * 15) % 360, width: 9, border: 1.5 }));
     }
-    await client.send('put', `/api/teams/${team.id}/sheets/${sheet.id}`, { version: 1, document: { ...sheet.document, pieces } });
+    await placePieces(client, team.id, sheet, pieces);
     const page = await t.browser.newPage({ viewport: { width: 1280, height: 900 } });
     await signIn(page, users.member.email);
     await page.goto(`${t.served.url}/t/${team.id}/sheets/${sheet.id}`);

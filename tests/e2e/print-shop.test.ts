@@ -3,6 +3,7 @@ import { svgArt } from '../helpers/art';
 import { Client, makeTeamWithRoles } from '../helpers/app';
 import { BROWSER_TEST_TIMEOUT, screenshot, signInThroughForm, useBrowserApp } from '../helpers/browser';
 import { uploadFile } from '../helpers/library';
+import { benchCutter, placePieces, testPiece } from '../helpers/sheets';
 
 const t = useBrowserApp();
 
@@ -17,12 +18,10 @@ describe('print shop in Chromium', { timeout: BROWSER_TEST_TIMEOUT }, () => {
     const { body: sheet } = await owner.post(`${base}/sheets`, { name: 'Market sheet' });
     // Two 38 mm badges with a 1/8 in border (44.35 mm across) 2 mm apart, under the 1/8 in gap;
     // an 80 px berry printed 30 mm wide: 68 DPI, under 150.
-    const piece = (id: string, artId: string, x: number, y: number, width: number) => ({ id, artId, x, y, rotation: 0, width, border: 3.175, borderColour: '#ffffff', locked: false });
-    const pieces = [piece('b1', sharp.id, 40, 40, 38), piece('b2', sharp.id, 86.35, 40, 38), piece('berry', soft.id, 40, 120, 30)];
-    expect((await owner.send('put', `${base}/sheets/${sheet.id}`, { version: 1, document: { ...sheet.document, pieces } })).status).toBe(200);
+    const pieces = [testPiece('b1', sharp.id, 40, 40), testPiece('b2', sharp.id, 86.35, 40), testPiece('berry', soft.id, 40, 120, { width: 30 })];
+    expect((await placePieces(owner, team.id, sheet, pieces)).status).toBe(200);
     const stock = (await owner.post(`${base}/stock`, { name: 'Matte sticker paper', finish: 'matte', paper: 'letter', packPrice: 18, sheetsPerPack: 100, onHand: 20, cutterSettings: { material: 'Matte sticker', pressure: '4', passes: 1, blade: '' } })).body;
-    const cutter = (await owner.post(`${base}/machines`, { kind: 'cutter', name: 'Bench cutter' })).body;
-    await owner.post(`${base}/machines/${cutter.id}/blades`, { label: 'Fine blade', fittedOn: '2026-11-20', lifeM: 600, price: 9 });
+    const cutter = await benchCutter(owner, team.id);
 
     const page = await t.browser.newPage({ viewport: { width: 1280, height: 900 } });
     await signInThroughForm(page, t.served.url, users.member.email);
@@ -131,8 +130,7 @@ describe('print shop in Chromium', { timeout: BROWSER_TEST_TIMEOUT }, () => {
     const profile = (await owner.post(`${base}/sheet-profiles`, { name: 'Letter market', paper: 'letter', areaWidthMm: 171.45, areaHeightMm: 234.95, safeMarginMm: 3.175, minGapMm: 3.175 })).body;
     const art = (await uploadFile(owner, team.id, await svgArt(1200, 1200, '<circle cx="600" cy="600" r="600" fill="#6c3483"/>'), 'plum.png')).body.results[0].item;
     const { body: sheet } = await owner.post(`${base}/sheets`, { name: 'Plums', profileId: profile.id });
-    const doc = { ...sheet.document, pieces: [{ id: 'p1', artId: art.id, x: 40, y: 40, rotation: 0, width: 19.05, border: 3.175, borderColour: '#ffffff', locked: false }] };
-    expect((await owner.send('put', `${base}/sheets/${sheet.id}`, { version: 1, document: doc })).status).toBe(200);
+    expect((await placePieces(owner, team.id, sheet, [testPiece('p1', art.id, 40, 40, { width: 19.05 })])).status).toBe(200);
 
     const page = await t.browser.newPage({ viewport: { width: 1280, height: 900 } });
     await signInThroughForm(page, t.served.url, users.owner.email);
