@@ -60,7 +60,8 @@ export class ExportsService {
   }
 
   private async progress(id: string, fraction: number, step: string) {
-    await this.dataSource.query('UPDATE sheet_exports SET progress = ?, step = ? WHERE id = ?', [Math.min(1, fraction).toFixed(3), step, id]);
+    // Only a running job moves: a late progress write never undoes "done" or "failed".
+    await this.dataSource.query("UPDATE sheet_exports SET progress = ?, step = ? WHERE id = ? AND status = 'running'", [Math.min(1, fraction).toFixed(3), step, id]);
   }
 
   private async run(teamId: string, id: string, sheet: Awaited<ReturnType<SheetsService['find']>>, doc: ReturnType<typeof migrateDocument>, options: ExportRequest, findings: Finding[]) {
@@ -81,12 +82,15 @@ export class ExportsService {
         ? { paperWidthMm: profile.paperWidthMm, paperHeightMm: profile.paperHeightMm, areaXMm: profile.areaXMm, areaYMm: profile.areaYMm }
         : { paperWidthMm: 215.9, paperHeightMm: 279.4, areaXMm: (215.9 - doc.printArea.width) / 2, areaYMm: (279.4 - doc.printArea.height) / 2 };
       let last = 0;
+      // Progress writes run one after another and are awaited before the job is marked done.
+      let writes = Promise.resolve();
       const result = await exportSheet({ name: sheet.name, unit: sheet.unit, doc, pieces, paper, preflight: findings.map((f) => `${f.severity.toUpperCase()}: ${f.message}`) }, options, (fraction, step) => {
         if (fraction - last >= 0.1 || fraction === 1) {
           last = fraction;
-          void this.progress(id, 0.4 + 0.55 * fraction, step);
+          writes = writes.then(() => this.progress(id, 0.4 + 0.55 * fraction, step)).catch(() => undefined);
         }
       });
+      await writes;
       const { key } = await this.storage.put(result.zip);
       await this.dataSource.query("UPDATE sheet_exports SET status = 'done', progress = 1, step = 'Ready', zip_key = ?, zip_name = ? WHERE id = ?", [key, result.zipName, id]);
     } catch (error) {
