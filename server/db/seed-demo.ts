@@ -16,6 +16,7 @@ import { saveShopSettings } from '../modules/shop/costing.service';
 import { MachinesService } from '../modules/shop/machines.service';
 import { StockService } from '../modules/shop/stock.service';
 import { seedSheets } from './seed-demo-sheets';
+import { inTransaction } from './transaction';
 
 /** Adds whatever part of the demo shop is missing; returns how many rows it added. */
 export async function seedDemo(dataSource: DataSource, storage?: Storage): Promise<number> {
@@ -74,7 +75,7 @@ async function seedArt(dataSource: DataSource, storage: Storage): Promise<number
 }
 
 async function seedPeople(dataSource: DataSource): Promise<number> {
-  return dataSource.transaction(async (manager) => {
+  return inTransaction(dataSource, async (manager) => {
     let added = 0;
     let team = await manager.findOneBy(Team, { name: DEMO_SHOP, personal: false });
     if (!team) {

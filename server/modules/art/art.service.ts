@@ -13,7 +13,8 @@ import type { Storage } from '../../storage/storage';
 import { Collection } from '../collections/collection.entity';
 import { ArtItem } from './art-item.entity';
 import { artViews } from './art-view';
-import { addKeywords, refreshTerms, removeKeywords } from './terms';
+import { addKeywords, refreshTerms, removeKeywords, setKeywords } from './terms';
+import { inTransaction, isDuplicateOf } from '../../db/transaction';
 import type { PackLimits } from './zip-pack';
 import { DEFAULT_PACK_LIMITS, readPack } from './zip-pack';
 
@@ -93,10 +94,6 @@ export class ArtService {
         results.push({ file: entry.path, status: 'rejected', reason: (error as Error).message });
       }
     }
-    const existing = fresh.length
-      ? await this.dataSource.getRepository(ArtItem).findBy({ teamId: actor.teamId, sha256: In(fresh.map((f) => f.sha256)) })
-      : [];
-    const bySha = new Map(existing.map((e) => [e.sha256, e]));
 
     const written: string[] = [];
     const put = async (data: Buffer) => {
@@ -105,8 +102,12 @@ export class ArtService {
       return (await this.storage.put(data)).key;
     };
     try {
-      const stored = await this.dataSource.transaction(async (manager) => {
+      const stored = await inTransaction(this.dataSource, async (manager) => {
         const out: Array<{ path: string; id: string; status: 'stored' | 'duplicate'; suggested: string[] }> = [];
+        // Read inside the transaction: a teammate's upload of the same image that committed
+        // meanwhile is seen on the retry below and reported as a duplicate.
+        const existing = fresh.length ? await manager.findBy(ArtItem, { teamId: actor.teamId, sha256: In(fresh.map((f) => f.sha256)) }) : [];
+        const bySha = new Map(existing.map((e) => [e.sha256, e]));
         for (const entry of fresh) {
           const suggested = zipped ? suggestKeywords(entry.path) : suggestKeywords(file.originalname);
           const old = bySha.get(entry.sha256);
@@ -146,7 +147,7 @@ export class ArtService {
         }
         await refreshTerms(manager, out.filter((o) => o.status === 'stored').map((o) => o.id));
         return out;
-      });
+      }, { retryIf: isDuplicateOf('uq_art_items_team_sha') });
       const items = await this.dataSource.getRepository(ArtItem).findBy({ id: In(stored.map((s) => s.id)) });
       const views = new Map((await artViews(this.dataSource.manager, items)).map((v) => [v.id, v]));
       for (const s of stored) results.push({ file: s.path, status: s.status, item: views.get(s.id), suggestedKeywords: s.suggested, reason: s.status === 'duplicate' ? 'Already in the library.' : undefined });
@@ -180,7 +181,7 @@ export class ArtService {
     const item = await this.find(actor.teamId, artId);
     const manage = can(actor.role, 'library.manage');
     if (input.licence !== undefined && !manage) throw forbidden('Only owners and admins change licences.');
-    await this.dataSource.transaction(async (manager) => {
+    await inTransaction(this.dataSource, async (manager) => {
       const changes: Partial<ArtItem> = {};
       if (input.name !== undefined) changes.name = input.name;
       if (input.collectionId !== undefined) {
@@ -200,8 +201,7 @@ export class ArtService {
       }
       if (Object.keys(changes).length) await manager.update(ArtItem, { id: item.id }, changes);
       if (input.keywords !== undefined) {
-        await manager.query('DELETE FROM art_keywords WHERE art_id = ?', [item.id]);
-        await addKeywords(manager, item.id, input.keywords);
+        await setKeywords(manager, item.id, input.keywords);
       }
       await refreshTerms(manager, [item.id]);
     });
@@ -225,7 +225,7 @@ export class ArtService {
     const items = await this.dataSource.getRepository(ArtItem).findBy({ id: In(action.ids), teamId: actor.teamId, deletedAt: IsNull() });
     if (items.length !== new Set(action.ids).size) throw notFound('Some of that art');
     if (action.action === 'delete') return this.remove(actor, items);
-    await this.dataSource.transaction(async (manager) => {
+    await inTransaction(this.dataSource, async (manager) => {
       for (const item of items) {
         if (action.action === 'addKeyword') await addKeywords(manager, item.id, [action.keyword]);
         else if (action.action === 'removeKeyword') await removeKeywords(manager, item.id, [action.keyword]);

@@ -12,6 +12,7 @@ import { Team } from '../teams/team.entity';
 import { burnPasswordCheck, hashPassword, verifyPassword } from './passwords';
 import { PasswordReset } from './password-reset.entity';
 import { User } from './user.entity';
+import { inTransaction } from '../../db/transaction';
 
 export const RESET_LIFETIME_MS = 60 * 60 * 1000;
 
@@ -50,7 +51,7 @@ export class AuthService {
   async signUp(input: SignUpInput): Promise<User> {
     const passwordHash = await hashPassword(input.password);
     try {
-      return await this.dataSource.transaction((manager) => createUserWithTeam(manager, input, passwordHash));
+      return await inTransaction(this.dataSource, (manager) => createUserWithTeam(manager, input, passwordHash));
     } catch (error) {
       if ((error as { code?: string }).code === 'ER_DUP_ENTRY') {
         throw conflict('An account with that e-mail already exists. Sign in instead.', {
@@ -115,7 +116,7 @@ export class AuthService {
   /** Sets the new password and spends the token; a second use finds no valid row. */
   async resetPassword(token: string, password: string): Promise<User> {
     const passwordHash = await hashPassword(password);
-    return this.dataSource.transaction(async (manager) => {
+    return inTransaction(this.dataSource, async (manager) => {
       const reset = await this.findValidReset(token, manager);
       if (!reset) throw tokenInvalid('password reset');
       // Conditional update: if two requests race, only one flips used_at.

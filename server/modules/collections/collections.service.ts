@@ -7,6 +7,7 @@ import { licenceView } from '../art/art-view';
 import { refreshTerms } from '../art/terms';
 import { Collection } from './collection.entity';
 import type { LicenceColumns } from './licence.columns';
+import { inTransaction } from '../../db/transaction';
 
 const licenceColumns = (l: LicenceInput | null, keep: LicenceColumns): LicenceColumns => ({
   kind: l?.kind ?? null,
@@ -73,7 +74,7 @@ export class CollectionsService {
   async update(teamId: string, id: string, input: { name?: string; membersCanAdd?: boolean; archived?: boolean; licence?: LicenceInput | null }) {
     const collection = await this.find(teamId, id);
     if (input.name !== undefined) await this.ensureUniqueName(teamId, input.name, id);
-    await this.dataSource.transaction(async (manager) => {
+    await inTransaction(this.dataSource, async (manager) => {
       const changes: Partial<Collection> = {};
       if (input.name !== undefined) changes.name = input.name;
       if (input.membersCanAdd !== undefined) changes.membersCanAdd = input.membersCanAdd;
@@ -96,7 +97,7 @@ export class CollectionsService {
     if (ids.length !== all.length || new Set(ids).size !== ids.length || ids.some((i) => !known.has(i))) {
       throw new AppError(400, 'validation_failed', 'List every collection of the team exactly once.', { ids: 'List every collection exactly once' });
     }
-    await this.dataSource.transaction(async (manager) => {
+    await inTransaction(this.dataSource, async (manager) => {
       for (const [position, id] of ids.entries()) await manager.update(Collection, { id, teamId }, { position });
     });
     return this.list(teamId);

@@ -3,6 +3,7 @@ import type { ProfileInput, ProfileView } from '../../../shared/schemas/sheets';
 import { inchToMm } from '../../../shared/units';
 import { conflict, notFound } from '../../lib/errors';
 import { SheetProfile } from './sheet-profile.entity';
+import { inTransaction } from '../../db/transaction';
 
 /** Common practice for home cutters' print-and-cut: 6.75 × 9.25 in centred on Letter, 1/8 in gap. */
 export const DEFAULT_PROFILE: ProfileInput = {
@@ -72,7 +73,7 @@ export class ProfilesService {
     await this.find(teamId, id);
     const { name, paper, paperWidthMm, paperHeightMm, areaWidthMm, areaHeightMm, areaXMm, areaYMm, safeMarginMm, minGapMm, smallestStickerMm, minFeatureMm } = input;
     const fields = { name, paper, paperWidthMm, paperHeightMm, areaWidthMm, areaHeightMm, areaXMm, areaYMm, safeMarginMm, minGapMm, smallestStickerMm, minFeatureMm };
-    await this.dataSource.transaction(async (manager) => {
+    await inTransaction(this.dataSource, async (manager) => {
       if (makeDefault) await manager.update(SheetProfile, { teamId }, { isDefault: false });
       await manager.update(SheetProfile, { id, teamId }, { ...fields, ...(makeDefault ? { isDefault: true } : {}) });
     });

@@ -3,6 +3,7 @@ import type { z } from 'zod';
 import type { BladeFit, BladeView, MachineView, machineInputSchema } from '../../../shared/schemas/shop';
 import { BLADE_NEAR_SHARE } from '../../../shared/schemas/shop';
 import { notFound, validationError } from '../../lib/errors';
+import { inTransaction } from '../../db/transaction';
 
 type MachineRow = { id: string; kind: 'printer' | 'cutter'; name: string; notes: string | null; ink_full_page: string | null; archived_at: Date | null };
 type BladeRow = { id: string; cutter_id: string; label: string; fitted_on: string | Date; removed_on: string | Date | null; cut_length_mm: number; life_m: string; price: string; note: string | null };
@@ -64,7 +65,7 @@ export class MachinesService {
   async fitBlade(teamId: string, cutterId: string, userId: string, fit: BladeFit): Promise<MachineView> {
     const cutter = await this.get(teamId, cutterId);
     if (cutter.kind !== 'cutter') throw notFound('That cutter');
-    await this.dataSource.transaction(async (manager) => {
+    await inTransaction(this.dataSource, async (manager) => {
       await manager.query('UPDATE blades SET removed_on = ? WHERE cutter_id = ? AND removed_on IS NULL', [fit.fittedOn, cutterId]);
       await manager.query('INSERT INTO blades (team_id, cutter_id, label, fitted_on, life_m, price, note, fitted_by) VALUES (?,?,?,?,?,?,?,?)', [teamId, cutterId, fit.label, fit.fittedOn, fit.lifeM, fit.price, fit.note || null, userId]);
     });

@@ -10,6 +10,7 @@ import type { MachinesService } from './machines.service';
 import type { SheetAnalysisService } from './sheet-analysis.service';
 import type { StockService } from './stock.service';
 import { stockShort } from './stock.service';
+import { inTransaction } from '../../db/transaction';
 
 const today = () => new Date().toISOString().slice(0, 10);
 const PHOTO_MAX_PIXELS = 40_000_000;
@@ -35,7 +36,7 @@ export class RunsService {
     const { cutLengthMm, pieces } = await this.analysis.analyse(teamId, sheet);
     if (pieces === 0) throw validationError({ sheetId: 'This sheet has no pieces to print' }, 'This sheet has no pieces to print.');
     const runCut = cutLengthMm * input.copies;
-    const id = await this.dataSource.transaction(async (manager) => {
+    const id = await inTransaction(this.dataSource, async (manager) => {
       const stock = await this.stock.row(teamId, input.stockId, manager, true);
       // Retired things stay for the runs that used them, but take no new runs.
       if (stock.archived_at) throw validationError({ stockId: 'This stock is retired: pick stock from the shelf' }, 'This stock is retired.');

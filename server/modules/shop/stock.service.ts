@@ -2,6 +2,7 @@ import type { DataSource, EntityManager } from 'typeorm';
 import type { StockInput, StockView } from '../../../shared/schemas/shop';
 import { costPerSheet } from '../../../shared/production/cost';
 import { AppError, notFound } from '../../lib/errors';
+import { inTransaction } from '../../db/transaction';
 
 export type StockRow = {
   id: string; name: string; finish: StockInput['finish']; paper: StockInput['paper']; paper_width_mm: string; paper_height_mm: string; pack_price: string; sheets_per_pack: number; on_hand: number;
@@ -72,7 +73,7 @@ export class StockService {
   }
 
   async adjust(teamId: string, id: string, change: number, confirmNegative: boolean): Promise<StockView> {
-    await this.dataSource.transaction(async (manager) => {
+    await inTransaction(this.dataSource, async (manager) => {
       const row = await this.row(teamId, id, manager, true);
       if (row.on_hand + change < 0 && !confirmNegative) throw stockShort(row.on_hand, -change);
       await manager.query('UPDATE stock_items SET on_hand = on_hand + ? WHERE id = ?', [change, id]);

@@ -15,6 +15,7 @@ import { User } from '../auth/user.entity';
 import { Invite } from './invite.entity';
 import { Membership } from './membership.entity';
 import { Team } from './team.entity';
+import { inTransaction } from '../../db/transaction';
 
 export const INVITE_LIFETIME_MS = 7 * 24 * 60 * 60 * 1000;
 
@@ -28,7 +29,7 @@ export class TeamsService {
   ) {}
 
   async create(userId: string, name: string): Promise<Team> {
-    return this.dataSource.transaction(async (manager) => {
+    return inTransaction(this.dataSource, async (manager) => {
       const team = await manager.save(manager.create(Team, { name, personal: false }));
       await manager.save(manager.create(Membership, { teamId: team.id, userId, role: 'owner' }));
       return team;
@@ -199,7 +200,7 @@ export class TeamsService {
       throw new AppError(400, ERROR_CODES.validation, 'Choose a name and password for your new account.', fields);
     }
     const passwordHash = signedIn ? null : await hashPassword(newAccount.password!);
-    return this.dataSource.transaction(async (manager) => {
+    return inTransaction(this.dataSource, async (manager) => {
       const spent = await manager
         .createQueryBuilder()
         .update(Invite)
