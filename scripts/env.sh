@@ -155,6 +155,23 @@ FLUSH PRIVILEGES;
 SQL
 }
 
+# Lets the application user create and drop databases named PREFIX_… (tests make scratch ones).
+grant_scratch_databases() {
+  local prefix="$1"
+  db_admin <<SQL
+GRANT ALL PRIVILEGES ON \`${prefix}\\_%\`.* TO '$DB_USER'@'127.0.0.1';
+GRANT ALL PRIVILEGES ON \`${prefix}\\_%\`.* TO '$DB_USER'@'localhost';
+FLUSH PRIVILEGES;
+SQL
+}
+
+drop_scratch_databases() {
+  local prefix="$1" name
+  for name in $(db_admin -N -e "SHOW DATABASES LIKE '${prefix}\\_%'"); do
+    db_admin -e "DROP DATABASE \`$name\`;"
+  done
+}
+
 recreate_database() {
   db_admin -e "DROP DATABASE IF EXISTS \`$1\`;"
   ensure_database "$1"

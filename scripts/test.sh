@@ -10,6 +10,8 @@ start_db
 if [ "$DB_STARTED_HERE" = "1" ]; then trap cleanup_db EXIT; fi
 log "recreating the test database $DB_TEST_NAME"
 recreate_database "$DB_TEST_NAME"
+drop_scratch_databases "$DB_TEST_NAME"
+grant_scratch_databases "$DB_TEST_NAME"
 
 export NODE_ENV=test
 export DB_NAME="$DB_TEST_NAME"

@@ -10,7 +10,8 @@ import type { Mailer } from './mail/mailer';
 import { createMailer } from './mail/mailer';
 import { apiNotFound, errorHandler } from './middleware/errors';
 import { AuthService } from './modules/auth/auth.service';
-import { authRouter } from './modules/auth/auth.router';
+import { authRouter, SESSION_COOKIE_NAME } from './modules/auth/auth.router';
+import { sessionGuard } from './modules/auth/session-guard';
 import { createPassport } from './modules/auth/passport';
 import { SignInThrottle } from './modules/auth/throttle';
 import { outboxRouter } from './modules/dev/outbox.router';
@@ -38,8 +39,6 @@ import { StockService } from './modules/shop/stock.service';
 import { LocalDiskStorage } from './storage/local-disk';
 import type { Storage } from './storage/storage';
 
-export const SESSION_COOKIE = 'sheetsmith.sid';
-const SESSION_MAX_AGE_MS = 30 * 24 * 60 * 60 * 1000;
 
 export type AppOptions = {
   env: Env;
@@ -80,7 +79,8 @@ export function createApp({
     password: env.DB_PASSWORD,
     database: dataSource.options.database as string,
     createDatabaseTable: false, // the migration made it
-    expiration: SESSION_MAX_AGE_MS,
+    // Idle timeout: a row unused this long expires (rolling cookies renew it on every request).
+    expiration: env.SESSION_IDLE_SECONDS * 1000,
     clearExpired: true,
     schema: { tableName: 'sessions', columnNames: { session_id: 'session_id', expires: 'expires', data: 'data' } },
   });
@@ -116,17 +116,18 @@ export function createApp({
   api.use(express.json({ limit: '1mb' }));
   api.use(
     session({
-      name: SESSION_COOKIE,
+      name: SESSION_COOKIE_NAME,
       secret: env.SESSION_SECRET,
       store,
       resave: false,
       saveUninitialized: false,
       rolling: true,
-      cookie: { httpOnly: true, sameSite: 'lax', secure: env.COOKIE_SECURE, maxAge: SESSION_MAX_AGE_MS },
+      cookie: { httpOnly: true, sameSite: 'lax', secure: env.COOKIE_SECURE, maxAge: env.SESSION_IDLE_SECONDS * 1000 },
     }),
   );
   api.use(passport.initialize());
   api.use(passport.session());
+  api.use(sessionGuard(env));
   api.use(healthRouter(dataSource));
   // Every state-changing route needs the session's token in X-CSRF-Token (GET/HEAD/OPTIONS are exempt).
   api.use(csrfSynchronisedProtection);

@@ -2,17 +2,32 @@ import path from 'node:path';
 import { env } from './config/env';
 import { createDataSource } from './db/data-source';
 import { createApp } from './app';
-import { DEMO_PASSWORD, DEMO_ACCOUNTS } from '../scripts/demo-accounts';
+import { DEMO_ACCOUNTS, DEMO_PASSWORD } from './db/demo/accounts';
 
 async function main() {
   const dataSource = await createDataSource().initialize();
   const { app, close } = createApp({ env, dataSource, clientDir: path.resolve('dist') });
-  const server = app.listen(env.PORT, env.HOST, () => {
+  const server = app.listen(env.PORT, env.HOST);
+  server.on('error', (error: NodeJS.ErrnoException) => {
+    // Without this the process would print "running" and serve nothing.
+    const reason =
+      error.code === 'EADDRINUSE'
+        ? `port ${env.PORT} on ${env.HOST} is already in use by another program. Stop it, or set PORT in .env to a free port.`
+        : error.code === 'EACCES'
+          ? `this user may not listen on port ${env.PORT}. Pick a port above 1024 (PORT in .env).`
+          : error.message;
+    console.error(`[sheetsmith] could not start: ${reason}`);
+    void dataSource.destroy().finally(() => process.exit(1));
+  });
+  server.on('listening', () => {
     const url = `http://${env.HOST}:${env.PORT}`;
     console.log(`\n  Sheetsmith is running at ${url}\n`);
-    console.log(`  Demo sign-ins (password "${DEMO_PASSWORD}"):`);
-    for (const account of DEMO_ACCOUNTS) console.log(`    ${account.email.padEnd(20)} ${account.role}`);
-    console.log(`\n  Press Ctrl-C to stop the app and its database.\n`);
+    if (env.demoMode) {
+      console.log(`  Demo sign-ins (password "${DEMO_PASSWORD}"):`);
+      for (const account of DEMO_ACCOUNTS) console.log(`    ${account.email.padEnd(20)} ${account.role}`);
+      console.log('');
+    }
+    console.log(`  Press Ctrl-C to stop.\n`);
   });
 
   let stopping = false;
@@ -33,6 +48,6 @@ async function main() {
 }
 
 main().catch((error) => {
-  console.error('[sheetsmith] could not start:', error);
+  console.error('[sheetsmith] could not start:', error instanceof Error ? error.message : error);
   process.exit(1);
 });

@@ -7,13 +7,28 @@ const bool = z
   .default('false')
   .transform((value) => value === 'true' || value === '1');
 
+/** The secret used when none is set: fine on a laptop, public knowledge anywhere else. */
+export const LOCAL_SESSION_SECRET = 'sheetsmith-local-session-secret';
+// Secrets printed in this repository: never acceptable for a server others can reach.
+const PUBLISHED_SECRETS = new Set([LOCAL_SESSION_SECRET, 'change-me-to-a-long-random-string']);
+
+export function isLoopbackHost(host: string): boolean {
+  return host === 'localhost' || host === '::1' || /^127(\.\d{1,3}){3}$/.test(host);
+}
+
 // Parsed once at start-up: a bad value stops the app with a clear message.
 const envSchema = z.object({
   NODE_ENV: z.enum(['development', 'production', 'test']).default('development'),
   PORT: z.coerce.number().int().min(0).max(65535).default(3000),
   HOST: z.string().default('127.0.0.1'),
   APP_URL: z.string().url().optional(),
-  SESSION_SECRET: z.string().min(16).default('sheetsmith-local-session-secret'),
+  SESSION_SECRET: z.string().min(16).default(LOCAL_SESSION_SECRET),
+  /** Idle timeout: a session unused this long ends (renewed on every request). */
+  SESSION_IDLE_SECONDS: z.coerce.number().int().min(60).default(7 * 24 * 60 * 60),
+  /** Absolute lifetime: a session ends this long after sign-in, however busy. */
+  SESSION_ABSOLUTE_SECONDS: z.coerce.number().int().min(60).default(30 * 24 * 60 * 60),
+  /** The invented demo shop: auto = only on a laptop (loopback HOST and the local secret). */
+  DEMO: z.enum(['auto', 'on', 'off']).default('auto'),
   COOKIE_SECURE: bool,
   DB_HOST: z.string().default('127.0.0.1'),
   DB_PORT: z.coerce.number().int().default(3307),
@@ -36,7 +51,14 @@ const envSchema = z.object({
   OUTLINE_THREADS: z.coerce.number().int().min(0).max(16).default(0),
 });
 
-export type Env = z.infer<typeof envSchema> & { appUrl: string; dataDir: string; outboxDir: string; storageDir: string };
+export type Env = z.infer<typeof envSchema> & {
+  appUrl: string;
+  dataDir: string;
+  outboxDir: string;
+  storageDir: string;
+  /** Whether the demo shop is seeded and its accounts may sign in. */
+  demoMode: boolean;
+};
 
 export function loadEnv(source: NodeJS.ProcessEnv = process.env): Env {
   const parsed = envSchema.safeParse(source);
@@ -45,6 +67,15 @@ export function loadEnv(source: NodeJS.ProcessEnv = process.env): Env {
     throw new Error(`Bad configuration in .env or the environment:\n${lines.join('\n')}`);
   }
   const env = parsed.data;
+  const loopback = isLoopbackHost(env.HOST);
+  if (!loopback && PUBLISHED_SECRETS.has(env.SESSION_SECRET)) {
+    throw new Error(
+      `HOST is ${env.HOST}, which other machines can reach, but SESSION_SECRET is the published default: anyone could forge a session. ` +
+        'Set SESSION_SECRET to a long random value (for example: openssl rand -hex 32) in .env or the environment.',
+    );
+  }
+  // The demo accounts have a published password: never on a server others can reach.
+  const demoMode = loopback && (env.DEMO === 'on' || (env.DEMO === 'auto' && env.SESSION_SECRET === LOCAL_SESSION_SECRET));
   const dataDir = path.resolve(env.DATA_DIR);
   return {
     ...env,
@@ -52,7 +83,19 @@ export function loadEnv(source: NodeJS.ProcessEnv = process.env): Env {
     dataDir,
     outboxDir: path.join(dataDir, 'outbox'),
     storageDir: path.join(dataDir, 'storage'),
+    demoMode,
   };
 }
 
-export const env = loadEnv();
+function loadEnvOrExit(): Env {
+  try {
+    return loadEnv();
+  } catch (error) {
+    // The server and the scripts stop with the reason alone, not a stack trace; tests see the throw.
+    if (process.env.NODE_ENV === 'test') throw error;
+    console.error(`[sheetsmith] ${(error as Error).message}`);
+    process.exit(1);
+  }
+}
+
+export const env = loadEnvOrExit();

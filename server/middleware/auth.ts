@@ -14,6 +14,8 @@ declare global {
       email: string;
       name: string;
       unit: 'in' | 'mm';
+      /** The user's session epoch when loaded; a session from an older epoch has ended. */
+      sessionEpoch: number;
     }
     interface Request {
       membership?: { teamId: string; role: Role };

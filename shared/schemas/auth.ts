@@ -82,5 +82,7 @@ export const meSchema = z.object({
   teams: z.array(membershipSummarySchema),
   activeTeamId: z.string().nullable(),
   csrfToken: z.string(),
+  /** When a session ends: after this long unused, and this long after signing in. */
+  sessionLimits: z.object({ idleSeconds: z.number(), absoluteSeconds: z.number() }),
 });
 export type Me = z.infer<typeof meSchema>;

@@ -1,7 +1,7 @@
 import { describe, expect, it } from 'vitest';
-import { DEMO_ACCOUNTS, DEMO_PASSWORD, DEMO_SHOP } from '../../scripts/demo-accounts';
+import { DEMO_ACCOUNTS, DEMO_PASSWORD, DEMO_SHOP } from '../../server/db/demo/accounts';
 import { env } from '../../server/config/env';
-import { seedDemo } from '../../server/db/seed-demo';
+import { seedDemo } from '../../server/db/demo/seed';
 import { LocalDiskStorage } from '../../server/storage/local-disk';
 import { Client } from '../helpers/app';
 import { BROWSER_TEST_TIMEOUT, screenshot, useBrowserApp } from '../helpers/browser';

@@ -24,6 +24,26 @@ export async function openDatabase(): Promise<DataSource> {
   return createDataSource().initialize();
 }
 
+/**
+ * A database of its own for a test that needs a clean slate (first ids, no other suite's rows),
+ * migrated like production; dropped again by `drop()`. test.sh lets the test user make them.
+ */
+export async function scratchDatabase(label: string): Promise<{ db: DataSource; drop: () => Promise<void> }> {
+  const name = `${baseEnv.DB_NAME}_${label}_${randomBytes(3).toString('hex')}`;
+  const admin = await createDataSource().initialize();
+  await admin.query(`CREATE DATABASE \`${name}\` CHARACTER SET utf8mb4 COLLATE utf8mb4_unicode_ci`);
+  const db = await createDataSource(name).initialize();
+  await db.runMigrations({ transaction: 'each' });
+  return {
+    db,
+    drop: async () => {
+      await db.destroy();
+      await admin.query(`DROP DATABASE IF EXISTS \`${name}\``);
+      await admin.destroy();
+    },
+  };
+}
+
 export function testApp(dataSource: DataSource, overrides: Partial<Env> = {}, extra: Partial<AppOptions> = {}) {
   return createApp({ env: { ...baseEnv, ...overrides }, dataSource, ...extra });
 }

@@ -18,6 +18,7 @@ import { route } from '../../middleware/validate';
 import type { AuthService, SessionUser } from './auth.service';
 import { toSessionUser, tokenInvalid } from './auth.service';
 import type { SignInThrottle } from './throttle';
+import { signInSession } from './session-guard';
 
 declare module 'express-session' {
   interface SessionData {
@@ -32,13 +33,13 @@ type Deps = {
   csrfToken: (req: Request, overwrite?: boolean) => string;
 };
 
+export const SESSION_COOKIE_NAME = 'sheetsmith.sid';
+
 const badCredentials = () =>
   new AppError(401, ERROR_CODES.badCredentials, 'That e-mail and password do not match an account.');
 
-function logIn(req: Request, user: SessionUser): Promise<void> {
-  // Passport regenerates the session id here (no session fixation).
-  return new Promise((resolve, reject) => req.login(user, (error) => (error ? reject(error) : resolve())));
-}
+// Passport regenerates the session id when signing in (no session fixation).
+const logIn = signInSession;
 
 function authenticate(passport: Passport, req: Request, res: Response, next: NextFunction) {
   return new Promise<SessionUser | false>((resolve, reject) => {
@@ -86,7 +87,7 @@ export function authRouter({ auth, passport, throttle, csrfToken }: Deps): Route
       if (error) return next(error);
       req.session.destroy((destroyError) => {
         if (destroyError) return next(destroyError);
-        res.clearCookie('sheetsmith.sid');
+        res.clearCookie(SESSION_COOKIE_NAME);
         res.status(204).end();
       });
     });
@@ -135,11 +136,20 @@ export function authRouter({ auth, passport, throttle, csrfToken }: Deps): Route
   router.post(
     '/me/password',
     requireUser,
-    route({ body: changePasswordSchema }, async ({ body }, _req, res) => {
-      await auth.changePassword(_req.user!.id, body.currentPassword, body.newPassword);
+    route({ body: changePasswordSchema }, async ({ body }, req, res) => {
+      const epoch = await auth.changePassword(req.user!.id, body.currentPassword, body.newPassword);
+      // Every other session ends; this one carries on in the new epoch.
+      req.session.epoch = epoch;
       res.status(204).end();
     }),
   );
+
+  router.post('/me/sign-out-everywhere', requireUser, (req, res, next) => {
+    auth
+      .endSessions(req.user!.id)
+      .then(() => req.session.destroy((error) => (error ? next(error) : (res.clearCookie(SESSION_COOKIE_NAME), res.status(204).end()))))
+      .catch(next);
+  });
 
   router.put(
     '/me/active-team',

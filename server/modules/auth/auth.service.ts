@@ -23,7 +23,11 @@ export const toSessionUser = (user: User): SessionUser => ({
   email: user.email,
   name: user.name,
   unit: user.unit,
+  sessionEpoch: user.sessionEpoch,
 });
+
+/** Accounts the demo seeder made: they sign in only while demo mode is on. */
+const isDemoAccount = (user: User) => user.seedKey?.startsWith('demo:') === true;
 
 export const tokenInvalid = (what: string) =>
   new AppError(410, ERROR_CODES.tokenInvalid, `This ${what} link has expired or was already used. Ask for a new one.`);
@@ -65,12 +69,20 @@ export class AuthService {
   /** Returns the user for a right e-mail and password, else null (same cost either way). */
   async verifyCredentials(email: string, password: string): Promise<User | null> {
     const user = await this.dataSource.getRepository(User).findOneBy({ email });
-    if (!user) return burnPasswordCheck(password).then(() => null);
+    if (!user || (isDemoAccount(user) && !this.env.demoMode)) return burnPasswordCheck(password).then(() => null);
     return (await verifyPassword(password, user.passwordHash)) ? user : null;
   }
 
+  /** The user behind a session, or null when the account is gone or may not sign in now. */
   async findUser(id: string): Promise<User | null> {
-    return this.dataSource.getRepository(User).findOneBy({ id });
+    const user = await this.dataSource.getRepository(User).findOneBy({ id });
+    return user && !(isDemoAccount(user) && !this.env.demoMode) ? user : null;
+  }
+
+  /** Ends every session of the user begun before now; returns the new epoch. */
+  async endSessions(userId: string, manager: EntityManager = this.dataSource.manager): Promise<number> {
+    await manager.increment(User, { id: userId }, 'sessionEpoch', 1);
+    return (await manager.findOneByOrFail(User, { id: userId })).sessionEpoch;
   }
 
   async me(user: SessionUser, activeTeamId: string | undefined, csrfToken: string): Promise<Me> {
@@ -87,13 +99,13 @@ export class AuthService {
     }));
     const active =
       teams.find((t) => t.teamId === activeTeamId) ?? teams.find((t) => !t.personal) ?? teams[0] ?? null;
-    return { user, teams, activeTeamId: active?.teamId ?? null, csrfToken };
+    return { user: { id: user.id, email: user.email, name: user.name, unit: user.unit }, teams, activeTeamId: active?.teamId ?? null, csrfToken, sessionLimits: { idleSeconds: this.env.SESSION_IDLE_SECONDS, absoluteSeconds: this.env.SESSION_ABSOLUTE_SECONDS } };
   }
 
   /** Always succeeds from the caller's view, so it never reveals whether an e-mail has an account. */
   async requestPasswordReset(email: string): Promise<void> {
     const user = await this.dataSource.getRepository(User).findOneBy({ email });
-    if (!user) return;
+    if (!user || (isDemoAccount(user) && !this.env.demoMode)) return;
     const { token, hash } = newToken();
     await this.dataSource.getRepository(PasswordReset).save({
       userId: user.id,
@@ -128,20 +140,27 @@ export class AuthService {
         .execute();
       if (spent.affected !== 1) throw tokenInvalid('password reset');
       await manager.update(User, { id: reset.userId }, { passwordHash });
+      // Whoever knew the old password is signed out everywhere (ASVS 4.0 §3.3.3).
+      await this.endSessions(reset.userId, manager);
       // Any other outstanding reset links for this account stop working too.
       await manager.update(PasswordReset, { userId: reset.userId, usedAt: IsNull() }, { usedAt: new Date() });
       return reset.user!;
     });
   }
 
-  async changePassword(userId: string, current: string, next: string): Promise<void> {
+  /** Sets a new password and ends every session but the caller's; returns the new epoch. */
+  async changePassword(userId: string, current: string, next: string): Promise<number> {
     const user = await this.dataSource.getRepository(User).findOneByOrFail({ id: userId });
     if (!(await verifyPassword(current, user.passwordHash))) {
       throw new AppError(400, ERROR_CODES.validation, 'Your current password is not right.', {
         currentPassword: 'This is not your current password',
       });
     }
-    await this.dataSource.getRepository(User).update({ id: userId }, { passwordHash: await hashPassword(next) });
+    const passwordHash = await hashPassword(next);
+    return inTransaction(this.dataSource, async (manager) => {
+      await manager.update(User, { id: userId }, { passwordHash });
+      return this.endSessions(userId, manager);
+    });
   }
 
   async updateAccount(userId: string, changes: { name?: string; unit?: 'in' | 'mm' }): Promise<User> {

@@ -18,6 +18,14 @@ export class User {
   @Column({ type: 'enum', enum: ['in', 'mm'], default: 'in' })
   unit!: LengthUnit;
 
+  /** Set only on the demo seeder's accounts ("demo:owner"); they sign in only in demo mode. */
+  @Column({ name: 'seed_key', type: 'varchar', length: 40, nullable: true, unique: true })
+  seedKey!: string | null;
+
+  /** Moves on at every password change, reset or "sign out everywhere"; older sessions end. */
+  @Column({ name: 'session_epoch', type: 'int', unsigned: true, default: 0 })
+  sessionEpoch!: number;
+
   @CreateDateColumn({ name: 'created_at', type: 'datetime', precision: 3 })
   createdAt!: Date;
 

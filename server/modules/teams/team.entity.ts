@@ -12,6 +12,10 @@ export class Team {
   @Column({ type: 'boolean', default: false })
   personal!: boolean;
 
+  /** Set only on rows the demo seeder made ("demo:shop"), so it never mistakes a user's team for its own. */
+  @Column({ name: 'seed_key', type: 'varchar', length: 40, nullable: true, unique: true })
+  seedKey!: string | null;
+
   @CreateDateColumn({ name: 'created_at', type: 'datetime', precision: 3 })
   createdAt!: Date;
 

@@ -16,6 +16,7 @@ import { route } from '../../middleware/validate';
 import type { AuthService } from '../auth/auth.service';
 import { toSessionUser } from '../auth/auth.service';
 import type { TeamsService } from './teams.service';
+import { signInSession } from '../auth/session-guard';
 
 type Deps = {
   dataSource: DataSource;
@@ -119,11 +120,7 @@ export function teamsRouter({ dataSource, teams, auth, csrfToken }: Deps): Route
     route({ params: tokenParamSchema, body: acceptInviteSchema }, async ({ params, body }, req) => {
       const wasSignedIn = Boolean(req.user);
       const { user, teamId } = await teams.acceptInvite(params.token, req.user, body);
-      if (!wasSignedIn) {
-        await new Promise<void>((resolve, reject) =>
-          req.login(toSessionUser(user), (error) => (error ? reject(error) : resolve())),
-        );
-      }
+      if (!wasSignedIn) await signInSession(req, toSessionUser(user));
       req.session.activeTeamId = teamId;
       return auth.me(toSessionUser(user), teamId, csrfToken(req, !wasSignedIn));
     }),

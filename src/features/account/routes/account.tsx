@@ -6,7 +6,7 @@ import { createTeamSchema } from '../../../../shared/schemas/team';
 import { Button, FormMessage, SelectField, TextField } from '../../../components/form';
 import { PageTitle } from '../../../components/page-title';
 import { useZodForm } from '../../../hooks/use-zod-form';
-import { useChangePassword, useMe, useUpdateAccount } from '../../auth/api/me';
+import { useChangePassword, useMe, useSignOut, useUpdateAccount } from '../../auth/api/me';
 import { useCreateTeam } from '../../team/api/team';
 import { teamPath } from '../../../app/paths';
 
@@ -22,6 +22,7 @@ export function AccountRoute() {
         <ProfileForm name={me.user.name} unit={me.user.unit} email={me.user.email} />
         <PasswordForm />
         <NewTeamForm />
+        <SessionsPanel limits={me.sessionLimits} />
       </div>
     </>
   );
@@ -64,7 +65,7 @@ function PasswordForm() {
     <form onSubmit={onSubmit} noValidate className="flex flex-col gap-3 rounded-sticker border-2 border-paper-edge bg-white p-5">
       <h2 className="text-lg font-extrabold">Password</h2>
       <FormMessage>{form.formError}</FormMessage>
-      {change.isSuccess && <FormMessage tone="ok">Password changed.</FormMessage>}
+      {change.isSuccess && <FormMessage tone="ok">Password changed. You stay signed in here; every other device is signed out.</FormMessage>}
       <TextField label="Current password" type="password" autoComplete="current-password" {...form.bind('currentPassword')} />
       <TextField label="New password" type="password" autoComplete="new-password" hint="At least 10 characters." {...form.bind('newPassword')} />
       <Button type="submit" variant="quiet" busy={change.isPending}>Change password</Button>
@@ -88,5 +89,28 @@ function NewTeamForm() {
       <TextField label="Team name" {...form.bind('name')} />
       <Button type="submit" variant="quiet" busy={create.isPending}>Create team</Button>
     </form>
+  );
+}
+
+const days = (seconds: number) => {
+  const d = Math.round(seconds / 86400);
+  return d >= 1 ? `${d} day${d === 1 ? '' : 's'}` : `${Math.max(1, Math.round(seconds / 3600))} hours`;
+};
+
+function SessionsPanel({ limits }: { limits: { idleSeconds: number; absoluteSeconds: number } }) {
+  const signOut = useSignOut(true);
+  const navigate = useNavigate();
+  return (
+    <section aria-labelledby="sessions-heading" className="flex flex-col gap-3 rounded-sticker border-2 border-paper-edge bg-white p-5">
+      <h2 id="sessions-heading" className="text-lg font-extrabold">Where you are signed in</h2>
+      <p className="text-sm text-ink-soft">
+        A session ends after {days(limits.idleSeconds)} without use and {days(limits.absoluteSeconds)} after signing in. Left signed in
+        on a shop or market computer? End every session, this one included.
+      </p>
+      <FormMessage>{signOut.error?.message}</FormMessage>
+      <Button type="button" variant="quiet" busy={signOut.isPending} onClick={() => signOut.mutate(undefined, { onSuccess: () => navigate('/sign-in') })}>
+        Sign out everywhere
+      </Button>
+    </section>
   );
 }

@@ -34,10 +34,11 @@ function useSessionMutation<I>(fn: (input: I) => Promise<unknown>) {
 export const useSignIn = () => useSessionMutation((input: SignInInput) => api('POST', '/auth/sign-in', input));
 export const useSignUp = () => useSessionMutation((input: SignUpInput) => api('POST', '/auth/sign-up', input));
 
-export function useSignOut() {
+/** Signs out here (`everywhere`: every device, ending every session of the account). */
+export function useSignOut(everywhere = false) {
   const client = useQueryClient();
   return useMutation({
-    mutationFn: () => api<void>('POST', '/auth/sign-out'),
+    mutationFn: () => api<void>('POST', everywhere ? '/me/sign-out-everywhere' : '/auth/sign-out'),
     onSuccess: () => {
       setCsrfToken(null);
       client.clear();

@@ -4,29 +4,28 @@
 import sharp from 'sharp';
 import type { DataSource } from 'typeorm';
 import { In } from 'typeorm';
-import { DEMO_SHOP } from '../../scripts/demo-accounts';
-import { arrange } from '../../shared/arrange/nester';
-import type { ArrangeItem } from '../../shared/arrange/nester';
-import { printRunInputSchema } from '../../shared/schemas/shop';
-import type { Piece, SheetDocument } from '../../shared/sheet/document';
-import { DEFAULT_PREFLIGHT_LIMITS } from '../../shared/sheet/preflight';
-import { inchToMm } from '../../shared/units';
-import { env } from '../config/env';
-import { renderPrintImage } from '../engine/export/print-image';
-import { OutlinePool } from '../engine/outline/pool';
-import { ArtItem } from '../modules/art/art-item.entity';
-import { User } from '../modules/auth/user.entity';
-import type { StoredOutline } from '../modules/outlines/outline.service';
-import { OutlineService } from '../modules/outlines/outline.service';
-import { CostingService } from '../modules/shop/costing.service';
-import { MachinesService } from '../modules/shop/machines.service';
-import { RunsService } from '../modules/shop/runs.service';
-import { ANALYSIS_DPI, SheetAnalysisService, toExportPiece } from '../modules/shop/sheet-analysis.service';
-import { StockService } from '../modules/shop/stock.service';
-import { ProfilesService } from '../modules/sheets/profiles.service';
-import { SheetsService } from '../modules/sheets/sheets.service';
-import { Team } from '../modules/teams/team.entity';
-import type { Storage } from '../storage/storage';
+import { demoTeam, demoUserKey } from './accounts';
+import { arrange } from '../../../shared/arrange/nester';
+import type { ArrangeItem } from '../../../shared/arrange/nester';
+import { printRunInputSchema } from '../../../shared/schemas/shop';
+import type { Piece, SheetDocument } from '../../../shared/sheet/document';
+import { DEFAULT_PREFLIGHT_LIMITS } from '../../../shared/sheet/preflight';
+import { inchToMm } from '../../../shared/units';
+import { env } from '../../config/env';
+import { renderPrintImage } from '../../engine/export/print-image';
+import { OutlinePool } from '../../engine/outline/pool';
+import { ArtItem } from '../../modules/art/art-item.entity';
+import { User } from '../../modules/auth/user.entity';
+import type { StoredOutline } from '../../modules/outlines/outline.service';
+import { OutlineService } from '../../modules/outlines/outline.service';
+import { CostingService } from '../../modules/shop/costing.service';
+import { MachinesService } from '../../modules/shop/machines.service';
+import { RunsService } from '../../modules/shop/runs.service';
+import { ANALYSIS_DPI, SheetAnalysisService, toExportPiece } from '../../modules/shop/sheet-analysis.service';
+import { StockService } from '../../modules/shop/stock.service';
+import { ProfilesService } from '../../modules/sheets/profiles.service';
+import { SheetsService } from '../../modules/sheets/sheets.service';
+import type { Storage } from '../../storage/storage';
 
 type DemoSheet = {
   name: string;
@@ -72,7 +71,7 @@ const BORDER_MM = inchToMm(0.125);
 
 /** Adds the demo sheets and their runs when the demo shop has none; returns how many rows it added. */
 export async function seedSheets(dataSource: DataSource, storage: Storage): Promise<number> {
-  const team = await dataSource.getRepository(Team).findOneByOrFail({ name: DEMO_SHOP, personal: false });
+  const team = await demoTeam(dataSource);
   // A demo sheet counts as there once saved with its pieces (version > 1); an interrupted seed's empty one is filled in.
   const present: Array<{ id: string; name: string; version: number }> = await dataSource.query('SELECT id, name, version FROM sheets WHERE team_id = ?', [team.id]);
   const todo = SHEETS.filter((spec) => !present.some((p) => p.name === spec.name && p.version > 1));
@@ -86,7 +85,7 @@ export async function seedSheets(dataSource: DataSource, storage: Storage): Prom
     const machines = new MachinesService(dataSource);
     const runs = new RunsService(dataSource, storage, sheets, stock, machines, analysis);
     const costing = new CostingService(dataSource, sheets, analysis);
-    const people = new Map((await dataSource.getRepository(User).findBy({ email: In(['owner@demo.test', 'member@demo.test']) })).map((u) => [u.email, u.id]));
+    const people = new Map((await dataSource.getRepository(User).findBy({ seedKey: In(['owner@demo.test', 'member@demo.test'].map(demoUserKey)) })).map((u) => [u.email, u.id]));
     const shelf = await stock.list(team.id);
     const bench = await machines.list(team.id);
     const printer = bench.find((m) => m.kind === 'printer') ?? null;

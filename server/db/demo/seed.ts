@@ -1,22 +1,22 @@
 import type { DataSource } from 'typeorm';
-import { DEMO_ACCOUNTS, DEMO_PASSWORD, DEMO_SHOP } from '../../scripts/demo-accounts';
-import { DEMO_PACKS, renderDemoArt } from '../../scripts/demo-art';
-import type { Storage } from '../storage/storage';
-import { ArtService } from '../modules/art/art.service';
-import { ArtItem } from '../modules/art/art-item.entity';
-import { Collection } from '../modules/collections/collection.entity';
-import { CollectionsService } from '../modules/collections/collections.service';
-import { hashPassword } from '../modules/auth/passwords';
-import { User } from '../modules/auth/user.entity';
-import { Membership } from '../modules/teams/membership.entity';
-import { Team } from '../modules/teams/team.entity';
-import { createUserWithTeam } from '../modules/auth/auth.service';
-import { stockInputSchema } from '../../shared/schemas/shop';
-import { saveShopSettings } from '../modules/shop/costing.service';
-import { MachinesService } from '../modules/shop/machines.service';
-import { StockService } from '../modules/shop/stock.service';
-import { seedSheets } from './seed-demo-sheets';
-import { inTransaction } from './transaction';
+import { DEMO_ACCOUNTS, DEMO_PASSWORD, DEMO_SHOP, DEMO_TEAM_KEY, demoTeam, demoUserKey } from './accounts';
+import { DEMO_PACKS, renderDemoArt } from './art';
+import type { Storage } from '../../storage/storage';
+import { ArtService } from '../../modules/art/art.service';
+import { ArtItem } from '../../modules/art/art-item.entity';
+import { Collection } from '../../modules/collections/collection.entity';
+import { CollectionsService } from '../../modules/collections/collections.service';
+import { hashPassword } from '../../modules/auth/passwords';
+import { User } from '../../modules/auth/user.entity';
+import { Membership } from '../../modules/teams/membership.entity';
+import { Team } from '../../modules/teams/team.entity';
+import { createUserWithTeam } from '../../modules/auth/auth.service';
+import { stockInputSchema } from '../../../shared/schemas/shop';
+import { saveShopSettings } from '../../modules/shop/costing.service';
+import { MachinesService } from '../../modules/shop/machines.service';
+import { StockService } from '../../modules/shop/stock.service';
+import { seedSheets } from './sheets';
+import { inTransaction } from '../transaction';
 
 /** Adds whatever part of the demo shop is missing; returns how many rows it added. */
 export async function seedDemo(dataSource: DataSource, storage?: Storage): Promise<number> {
@@ -29,10 +29,10 @@ export async function seedDemo(dataSource: DataSource, storage?: Storage): Promi
 
 /** The invented shop's shelf and bench: two stocks, a printer, a cutter with its blade, shop rates. */
 async function seedShop(dataSource: DataSource): Promise<number> {
-  const team = await dataSource.getRepository(Team).findOneByOrFail({ name: DEMO_SHOP, personal: false });
+  const team = await demoTeam(dataSource);
   const [{ n }] = await dataSource.query('SELECT COUNT(*) AS n FROM stock_items WHERE team_id = ?', [team.id]);
   if (Number(n) > 0) return 0;
-  const owner = await dataSource.getRepository(User).findOneByOrFail({ email: 'owner@demo.test' });
+  const owner = await dataSource.getRepository(User).findOneByOrFail({ seedKey: demoUserKey('owner@demo.test') });
   const stock = new StockService(dataSource);
   const machines = new MachinesService(dataSource);
   const blank = { colour: '', other: '' };
@@ -47,8 +47,8 @@ async function seedShop(dataSource: DataSource): Promise<number> {
 
 /** The two invented clip-art packs, each in its own shared collection, uploaded by the admin. */
 async function seedArt(dataSource: DataSource, storage: Storage): Promise<number> {
-  const team = await dataSource.getRepository(Team).findOneByOrFail({ name: DEMO_SHOP, personal: false });
-  const admin = await dataSource.getRepository(User).findOneByOrFail({ email: 'admin@demo.test' });
+  const team = await demoTeam(dataSource);
+  const admin = await dataSource.getRepository(User).findOneByOrFail({ seedKey: demoUserKey('admin@demo.test') });
   const art = new ArtService(dataSource, storage, 50_000_000);
   const collections = new CollectionsService(dataSource, storage);
   let added = 0;
@@ -74,19 +74,26 @@ async function seedArt(dataSource: DataSource, storage: Storage): Promise<number
   return added;
 }
 
+/**
+ * The demo team and its four accounts, each marked as the seeder's. An account that exists with a
+ * demo e-mail but without the marker belongs to someone else: it is left alone and not added.
+ */
 async function seedPeople(dataSource: DataSource): Promise<number> {
   return inTransaction(dataSource, async (manager) => {
     let added = 0;
-    let team = await manager.findOneBy(Team, { name: DEMO_SHOP, personal: false });
+    let team = await manager.findOneBy(Team, { seedKey: DEMO_TEAM_KEY });
     if (!team) {
-      team = await manager.save(manager.create(Team, { name: DEMO_SHOP, personal: false }));
+      team = await manager.save(manager.create(Team, { name: DEMO_SHOP, personal: false, seedKey: DEMO_TEAM_KEY }));
       added++;
     }
     const passwordHash = await hashPassword(DEMO_PASSWORD);
     for (const account of DEMO_ACCOUNTS) {
+      const seedKey = demoUserKey(account.email);
       let user = await manager.findOneBy(User, { email: account.email });
+      if (user && user.seedKey !== seedKey) continue;
       if (!user) {
         user = await createUserWithTeam(manager, account, passwordHash);
+        await manager.update(User, { id: user.id }, { seedKey });
         added += 3;
       }
       const membership = await manager.findOneBy(Membership, { teamId: team.id, userId: user.id });
@@ -96,5 +103,6 @@ async function seedPeople(dataSource: DataSource): Promise<number> {
       }
     }
     return added;
-  });
+    // A second seeder running at the same moment (two starts, or a test) made the same rows: look again.
+  }, { retryIf: (error) => (error as { code?: string }).code === 'ER_DUP_ENTRY' });
 }
