@@ -14,6 +14,7 @@ import { authRouter, SESSION_COOKIE_NAME } from './modules/auth/auth.router';
 import { sessionGuard } from './modules/auth/session-guard';
 import { createPassport } from './modules/auth/passport';
 import { SignInThrottle } from './modules/auth/throttle';
+import { limitRules, RateLimits } from './lib/rate-limits';
 import { outboxRouter } from './modules/dev/outbox.router';
 import { healthRouter } from './modules/health/health.router';
 import { TeamsService } from './modules/teams/teams.service';
@@ -52,6 +53,8 @@ export type AppOptions = {
   extraApi?: (api: express.Router) => void;
   /** Folder with the built client; served with a fallback to index.html for client routes. */
   clientDir?: string;
+  /** Separates rate-limit counters of apps sharing one database (tests give each app its own). */
+  rateLimitPrefix?: string;
 };
 
 export type SheetsmithApp = { app: express.Express; close: () => Promise<void> };
@@ -66,6 +69,7 @@ export function createApp({
   packLimits,
   extraApi,
   clientDir,
+  rateLimitPrefix = 'ss',
 }: AppOptions): SheetsmithApp {
   const app = express();
   app.disable('x-powered-by');
@@ -92,7 +96,8 @@ export function createApp({
   const auth = new AuthService(dataSource, mailer, env);
   const teams = new TeamsService(dataSource, mailer, env);
   const passport = createPassport(auth);
-  const throttle = new SignInThrottle(env);
+  const throttle = new SignInThrottle(dataSource, env, rateLimitPrefix);
+  const limits = new RateLimits(dataSource, limitRules(env), rateLimitPrefix);
   const ownPool = !outlinePool;
   const pool =
     outlinePool ??
@@ -131,8 +136,8 @@ export function createApp({
   api.use(healthRouter(dataSource));
   // Every state-changing route needs the session's token in X-CSRF-Token (GET/HEAD/OPTIONS are exempt).
   api.use(csrfSynchronisedProtection);
-  api.use(authRouter({ auth, passport, throttle, csrfToken: generateToken }));
-  api.use(teamsRouter({ dataSource, teams, auth, csrfToken: generateToken }));
+  api.use(authRouter({ auth, passport, throttle, limits, csrfToken: generateToken }));
+  api.use(teamsRouter({ dataSource, teams, auth, limits, csrfToken: generateToken }));
   api.use(artRouter({ dataSource, art, sheets, maxBytes: env.ART_MAX_BYTES }));
   api.use(sheetsRouter({ dataSource, sheets, profiles, exports: exportsService, costing }));
   api.use(shopRouter({ dataSource, sheets, stock, machines, runs, costing, analysis }));

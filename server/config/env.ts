@@ -39,6 +39,12 @@ const envSchema = z.object({
   LOGIN_MAX_FAILURES: z.coerce.number().int().min(1).default(5),
   LOGIN_BLOCK_SECONDS: z.coerce.number().int().min(1).default(900),
   BCRYPT_COST: z.coerce.number().int().min(4).max(15).default(12),
+  /** New accounts per client address per hour. */
+  LIMIT_SIGNUPS_PER_HOUR: z.coerce.number().int().min(1).default(10),
+  /** Password-reset e-mails per e-mail address per hour (five times as many per client address). */
+  LIMIT_RESETS_PER_HOUR: z.coerce.number().int().min(1).default(3),
+  /** Invite e-mails per account per hour (three times as many per team per day; 3 per recipient per day). */
+  LIMIT_INVITES_PER_HOUR: z.coerce.number().int().min(1).default(20),
   SMTP_HOST: z.string().default(''),
   SMTP_PORT: z.coerce.number().int().default(587),
   SMTP_USER: z.string().default(''),

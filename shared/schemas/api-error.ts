@@ -21,5 +21,6 @@ export const ERROR_CODES = {
   badCredentials: 'bad_credentials',
   tokenInvalid: 'token_invalid',
   payloadTooLarge: 'payload_too_large',
+  unavailable: 'unavailable',
   internal: 'internal_error',
 } as const;

@@ -45,7 +45,8 @@ export async function scratchDatabase(label: string): Promise<{ db: DataSource; 
 }
 
 export function testApp(dataSource: DataSource, overrides: Partial<Env> = {}, extra: Partial<AppOptions> = {}) {
-  return createApp({ env: { ...baseEnv, ...overrides }, dataSource, ...extra });
+  // Each app counts rate limits under its own prefix, so test files sharing a database do not add up.
+  return createApp({ env: { ...baseEnv, ...overrides }, dataSource, rateLimitPrefix: unique('t'), ...extra });
 }
 
 /**

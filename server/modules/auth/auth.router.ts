@@ -18,6 +18,7 @@ import { route } from '../../middleware/validate';
 import type { AuthService, SessionUser } from './auth.service';
 import { toSessionUser, tokenInvalid } from './auth.service';
 import type { SignInThrottle } from './throttle';
+import type { RateLimits } from '../../lib/rate-limits';
 import { signInSession } from './session-guard';
 
 declare module 'express-session' {
@@ -30,6 +31,7 @@ type Deps = {
   auth: AuthService;
   passport: Passport;
   throttle: SignInThrottle;
+  limits: RateLimits;
   csrfToken: (req: Request, overwrite?: boolean) => string;
 };
 
@@ -49,7 +51,7 @@ function authenticate(passport: Passport, req: Request, res: Response, next: Nex
   });
 }
 
-export function authRouter({ auth, passport, throttle, csrfToken }: Deps): Router {
+export function authRouter({ auth, passport, throttle, limits, csrfToken }: Deps): Router {
   const router = Router();
 
   router.get('/auth/csrf', (req, res) => {
@@ -59,6 +61,7 @@ export function authRouter({ auth, passport, throttle, csrfToken }: Deps): Route
   router.post(
     '/auth/sign-up',
     route({ body: signUpSchema }, async ({ body }, req) => {
+      await limits.consume({ signUpPerAddress: req.ip ?? 'unknown' });
       const user = await auth.signUp(body);
       await logIn(req, toSessionUser(user));
       return auth.me(toSessionUser(user), undefined, csrfToken(req, true));
@@ -95,7 +98,9 @@ export function authRouter({ auth, passport, throttle, csrfToken }: Deps): Route
 
   router.post(
     '/auth/password-reset',
-    route({ body: resetRequestSchema }, async ({ body }) => {
+    route({ body: resetRequestSchema }, async ({ body }, req) => {
+      // Counted whether or not the address has an account, so a refusal reveals nothing.
+      await limits.consume({ resetPerEmail: body.email, resetPerAddress: req.ip ?? 'unknown' });
       await auth.requestPasswordReset(body.email);
       return { ok: true, message: 'If that e-mail has an account, a reset link is on its way.' };
     }),

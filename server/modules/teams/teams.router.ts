@@ -17,17 +17,19 @@ import type { AuthService } from '../auth/auth.service';
 import { toSessionUser } from '../auth/auth.service';
 import type { TeamsService } from './teams.service';
 import { signInSession } from '../auth/session-guard';
+import type { RateLimits } from '../../lib/rate-limits';
 
 type Deps = {
   dataSource: DataSource;
   teams: TeamsService;
   auth: AuthService;
+  limits: RateLimits;
   csrfToken: (req: Request, overwrite?: boolean) => string;
 };
 
 const actorOf = (req: Request) => ({ userId: req.user!.id, teamId: req.membership!.teamId, role: req.membership!.role });
 
-export function teamsRouter({ dataSource, teams, auth, csrfToken }: Deps): Router {
+export function teamsRouter({ dataSource, teams, auth, limits, csrfToken }: Deps): Router {
   const router = Router();
   const scoped = teamScope(dataSource);
 
@@ -74,6 +76,7 @@ export function teamsRouter({ dataSource, teams, auth, csrfToken }: Deps): Route
     scoped,
     requirePermission('team.members'),
     route({ params: teamParamsSchema, body: createInviteSchema }, async ({ body }, req, res) => {
+      await limits.consume({ invitePerAccount: req.user!.id, invitePerTeam: req.membership!.teamId, invitePerRecipient: body.email });
       const invite = await teams.invite(actorOf(req), body);
       res.status(201);
       return { id: invite.id, email: invite.email, role: invite.role, expiresAt: invite.expiresAt.toISOString() };
