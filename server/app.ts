@@ -9,6 +9,7 @@ import type { Env } from './config/env';
 import type { Mailer } from './mail/mailer';
 import { createMailer } from './mail/mailer';
 import { apiNotFound, errorHandler } from './middleware/errors';
+import { noStore, securityHeaders } from './middleware/security-headers';
 import { AuthService } from './modules/auth/auth.service';
 import { authRouter, SESSION_COOKIE_NAME } from './modules/auth/auth.router';
 import { sessionGuard } from './modules/auth/session-guard';
@@ -74,6 +75,7 @@ export function createApp({
   const app = express();
   app.disable('x-powered-by');
   if (env.COOKIE_SECURE) app.set('trust proxy', 1);
+  app.use(securityHeaders(env));
 
   const MySQLStore = MySQLStoreFactory(session as never);
   const store = new MySQLStore({
@@ -118,6 +120,7 @@ export function createApp({
   const costing = new CostingService(dataSource, sheets, analysis);
 
   const api = express.Router();
+  api.use(noStore);
   api.use(express.json({ limit: '1mb' }));
   api.use(
     session({

@@ -5,7 +5,7 @@ import path from 'node:path';
 import { afterAll, beforeAll } from 'vitest';
 import { chromium } from 'playwright-core';
 import type { Browser, Page } from 'playwright-core';
-import { TEST_PASSWORD, openDatabase } from './app';
+import { TEST_PASSWORD, openDatabase, unique } from './app';
 import type { DataSource } from 'typeorm';
 import { createApp } from '../../server/app';
 import { env } from '../../server/config/env';
@@ -38,7 +38,7 @@ export function launchChromium(): Promise<Browser> {
 
 /** The real app (API + built client) listening on a free loopback port. */
 export async function serveApp(dataSource: DataSource) {
-  const sheetsmith = createApp({ env, dataSource, clientDir: path.resolve('dist') });
+  const sheetsmith = createApp({ env, dataSource, clientDir: path.resolve('dist'), rateLimitPrefix: unique('e2e') });
   const server: Server = await new Promise((resolve) => {
     const s = sheetsmith.app.listen(0, '127.0.0.1', () => resolve(s));
   });
@@ -65,17 +65,22 @@ export async function screenshot(page: Page, name: string) {
  * after the file. `prepare` runs on the database before the app starts (e.g. seeding).
  */
 export function useBrowserApp(prepare?: (db: DataSource) => Promise<unknown>) {
-  const t = {} as { db: DataSource; served: Awaited<ReturnType<typeof serveApp>>; browser: Browser };
+  const t = {} as { db: DataSource; served: Awaited<ReturnType<typeof serveApp>>; browser: Browser; cspViolations: string[] };
   beforeAll(async () => {
     t.db = await openDatabase();
     await prepare?.(t.db);
     t.served = await serveApp(t.db);
     t.browser = await launchChromium();
+    t.cspViolations = watchContentSecurityPolicy(t.browser);
   });
   afterAll(async () => {
+    // Every screen a browser test opened ran under the app's CSP; a blocked script, style, font,
+    // image or worker would have broken it for real users.
+    const violations = t.cspViolations ?? [];
     await t.browser?.close();
     await t.served?.close();
     await t.db?.destroy();
+    if (violations.length > 0) throw new Error(`Content Security Policy blocked something:\n${violations.join('\n')}`);
   });
   return t;
 }
@@ -87,4 +92,30 @@ export async function signInThroughForm(page: Page, baseUrl: string, email: stri
   await page.getByLabel('Password').fill(password);
   await page.getByRole('button', { name: 'Sign in' }).click();
   await page.waitForURL(/\/t\/\d+\/library$/);
+}
+
+/** Collects every CSP violation the browser reports on any page of `browser`. */
+export function watchContentSecurityPolicy(browser: Browser): string[] {
+  const violations: string[] = [];
+  const watched = new WeakSet<Page>();
+  const watch = (page: Page) => {
+    if (watched.has(page)) return;
+    watched.add(page);
+    page.on('console', (message) => {
+      if (/Content Security Policy/i.test(message.text())) violations.push(`${page.url()}: ${message.text()}`);
+    });
+  };
+  const newContext = browser.newContext.bind(browser);
+  browser.newContext = async (options) => {
+    const context = await newContext(options);
+    context.on('page', watch);
+    return context;
+  };
+  const newPage = browser.newPage.bind(browser);
+  browser.newPage = async (options) => {
+    const page = await newPage(options);
+    watch(page);
+    return page;
+  };
+  return violations;
 }
