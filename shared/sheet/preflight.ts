@@ -5,9 +5,10 @@ import { formatLength, inchToMm } from '../units';
 import type { Piece, SheetDocument } from './document';
 import type { PieceOutline } from './placement';
 import { cutLineDistance, placeCutLine } from './placement';
+import { pieceProblems } from './bounds';
 
 export type Severity = 'error' | 'warning' | 'notice';
-export type FindingCode = 'outside-print-area' | 'overlap' | 'too-close' | 'outside-safe-margin' | 'too-small' | 'low-resolution' | 'narrow-neck' | 'personal-licence' | 'border-without-bleed';
+export type FindingCode = 'out-of-bounds' | 'outside-print-area' | 'overlap' | 'too-close' | 'outside-safe-margin' | 'too-small' | 'low-resolution' | 'narrow-neck' | 'personal-licence' | 'border-without-bleed';
 
 /** One preflight finding: how bad, the pieces it concerns and a plain explanation. */
 export type Finding = { code: FindingCode; severity: Severity; pieceIds: string[]; message: string; distanceMm?: number; dpi?: number };
@@ -47,8 +48,15 @@ export function preflight(input: PreflightInput): Finding[] {
   const placed: Array<{ piece: Piece; ring: Ring }> = [];
   const { width, height } = doc.printArea;
 
-  for (const piece of doc.pieces) {
+  for (const [index, piece] of doc.pieces.entries()) {
     const name = input.name(piece);
+    // A piece outside the physical bounds (a document saved before they were checked) is named and
+    // left out of every other check: no geometry is computed for it.
+    const problems = pieceProblems(doc, piece, index);
+    if (problems.length > 0) {
+      for (const problem of problems) findings.push({ code: 'out-of-bounds', severity: 'error', pieceIds: [piece.id], message: problem.message(unit, name) });
+      continue;
+    }
     const outline = outlines.get(piece.id);
     if (input.forSale && input.licenceOf(piece) === 'personal') {
       findings.push({ code: 'personal-licence', severity: 'error', pieceIds: [piece.id], message: `${name} is licensed for personal use only, and this sheet is marked for sale. Use art with a commercial licence or unmark the sheet.` });

@@ -1,6 +1,6 @@
 import { Router } from 'express';
 import type { Request } from 'express';
-import multer from 'multer';
+import { PROOF_LIMITS, singleUpload } from '../../middleware/uploads';
 import type { DataSource } from 'typeorm';
 import { artListQuerySchema, artParamsSchema, artUpdateSchema, bulkActionSchema, uploadFieldsSchema } from '../../../shared/schemas/library';
 import { teamParamsSchema } from '../../../shared/schemas/team';
@@ -17,8 +17,8 @@ const actorOf = (req: Request) => ({ userId: req.user!.id, teamId: req.membershi
 export function artRouter({ dataSource, art, sheets, maxBytes }: { dataSource: DataSource; art: ArtService; sheets: SheetsService; maxBytes: number }): Router {
   const router = Router();
   const scoped = teamScope(dataSource);
-  const upload = multer({ storage: multer.memoryStorage(), limits: { fileSize: maxBytes, files: 1, fields: 20 } });
-  const proofUpload = multer({ storage: multer.memoryStorage(), limits: { fileSize: 10 * 1024 * 1024, files: 1 } });
+  const upload = singleUpload('file', { maxBytes, fields: 20, fieldBytes: 16 * 1024 });
+  const proofUpload = singleUpload('file', PROOF_LIMITS);
   const view = requirePermission('team.view');
   const contribute = requirePermission('library.contribute');
 
@@ -29,7 +29,7 @@ export function artRouter({ dataSource, art, sheets, maxBytes }: { dataSource: D
     '/teams/:teamId/art',
     scoped,
     contribute,
-    upload.single('file'),
+    upload,
     route({ params: teamParamsSchema, body: uploadFieldsSchema }, async ({ body }, req, res) => {
       if (!req.file) throw new AppError(400, 'validation_failed', 'Attach an image or a zip in the "file" field.', { file: 'Choose a file to upload' });
       const results = await art.upload(actorOf(req), req.file, body);
@@ -88,7 +88,7 @@ export function artRouter({ dataSource, art, sheets, maxBytes }: { dataSource: D
     '/teams/:teamId/art/:artId/licence-proof',
     scoped,
     requirePermission('library.manage'),
-    proofUpload.single('file'),
+    proofUpload,
     route({ params: artParamsSchema }, ({ params }, req) => {
       if (!req.file) throw new AppError(400, 'validation_failed', 'Attach the proof file.', { file: 'Choose a file' });
       return art.attachProof(actorOf(req), params.artId, req.file);

@@ -1,5 +1,5 @@
 import { Router } from 'express';
-import multer from 'multer';
+import { PROOF_LIMITS, singleUpload } from '../../middleware/uploads';
 import type { DataSource } from 'typeorm';
 import { collectionCreateSchema, collectionOrderSchema, collectionParamsSchema, collectionUpdateSchema } from '../../../shared/schemas/library';
 import { teamParamsSchema } from '../../../shared/schemas/team';
@@ -12,7 +12,7 @@ export function collectionsRouter({ dataSource, collections }: { dataSource: Dat
   const router = Router();
   const scoped = teamScope(dataSource);
   const manage = requirePermission('library.manage');
-  const proofUpload = multer({ storage: multer.memoryStorage(), limits: { fileSize: 10 * 1024 * 1024, files: 1 } });
+  const proofUpload = singleUpload('file', PROOF_LIMITS);
 
   router.get('/teams/:teamId/collections', scoped, requirePermission('team.view'), route({ params: teamParamsSchema }, async (_i, req) => ({ collections: await collections.list(req.membership!.teamId) })));
   router.post(
@@ -30,7 +30,7 @@ export function collectionsRouter({ dataSource, collections }: { dataSource: Dat
     '/teams/:teamId/collections/:collectionId/licence-proof',
     scoped,
     manage,
-    proofUpload.single('file'),
+    proofUpload,
     route({ params: collectionParamsSchema }, ({ params }, req) => {
       if (!req.file) throw new AppError(400, 'validation_failed', 'Attach the proof file.', { file: 'Choose a file' });
       return collections.attachProof(req.membership!.teamId, params.collectionId, req.file);

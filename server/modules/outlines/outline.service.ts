@@ -6,7 +6,9 @@ import type { Piece } from '../../../shared/sheet/document';
 import { pieceOutlineQuery } from '../../../shared/sheet/placement';
 import type { OutlineResult } from '../../engine/outline/outline';
 import type { OutlinePool } from '../../engine/outline/pool';
-import { notFound } from '../../lib/errors';
+import { AppError, notFound } from '../../lib/errors';
+import type { Role } from '../../../shared/permissions';
+import { can } from '../../../shared/permissions';
 import type { Storage } from '../../storage/storage';
 import { ArtItem } from '../art/art-item.entity';
 import { OutlineCacheEntry } from './outline-cache.entity';
@@ -39,6 +41,15 @@ export function withArtBackground(item: ArtItem, options: OutlineOptions, explic
   return { ...options, backgroundTolerance: item.backgroundTolerance };
 }
 
+/**
+ * Who may make new outlines: anyone who can edit sheets or add art. A viewer reads only outlines
+ * already made, so a read-only role cannot make the server compute and store images at will.
+ */
+export type OutlineAccess = 'compute' | 'cached';
+export const outlineAccess = (role: Role | undefined): OutlineAccess => (can(role, 'sheets.edit') || can(role, 'library.contribute') ? 'compute' : 'cached');
+export const outlineNotMade = () =>
+  new AppError(409, 'outline_not_made', 'This outline has not been made yet: it is made when someone who can edit the sheet opens it.');
+
 export class OutlineService {
   private readonly inFlight = new Map<string, Promise<{ entry: OutlineCacheEntry; cached: boolean }>>();
 
@@ -49,12 +60,12 @@ export class OutlineService {
   ) {}
 
   /** The outline the editor requests for a placed piece: the same options, so the same cache entry. */
-  forPiece(art: ArtItem, piece: Pick<Piece, 'width' | 'border' | 'borderColour'>, minFeatureMm: number) {
-    return this.forArt(art, withArtBackground(art, outlineOptionsSchema.parse(pieceOutlineQuery(piece, minFeatureMm)), false));
+  forPiece(art: ArtItem, piece: Pick<Piece, 'width' | 'border' | 'borderColour'>, minFeatureMm: number, access: OutlineAccess = 'compute') {
+    return this.forArt(art, withArtBackground(art, outlineOptionsSchema.parse(pieceOutlineQuery(piece, minFeatureMm)), false), access);
   }
 
   /** The outline of a team's art at the given options, from cache when it was computed before. */
-  async forArt(art: ArtItem, options: OutlineOptions): Promise<{ key: string; cached: boolean; outline: StoredOutline }> {
+  async forArt(art: ArtItem, options: OutlineOptions, access: OutlineAccess = 'compute'): Promise<{ key: string; cached: boolean; outline: StoredOutline }> {
     const key = outlineCacheKey(art.sha256, options);
     const repo = this.dataSource.getRepository(OutlineCacheEntry);
     const hit = await repo.findOneBy({ cacheKey: key });
@@ -62,6 +73,7 @@ export class OutlineService {
       await repo.update({ id: hit.id }, { lastUsedAt: new Date() });
       return { key, cached: true, outline: JSON.parse(hit.resultJson) };
     }
+    if (access === 'cached') throw outlineNotMade();
     // Identical requests that arrive together share one computation.
     let job = this.inFlight.get(key);
     if (!job) {

@@ -7,7 +7,7 @@ import { requirePermission, teamScope } from '../../middleware/auth';
 import { route } from '../../middleware/validate';
 import type { ArtService } from '../art/art.service';
 import type { OutlineService } from './outline.service';
-import { withArtBackground } from './outline.service';
+import { outlineAccess, withArtBackground } from './outline.service';
 
 const artParams = z.object({ teamId: idSchema, artId: idSchema });
 const pieceParams = z.object({
@@ -32,7 +32,7 @@ export function outlinesRouter({ dataSource, art, outlines }: { dataSource: Data
       const teamId = req.membership!.teamId;
       const item = await art.find(teamId, params.artId);
       const options = withArtBackground(item, query, req.query.background !== undefined);
-      const { key, cached, outline } = await outlines.forArt(item, options);
+      const { key, cached, outline } = await outlines.forArt(item, options, outlineAccess(req.membership!.role));
       return {
         key,
         cached,

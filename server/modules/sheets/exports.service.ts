@@ -1,5 +1,6 @@
 import type { DataSource } from 'typeorm';
 import type { ExportJobView, ExportRequest } from '../../../shared/schemas/exports';
+import { documentProblems } from '../../../shared/sheet/bounds';
 import { migrateDocument } from '../../../shared/sheet/document';
 import { ExportInputError, exportSheet } from '../../engine/export/export';
 import { exportPiece } from '../../engine/export/prepare';
@@ -45,6 +46,9 @@ export class ExportsService {
     const sheet = await this.sheets.find(teamId, sheetId);
     const doc = migrateDocument(JSON.parse(sheet.document));
     if (doc.pieces.length === 0) throw new AppError(422, 'empty_sheet', 'This sheet has no pieces yet: add art before exporting.');
+    // Never printable, whatever the maker confirms: a piece far off the sheet or wider than it.
+    const outOfBounds = documentProblems(doc);
+    if (outOfBounds.length > 0) throw new AppError(422, 'out_of_bounds', `${outOfBounds[0].message(sheet.unit)} Fix it in the editor before exporting.`);
     const findings = await this.analysis.preflightFor(teamId, sheet, options.bleedMm);
     const errors = findings.filter((f) => f.severity === 'error');
     if (errors.length > 0 && !options.acceptErrors) {

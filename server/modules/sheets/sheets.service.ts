@@ -3,6 +3,10 @@ import { In } from 'typeorm';
 import type { Role } from '../../../shared/permissions';
 import type { SheetDocument } from '../../../shared/sheet/document';
 import { emptyDocument, migrateDocument } from '../../../shared/sheet/document';
+import { documentProblems, problemField } from '../../../shared/sheet/bounds';
+import type { LengthUnit } from '../../../shared/units';
+import sharp from 'sharp';
+import type { Metadata } from 'sharp';
 import type { SheetDetail, SheetSaveInput, SheetSummary } from '../../../shared/schemas/sheets';
 import { AppError, notFound, validationError } from '../../lib/errors';
 import type { Storage } from '../../storage/storage';
@@ -152,7 +156,7 @@ export class SheetsService {
    */
   async save(actor: Actor, id: string, input: SheetSaveInput): Promise<SheetDetail> {
     let thumbnailKey: string | undefined;
-    if (input.thumbnail) thumbnailKey = (await this.storage.put(Buffer.from(input.thumbnail.split(',')[1], 'base64'))).key;
+    if (input.thumbnail) thumbnailKey = (await this.storage.put(await cleanThumbnail(input.thumbnail))).key;
     await inTransaction(this.dataSource, async (manager) => {
       const sheet = await manager.getRepository(Sheet).findOne({ where: { id, teamId: actor.teamId }, lock: { mode: 'pessimistic_write' } });
       if (!sheet) throw notFound('That sheet');
@@ -165,6 +169,7 @@ export class SheetsService {
       for (const key of ['name', 'unit', 'status', 'forSale', 'notes', 'areaUsed'] as const) if (input[key] !== undefined) Object.assign(changes, { [key]: input[key] });
       if (thumbnailKey) changes.thumbnailKey = thumbnailKey;
       if (input.document) {
+        refuseOutOfBounds(input.document, input.unit ?? sheet.unit);
         changes.document = JSON.stringify(input.document);
         changes.pieceCount = input.document.pieces.length;
         await this.linkArt(manager, id, await this.checkArt(manager, actor.teamId, input.document));
@@ -206,5 +211,35 @@ export class SheetsService {
       [teamId, ...artIds],
     );
     return rows.map((r) => r.name);
+  }
+}
+
+/** A save whose pieces break the sheet's physical bounds is refused, every problem named in the sheet's unit. */
+export function refuseOutOfBounds(doc: SheetDocument, unit: LengthUnit) {
+  const problems = documentProblems(doc);
+  if (problems.length === 0) return;
+  const fields = Object.fromEntries(problems.map((p) => [problemField(p), p.message(unit)]));
+  const more = problems.length > 1 ? ` (and ${problems.length - 1} more problem${problems.length > 2 ? 's' : ''})` : '';
+  throw validationError(fields, `${problems[0].message(unit)}${more} Nothing was saved.`);
+}
+
+export const THUMBNAIL_MAX_PX = 1024;
+
+/** The editor's thumbnail must decode as a PNG of at most 1024 px a side; it is stored re-encoded, so nothing else rides along. */
+async function cleanThumbnail(dataUrl: string): Promise<Buffer> {
+  const bytes = Buffer.from(dataUrl.split(',')[1], 'base64');
+  const refuse = (why: string) => validationError({ thumbnail: why }, `The sheet preview was refused: ${why.toLowerCase()}. Nothing was saved.`);
+  let meta: Metadata;
+  try {
+    meta = await sharp(bytes, { limitInputPixels: THUMBNAIL_MAX_PX * THUMBNAIL_MAX_PX }).metadata();
+  } catch {
+    throw refuse('It is not a PNG image');
+  }
+  if (meta.format !== 'png') throw refuse('It is not a PNG image');
+  if (!meta.width || !meta.height || meta.width > THUMBNAIL_MAX_PX || meta.height > THUMBNAIL_MAX_PX) throw refuse(`It is larger than ${THUMBNAIL_MAX_PX} px a side`);
+  try {
+    return await sharp(bytes).png().toBuffer();
+  } catch {
+    throw refuse('It is not a PNG image');
   }
 }

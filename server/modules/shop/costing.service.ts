@@ -6,6 +6,7 @@ import { costPerSheet, sheetCost } from '../../../shared/production/cost';
 import { notFound } from '../../lib/errors';
 import type { SheetsService } from '../sheets/sheets.service';
 import type { SheetAnalysisService } from './sheet-analysis.service';
+import type { OutlineAccess } from '../outlines/outline.service';
 
 type Costing = z.infer<typeof costingInputSchema>;
 const DEFAULT_SETTINGS: ShopSettings = { currency: '$', labourRatePerHour: 0, markupPercent: 100 };
@@ -91,9 +92,9 @@ export class CostingService {
     return { costing, inputs, cost, missing };
   }
 
-  async cost(teamId: string, sheetId: string): Promise<SheetCostView> {
+  async cost(teamId: string, sheetId: string, access: OutlineAccess = 'compute'): Promise<SheetCostView> {
     const sheet = await this.sheets.find(teamId, sheetId);
-    const analysis = await this.analysis.analyse(teamId, sheet);
+    const analysis = await this.analysis.analyse(teamId, sheet, access);
     return { analysis, ...(await this.compute(teamId, analysis, await this.costingOf(teamId, sheetId), await this.settings(teamId))) };
   }
 

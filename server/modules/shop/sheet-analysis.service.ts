@@ -7,6 +7,7 @@ import { inkCoverage } from '../../../shared/production/coverage';
 import type { SheetDocument } from '../../../shared/sheet/document';
 import { migrateDocument } from '../../../shared/sheet/document';
 import { pieceOutlineQuery, placeCutLine } from '../../../shared/sheet/placement';
+import { pieceProblems } from '../../../shared/sheet/bounds';
 import type { Finding, PreflightLimits, PreflightOutline } from '../../../shared/sheet/preflight';
 import { DEFAULT_PREFLIGHT_LIMITS, preflight } from '../../../shared/sheet/preflight';
 import { renderPrintImage } from '../../engine/export/print-image';
@@ -14,7 +15,8 @@ import type { ExportPiece } from '../../engine/export/types';
 import type { Storage } from '../../storage/storage';
 import { ArtItem } from '../art/art-item.entity';
 import { effectiveLicenceKinds } from '../art/art-view';
-import type { OutlineService, StoredOutline } from '../outlines/outline.service';
+import type { OutlineAccess, OutlineService, StoredOutline } from '../outlines/outline.service';
+import { AppError } from '../../lib/errors';
 import { SheetProfile } from '../sheets/sheet-profile.entity';
 import type { Sheet } from '../sheets/sheet.entity';
 
@@ -42,7 +44,7 @@ export class SheetAnalysisService {
     private readonly outlines: OutlineService,
   ) {}
 
-  private async gather(teamId: string, sheet: Sheet): Promise<Gathered> {
+  private async gather(teamId: string, sheet: Sheet, access: OutlineAccess = 'compute'): Promise<Gathered> {
     const doc = migrateDocument(JSON.parse(sheet.document));
     const profile = sheet.profileId ? await this.dataSource.getRepository(SheetProfile).findOneBy({ id: sheet.profileId }) : null;
     const minFeature = profile?.minFeatureMm ?? DEFAULT_PREFLIGHT_LIMITS.minFeatureMm;
@@ -51,13 +53,14 @@ export class SheetAnalysisService {
     const outlines = new Map<string, PreflightOutline>();
     const stored = new Map<string, StoredOutline>();
     const byQuery = new Map<string, StoredOutline>();
-    for (const piece of doc.pieces) {
+    for (const [index, piece] of doc.pieces.entries()) {
       const art = arts.get(piece.artId);
-      if (!art) continue;
+      // Out of bounds: preflight names it; no outline is made at an absurd size.
+      if (!art || pieceProblems(doc, piece, index).length > 0) continue;
       const key = `${art.id}|${JSON.stringify(pieceOutlineQuery(piece, minFeature))}`;
       let outline = byQuery.get(key);
       if (!outline) {
-        outline = (await this.outlines.forPiece(art, piece, minFeature)).outline;
+        outline = (await this.outlines.forPiece(art, piece, minFeature, access)).outline;
         byQuery.set(key, outline);
       }
       const first = outline.pieces[0];
@@ -98,10 +101,16 @@ export class SheetAnalysisService {
   }
 
   /** The analysis of the sheet's current version, computed once per version. */
-  async analyse(teamId: string, sheet: Sheet): Promise<SheetAnalysis> {
+  async analyse(teamId: string, sheet: Sheet, access: OutlineAccess = 'compute'): Promise<SheetAnalysis> {
     const [row] = await this.dataSource.query('SELECT analysis_json, analysis_version FROM sheets WHERE id = ?', [sheet.id]);
     if (row?.analysis_json && row.analysis_version === sheet.version) return JSON.parse(row.analysis_json);
-    const g = await this.gather(teamId, sheet);
+    let g: Gathered;
+    try {
+      g = await this.gather(teamId, sheet, access);
+    } catch (error) {
+      if ((error as AppError).code === 'outline_not_made') throw new AppError(409, 'not_analysed', 'This sheet has not been checked since its last change: it is checked when someone who can edit it opens it.');
+      throw error;
+    }
     const rings = g.doc.pieces.filter((p) => g.outlines.has(p.id)).map((p) => placeCutLine(p, g.outlines.get(p.id)!));
     const analysis: SheetAnalysis = {
       version: sheet.version,

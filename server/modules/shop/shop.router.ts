@@ -1,6 +1,7 @@
 import { Router } from 'express';
 import type { Request } from 'express';
-import multer from 'multer';
+import { singleUpload } from '../../middleware/uploads';
+import { outlineAccess } from '../outlines/outline.service';
 import type { DataSource } from 'typeorm';
 import { z } from 'zod';
 import { bladeFitSchema, costingInputSchema, machineInputSchema, printRunInputSchema, runListQuerySchema, shopSettingsSchema, stockAdjustSchema, stockInputSchema } from '../../../shared/schemas/shop';
@@ -28,7 +29,7 @@ export function shopRouter(deps: { dataSource: DataSource; sheets: SheetsService
   const manage = requirePermission('shop.manage');
   const teamId = (req: Request) => req.membership!.teamId;
   const created = <T>(res: { status: (n: number) => unknown }, value: T) => (res.status(201), value);
-  const photoUpload = multer({ storage: multer.memoryStorage(), limits: { fileSize: 15 * 1024 * 1024, files: 1, fields: 5 } });
+  const photoUpload = singleUpload('photo', { maxBytes: 15 * 1024 * 1024, fields: 5, fieldBytes: 1024 });
 
   router.get('/teams/:teamId/shop-settings', scoped, view, route({ params: teamParamsSchema }, (_i, req) => costing.settings(teamId(req))));
   router.put('/teams/:teamId/shop-settings', scoped, manage, route({ params: teamParamsSchema, body: shopSettingsSchema }, ({ body }, req) => costing.saveSettings(teamId(req), body)));
@@ -56,13 +57,13 @@ export function shopRouter(deps: { dataSource: DataSource; sheets: SheetsService
   router.get('/teams/:teamId/print-runs/:id/photo', scoped, view, route({ params: itemParams }, async ({ params }, req, res) => {
     res.type('jpeg').set('Cache-Control', 'private, max-age=86400').send(await runs.photo(teamId(req), params.id));
   }));
-  router.post('/teams/:teamId/print-runs/:id/photo', scoped, record, photoUpload.single('photo'), route({ params: itemParams }, ({ params }, req) => {
+  router.post('/teams/:teamId/print-runs/:id/photo', scoped, record, photoUpload, route({ params: itemParams }, ({ params }, req) => {
     if (!req.file) throw new AppError(400, 'validation_failed', 'Attach a photo.', { photo: 'Choose a photo' });
     return runs.attachPhoto(teamId(req), params.id, req.file.buffer);
   }));
 
-  router.get('/teams/:teamId/sheets/:sheetId/analysis', scoped, view, route({ params: sheetParamsSchema }, async ({ params }, req) => analysis.analyse(teamId(req), await sheets.find(teamId(req), params.sheetId))));
-  router.get('/teams/:teamId/sheets/:sheetId/cost', scoped, view, route({ params: sheetParamsSchema }, ({ params }, req) => costing.cost(teamId(req), params.sheetId)));
+  router.get('/teams/:teamId/sheets/:sheetId/analysis', scoped, view, route({ params: sheetParamsSchema }, async ({ params }, req) => analysis.analyse(teamId(req), await sheets.find(teamId(req), params.sheetId), outlineAccess(req.membership!.role))));
+  router.get('/teams/:teamId/sheets/:sheetId/cost', scoped, view, route({ params: sheetParamsSchema }, ({ params }, req) => costing.cost(teamId(req), params.sheetId, outlineAccess(req.membership!.role))));
   router.put('/teams/:teamId/sheets/:sheetId/costing', scoped, requirePermission('sheets.edit'), route({ params: sheetParamsSchema, body: costingInputSchema }, ({ params, body }, req) => costing.setCosting(teamId(req), params.sheetId, body)));
   return router;
 }
