@@ -45,3 +45,28 @@ export function documentProblems(doc: SheetDocument): BoundsProblem[] {
 
 /** The field key a problem is reported under, as the API's validation errors name it. */
 export const problemField = (problem: BoundsProblem) => `document.pieces.${problem.index}.${problem.field}`;
+
+/** Changes that bring every out-of-bounds piece back within the rules (the nearest allowed value). */
+export function fitToBounds(doc: SheetDocument): Map<string, Partial<Piece>> {
+  const patches = new Map<string, Partial<Piece>>();
+  for (const problem of documentProblems(doc)) {
+    const piece = doc.pieces[problem.index];
+    const patch = patches.get(piece.id) ?? {};
+    if (problem.field === 'x' || problem.field === 'y') Object.assign(patch, clampToZone(doc, piece.x, piece.y));
+    if (problem.field === 'width') patch.width = Math.max(2, Math.floor(maxArtWidthMm(doc, piece.border) * 100) / 100);
+    if (problem.field === 'rotation') patch.rotation = piece.rotation % 360;
+    patches.set(piece.id, patch);
+  }
+  return patches;
+}
+
+/** The pieces an API refusal names (fields like `document.pieces.3.width`). */
+export function refusedPieceIds(fields: Record<string, string>, doc: SheetDocument): string[] {
+  const ids = new Set<string>();
+  for (const key of Object.keys(fields)) {
+    const match = /^document\.pieces\.(\d+)\./.exec(key);
+    const piece = match ? doc.pieces[Number(match[1])] : undefined;
+    if (piece) ids.add(piece.id);
+  }
+  return [...ids];
+}

@@ -80,3 +80,23 @@ export async function apiUpload<T>(path: string, form: FormData): Promise<T> {
   if (!response.ok) throw await toApiError(response);
   return (await response.json()) as T;
 }
+
+/** Browsers carry at most 64 KiB of keepalive bodies per page (Fetch standard, "keepalive"). */
+export const KEEPALIVE_MAX_BYTES = 60 * 1024;
+
+/**
+ * A write that outlives the page (sent on pagehide): keepalive fetch, same CSRF header. Returns
+ * false when it could not be sent (too large, or no token yet), so the caller knows to ask first.
+ */
+export function sendOnLeave(method: 'PUT' | 'POST', path: string, body: unknown): boolean {
+  const json = JSON.stringify(body);
+  if (!csrfToken || new Blob([json]).size > KEEPALIVE_MAX_BYTES) return false;
+  void fetch(`/api${path}`, {
+    method,
+    headers: { accept: 'application/json', 'content-type': 'application/json', 'x-csrf-token': csrfToken },
+    credentials: 'same-origin',
+    body: json,
+    keepalive: true,
+  }).catch(() => undefined);
+  return true;
+}

@@ -3,50 +3,16 @@ import path from 'node:path';
 import { describe, expect, it } from 'vitest';
 import type { Page } from 'playwright-core';
 import type { Piece } from '../../shared/sheet/document';
-import { svgArt } from '../helpers/art';
-import { Client, makeTeamWithRoles } from '../helpers/app';
+import { Client } from '../helpers/app';
 import { BROWSER_TEST_TIMEOUT, screenshot, signInThroughForm, useBrowserApp } from '../helpers/browser';
-import { uploadFile } from '../helpers/library';
 import { placePieces, testPiece } from '../helpers/sheets';
+import { screenOf, sheetOf, teamWithShapes } from '../helpers/editor';
 
 const t = useBrowserApp();
 
 const signIn = (page: Page, email: string) => signInThroughForm(page, t.served.url, email);
 
-async function teamWithArt() {
-  const { team, users } = await makeTeamWithRoles(t.db);
-  const client = new Client(t.served.url);
-  await client.signIn(users.member.email);
-  const shapes = ['<circle cx="300" cy="300" r="270" fill="#1f618d"/>', '<rect x="45" y="45" width="510" height="510" rx="90" fill="#b9770e"/>', '<path d="M300 30 L570 570 L30 570 Z" fill="#7d3c98"/>'];
-  const art = [];
-  for (const [i, shape] of shapes.entries()) art.push((await uploadFile(client, team.id, await svgArt(1200, 1200, `<g transform="scale(2)">${shape}</g>`), `shape-${i + 1}.png`)).body.results[0].item);
-  return { team, users, client, art };
-}
-
-/**
- * Screen position (page px) of a point given in sheet millimetres. The canvas re-fits itself when
- * its box changes (a full-page screenshot resizes the page for a moment, panels grow as data
- * arrives), so the position is read until two readings 150 ms apart agree.
- */
-async function screenOf(page: Page, mm: { x: number; y: number }) {
-  const canvas = page.getByTestId('sheet-canvas');
-  const read = async () => {
-    const box = (await canvas.boundingBox())!;
-    const [ox, oy] = (await canvas.getAttribute('data-origin'))!.split(',').map(Number);
-    const scale = Number(await canvas.getAttribute('data-px-per-mm'));
-    return { x: box.x + ox + mm.x * scale, y: box.y + oy + mm.y * scale };
-  };
-  let last = await read();
-  for (let i = 0; i < 20; i++) {
-    await page.waitForTimeout(150);
-    const next = await read();
-    if (next.x === last.x && next.y === last.y) return next;
-    last = next;
-  }
-  throw new Error('The sheet canvas kept moving');
-}
-
-const sheetOf = async (client: Client, teamId: string, id: string) => (await client.get(`/api/teams/${teamId}/sheets/${id}`)).body;
+const teamWithArt = () => teamWithShapes(t.db, t.served.url);
 
 describe('sheet editor in Chromium', { timeout: BROWSER_TEST_TIMEOUT }, () => {
   it('create, drag three pieces in, type a width, gap warning, undo/redo, reload', async () => {

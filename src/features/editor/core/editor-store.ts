@@ -4,7 +4,9 @@ import type { Command } from '../../../../shared/sheet/commands';
 import type { SheetDocument } from '../../../../shared/sheet/document';
 import { History } from '../../../../shared/sheet/history';
 
-export type SaveState = 'saved' | 'unsaved' | 'saving' | 'offline' | 'conflict';
+export type SaveState = 'saved' | 'unsaved' | 'saving' | 'offline' | 'conflict' | 'refused';
+/** Why the server refused the last save, and the pieces it named. */
+export type Refusal = { message: string; pieceIds: string[]; fitted: boolean };
 export type SheetMeta = { name: string; status: 'draft' | 'ready' | 'printed'; forSale: boolean; unit: 'in' | 'mm'; notes: string };
 
 export type EditorState = {
@@ -16,6 +18,7 @@ export type EditorState = {
   saved: { doc: SheetDocument; meta: SheetMeta };
   save: SaveState;
   conflict: string | null;
+  refusal: Refusal | null;
   zoom: number | 'fit';
   pan: { x: number; y: number };
   showCutLines: boolean;
@@ -28,7 +31,7 @@ export class EditorStore {
   readonly history = new History();
 
   constructor(doc: SheetDocument, meta: SheetMeta, version: number) {
-    this.state = { doc, meta, selection: new Set(), version, saved: { doc, meta }, save: 'saved', conflict: null, zoom: 'fit', pan: { x: 0, y: 0 }, showCutLines: true, helpOpen: false };
+    this.state = { doc, meta, selection: new Set(), version, saved: { doc, meta }, save: 'saved', conflict: null, refusal: null, zoom: 'fit', pan: { x: 0, y: 0 }, showCutLines: true, helpOpen: false };
   }
 
   getState = () => this.state;
@@ -45,6 +48,8 @@ export class EditorStore {
 
   private dirty(doc: SheetDocument, meta: SheetMeta): SaveState {
     if (this.state.save === 'conflict') return 'conflict';
+    // A refused save stays refused until something changes; a change is worth trying again.
+    if (this.state.save === 'refused' && doc === this.state.doc && meta === this.state.meta) return 'refused';
     return doc === this.state.saved.doc && meta === this.state.saved.meta ? 'saved' : 'unsaved';
   }
 
@@ -86,7 +91,7 @@ export class EditorStore {
   /** Loading from the server is not an edit: no history, and the result counts as saved. */
   load(doc: SheetDocument, meta: SheetMeta, version: number) {
     this.history.clear();
-    this.set({ doc, meta, version, saved: { doc, meta }, save: 'saved', conflict: null, selection: new Set() });
+    this.set({ doc, meta, version, saved: { doc, meta }, save: 'saved', conflict: null, refusal: null, selection: new Set() });
   }
 
   /** Derived data (area used, thumbnail) changed although the document did not: save once more. */
@@ -102,7 +107,21 @@ export class EditorStore {
   saveSucceeded(sent: { doc: SheetDocument; meta: SheetMeta }, version: number) {
     const saved = sent;
     this.state = { ...this.state, saved, version };
-    this.set({ save: this.state.doc === sent.doc && this.state.meta === sent.meta ? 'saved' : 'unsaved' });
+    // A refusal the editor fixed by fitting pieces stays on show until dismissed; others are over.
+    this.set({ save: this.state.doc === sent.doc && this.state.meta === sent.meta ? 'saved' : 'unsaved', refusal: this.state.refusal?.fitted ? this.state.refusal : null });
+  }
+
+  /**
+   * The server refused the save of `sent` (a rule the editor did not catch). Nothing is retried
+   * until the document or meta changes; the message and the pieces it names stay on show.
+   */
+  saveRefused(sent: { doc: SheetDocument; meta: SheetMeta }, refusal: Refusal) {
+    const changedSince = this.state.doc !== sent.doc || this.state.meta !== sent.meta;
+    this.set({ save: changedSince ? 'unsaved' : 'refused', refusal });
+  }
+
+  dismissRefusal() {
+    this.set({ refusal: null });
   }
 
   saveFailed(offline: boolean, conflict?: string) {

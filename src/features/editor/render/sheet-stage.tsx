@@ -8,6 +8,7 @@ import type { PieceOutline } from '../api/outlines';
 import { setDrawnZoom } from '../core/actions';
 import type { EditorState, EditorStore } from '../core/editor-store';
 import { PieceNode } from './piece-node';
+import { clampToZone } from '../../../../shared/sheet/bounds';
 import { RULER, Rulers } from './rulers';
 
 type Props = {
@@ -80,7 +81,8 @@ export function SheetStage({ store, state, canEdit, outlines, warnIds, onDropArt
     const start = dragStart.current.get(id);
     if (!start) return;
     const dx = node.x() - start.x, dy = node.y() - start.y;
-    const positions = new Map([...dragStart.current].map(([pid, pos]) => [pid, { x: pos.x + dx, y: pos.y + dy }]));
+    // A piece dropped far off the sheet stops at the edge of where pieces may sit.
+    const positions = new Map([...dragStart.current].map(([pid, pos]) => [pid, clampToZone(doc, pos.x + dx, pos.y + dy)]));
     dragStart.current = new Map();
     store.dispatch(commands.placePieces(store.getState().doc, positions));
   };

@@ -24,7 +24,7 @@ import { ArrangePanel } from './arrange-panel';
 import { ExportPanel } from './export-panel';
 import type { SheetDocument } from '../../../../shared/sheet/document';
 
-const SAVE_TEXT = { saved: 'All changes saved', unsaved: 'Unsaved changes…', saving: 'Saving…', offline: 'Offline: will retry', conflict: 'Not saved: conflict' } as const;
+const SAVE_TEXT = { saved: 'All changes saved', unsaved: 'Unsaved changes…', saving: 'Saving…', offline: 'Offline: will retry', conflict: 'Not saved: conflict', refused: 'Not saved: see why' } as const;
 
 export function EditorPage({ teamId, sheet, canEdit }: { teamId: string; sheet: SheetDetail; canEdit: boolean }) {
   const store = useMemo(() => new EditorStore(sheet.document, { name: sheet.name, status: sheet.status, forSale: sheet.forSale, unit: sheet.unit, notes: sheet.notes }, sheet.version), [sheet.id]); // eslint-disable-line react-hooks/exhaustive-deps
@@ -61,7 +61,7 @@ export function EditorPage({ teamId, sheet, canEdit }: { teamId: string; sheet: 
     const ready = new Map([...outlines].filter(([, o]) => o.outline && !o.pending).map(([id, o]) => [id, o.outline!]));
     return preflight({ doc: shown, outlines: ready, unit, limits: sheet.limits, forSale: state.meta.forSale, licenceOf: (p) => artLicences.get(p.artId), name: (p) => name(p.id) });
   }, [shown, outlines, unit, state.meta.forSale]); // eslint-disable-line react-hooks/exhaustive-deps
-  const warnIds = useMemo(() => new Set(findings.filter((f) => f.severity !== 'notice').flatMap((f) => f.pieceIds)), [findings]);
+  const warnIds = useMemo(() => new Set([...findings.filter((f) => f.severity !== 'notice').flatMap((f) => f.pieceIds), ...(state.refusal?.pieceIds ?? [])]), [findings, state.refusal]);
   const areaUsed = useCallback(() => {
     const total = shown.pieces.reduce((sum, p) => sum + (outlines.get(p.id)?.outline?.areaMm2 ?? 0), 0);
     return total / (shown.printArea.width * shown.printArea.height);
@@ -72,7 +72,7 @@ export function EditorPage({ teamId, sheet, canEdit }: { teamId: string; sheet: 
   const savedArea = useRef(sheet.areaUsed);
   useAutosave(store, teamId, sheet.id, canEdit, sheetRef, areaUsed, (used) => {
     savedArea.current = used;
-  });
+  }, (id) => name(id));
   const allOutlined = !preview && state.doc.pieces.every((p) => outlines.get(p.id)?.outline && !outlines.get(p.id)?.pending);
   const currentArea = areaUsed();
   useEffect(() => {
@@ -141,10 +141,19 @@ export function EditorPage({ teamId, sheet, canEdit }: { teamId: string; sheet: 
           <option value="in">in</option>
           <option value="mm">mm</option>
         </select>
-        <span role="status" data-testid="save-state" className={`rounded-full px-3 py-1 text-xs font-bold ${state.save === 'saved' ? 'bg-sage-light text-sage-deep' : state.save === 'conflict' || state.save === 'offline' ? 'bg-alarm-light text-alarm' : 'bg-paper-deep'}`}>
+        <span role="status" data-testid="save-state" className={`rounded-full px-3 py-1 text-xs font-bold ${state.save === 'saved' ? 'bg-sage-light text-sage-deep' : state.save === 'conflict' || state.save === 'offline' || state.save === 'refused' ? 'bg-alarm-light text-alarm' : 'bg-paper-deep'}`}>
           {canEdit ? SAVE_TEXT[state.save] : 'Read only: your role can view sheets'}
         </span>
       </div>
+      {state.refusal && (
+        <div role="alert" data-testid="save-refusal" className="flex items-start gap-3 rounded-lg border-2 border-alarm bg-alarm-light px-3 py-2 text-sm text-alarm">
+          <p className="flex-1">
+            <strong>Not saved as it was.</strong> {state.refusal.message}{' '}
+            {state.refusal.fitted ? 'Sheetsmith fitted it back within reach (it is selected now) so the rest of your work keeps saving; Undo shows what you had.' : 'Change it and the sheet saves again.'}
+          </p>
+          <button type="button" className="font-bold underline" onClick={() => store.dismissRefusal()}>Dismiss</button>
+        </div>
+      )}
       <div className="flex flex-wrap items-center gap-1 text-sm" role="toolbar" aria-label="Sheet tools">
         {canEdit && (
           <>
