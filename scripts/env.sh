@@ -33,7 +33,7 @@ DB_LOG="$DB_DIR/mariadbd.log"
 DB_SOCKET="$DB_RUN/mariadbd.sock"
 # A Unix socket path must stay under about 107 bytes; fall back to /tmp for deep checkouts.
 if [ "${#DB_SOCKET}" -gt 100 ]; then
-  DB_SOCKET="/tmp/sheetsmith-$(printf '%s' "$ROOT" | md5sum | cut -c1-12).sock"
+  DB_SOCKET="/tmp/sheetsmith-$(printf '%s' "$DB_DIR" | md5sum | cut -c1-12).sock"
 fi
 export DB_SOCKET
 

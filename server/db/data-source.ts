@@ -1,16 +1,17 @@
 import 'reflect-metadata';
 import { DataSource } from 'typeorm';
+import type { Env } from '../config/env';
 import { env } from '../config/env';
 import { entities } from './entities';
 import { migrations } from './migrations';
 
-export function createDataSource(database = env.DB_NAME): DataSource {
+export function createDataSource(database = env.DB_NAME, db: Pick<Env, 'DB_HOST' | 'DB_PORT' | 'DB_USER' | 'DB_PASSWORD'> = env): DataSource {
   return new DataSource({
     type: 'mysql',
-    host: env.DB_HOST,
-    port: env.DB_PORT,
-    username: env.DB_USER,
-    password: env.DB_PASSWORD,
+    host: db.DB_HOST,
+    port: db.DB_PORT,
+    username: db.DB_USER,
+    password: db.DB_PASSWORD,
     database,
     charset: 'utf8mb4_unicode_ci',
     timezone: 'Z',

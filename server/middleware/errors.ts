@@ -4,6 +4,23 @@ import { AppError } from '../lib/errors';
 import { OutlineInputError } from '../engine/outline/errors';
 import { OutlinePoolBusyError } from '../engine/outline/pool';
 
+// mysql2 and Node socket codes (and MariaDB error numbers) that mean "the database is not there",
+// not "the query was wrong": server gone, refused, reset, shutting down, out of connections.
+const UNREACHABLE_CODES = new Set(['ECONNREFUSED', 'ECONNRESET', 'ETIMEDOUT', 'EHOSTUNREACH', 'ENOTFOUND', 'EPIPE', 'PROTOCOL_CONNECTION_LOST', 'PROTOCOL_ENQUEUE_AFTER_FATAL_ERROR', 'ER_SERVER_SHUTDOWN', 'ER_CON_COUNT_ERROR', 'POOL_CLOSED']);
+const UNREACHABLE_ERRNOS = new Set([1040, 1053, 2002, 2003, 2006, 2013]);
+
+/** Whether an error (or the driver error or cause inside it) says the database cannot be reached. */
+export function isDatabaseUnreachable(error: unknown, depth = 0): boolean {
+  if (!error || typeof error !== 'object' || depth > 4) return false;
+  const e = error as { code?: unknown; errno?: unknown; fatal?: unknown; driverError?: unknown; cause?: unknown; errors?: unknown[] };
+  if (typeof e.code === 'string' && UNREACHABLE_CODES.has(e.code)) return true;
+  if (typeof e.errno === 'number' && UNREACHABLE_ERRNOS.has(e.errno)) return true;
+  if (Array.isArray(e.errors) && e.errors.some((inner) => isDatabaseUnreachable(inner, depth + 1))) return true; // AggregateError (IPv4 + IPv6 refused)
+  return isDatabaseUnreachable(e.driverError, depth + 1) || isDatabaseUnreachable(e.cause, depth + 1);
+}
+
+export const DATABASE_RETRY_SECONDS = 5;
+
 export const apiNotFound: RequestHandler = (req, res) => {
   res.status(404).json({ error: { code: ERROR_CODES.notFound, message: `No API route ${req.method} ${req.path}.` } });
 };
@@ -26,6 +43,12 @@ export const errorHandler: ErrorRequestHandler = (err, req, res, _next) => {
   }
   if (err?.name === 'MulterError' && err.code !== 'LIMIT_FILE_SIZE') {
     res.status(400).json({ error: { code: ERROR_CODES.validation, message: `Upload refused: ${err.message}.` } });
+    return;
+  }
+  if (isDatabaseUnreachable(err)) {
+    res.set('Retry-After', String(DATABASE_RETRY_SECONDS)).status(503).json({
+      error: { code: ERROR_CODES.unavailable, message: 'Sheetsmith cannot reach its database right now. Nothing was changed; try again in a moment.' },
+    });
     return;
   }
   // csrf-sync's error

@@ -11,6 +11,7 @@ export function healthRouter(dataSource: DataSource): Router {
     } catch {
       database = 'down';
     }
+    if (database === 'down') res.set('Retry-After', '5');
     res.status(database === 'up' ? 200 : 503).json({ app: 'up', database, time: new Date().toISOString() });
   });
   return router;
