@@ -10,6 +10,8 @@ import type { Mailer } from './mail/mailer';
 import { createMailer } from './mail/mailer';
 import { apiNotFound, errorHandler } from './middleware/errors';
 import { noStore, securityHeaders } from './middleware/security-headers';
+import type { Log } from './lib/log';
+import { createLog, requestLog } from './lib/log';
 import { AuthService } from './modules/auth/auth.service';
 import { authRouter, SESSION_COOKIE_NAME } from './modules/auth/auth.router';
 import { sessionGuard } from './modules/auth/session-guard';
@@ -54,6 +56,8 @@ export type AppOptions = {
   extraApi?: (api: express.Router) => void;
   /** Folder with the built client; served with a fallback to index.html for client routes. */
   clientDir?: string;
+  /** Where logs go; made from the environment when not given. */
+  log?: Log;
   /** Separates rate-limit counters of apps sharing one database (tests give each app its own). */
   rateLimitPrefix?: string;
 };
@@ -71,10 +75,12 @@ export function createApp({
   extraApi,
   clientDir,
   rateLimitPrefix = 'ss',
+  log = createLog(env),
 }: AppOptions): SheetsmithApp {
   const app = express();
   app.disable('x-powered-by');
   if (env.COOKIE_SECURE) app.set('trust proxy', 1);
+  app.use(requestLog(log));
   app.use(securityHeaders(env));
 
   const MySQLStore = MySQLStoreFactory(session as never);
@@ -113,7 +119,7 @@ export function createApp({
   const sheets = new SheetsService(dataSource, storage, profiles);
   const outlines = new OutlineService(dataSource, storage, pool);
   const analysis = new SheetAnalysisService(dataSource, storage, outlines);
-  const exportsService = new ExportsService(dataSource, storage, pool, sheets, analysis);
+  const exportsService = new ExportsService(dataSource, storage, pool, sheets, analysis, log);
   const stock = new StockService(dataSource);
   const machines = new MachinesService(dataSource);
   const runs = new RunsService(dataSource, storage, sheets, stock, machines, analysis);

@@ -3,10 +3,13 @@ import { env } from './config/env';
 import { createDataSource } from './db/data-source';
 import { createApp } from './app';
 import { DEMO_ACCOUNTS, DEMO_PASSWORD } from './db/demo/accounts';
+import { createLog } from './lib/log';
+
+const log = createLog(env);
 
 async function main() {
-  const dataSource = await createDataSource().initialize();
-  const { app, close } = createApp({ env, dataSource, clientDir: path.resolve('dist') });
+  const dataSource = await createDataSource(env.DB_NAME, env, log).initialize();
+  const { app, close } = createApp({ env, dataSource, log, clientDir: path.resolve('dist') });
   const server = app.listen(env.PORT, env.HOST);
   server.on('error', (error: NodeJS.ErrnoException) => {
     // Without this the process would print "running" and serve nothing.
@@ -16,10 +19,12 @@ async function main() {
         : error.code === 'EACCES'
           ? `this user may not listen on port ${env.PORT}. Pick a port above 1024 (PORT in .env).`
           : error.message;
+    log.fatal({ code: error.code }, `could not start: ${reason}`);
     console.error(`[sheetsmith] could not start: ${reason}`);
     void dataSource.destroy().finally(() => process.exit(1));
   });
   server.on('listening', () => {
+    log.info({ host: env.HOST, port: env.PORT, demo: env.demoMode }, 'listening');
     const url = `http://${env.HOST}:${env.PORT}`;
     console.log(`\n  Sheetsmith is running at ${url}\n`);
     if (env.demoMode) {

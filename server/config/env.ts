@@ -51,13 +51,17 @@ const envSchema = z.object({
   SMTP_PASSWORD: z.string().default(''),
   SMTP_SECURE: bool,
   MAIL_FROM: z.string().default('Sheetsmith <no-reply@sheetsmith.local>'),
+  /** pino levels; silent by default under NODE_ENV=test. */
+  LOG_LEVEL: z.enum(['fatal', 'error', 'warn', 'info', 'debug', 'trace', 'silent']).optional(),
   ART_MAX_BYTES: z.coerce.number().int().min(1024).default(50 * 1024 * 1024),
   OUTLINE_MAX_PIXELS: z.coerce.number().int().min(16).default(50_000_000),
   OUTLINE_MAX_OUTPUT_PIXELS: z.coerce.number().int().min(16).default(40_000_000),
   OUTLINE_THREADS: z.coerce.number().int().min(0).max(16).default(0),
 });
 
-export type Env = z.infer<typeof envSchema> & {
+export type LogLevel = NonNullable<z.infer<typeof envSchema>['LOG_LEVEL']>;
+export type Env = Omit<z.infer<typeof envSchema>, 'LOG_LEVEL'> & {
+  LOG_LEVEL: LogLevel;
   appUrl: string;
   dataDir: string;
   outboxDir: string;
@@ -85,6 +89,7 @@ export function loadEnv(source: NodeJS.ProcessEnv = process.env): Env {
   const dataDir = path.resolve(env.DATA_DIR);
   return {
     ...env,
+    LOG_LEVEL: env.LOG_LEVEL ?? (env.NODE_ENV === 'test' ? 'silent' : 'info'),
     appUrl: (env.APP_URL ?? `http://${env.HOST}:${env.PORT}`).replace(/\/$/, ''),
     dataDir,
     outboxDir: path.join(dataDir, 'outbox'),

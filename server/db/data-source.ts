@@ -4,8 +4,11 @@ import type { Env } from '../config/env';
 import { env } from '../config/env';
 import { entities } from './entities';
 import { migrations } from './migrations';
+import type { Log } from '../lib/log';
+import { QueryLog } from '../lib/log';
 
-export function createDataSource(database = env.DB_NAME, db: Pick<Env, 'DB_HOST' | 'DB_PORT' | 'DB_USER' | 'DB_PASSWORD'> = env): DataSource {
+/** `log` given: failed and slow queries are logged through it, SQL text only (never parameters). */
+export function createDataSource(database = env.DB_NAME, db: Pick<Env, 'DB_HOST' | 'DB_PORT' | 'DB_USER' | 'DB_PASSWORD'> = env, log?: Log): DataSource {
   return new DataSource({
     type: 'mysql',
     host: db.DB_HOST,
@@ -22,7 +25,9 @@ export function createDataSource(database = env.DB_NAME, db: Pick<Env, 'DB_HOST'
     migrations,
     migrationsTableName: 'schema_migrations',
     synchronize: false,
-    // Tests provoke constraint errors on purpose; elsewhere failed queries are logged.
-    logging: env.NODE_ENV === 'test' ? false : ['error'],
+    // Without a log (scripts, tests) TypeORM says nothing: its own logger would print parameters.
+    logging: log ? ['error', 'warn'] : false,
+    logger: log ? new QueryLog(log) : undefined,
+    maxQueryExecutionTime: 2000,
   });
 }

@@ -9,6 +9,10 @@ import { Membership } from '../modules/teams/membership.entity';
 declare global {
   // eslint-disable-next-line @typescript-eslint/no-namespace
   namespace Express {
+    interface Request {
+      /** This request's logger, carrying its id (set first thing by requestLog). */
+      log: import('../lib/log').Log;
+    }
     interface User {
       id: string;
       email: string;

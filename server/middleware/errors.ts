@@ -71,6 +71,6 @@ export const errorHandler: ErrorRequestHandler = (err, req, res, _next) => {
     res.status(err.status).json({ error: { code: 'bad_request', message: String(err.message ?? 'Bad request') } });
     return;
   }
-  console.error(`[sheetsmith] ${req.method} ${req.originalUrl} failed:`, err);
+  (req.log ?? console).error({ err }, 'unexpected error');
   res.status(500).json({ error: { code: ERROR_CODES.internal, message: 'Something went wrong on our side. Nothing was changed.' } });
 };

@@ -1,6 +1,7 @@
 import type { DataSource } from 'typeorm';
 import type { ExportJobView, ExportRequest } from '../../../shared/schemas/exports';
 import { documentProblems } from '../../../shared/sheet/bounds';
+import type { Log } from '../../lib/log';
 import { migrateDocument } from '../../../shared/sheet/document';
 import { ExportInputError, exportSheet } from '../../engine/export/export';
 import { exportPiece } from '../../engine/export/prepare';
@@ -27,6 +28,7 @@ export class ExportsService {
     private readonly pool: OutlinePool,
     private readonly sheets: SheetsService,
     private readonly analysis: SheetAnalysisService,
+    private readonly log: Log,
   ) {}
 
   private view(teamId: string, sheetId: string, r: Row): ExportJobView {
@@ -99,7 +101,7 @@ export class ExportsService {
       await this.dataSource.query("UPDATE sheet_exports SET status = 'done', progress = 1, step = 'Ready', zip_key = ?, zip_name = ? WHERE id = ?", [key, result.zipName, id]);
     } catch (error) {
       const message = error instanceof ExportInputError || (error as { code?: string }).code ? (error as Error).message : 'The export failed on our side. Try again.';
-      if (!(error instanceof ExportInputError)) console.error('[sheetsmith] export failed:', error);
+      if (!(error instanceof ExportInputError)) this.log.error({ err: error, exportId: id }, 'export failed');
       await this.dataSource.query("UPDATE sheet_exports SET status = 'failed', error = ?, step = 'Failed' WHERE id = ?", [message.slice(0, 500), id]);
     }
   }
