@@ -4,12 +4,15 @@ import { createDataSource } from './db/data-source';
 import { createApp } from './app';
 import { DEMO_ACCOUNTS, DEMO_PASSWORD } from './db/demo/accounts';
 import { createLog } from './lib/log';
+import { LocalDiskStorage } from './storage/local-disk';
+import { sweepStorage } from './storage/sweep';
 
 const log = createLog(env);
 
 async function main() {
   const dataSource = await createDataSource(env.DB_NAME, env, log).initialize();
-  const { app, close } = createApp({ env, dataSource, log, clientDir: path.resolve('dist') });
+  const storage = new LocalDiskStorage(env.storageDir);
+  const { app, close } = createApp({ env, dataSource, log, storage, clientDir: path.resolve('dist') });
   const server = app.listen(env.PORT, env.HOST);
   server.on('error', (error: NodeJS.ErrnoException) => {
     // Without this the process would print "running" and serve nothing.
@@ -34,6 +37,14 @@ async function main() {
     }
     console.log(`  Press Ctrl-C to stop.\n`);
   });
+
+  // Files an interrupted upload left behind, replaced previews and the like: swept every six hours.
+  const sweep = () =>
+    sweepStorage(dataSource, storage, env.STORAGE_GRACE_HOURS * 3_600_000)
+      .then((report) => log.info(report, 'storage sweep'))
+      .catch((error) => log.warn({ err: error }, 'storage sweep failed'));
+  setTimeout(sweep, 10 * 60_000).unref();
+  setInterval(sweep, 6 * 3_600_000).unref();
 
   let stopping = false;
   const shutdown = (signal: string) => {

@@ -53,6 +53,8 @@ const envSchema = z.object({
   MAIL_FROM: z.string().default('Sheetsmith <no-reply@sheetsmith.local>'),
   /** pino levels; silent by default under NODE_ENV=test. */
   LOG_LEVEL: z.enum(['fatal', 'error', 'warn', 'info', 'debug', 'trace', 'silent']).optional(),
+  /** Files no row refers to are removed once this old (an upload writes its files before its rows). */
+  STORAGE_GRACE_HOURS: z.coerce.number().min(1).default(24),
   ART_MAX_BYTES: z.coerce.number().int().min(1024).default(50 * 1024 * 1024),
   OUTLINE_MAX_PIXELS: z.coerce.number().int().min(16).default(50_000_000),
   OUTLINE_MAX_OUTPUT_PIXELS: z.coerce.number().int().min(16).default(40_000_000),

@@ -65,7 +65,7 @@ export function requestLog(log: Log): RequestHandler {
 export class QueryLog implements TypeOrmLogger {
   constructor(private readonly out: Log) {}
   logQuery() {}
-  logQueryError(error: string | Error, query: string) {
+  logQueryError(error: string | Error, query: string, _parameters?: unknown[]) {
     this.out.warn({ err: typeof error === 'string' ? new Error(error) : error, sql: oneLine(query) }, 'query failed');
   }
   logQuerySlow(time: number, query: string) {

@@ -1,3 +1,4 @@
+import { releaseKey } from '../../storage/sweep';
 import { createHash } from 'node:crypto';
 import path from 'node:path';
 import sharp from 'sharp';
@@ -257,6 +258,8 @@ export class ArtService {
     if (!item.licence.kind) throw new AppError(409, 'conflict', 'Set the licence kind before attaching its proof.');
     const { key } = await this.storage.put(file.buffer);
     await this.dataSource.getRepository(ArtItem).update({ id: item.id }, { licence: { ...item.licence, proofKey: key, proofName: path.basename(file.originalname).slice(0, 200) } });
+    // The proof it replaces goes with it, unless another row still uses the same file.
+    if (item.licence.proofKey !== key) await releaseKey(this.dataSource, this.storage, item.licence.proofKey);
     return this.view(actor.teamId, artId);
   }
 }

@@ -1,3 +1,4 @@
+import { releaseKey } from '../../storage/sweep';
 import path from 'node:path';
 import type { DataSource } from 'typeorm';
 import type { CollectionView, LicenceInput } from '../../../shared/schemas/library';
@@ -108,6 +109,7 @@ export class CollectionsService {
     if (!collection.licence.kind) throw new AppError(409, 'conflict', 'Set the licence kind before attaching its proof.');
     const { key } = await this.storage.put(file.buffer);
     await this.dataSource.getRepository(Collection).update({ id }, { licence: { ...collection.licence, proofKey: key, proofName: path.basename(file.originalname).slice(0, 200) } });
+    if (collection.licence.proofKey !== key) await releaseKey(this.dataSource, this.storage, collection.licence.proofKey);
     return (await this.list(teamId)).find((c) => c.id === id)!;
   }
 

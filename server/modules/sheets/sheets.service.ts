@@ -1,3 +1,4 @@
+import { releaseKey } from '../../storage/sweep';
 import type { DataSource, EntityManager } from 'typeorm';
 import { In } from 'typeorm';
 import type { Role } from '../../../shared/permissions';
@@ -156,6 +157,7 @@ export class SheetsService {
    */
   async save(actor: Actor, id: string, input: SheetSaveInput): Promise<SheetDetail> {
     let thumbnailKey: string | undefined;
+    let replacedThumbnail: string | null = null;
     if (input.thumbnail) thumbnailKey = (await this.storage.put(await cleanThumbnail(input.thumbnail))).key;
     await inTransaction(this.dataSource, async (manager) => {
       const sheet = await manager.getRepository(Sheet).findOne({ where: { id, teamId: actor.teamId }, lock: { mode: 'pessimistic_write' } });
@@ -168,6 +170,7 @@ export class SheetsService {
       const changes: Partial<Sheet> = { version: sheet.version + 1, updatedBy: actor.userId };
       for (const key of ['name', 'unit', 'status', 'forSale', 'notes', 'areaUsed'] as const) if (input[key] !== undefined) Object.assign(changes, { [key]: input[key] });
       if (thumbnailKey) changes.thumbnailKey = thumbnailKey;
+      replacedThumbnail = thumbnailKey && sheet.thumbnailKey !== thumbnailKey ? sheet.thumbnailKey : null;
       if (input.document) {
         refuseOutOfBounds(input.document, input.unit ?? sheet.unit);
         changes.document = JSON.stringify(input.document);
@@ -176,6 +179,8 @@ export class SheetsService {
       }
       await manager.update(Sheet, { id }, changes);
     });
+    // The preview it replaced, unless a copy of the sheet (or anything else) still shows it.
+    await releaseKey(this.dataSource, this.storage, replacedThumbnail);
     return this.detail(actor.teamId, id);
   }
 
