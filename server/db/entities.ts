@@ -1,4 +1,5 @@
 import { ArtItem } from '../modules/art/art-item.entity';
+import { ArtCollection } from '../modules/art/art-collection.entity';
 import { Collection } from '../modules/collections/collection.entity';
 import { Sheet } from '../modules/sheets/sheet.entity';
 import { SheetProfile } from '../modules/sheets/sheet-profile.entity';
@@ -9,4 +10,4 @@ import { Team } from '../modules/teams/team.entity';
 import { PasswordReset } from '../modules/auth/password-reset.entity';
 import { User } from '../modules/auth/user.entity';
 
-export const entities = [User, Team, Membership, Invite, PasswordReset, ArtItem, Collection, OutlineCacheEntry, SheetProfile, Sheet];
+export const entities = [User, Team, Membership, Invite, PasswordReset, ArtItem, ArtCollection, Collection, OutlineCacheEntry, SheetProfile, Sheet];

@@ -56,7 +56,8 @@ export const backgroundSettingSchema = z.object({
 export const artUpdateSchema = z.object({
   name: z.string().trim().min(1, 'Give the art a name').max(200).optional(),
   keywords: keywordList.optional(),
-  collectionId: idSchema.nullable().optional(),
+  /** Every collection the art is in (replaces the set); its licence does not change with them. */
+  collectionIds: z.array(idSchema).max(100).optional(),
   licence: licenceSchema.nullable().optional(),
   background: backgroundSettingSchema.optional(),
 });
@@ -107,7 +108,8 @@ export type ArtView = {
   /** The largest printed size (mm) at 300 and at 150 DPI. */
   largestPrint: { at300: { widthMm: number; heightMm: number }; at150: { widthMm: number; heightMm: number } };
   keywords: string[];
-  collection: { id: string; name: string } | null;
+  /** The collections the art is in, in the team's order. */
+  collections: Array<{ id: string; name: string }>;
   licence: LicenceView | null;
   background: { mode: 'auto' | 'keep' | 'colour'; colour: string | null; tolerance: number };
   uploadedBy: { id: string; name: string };

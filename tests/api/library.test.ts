@@ -78,9 +78,9 @@ describe('collections: who may do what', () => {
     const mine = (await uploadFile(member, team.id, await shape(5), 'mine.png', { collectionId: open.id })).body.results[0].item;
     const curated = (await uploadFile(admin, team.id, await shape(6), 'cur.png', { collectionId: closed.id })).body.results[0].item;
 
-    expect((await member.send('patch', `/api/teams/${team.id}/art/${mine.id}`, { collectionId: open2.id })).body.collection.name).toBe('Open too');
-    expect((await member.send('patch', `/api/teams/${team.id}/art/${mine.id}`, { collectionId: closed.id })).status).toBe(403);
-    expect((await member.send('patch', `/api/teams/${team.id}/art/${curated.id}`, { collectionId: open.id })).status).toBe(403);
+    expect((await member.send('patch', `/api/teams/${team.id}/art/${mine.id}`, { collectionIds: [open2.id] })).body.collections.map((c: { name: string }) => c.name)).toEqual(['Open too']);
+    expect((await member.send('patch', `/api/teams/${team.id}/art/${mine.id}`, { collectionIds: [closed.id] })).status).toBe(403);
+    expect((await member.send('patch', `/api/teams/${team.id}/art/${curated.id}`, { collectionIds: [open.id] })).status).toBe(403);
     const bulk = await admin.post(`/api/teams/${team.id}/art/bulk`, { action: 'move', ids: [mine.id, curated.id], collectionId: open.id });
     expect(bulk.body).toEqual({ changed: 2 });
     const inOpen = await member.get(`/api/teams/${team.id}/art?collectionId=${open.id}`);
@@ -110,6 +110,38 @@ describe('collections: who may do what', () => {
     expect(String(download.text ?? download.body)).toContain('Receipt #4411');
     const filtered = await viewer.get(`/api/teams/${team.id}/art?licence=personal`);
     expect(filtered.body.items.map((i: { id: string }) => i.id)).toEqual([item.id]);
+  });
+});
+
+describe('art in several collections', () => {
+  it('art sits in two collections at once; its licence comes from its pack and survives moves, keyword edits and leaving the pack', async () => {
+    const { team, admin, member } = await setup();
+    const pack = (await admin.post(`/api/teams/${team.id}/collections`, { name: 'Harvest Moon Pack', licence: { kind: 'commercial_limited', source: 'Hollyhock Bundles', unitLimit: 200 } })).body;
+    const theme = (await admin.post(`/api/teams/${team.id}/collections`, { name: 'Autumn Market' })).body;
+    const plain = (await admin.post(`/api/teams/${team.id}/collections`, { name: 'Loose Doodles', licence: { kind: 'personal' } })).body;
+    const item = (await uploadFile(member, team.id, await shape(60), 'gourd.png', { collectionId: pack.id })).body.results[0].item;
+    const licence = { kind: 'commercial_limited', unitLimit: 200, inheritedFrom: { collectionId: pack.id, name: 'Harvest Moon Pack' } };
+    expect(item.licence).toMatchObject(licence);
+
+    const both = await member.send('patch', `/api/teams/${team.id}/art/${item.id}`, { collectionIds: [pack.id, theme.id] });
+    expect(both.body.collections.map((c: { name: string }) => c.name)).toEqual(['Harvest Moon Pack', 'Autumn Market']);
+    expect(both.body.licence).toMatchObject(licence);
+    for (const id of [pack.id, theme.id]) expect((await member.get(`/api/teams/${team.id}/art?collectionId=${id}`)).body.items.map((i: { id: string }) => i.id)).toEqual([item.id]);
+    expect((await member.get(`/api/teams/${team.id}/art?q=autumn`)).body.total).toBe(1);
+    const counts = (await member.get(`/api/teams/${team.id}/collections`)).body.collections;
+    expect(counts.filter((c: { id: string }) => [pack.id, theme.id].includes(c.id)).map((c: { artCount: number }) => c.artCount)).toEqual([1, 1]);
+
+    // A keyword edit alone sends only keywords and changes nothing else.
+    const keyworded = await member.send('patch', `/api/teams/${team.id}/art/${item.id}`, { keywords: ['gourd', 'harvest'] });
+    expect(keyworded.body.collections).toHaveLength(2);
+    expect(keyworded.body.licence).toMatchObject(licence);
+    // Moved out of its pack into a collection with another licence: still the pack's licence.
+    const moved = await admin.post(`/api/teams/${team.id}/art/bulk`, { action: 'move', ids: [item.id], collectionId: plain.id });
+    expect(moved.status).toBe(200);
+    const after = (await member.get(`/api/teams/${team.id}/art/${item.id}`)).body;
+    expect(after.collections.map((c: { name: string }) => c.name)).toEqual(['Loose Doodles']);
+    expect(after.licence).toMatchObject(licence);
+    expect((await member.get(`/api/teams/${team.id}/art?licence=commercial_limited`)).body.items.map((i: { id: string }) => i.id)).toEqual([item.id]);
   });
 });
 
@@ -267,7 +299,7 @@ describe('bad uploads: a clear message each, and nothing half-stored', () => {
     ['a zip bomb (compression ratio)', async () => [Buffer.from(zipSync({ 'good.png': await shape(73), 'bomb.png': new Uint8Array(12 * 1024 * 1024) }, { level: 9 })), 'bomb.zip'], 422, /looks like a zip bomb/],
     ['a zip over the total size', async () => [Buffer.from(zipSync({ 'a.png': await noise(1), 'b.png': await noise(2), 'c.png': await noise(3) }, { level: 0 })), 'big.zip'], 422, /more than 3 MB in all/],
     ['an encrypted zip', async () => [encrypt(zipSync({ 'secret.png': await shape(74) })), 'locked.zip'], 422, /password-protected/],
-    ['a 60 MB file over the upload limit', async () => [Buffer.alloc(60 * 1024 * 1024, 7), 'enormous.png'], 413, /too large/],
+    ['a 60 MB file over the upload limit', async () => [Buffer.alloc(60 * 1024 * 1024, 7), 'enormous.png'], 413, /^That file is larger than the 50 MB limit for this upload\.$/],
   ];
 
   for (const [label, make, status, message] of cases) {

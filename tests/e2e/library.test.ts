@@ -6,7 +6,8 @@ import sharp from 'sharp';
 import { describe, expect, it } from 'vitest';
 import type { Page } from 'playwright-core';
 import { svgArt } from '../helpers/art';
-import { makeTeamWithRoles } from '../helpers/app';
+import { Client, makeTeamWithRoles } from '../helpers/app';
+import { uploadFile } from '../helpers/library';
 import { BROWSER_TEST_TIMEOUT, screenshot, signInThroughForm, useBrowserApp } from '../helpers/browser';
 
 const t = useBrowserApp();
@@ -88,6 +89,47 @@ describe('art library in Chromium', { timeout: BROWSER_TEST_TIMEOUT }, () => {
     await page.getByRole('heading', { name: 'Art library' }).waitFor();
     expect(await page.getByRole('button', { name: 'Add art' }).count()).toBe(0);
     expect(await page.getByLabel('New collection name').count()).toBe(0);
+    await page.close();
+  });
+
+  it('the art page keeps collection and licence through a keyword edit (even before the collection list loads) and when the art joins a second collection', async () => {
+    const { team, users } = await makeTeamWithRoles(t.db);
+    const admin = new Client(t.served.url);
+    await admin.signIn(users.admin.email);
+    const pack = (await admin.post(`/api/teams/${team.id}/collections`, { name: 'Harvest Moon Pack', licence: { kind: 'commercial_limited', source: 'Hollyhock Bundles', unitLimit: 200 } })).body;
+    const market = (await admin.post(`/api/teams/${team.id}/collections`, { name: 'Autumn Market' })).body;
+    const art = (await uploadFile(admin, team.id, await svgArt(500, 500, '<circle cx="250" cy="250" r="230" fill="#d35400"/>'), 'gourd.png', { collectionId: pack.id })).body.results[0].item;
+    const page = await t.browser.newPage({ viewport: { width: 1280, height: 900 } });
+    await signIn(page, users.admin.email);
+    // The collection list arrives late, as on a slow connection.
+    let release: () => void = () => undefined;
+    const held = new Promise<void>((resolve) => (release = resolve));
+    await page.route(`**/api/teams/${team.id}/collections`, async (route) => {
+      await held;
+      await route.continue();
+    });
+    await page.goto(`${t.served.url}/t/${team.id}/library/${art.id}`);
+    await expect.poll(() => page.getByTestId('collections-loading').count(), { timeout: 15_000 }).toBe(1);
+    await page.getByLabel('Keywords (comma between)').fill('gourd, harvest');
+    await page.getByRole('button', { name: 'Save details' }).click();
+    await expect.poll(() => page.getByRole('status').filter({ hasText: 'Saved.' }).count(), { timeout: 15_000 }).toBe(1);
+    let stored = (await admin.get(`/api/teams/${team.id}/art/${art.id}`)).body;
+    expect(stored.keywords).toEqual(['gourd', 'harvest']);
+    expect(stored.collections.map((c: { name: string }) => c.name)).toEqual(['Harvest Moon Pack']);
+    expect(stored.licence).toMatchObject({ kind: 'commercial_limited', inheritedFrom: { name: 'Harvest Moon Pack' } });
+
+    release();
+    const second = page.getByRole('checkbox', { name: 'Autumn Market' });
+    await expect.poll(() => second.count(), { timeout: 15_000 }).toBe(1);
+    expect(await page.getByRole('checkbox', { name: 'Harvest Moon Pack' }).isChecked()).toBe(true);
+    await second.check();
+    await page.getByRole('button', { name: 'Save details' }).click();
+    await expect.poll(async () => (await admin.get(`/api/teams/${team.id}/art/${art.id}`)).body.collections.length, { timeout: 15_000 }).toBe(2);
+    stored = (await admin.get(`/api/teams/${team.id}/art/${art.id}`)).body;
+    expect(stored.collections.map((c: { id: string }) => c.id)).toEqual([pack.id, market.id]);
+    expect(stored.licence).toMatchObject({ kind: 'commercial_limited', unitLimit: 200, inheritedFrom: { name: 'Harvest Moon Pack' } });
+    await expect.poll(() => page.getByText('Commercial, limited units', { exact: false }).count()).toBeGreaterThan(0);
+    await screenshot(page, 'art-two-collections');
     await page.close();
   });
 });

@@ -60,7 +60,7 @@ async function seedArt(dataSource: DataSource, storage: Storage): Promise<number
       added++;
     }
     // Skip rendering when the pack is already there (uploads are idempotent by content anyway).
-    const present = await dataSource.getRepository(ArtItem).countBy({ teamId: team.id, collectionId: collection.id });
+    const present = await dataSource.getRepository(ArtItem).countBy({ teamId: team.id, packId: collection.id });
     if (present >= pack.items.length) continue;
     for (const item of pack.items) {
       const results = await art.upload(

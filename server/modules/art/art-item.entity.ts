@@ -11,8 +11,12 @@ export class ArtItem {
   @Column({ name: 'team_id', type: 'bigint', unsigned: true })
   teamId!: string;
 
-  @Column({ name: 'collection_id', type: 'bigint', unsigned: true, nullable: true })
-  collectionId!: string | null;
+  /**
+   * The pack the art came in: the collection it was uploaded into. Its licence applies when the art
+   * has none of its own, whichever collections the art is in later (art_collections).
+   */
+  @Column({ name: 'pack_id', type: 'bigint', unsigned: true, nullable: true })
+  packId!: string | null;
 
   @Column({ type: 'varchar', length: 200 })
   name!: string;

@@ -27,9 +27,9 @@ export async function searchArt(dataSource: DataSource, teamId: string, query: A
     const parts = chunk.parts.length > 1 ? ` OR (${chunk.parts.map(term).join(' AND ')})` : '';
     where.push(`(${term(chunk.joined)}${parts})`);
   }
-  if (query.collectionId === 'none') where.push('a.collection_id IS NULL');
+  if (query.collectionId === 'none') where.push('NOT EXISTS (SELECT 1 FROM art_collections m WHERE m.art_id = a.id)');
   else if (query.collectionId) {
-    where.push('a.collection_id = ?');
+    where.push('EXISTS (SELECT 1 FROM art_collections m WHERE m.art_id = a.id AND m.collection_id = ?)');
     params.push(query.collectionId);
   }
   if (query.licence === 'none') where.push('COALESCE(a.licence_kind, c.licence_kind) IS NULL');
@@ -50,7 +50,7 @@ export async function searchArt(dataSource: DataSource, teamId: string, query: A
     where.push('a.created_at < DATE_ADD(?, INTERVAL 1 DAY)');
     params.push(query.to);
   }
-  const from = `FROM art_items a LEFT JOIN collections c ON c.id = a.collection_id WHERE ${where.join(' AND ')}`;
+  const from = `FROM art_items a LEFT JOIN collections c ON c.id = a.pack_id WHERE ${where.join(' AND ')}`;
   const [{ total }] = await dataSource.query(`SELECT COUNT(*) AS total ${from}`, params);
   const order = `${SORTS[query.sort]} ${query.dir === 'asc' ? 'ASC' : 'DESC'}, a.id ${query.dir === 'asc' ? 'ASC' : 'DESC'}`;
   const rows: Array<{ id: string }> = await dataSource.query(

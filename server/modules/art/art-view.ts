@@ -6,6 +6,7 @@ import { Collection } from '../collections/collection.entity';
 import type { LicenceColumns } from '../collections/licence.columns';
 import type { ArtItem } from './art-item.entity';
 import { keywordsOf } from './terms';
+import { collectionsOf } from './memberships';
 
 const MM_PER_INCH = 25.4;
 
@@ -25,20 +26,19 @@ export function licenceView(licence: LicenceColumns, proofUrl: string | null): O
 export async function artViews(manager: EntityManager, items: ArtItem[]): Promise<ArtView[]> {
   if (items.length === 0) return [];
   const keywords = await keywordsOf(manager, items.map((i) => i.id));
-  const collectionIds = [...new Set(items.map((i) => i.collectionId).filter((id): id is string => id !== null))];
-  const collections = new Map(
-    (collectionIds.length ? await manager.findBy(Collection, { id: In(collectionIds) }) : []).map((c) => [c.id, c]),
-  );
+  const memberships = await collectionsOf(manager, items.map((i) => i.id));
+  const packIds = [...new Set(items.map((i) => i.packId).filter((id): id is string => id !== null))];
+  const packs = new Map((packIds.length ? await manager.findBy(Collection, { id: In(packIds) }) : []).map((c) => [c.id, c]));
   const users = new Map((await manager.findBy(User, { id: In([...new Set(items.map((i) => i.uploadedBy))]) })).map((u) => [u.id, u]));
   return items.map((item) => {
     const base = `/api/teams/${item.teamId}/art/${item.id}`;
-    const collection = item.collectionId ? collections.get(item.collectionId) ?? null : null;
+    const pack = item.packId ? packs.get(item.packId) ?? null : null;
     let licence: LicenceView | null = null;
     const own = licenceView(item.licence, `${base}/licence-proof`);
     if (own) licence = { ...own, inheritedFrom: null };
-    else if (collection) {
-      const inherited = licenceView(collection.licence, `/api/teams/${item.teamId}/collections/${collection.id}/licence-proof`);
-      if (inherited) licence = { ...inherited, inheritedFrom: { collectionId: collection.id, name: collection.name } };
+    else if (pack) {
+      const inherited = licenceView(pack.licence, `/api/teams/${item.teamId}/collections/${pack.id}/licence-proof`);
+      if (inherited) licence = { ...inherited, inheritedFrom: { collectionId: pack.id, name: pack.name } };
     }
     const at = (dpi: number) => ({ widthMm: (item.widthPx / dpi) * MM_PER_INCH, heightMm: (item.heightPx / dpi) * MM_PER_INCH });
     return {
@@ -51,7 +51,7 @@ export async function artViews(manager: EntityManager, items: ArtItem[]): Promis
       hasTransparency: item.hasTransparency,
       largestPrint: { at300: at(300), at150: at(150) },
       keywords: keywords.get(item.id) ?? [],
-      collection: collection ? { id: collection.id, name: collection.name } : null,
+      collections: (memberships.get(item.id) ?? []).map((c) => ({ id: c.id, name: c.name })),
       licence,
       background: { mode: item.backgroundMode, colour: item.backgroundColour, tolerance: item.backgroundTolerance },
       uploadedBy: { id: item.uploadedBy, name: users.get(item.uploadedBy)?.name ?? 'Former member' },
@@ -63,11 +63,11 @@ export async function artViews(manager: EntityManager, items: ArtItem[]): Promis
   });
 }
 
-/** Each art item's effective licence kind: its own, else its collection's, else null. */
+/** Each art item's effective licence kind: its own, else its pack's, else null. */
 export async function effectiveLicenceKinds(dataSource: { query: (sql: string, args: unknown[]) => Promise<unknown> }, teamId: string, ids: string[]): Promise<Map<string, string | null>> {
   if (ids.length === 0) return new Map();
   const rows = (await dataSource.query(
-    `SELECT a.id, COALESCE(a.licence_kind, c.licence_kind) AS kind FROM art_items a LEFT JOIN collections c ON c.id = a.collection_id WHERE a.team_id = ? AND a.id IN (${ids.map(() => '?').join(',')})`,
+    `SELECT a.id, COALESCE(a.licence_kind, c.licence_kind) AS kind FROM art_items a LEFT JOIN collections c ON c.id = a.pack_id WHERE a.team_id = ? AND a.id IN (${ids.map(() => '?').join(',')})`,
     [teamId, ...ids],
   )) as Array<{ id: string; kind: string | null }>;
   return new Map(rows.map((r) => [String(r.id), r.kind]));

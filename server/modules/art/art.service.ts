@@ -12,6 +12,8 @@ import { suggestKeywords } from '../../../shared/search';
 import { AppError, forbidden, notFound } from '../../lib/errors';
 import type { Storage } from '../../storage/storage';
 import { Collection } from '../collections/collection.entity';
+import { ArtCollection } from './art-collection.entity';
+import { setCollections } from './memberships';
 import { ArtItem } from './art-item.entity';
 import { artViews } from './art-view';
 import { addKeywords, refreshTerms, removeKeywords, setKeywords } from './terms';
@@ -126,7 +128,7 @@ export class ArtService {
             const item = await manager.save(
               manager.create(ArtItem, {
                 teamId: actor.teamId,
-                collectionId: collection?.id ?? null,
+                packId: collection?.id ?? null,
                 name: nameFrom(entry.path),
                 sha256: entry.sha256,
                 storageKey,
@@ -142,6 +144,7 @@ export class ArtService {
             );
             id = item.id;
           }
+          if (collection) await manager.createQueryBuilder().insert().into(ArtCollection).values({ artId: id, collectionId: collection.id }).orIgnore().execute();
           // Folder names inside a pack become keywords, with the batch's own keywords.
           await addKeywords(manager, id, [...fields.keywords, ...(zipped ? entry.folders.flatMap((f) => suggestKeywords(`${f}/x`)) : [])]);
           out.push({ path: entry.path, id, status: 'stored', suggested });
@@ -185,10 +188,7 @@ export class ArtService {
     await inTransaction(this.dataSource, async (manager) => {
       const changes: Partial<ArtItem> = {};
       if (input.name !== undefined) changes.name = input.name;
-      if (input.collectionId !== undefined) {
-        await this.checkMove(actor, item, input.collectionId, manager);
-        changes.collectionId = input.collectionId;
-      }
+      if (input.collectionIds !== undefined) await this.changeCollections(actor, item, input.collectionIds, manager);
       if (input.background) {
         changes.backgroundMode = input.background.mode;
         changes.backgroundColour = input.background.mode === 'colour' ? input.background.colour!.toLowerCase() : null;
@@ -209,17 +209,20 @@ export class ArtService {
     return this.view(actor.teamId, artId);
   }
 
-  /** Owners and admins move anything; members only between collections open to members. */
-  private async checkMove(actor: Actor, item: ArtItem, target: string | null, manager: EntityManager) {
-    if (can(actor.role, 'library.manage')) {
-      await this.writableCollection(actor, target, manager);
-      return;
+  /**
+   * Puts the art in exactly `targets`. Owners and admins add to and take from any collection;
+   * members only those open to members. The art's licence (its own or its pack's) is untouched.
+   */
+  private async changeCollections(actor: Actor, item: ArtItem, targets: string[], manager: EntityManager) {
+    const current = new Set((await manager.findBy(ArtCollection, { artId: item.id })).map((l) => l.collectionId));
+    const wanted = [...new Set(targets)];
+    for (const id of wanted) if (!current.has(id)) await this.writableCollection(actor, id, manager);
+    if (!can(actor.role, 'library.manage')) {
+      const leaving = [...current].filter((id) => !wanted.includes(id));
+      const closed = leaving.length ? await manager.findBy(Collection, { id: In(leaving), membersCanAdd: false }) : [];
+      if (closed.length) throw forbidden(`Only owners and admins take art out of "${closed[0].name}".`);
     }
-    if (item.collectionId) {
-      const from = await manager.findOneBy(Collection, { id: item.collectionId });
-      if (from && !from.membersCanAdd) throw forbidden(`Only owners and admins move art out of "${from.name}".`);
-    }
-    await this.writableCollection(actor, target, manager);
+    await setCollections(manager, item.id, wanted);
   }
 
   async bulk(actor: Actor, action: BulkAction): Promise<{ changed: number }> {
@@ -231,8 +234,8 @@ export class ArtService {
         if (action.action === 'addKeyword') await addKeywords(manager, item.id, [action.keyword]);
         else if (action.action === 'removeKeyword') await removeKeywords(manager, item.id, [action.keyword]);
         else {
-          await this.checkMove(actor, item, action.collectionId, manager);
-          await manager.update(ArtItem, { id: item.id }, { collectionId: action.collectionId });
+          // "Move": the art leaves its other collections for this one (or all of them, for none).
+          await this.changeCollections(actor, item, action.collectionId ? [action.collectionId] : [], manager);
         }
       }
       await refreshTerms(manager, items.map((i) => i.id));

@@ -36,7 +36,7 @@ export async function setKeywords(manager: EntityManager, artId: string, keyword
 }
 
 /**
- * Rewrites the search terms of items from their name, keywords and collection name, as an ordered
+ * Rewrites the search terms of items from their name, keywords and collection names, as an ordered
  * diff (only changed rows, items and terms in ascending order): a blanket delete + insert of every
  * term deadlocked parallel uploads into one team.
  */
@@ -45,8 +45,9 @@ export async function refreshTerms(manager: EntityManager, artIds: string[]) {
   const ids = [...new Set(artIds)].sort((a, b) => (BigInt(a) < BigInt(b) ? -1 : 1));
   const marks = ids.map(() => '?').join(',');
   const items: Array<{ id: string; team_id: string; name: string; collection: string | null }> = await manager.query(
-    `SELECT a.id, a.team_id, a.name, c.name AS collection FROM art_items a LEFT JOIN collections c ON c.id = a.collection_id
-     WHERE a.id IN (${marks})`,
+    `SELECT a.id, a.team_id, a.name, GROUP_CONCAT(c.name ORDER BY c.id SEPARATOR ' ') AS collection FROM art_items a
+     LEFT JOIN art_collections m ON m.art_id = a.id LEFT JOIN collections c ON c.id = m.collection_id
+     WHERE a.id IN (${marks}) GROUP BY a.id, a.team_id, a.name`,
     ids,
   );
   const keywords = await keywordsOf(manager, ids);

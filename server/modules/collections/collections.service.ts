@@ -29,7 +29,7 @@ export class CollectionsService {
   async list(teamId: string, includeArchived = true): Promise<CollectionView[]> {
     const rows = await this.dataSource.getRepository(Collection).find({ where: { teamId }, order: { position: 'ASC', id: 'ASC' } });
     const counts: Array<{ collection_id: string; n: string }> = await this.dataSource.query(
-      'SELECT collection_id, COUNT(*) AS n FROM art_items WHERE team_id = ? AND deleted_at IS NULL AND collection_id IS NOT NULL GROUP BY collection_id',
+      'SELECT m.collection_id, COUNT(*) AS n FROM art_collections m JOIN art_items a ON a.id = m.art_id WHERE a.team_id = ? AND a.deleted_at IS NULL GROUP BY m.collection_id',
       [teamId],
     );
     const count = new Map(counts.map((c) => [String(c.collection_id), Number(c.n)]));
@@ -84,7 +84,7 @@ export class CollectionsService {
       if (Object.keys(changes).length) await manager.update(Collection, { id }, changes);
       if (input.name !== undefined && input.name !== collection.name) {
         // The collection's name is searchable through its art.
-        const ids: Array<{ id: string }> = await manager.query('SELECT id FROM art_items WHERE collection_id = ?', [id]);
+        const ids: Array<{ id: string }> = await manager.query('SELECT art_id AS id FROM art_collections WHERE collection_id = ?', [id]);
         await refreshTerms(manager, ids.map((r) => String(r.id)));
       }
     });

@@ -76,7 +76,7 @@ export function ArtTable({ items, unit, selected, onToggle, onToggleAll, sort, d
             <td className="py-1"><img src={item.thumbnailUrl} alt="" className="h-10 w-10 object-contain" loading="lazy" /></td>
             <td><Link to={item.id} className="font-bold underline">{item.name}</Link></td>
             <td className="text-ink-soft">{item.keywords.join(', ')}</td>
-            <td>{item.collection?.name ?? '—'}</td>
+            <td>{item.collections.length ? item.collections.map((c) => c.name).join(', ') : '—'}</td>
             <td>{item.widthPx} × {item.heightPx}</td>
             <td>{printSize(item, unit)}</td>
             <td>{(item.sizeBytes / 1024).toFixed(0)} KB</td>

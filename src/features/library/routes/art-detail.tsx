@@ -1,5 +1,6 @@
 import { useState } from 'react';
 import { Link, useNavigate, useParams } from 'react-router';
+import type { ArtUpdateInput } from '../../../../shared/schemas/library';
 import { LICENCE_LABELS } from '../../../../shared/schemas/library';
 import { formatLength } from '../../../../shared/units';
 import { Button, FormMessage } from '../../../components/form';
@@ -54,7 +55,7 @@ export function ArtDetailRoute() {
               <dt className="font-bold">Largest at 300 DPI</dt><dd>{size(item.largestPrint.at300)}</dd>
               <dt className="font-bold">Largest at 150 DPI</dt><dd>{size(item.largestPrint.at150)}</dd>
               <dt className="font-bold">Transparency</dt><dd>{item.hasTransparency ? 'Yes' : 'No'}</dd>
-              <dt className="font-bold">Licence</dt><dd>{item.licence ? `${LICENCE_LABELS[item.licence.kind]}${item.licence.inheritedFrom ? ` (from ${item.licence.inheritedFrom.name})` : ''}` : 'Not recorded'}</dd>
+              <dt className="font-bold">Licence</dt><dd>{item.licence ? `${LICENCE_LABELS[item.licence.kind]}${item.licence.inheritedFrom ? ` (from the pack ${item.licence.inheritedFrom.name})` : ''}` : 'Not recorded'}</dd>
               <dt className="font-bold">Added by</dt><dd>{item.uploadedBy.name}, {new Date(item.createdAt).toLocaleDateString()}</dd>
             </dl>
           </section>
@@ -64,20 +65,38 @@ export function ArtDetailRoute() {
               onSubmit={(e) => {
                 e.preventDefault();
                 const form = new FormData(e.currentTarget);
-                const collectionId = String(form.get('collectionId') ?? '');
-                void run(() => update.mutateAsync({ name: String(form.get('name')), keywords: String(form.get('keywords')).split(','), collectionId: collectionId || null }));
+                // Only what the maker changed goes to the server: a field left alone is never rewritten.
+                const changes: ArtUpdateInput = {};
+                const name = String(form.get('name') ?? '').trim();
+                if (name !== item.name) changes.name = name;
+                const keywords = String(form.get('keywords') ?? '').split(',').map((k) => k.trim()).filter(Boolean);
+                if (keywords.join('\u0000') !== item.keywords.join('\u0000')) changes.keywords = keywords;
+                if (collections.data) {
+                  const chosen = form.getAll('collectionIds').map(String).sort();
+                  if (chosen.join(',') !== item.collections.map((c) => c.id).sort().join(',')) changes.collectionIds = chosen;
+                }
+                if (Object.keys(changes).length === 0) return setSaved(true);
+                void run(() => update.mutateAsync(changes));
               }}
             >
               <h2 className="text-lg font-extrabold">Details</h2>
               <label className="flex flex-col gap-1 font-bold">Name<input name="name" defaultValue={item.name} className="rounded border-2 border-paper-edge px-2 py-1 font-normal" /></label>
               <label className="flex flex-col gap-1 font-bold">Keywords (comma between)<input name="keywords" defaultValue={item.keywords.join(', ')} className="rounded border-2 border-paper-edge px-2 py-1 font-normal" /></label>
-              <label className="flex flex-col gap-1 font-bold">
-                Collection
-                <select name="collectionId" defaultValue={item.collection?.id ?? ''} className="rounded border-2 border-paper-edge bg-white px-2 py-1 font-normal">
-                  <option value="">No collection</option>
-                  {collections.data?.filter((c) => !c.archived || c.id === item.collection?.id).map((c) => <option key={c.id} value={c.id}>{c.name}</option>)}
-                </select>
-              </label>
+              <fieldset className="flex flex-col gap-1" aria-describedby="collections-hint">
+                <legend className="font-bold">Collections</legend>
+                {/* Shown only once the list is here: a half-loaded list must never read as "in none". */}
+                {collections.data ? (
+                  collections.data.filter((c) => !c.archived || item.collections.some((m) => m.id === c.id)).map((c) => (
+                    <label key={c.id} className="flex items-center gap-2">
+                      <input type="checkbox" name="collectionIds" value={c.id} defaultChecked={item.collections.some((m) => m.id === c.id)} />
+                      {c.name}
+                    </label>
+                  ))
+                ) : (
+                  <p className="text-ink-soft" data-testid="collections-loading">Loading collections…</p>
+                )}
+                <p id="collections-hint" className="text-xs text-ink-soft">Art can be in several collections. Its licence stays with the art{item.licence?.inheritedFrom ? ` (from its pack, ${item.licence.inheritedFrom.name})` : ''}, whichever collections it is in.</p>
+              </fieldset>
               <Button type="submit" busy={update.isPending}>Save details</Button>
             </form>
           )}
@@ -85,7 +104,7 @@ export function ArtDetailRoute() {
             <section className="rounded-sticker border-2 border-paper-edge bg-white p-5">
               <LicenceForm
                 licence={item.licence && !item.licence.inheritedFrom ? item.licence : null}
-                hint={item.licence?.inheritedFrom ? `Now inherited from ${item.licence.inheritedFrom.name}. A licence set here overrides it.` : undefined}
+                hint={item.licence?.inheritedFrom ? `Now from the pack it came in, ${item.licence.inheritedFrom.name}. A licence set here overrides it.` : undefined}
                 onSave={(licence) => run(() => update.mutateAsync({ licence }))}
                 onProof={(file) => run(() => proof.mutateAsync(file))}
               />
