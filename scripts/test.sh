@@ -14,6 +14,8 @@ drop_scratch_databases "$DB_TEST_NAME"
 grant_scratch_databases "$DB_TEST_NAME"
 
 export NODE_ENV=test
+# Quiet test output even when .env sets a log level (TEST_LOG_LEVEL=info to see the logs).
+export LOG_LEVEL="${TEST_LOG_LEVEL:-silent}"
 export DB_NAME="$DB_TEST_NAME"
 export DATA_DIR="$DATA_DIR/test"
 rm -rf "$DATA_DIR"; mkdir -p "$DATA_DIR"
