@@ -8,7 +8,10 @@ export const exportRequestSchema = z.object({
   dxfUnit: z.enum(['mm', 'in']).default('mm'),
   sheetCut: z.object({ marginMm: z.number().min(0).max(50), radiusMm: z.number().min(0).max(50) }).nullable().default(null),
   spotColour: z.string().regex(/^[A-Za-z0-9_-]{1,40}$/, 'Letters, digits, - and _ only').default('CutContour'),
-  summaryPage: z.boolean().default(true),
+  /** The summary as extra PDF pages; off by default (it is always a file of its own). */
+  summaryPage: z.boolean().default(false),
+  /** A 1 in scale bar in the PDF's margin. */
+  checkBar: z.boolean().default(true),
   /** Export even though preflight found errors: the maker has read them and said so. */
   acceptErrors: z.boolean().default(false),
 });
@@ -22,5 +25,23 @@ export type ExportJobView = {
   step: string;
   error: string | null;
   downloadUrl: string | null;
+  /** Each file of the finished bundle on its own. */
+  files: ExportFileView[];
   createdAt: string;
 };
+
+export type ExportFileView = { name: string; label: string; size: number; url: string };
+
+/** What each exported file is, from its name's ending (longest ending first). */
+export function exportFileLabel(name: string): string {
+  const endings: Array<[string, string]> = [
+    ['-print-and-cut.svg', 'Print and cut in one (SVG)'],
+    ['-print.png', 'Print image (PNG) for the cutter software'],
+    ['-cut.svg', 'Cut lines (SVG)'],
+    ['-cut.dxf', 'Cut lines (DXF)'],
+    ['-summary.pdf', 'Summary (PDF, not for printing on sticker paper)'],
+    ['-settings.txt', 'Settings (text)'],
+    ['.pdf', 'Print page (PDF)'],
+  ];
+  return endings.find(([end]) => name.endsWith(end))?.[1] ?? name;
+}

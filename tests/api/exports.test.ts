@@ -46,7 +46,36 @@ describe('sheet exports', () => {
     expect(zip.status).toBe(200);
     // Read back with JSZip: every promised file is there.
     const names = Object.keys((await JSZip.loadAsync(zip.body as Buffer)).files).sort();
-    expect(names).toEqual(['export-me-cut.dxf', 'export-me-cut.svg', 'export-me-print.png', 'export-me-settings.txt', 'export-me.pdf']);
+    expect(names).toEqual(['export-me-cut.dxf', 'export-me-cut.svg', 'export-me-print.png', 'export-me-settings.txt', 'export-me-summary.pdf', 'export-me.pdf']);
+  });
+
+  it('offers each file on its own, with its media type and the same bytes as in the bundle', async () => {
+    const { team, member, sheet, users } = await sheetWithPieces(2);
+    const started = await member.post(`/api/teams/${team.id}/sheets/${sheet.id}/exports`, { dpi: 150 });
+    const done = await waitFor(member, `/api/teams/${team.id}/sheets/${sheet.id}/exports/${started.body.id}`);
+    const binary = (res: import('superagent').Response, cb: (err: Error | null, body: Buffer) => void) => {
+      const parts: Buffer[] = [];
+      res.on('data', (c: Buffer) => parts.push(c));
+      res.on('end', () => cb(null, Buffer.concat(parts)));
+    };
+    const zip = await JSZip.loadAsync((await member.get(done.downloadUrl).buffer(true).parse(binary)).body as Buffer);
+    // IANA media types: image/png, image/svg+xml, application/pdf, image/vnd.dxf, text/plain.
+    const types: Record<string, string> = { png: 'image/png', svg: 'image/svg+xml', pdf: 'application/pdf', dxf: 'image/vnd.dxf', txt: 'text/plain; charset=utf-8' };
+    expect(done.files.map((f: { name: string }) => f.name).sort()).toEqual(Object.keys(zip.files).sort());
+    expect(done.files.find((f: { name: string }) => f.name === 'export-me-print.png').label).toBe('Print image (PNG) for the cutter software');
+    const viewer = new Client(t.sheetsmith.app);
+    await viewer.signIn(users.viewer.email);
+    for (const f of done.files as Array<{ name: string; url: string; size: number }>) {
+      const res = await viewer.get(f.url).buffer(true).parse(binary);
+      expect(res.status, f.name).toBe(200);
+      expect(res.headers['content-type'], f.name).toBe(types[f.name.split('.').pop()!]);
+      expect(res.headers['content-disposition'], f.name).toBe(`attachment; filename=${f.name}`);
+      const inZip = await zip.file(f.name)!.async('nodebuffer');
+      expect(Buffer.compare(res.body as Buffer, inZip), f.name).toBe(0);
+      expect(f.size).toBe(inZip.length);
+    }
+    expect((await member.get(`/api/teams/${team.id}/sheets/${sheet.id}/exports/${started.body.id}/files/not-there.png`)).status).toBe(404);
+    expect((await member.get(`/api/teams/${team.id}/sheets/${sheet.id}/exports/${started.body.id}/files/..%2Fsecret.txt`)).status).toBe(400);
   });
 
   it('gives clear errors: another team’s sheet (404), an empty sheet (422), a DPI out of range (400), a viewer (403)', async () => {

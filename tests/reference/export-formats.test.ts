@@ -1,3 +1,5 @@
+import { createRequire } from 'node:module';
+import path from 'node:path';
 import DxfParser from 'dxf-parser';
 import JSZip from 'jszip';
 import sharp from 'sharp';
@@ -79,8 +81,8 @@ describe('export: the print image', () => {
 describe('export: the PDF, read back with pdf.js (pdfjs-dist, Mozilla)', () => {
   it('has a Letter MediaBox of 612 × 792 pt (ISO 32000-1 §8.3.2.3) and the art at the print area within 0.01 in', async () => {
     const pdfjs = await import('pdfjs-dist/legacy/build/pdf.mjs');
-    const doc = await pdfjs.getDocument({ data: new Uint8Array(file('.pdf') as Buffer), useSystemFonts: false, isEvalSupported: false }).promise;
-    expect(doc.numPages).toBe(2); // the sheet and its summary
+    const doc = await pdfjs.getDocument({ data: new Uint8Array(file('.pdf') as Buffer), useSystemFonts: false, isEvalSupported: false, verbosity: 0 }).promise;
+    expect(doc.numPages).toBe(1); // the print page alone: "print all pages" prints one sheet
     const page = await doc.getPage(1);
     expect(page.view).toEqual([0, 0, 612, 792]);
     const ops = await page.getOperatorList();
@@ -105,6 +107,75 @@ describe('export: the PDF, read back with pdf.js (pdfjs-dist, Mozilla)', () => {
     expect(raw).toMatch(/\/Separation\s*\/CutContour\s*\/DeviceCMYK/);
     expect(raw).toMatch(/\/OCProperties/);
   });
+});
+
+describe('export: the PDF prints no cut lines (pdf.js, rendered with @napi-rs/canvas)', () => {
+  const load = async (data: Buffer) => {
+    const pdfjs = await import('pdfjs-dist/legacy/build/pdf.mjs');
+    // The standard 14 fonts' data ships with pdfjs-dist; pdf.js needs it to draw the check bar's label.
+    const standardFontDataUrl = `${path.dirname(createRequire(import.meta.url).resolve('pdfjs-dist/package.json'))}/standard_fonts/`;
+    return pdfjs.getDocument({ data: new Uint8Array(data), useSystemFonts: false, isEvalSupported: false, standardFontDataUrl }).promise;
+  };
+  /** Renders page 1 at 50 DPI for the given intent and counts magenta (the cut layer's tint) pixels. */
+  const magentaPixels = async (data: Buffer, intent: 'display' | 'print') => {
+    const { createCanvas } = await import('@napi-rs/canvas');
+    const doc = await load(data);
+    const page = await doc.getPage(1);
+    const viewport = page.getViewport({ scale: 50 / 72 });
+    const canvas = createCanvas(Math.ceil(viewport.width), Math.ceil(viewport.height));
+    const ctx = canvas.getContext('2d');
+    ctx.fillStyle = '#fff';
+    ctx.fillRect(0, 0, canvas.width, canvas.height);
+    const optionalContentConfigPromise = doc.getOptionalContentConfig({ intent });
+    await page.render({ canvasContext: ctx as never, viewport, intent, optionalContentConfigPromise }).promise;
+    const pixels = ctx.getImageData(0, 0, canvas.width, canvas.height).data;
+    let n = 0;
+    for (let i = 0; i < pixels.length; i += 4) if (pixels[i] > 180 && pixels[i + 1] < 120 && pixels[i + 2] > 120) n++;
+    return n;
+  };
+
+  it('the cut layer is an optional content group with print usage OFF and view usage ON (ISO 32000-1 §8.11.4.4)', async () => {
+    const doc = await load(file('.pdf') as Buffer);
+    const print = await doc.getOptionalContentConfig({ intent: 'print' });
+    const groups = Object.entries(print.getGroups() ?? {}) as Array<[string, { name: string; visible: boolean }]>;
+    expect(groups.map(([, g]) => g.name)).toEqual(['Cut lines (not printed)']);
+    expect(groups[0][1].visible).toBe(false);
+    const view = await doc.getOptionalContentConfig({ intent: 'display' });
+    expect((view.getGroup(groups[0][0]) as { visible: boolean }).visible).toBe(true);
+  });
+
+  it('rendered for print, page 1 has no cut-line pixels; on screen it has them (the check can fail)', async () => {
+    const pdf = file('.pdf') as Buffer;
+    expect(await magentaPixels(pdf, 'display')).toBeGreaterThan(200);
+    expect(await magentaPixels(pdf, 'print')).toBe(0);
+  }, 30_000);
+
+  it('the summary is a file of its own whose every line stays inside its page; as an opt-in page it does too', async () => {
+    const summary = await load(file('-summary.pdf') as Buffer);
+    const pageWithin = async (doc: Awaited<ReturnType<typeof load>>, n: number) => {
+      const page = await doc.getPage(n);
+      const [, , width, height] = page.view;
+      const text = await page.getTextContent();
+      const items = text.items as Array<{ str: string; transform: number[]; width: number }>;
+      for (const item of items) {
+        const [x, y] = [item.transform[4], item.transform[5]];
+        expect(x, item.str).toBeGreaterThanOrEqual(0);
+        expect(x + item.width, item.str).toBeLessThanOrEqual(width);
+        expect(y, item.str).toBeGreaterThanOrEqual(0);
+        expect(y, item.str).toBeLessThanOrEqual(height);
+      }
+      return items.map((i) => i.str).join(' ');
+    };
+    let all = '';
+    for (let n = 1; n <= summary.numPages; n++) all += await pageWithin(summary, n);
+    expect(all).toContain('Print at 100 % (actual size): no scaling, no fit-to-page, no borderless expansion.');
+    // A long piece name and many pieces: wrapped and paginated, never cut off.
+    const long = { ...sheet, pieces: Array.from({ length: 60 }, (_, i) => ({ ...sheet.pieces[i % 5], name: `A watercolour piece with a very long descriptive file name number ${i} that runs on and on past any page edge` })) };
+    const withPage = await exportSheet(long, { ...DEFAULT_EXPORT_OPTIONS, formats: ['pdf'], summaryPage: true, dpi: 150 });
+    const doc = await load(withPage.files.find((f) => f.name.endsWith('sheet.pdf'))!.data as Buffer);
+    expect(doc.numPages).toBeGreaterThan(2);
+    for (let n = 2; n <= doc.numPages; n++) await pageWithin(doc, n);
+  }, 60_000);
 });
 
 describe('export: the cut SVG, read with fast-xml-parser and svg-path-bbox', () => {
@@ -149,8 +220,12 @@ describe('export: the bundle, read with JSZip', () => {
   it('lists every promised file', async () => {
     const zip = await JSZip.loadAsync(result.zip);
     expect(Object.keys(zip.files).sort()).toEqual(
-      ['reference-sheet-cut.dxf', 'reference-sheet-cut.svg', 'reference-sheet-print-and-cut.svg', 'reference-sheet-print.png', 'reference-sheet-settings.txt', 'reference-sheet.pdf'].sort(),
+      ['reference-sheet-cut.dxf', 'reference-sheet-cut.svg', 'reference-sheet-print-and-cut.svg', 'reference-sheet-print.png', 'reference-sheet-settings.txt', 'reference-sheet.pdf', 'reference-sheet-summary.pdf'].sort(),
     );
-    expect(await zip.file('reference-sheet-settings.txt')!.async('string')).toMatch(/Print area: 6\.75 in x 9\.25 in/);
+    const settings = await zip.file('reference-sheet-settings.txt')!.async('string');
+    expect(settings).toMatch(/Print area: 6\.75 in x 9\.25 in/);
+    // The commonest cause of cut lines missing the print (common practice).
+    expect(settings).toContain('Print at 100 % (actual size): no scaling, no fit-to-page, no borderless expansion.');
+    expect(settings).toContain('Check with a ruler: the print area is 6.75 in x 9.25 in');
   });
 });

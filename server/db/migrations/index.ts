@@ -7,6 +7,7 @@ import { PrintShop1765152000000 } from './1765152000000-print-shop';
 import { DemoMarkersAndSessions1765324800000 } from './1765324800000-demo-markers-and-sessions';
 import { RateLimits1765411200000 } from './1765411200000-rate-limits';
 import { ArtInSeveralCollections1765497600000 } from './1765497600000-art-in-several-collections';
+import { ExportFiles1765584000000 } from './1765584000000-export-files';
 
 // Every migration, oldest first. A new one is appended here and never edited after it lands.
-export const migrations = [Foundation1764633600000, ArtAndOutlines1764720000000, Library1764806400000, Sheets1764892800000, SheetExports1764979200000, PrintShop1765152000000, DemoMarkersAndSessions1765324800000, RateLimits1765411200000, ArtInSeveralCollections1765497600000];
+export const migrations = [Foundation1764633600000, ArtAndOutlines1764720000000, Library1764806400000, Sheets1764892800000, SheetExports1764979200000, PrintShop1765152000000, DemoMarkersAndSessions1765324800000, RateLimits1765411200000, ArtInSeveralCollections1765497600000, ExportFiles1765584000000];

@@ -1,13 +1,22 @@
 import { formatLength } from '../../../shared/units';
 import { cutDxf } from './dxf';
 import { sheetCutLines } from './geometry';
-import { sheetPdf } from './pdf';
+import { sheetPdf, summaryPdf } from './pdf';
 import { renderPrintImage } from './print-image';
 import { combinedSvg, cutSvg } from './svg';
 import { zipFiles } from './bundle';
 import type { ExportOptions, ExportSheet } from './types';
 
 export class ExportInputError extends Error {}
+
+/**
+ * What goes beside every print file: a printer scaling the page ("fit to page", borderless
+ * expansion) is the commonest reason cut lines miss the print (common practice, TRADE.md).
+ */
+export const PRINT_CAUTION = (area: string) => [
+  'Print at 100 % (actual size): no scaling, no fit-to-page, no borderless expansion.',
+  `Check with a ruler: the print area is ${area}; in the PDF the bar under it is 1 in.`,
+];
 
 const slug = (name: string) => name.toLowerCase().replace(/[^a-z0-9]+/g, '-').replace(/^-|-$/g, '').slice(0, 60) || 'sheet';
 
@@ -31,8 +40,10 @@ export async function exportSheet(sheet: ExportSheet, options: ExportOptions, on
   if (wants.has('combined')) files.push({ name: `${base}-print-and-cut.svg`, data: combinedSvg(sheet, lines, png!) });
   if (wants.has('dxf')) files.push({ name: `${base}-cut.dxf`, data: cutDxf(sheet, lines, options.dxfUnit) });
   const u = sheet.unit;
+  const area = `${formatLength(sheet.doc.printArea.width, u)} x ${formatLength(sheet.doc.printArea.height, u)}`;
   const settings = [
     `Sheetsmith export: ${sheet.name}`,
+    ...PRINT_CAUTION(area),
     `Print area: ${formatLength(sheet.doc.printArea.width, u)} x ${formatLength(sheet.doc.printArea.height, u)}, placed ${formatLength(sheet.paper.areaXMm, u)} from the left and ${formatLength(sheet.paper.areaYMm, u)} from the top of ${formatLength(sheet.paper.paperWidthMm, u)} x ${formatLength(sheet.paper.paperHeightMm, u)} paper`,
     `Resolution: ${options.dpi} DPI; background ${options.background}; bleed ${formatLength(options.bleedMm, u)}`,
     `Minimum gap ${formatLength(sheet.doc.minGap, u)}; safe margin ${formatLength(sheet.doc.safeMargin, u)}`,
@@ -45,7 +56,8 @@ export async function exportSheet(sheet: ExportSheet, options: ExportOptions, on
   ];
   if (wants.has('pdf')) {
     onProgress?.(0.8, 'Writing the PDF');
-    files.push({ name: `${base}.pdf`, data: await sheetPdf(sheet, lines, png!, options.spotColour, options.summaryPage ? settings.filter(Boolean) : null) });
+    files.push({ name: `${base}.pdf`, data: await sheetPdf(sheet, lines, png!, options.spotColour, { checkBar: options.checkBar, summary: options.summaryPage ? settings.filter(Boolean) : null }) });
+    files.push({ name: `${base}-summary.pdf`, data: await summaryPdf(`${sheet.name}: export summary`, settings, { widthMm: sheet.paper.paperWidthMm, heightMm: sheet.paper.paperHeightMm }) });
   }
   files.push({ name: `${base}-settings.txt`, data: `${settings.join('\n')}\n` });
   onProgress?.(0.95, 'Zipping');

@@ -14,17 +14,26 @@ function resourceDict(page: PDFPage, key: string): PDFDict {
   return dict;
 }
 
+export type PdfExtras = {
+  /** A 1 in scale bar in the margin below the print area, to check the printout with a ruler. */
+  checkBar: boolean;
+  /** The summary as extra pages (off by default: "print all pages" would waste a sheet). */
+  summary: string[] | null;
+};
+
 /**
- * A PDF with the paper's page size, the print image at exact physical size where the profile puts
- * the print area, and the cut lines on their own layer (an optional content group) stroked in a
- * Separation spot colour named by the profile, so the cutter's software can find them.
+ * A PDF for printing: one page at the paper's size, the print image at exact physical size where the
+ * profile puts the print area, and the cut lines on their own layer (an optional content group)
+ * stroked in a Separation spot colour named by the profile, so the cutter's software can find them.
+ * The layer shows on screen and never prints: its usage dictionary says PrintState OFF and the
+ * default configuration applies usage on print (ISO 32000-1 §8.11.4.4, §8.11.4.3 /AS).
  */
 export async function sheetPdf(
   sheet: ExportSheet,
   lines: Array<{ id: string; name: string; ring: Ring; kind: 'kiss' | 'die' }>,
   printPng: Buffer,
   spotColour: string,
-  summary: string[] | null,
+  extras: PdfExtras,
 ): Promise<Buffer> {
   const pdf = await PDFDocument.create();
   pdf.setTitle(sheet.name);
@@ -40,8 +49,13 @@ export async function sheetPdf(
   const context = pdf.context;
   const tint = context.obj({ FunctionType: 2, Domain: [0, 1], C0: [0, 0, 0, 0], C1: [0, 1, 0, 0], N: 1 });
   const separation = context.obj([PDFName.of('Separation'), PDFName.of(spotColour.replace(/[^A-Za-z0-9_-]/g, '')), PDFName.of('DeviceCMYK'), tint]);
-  const layer: PDFRef = context.register(context.obj({ Type: 'OCG', Name: PDFString.of('Cut lines') }));
-  pdf.catalog.set(PDFName.of('OCProperties'), context.obj({ OCGs: [layer], D: { Order: [layer], ON: [layer] } }));
+  const layer: PDFRef = context.register(
+    context.obj({ Type: 'OCG', Name: PDFString.of('Cut lines (not printed)'), Intent: [PDFName.of('View'), PDFName.of('Design')], Usage: { Print: { PrintState: PDFName.of('OFF') }, View: { ViewState: PDFName.of('ON') } } }),
+  );
+  pdf.catalog.set(
+    PDFName.of('OCProperties'),
+    context.obj({ OCGs: [layer], D: { Order: [layer], ON: [layer], AS: [{ Event: PDFName.of('Print'), OCGs: [layer], Category: [PDFName.of('Print')] }, { Event: PDFName.of('View'), OCGs: [layer], Category: [PDFName.of('View')] }] } }),
+  );
   resourceDict(page, 'ColorSpace').set(PDFName.of('CSCut'), separation);
   resourceDict(page, 'Properties').set(PDFName.of('OCCut'), layer);
 
@@ -61,18 +75,78 @@ export async function sheetPdf(
   ops.push(PDFOperator.of('Q' as never), PDFOperator.of('EMC' as never));
   page.pushOperators(...ops);
 
-  if (summary) {
-    const info = pdf.addPage([pt(paperWidthMm), pt(paperHeightMm)]);
+  const bottomMargin = (paperHeightMm - areaYMm - area.height) * PT_PER_MM;
+  // Only where the margin has room for it (22 pt, about 8 mm): never over the print area.
+  if (extras.checkBar && bottomMargin >= 22) {
+    // 1 in long with quarter-inch ticks, centred under the print area in the bottom margin.
     const font = await pdf.embedFont(StandardFonts.Helvetica);
-    let cursor = info.getHeight() - 60;
-    for (const [i, text] of summary.entries()) {
-      // Standard fonts cover WinAnsi only; anything else is replaced so the page always renders.
-      const safe = text.replace(/[^\x20-\x7e\xa0-\xff]/g, '?');
-      info.drawText(safe, { x: 50, y: cursor, size: i === 0 ? 16 : 10, font, color: rgb(0.12, 0.23, 0.24) });
-      cursor -= i === 0 ? 26 : 14;
-      if (cursor < 40) break;
+    const y0 = Math.max(6, bottomMargin / 2 - 4);
+    const x0 = (areaXMm + area.width / 2) * PT_PER_MM - 36;
+    const ink = rgb(0.2, 0.2, 0.2);
+    page.drawRectangle({ x: x0, y: y0, width: 72, height: 6, color: ink });
+    for (let i = 0; i <= 4; i++) page.drawLine({ start: { x: x0 + i * 18, y: y0 + 6 }, end: { x: x0 + i * 18, y: y0 + (i % 4 === 0 ? 12 : 9) }, thickness: 0.5, color: ink });
+    const label = 'This bar is 1 in (25.4 mm) at 100 %: if not, the print was scaled.';
+    const size = 6.5;
+    page.drawText(label, { x: x0 + 36 - font.widthOfTextAtSize(label, size) / 2, y: y0 - 9, size, font, color: ink });
+  }
+  if (extras.summary) await addTextPages(pdf, extras.summary, [pt(paperWidthMm), pt(paperHeightMm)]);
+  // Plain (not compressed) object streams: older RIP and cutter software reads them more reliably.
+  return Buffer.from(await pdf.save({ useObjectStreams: false }));
+}
+
+/** Lines of text on as many pages as they need, every line wrapped to fit its page. */
+async function addTextPages(pdf: PDFDocument, lines: string[], size: [number, number]) {
+  const font = await pdf.embedFont(StandardFonts.Helvetica);
+  const margin = 50;
+  const width = size[0] - 2 * margin;
+  let page = pdf.addPage(size);
+  let cursor = size[1] - margin - 10;
+  for (const [i, text] of lines.entries()) {
+    const fontSize = i === 0 ? 16 : 10;
+    const lead = i === 0 ? 26 : 14;
+    // Standard fonts cover WinAnsi only; anything else is replaced so the page always renders.
+    const safe = text.replace(/[^\x20-\x7e\xa0-\xff]/g, '?');
+    const indent = /^\s*/.exec(safe)![0].length * 3;
+    for (const part of wrap(safe.trimStart(), (t) => font.widthOfTextAtSize(t, fontSize), width - indent)) {
+      if (cursor < margin) {
+        page = pdf.addPage(size);
+        cursor = size[1] - margin - 10;
+      }
+      page.drawText(part, { x: margin + indent, y: cursor, size: fontSize, font, color: rgb(0.12, 0.23, 0.24) });
+      cursor -= lead;
     }
   }
-  // Plain (not compressed) object streams: older RIP and cutter software reads them more reliably.
+}
+
+/** Greedy word wrap; a word longer than the line is cut. */
+export function wrap(text: string, measure: (t: string) => number, width: number): string[] {
+  if (text === '') return [''];
+  const out: string[] = [];
+  let line = '';
+  for (const word of text.split(/\s+/)) {
+    const next = line ? `${line} ${word}` : word;
+    if (measure(next) <= width) {
+      line = next;
+      continue;
+    }
+    if (line) out.push(line);
+    line = word;
+    while (measure(line) > width && line.length > 1) {
+      let cut = line.length - 1;
+      while (cut > 1 && measure(line.slice(0, cut)) > width) cut--;
+      out.push(line.slice(0, cut));
+      line = line.slice(cut);
+    }
+  }
+  if (line) out.push(line);
+  return out;
+}
+
+/** The summary of an export as a PDF of its own, wrapped and paginated. */
+export async function summaryPdf(title: string, lines: string[], size: { widthMm: number; heightMm: number }): Promise<Buffer> {
+  const pdf = await PDFDocument.create();
+  pdf.setTitle(title);
+  pdf.setCreator('Sheetsmith');
+  await addTextPages(pdf, lines, [size.widthMm * PT_PER_MM, size.heightMm * PT_PER_MM]);
   return Buffer.from(await pdf.save({ useObjectStreams: false }));
 }

@@ -26,6 +26,8 @@ export type ExportOptions = {
   /** Name of the spot colour the cutter's software looks for on the PDF's cut layer. */
   spotColour: string;
   summaryPage: boolean;
+  /** A 1 in scale bar in the PDF's margin, to check on paper that nothing was scaled. */
+  checkBar: boolean;
 };
 
 export type ExportSheet = {
@@ -45,5 +47,6 @@ export const DEFAULT_EXPORT_OPTIONS: ExportOptions = {
   dxfUnit: 'mm',
   sheetCut: null,
   spotColour: 'CutContour',
-  summaryPage: true,
+  summaryPage: false,
+  checkBar: true,
 };

@@ -2,6 +2,8 @@ import type { DataSource } from 'typeorm';
 import type { ExportJobView, ExportRequest } from '../../../shared/schemas/exports';
 import { documentProblems } from '../../../shared/sheet/bounds';
 import type { Log } from '../../lib/log';
+import { exportFileType, listZip, readFromZip } from '../../engine/export/bundle';
+import { exportFileLabel } from '../../../shared/schemas/exports';
 import { migrateDocument } from '../../../shared/sheet/document';
 import { ExportInputError, exportSheet } from '../../engine/export/export';
 import { exportPiece } from '../../engine/export/prepare';
@@ -14,7 +16,7 @@ import { SheetProfile } from './sheet-profile.entity';
 import type { SheetAnalysisService } from '../shop/sheet-analysis.service';
 import type { Finding } from '../../../shared/sheet/preflight';
 
-type Row = { id: string; sheet_version: number; status: ExportJobView['status']; progress: string; step: string; error: string | null; zip_key: string | null; created_at: Date };
+type Row = { id: string; sheet_version: number; status: ExportJobView['status']; progress: string; step: string; error: string | null; zip_key: string | null; files_json: string | null; created_at: Date };
 
 /**
  * Export jobs: the request answers at once; the work runs in the background (rasters in the outline
@@ -40,6 +42,9 @@ export class ExportsService {
       step: r.step,
       error: r.error,
       downloadUrl: r.status === 'done' ? `/api/teams/${teamId}/sheets/${sheetId}/exports/${r.id}/download` : null,
+      files: r.status === 'done' && r.files_json
+        ? (JSON.parse(r.files_json) as Array<{ name: string; size: number }>).map((f) => ({ ...f, label: exportFileLabel(f.name), url: `/api/teams/${teamId}/sheets/${sheetId}/exports/${r.id}/files/${encodeURIComponent(f.name)}` }))
+        : [],
       createdAt: new Date(r.created_at).toISOString(),
     };
   }
@@ -98,7 +103,8 @@ export class ExportsService {
       });
       await writes;
       const { key } = await this.storage.put(result.zip);
-      await this.dataSource.query("UPDATE sheet_exports SET status = 'done', progress = 1, step = 'Ready', zip_key = ?, zip_name = ? WHERE id = ?", [key, result.zipName, id]);
+      const files = JSON.stringify(await listZip(result.zip));
+      await this.dataSource.query("UPDATE sheet_exports SET status = 'done', progress = 1, step = 'Ready', zip_key = ?, zip_name = ?, files_json = ? WHERE id = ?", [key, result.zipName, files, id]);
     } catch (error) {
       const message = error instanceof ExportInputError || (error as { code?: string }).code ? (error as Error).message : 'The export failed on our side. Try again.';
       if (!(error instanceof ExportInputError)) this.log.error({ err: error, exportId: id }, 'export failed');
@@ -123,5 +129,13 @@ export class ExportsService {
     const [row] = await this.dataSource.query("SELECT zip_key, zip_name FROM sheet_exports WHERE id = ? AND sheet_id = ? AND team_id = ? AND status = 'done'", [id, sheetId, teamId]);
     if (!row) throw notFound('That export');
     return { name: row.zip_name, data: await this.storage.get(row.zip_key) };
+  }
+
+  /** One file of a finished bundle, the same bytes as in the zip. */
+  async downloadFile(teamId: string, sheetId: string, id: string, name: string): Promise<{ name: string; type: string; data: Buffer }> {
+    const bundle = await this.download(teamId, sheetId, id);
+    const data = await readFromZip(bundle.data, name);
+    if (!data) throw notFound('That file');
+    return { name, type: exportFileType(name), data };
   }
 }

@@ -107,5 +107,15 @@ export function sheetsRouter({ dataSource, sheets, profiles, exports, costing }:
       res.attachment(file.name).type('zip').send(file.data);
     }),
   );
+  router.get(
+    '/teams/:teamId/sheets/:sheetId/exports/:exportId/files/:file',
+    scoped,
+    view,
+    route({ params: exportParams.extend({ file: z.string().regex(/^[a-z0-9-]{1,80}\.(png|svg|pdf|dxf|txt)$/, 'Not a file of this export') }) }, async ({ params }, req, res) => {
+      const file = await exports.downloadFile(teamId(req), params.sheetId, params.exportId, params.file);
+      // Always a download (never shown inline), so an SVG cannot run in the app's origin.
+      res.attachment(file.name).type(file.type).send(file.data);
+    }),
+  );
   return router;
 }

@@ -1,18 +1,20 @@
 import { useQuery } from '@tanstack/react-query';
 import { useEffect, useState } from 'react';
 import type { ExportJobView } from '../../../../shared/schemas/exports';
+import { exportFileLabel } from '../../../../shared/schemas/exports';
 import { ApiError } from '../../../lib/api-client';
 import { getExport, latestExport, startExport } from '../api/exports';
 import type { Finding } from '../../../../shared/sheet/preflight';
 
 /** Export settings, the running job's progress, and the bundle to download (kept per sheet version). */
-export function ExportPanel({ teamId, sheetId, unsaved, findings, onClose }: { teamId: string; sheetId: string; unsaved: boolean; findings: Finding[]; onClose: () => void }) {
+export function ExportPanel({ teamId, sheetId, unsaved, findings, areaText, onClose }: { teamId: string; sheetId: string; unsaved: boolean; findings: Finding[]; areaText: string; onClose: () => void }) {
   const errors = findings.filter((f) => f.severity === 'error');
   const [acceptErrors, setAcceptErrors] = useState(false);
   const [dpi, setDpi] = useState(300);
   const [background, setBackground] = useState<'transparent' | 'white'>('transparent');
   const [bleed, setBleed] = useState(0);
   const [sheetCut, setSheetCut] = useState(false);
+  const [checkBar, setCheckBar] = useState(true);
   const [job, setJob] = useState<ExportJobView | null>(null);
   const [error, setError] = useState<string | null>(null);
   const latest = useQuery({ queryKey: ['teams', teamId, 'sheets', sheetId, 'export-latest'], queryFn: () => latestExport(teamId, sheetId) });
@@ -26,7 +28,7 @@ export function ExportPanel({ teamId, sheetId, unsaved, findings, onClose }: { t
   const start = async () => {
     setError(null);
     try {
-      setJob(await startExport(teamId, sheetId, { dpi, background, bleedMm: bleed, sheetCut: sheetCut ? { marginMm: 1.5, radiusMm: 3 } : null, acceptErrors }));
+      setJob(await startExport(teamId, sheetId, { dpi, background, bleedMm: bleed, sheetCut: sheetCut ? { marginMm: 1.5, radiusMm: 3 } : null, checkBar, acceptErrors }));
     } catch (e) {
       setError(e instanceof ApiError ? e.message : 'The export could not start.');
     }
@@ -49,6 +51,7 @@ export function ExportPanel({ teamId, sheetId, unsaved, findings, onClose }: { t
         </label>
         <p className="text-xs text-ink-faint">White borders need no bleed; coloured borders: 0.5 to 1.5 mm (common practice).</p>
         <label className="flex items-center gap-2 font-bold"><input type="checkbox" checked={sheetCut} onChange={(e) => setSheetCut(e.target.checked)} />Die cut around the whole sheet</label>
+        <label className="flex items-center gap-2 font-bold"><input type="checkbox" checked={checkBar} onChange={(e) => setCheckBar(e.target.checked)} />1 in check bar in the PDF's margin</label>
       </div>
       {errors.length > 0 && (
         <div className="mt-3 rounded-lg border-l-4 border-alarm bg-alarm-light p-2" data-testid="export-preflight">
@@ -61,10 +64,23 @@ export function ExportPanel({ teamId, sheetId, unsaved, findings, onClose }: { t
         <div className="mt-3" role="status" data-testid="export-status">
           <progress max={1} value={shown.progress} className="h-2 w-full accent-sage" aria-label="Export progress" />
           <p>{shown.status === 'done' ? `Ready (sheet version ${shown.sheetVersion}).` : shown.status === 'failed' ? shown.error : `${shown.step}…`}</p>
-          {shown.downloadUrl && <a href={shown.downloadUrl} className="font-bold text-peel-deep underline">Download the bundle (zip)</a>}
+          {shown.status === 'done' && shown.files.length > 0 && (
+            <ul className="mt-1 flex flex-col gap-0.5" aria-label="Files of this export">
+              {shown.files.map((f) => (
+                <li key={f.name}>
+                  <a href={f.url} download={f.name} className="font-bold text-peel-deep underline">{exportFileLabel(f.name)}</a>{' '}
+                  <span className="text-xs text-ink-faint">{(f.size / 1024).toFixed(0)} KB</span>
+                </li>
+              ))}
+            </ul>
+          )}
+          {shown.downloadUrl && <a href={shown.downloadUrl} className="mt-1 inline-block font-bold text-peel-deep underline">Everything in one zip</a>}
         </div>
       )}
       {error && <p role="alert" className="mt-2 font-semibold text-alarm">{error}</p>}
+      <p className="mt-3 rounded-lg border-l-4 border-peel bg-paper-deep p-2 text-xs font-semibold text-ink" data-testid="print-caution">
+        Print at 100 % (actual size): no scaling, no fit-to-page, no borderless expansion. A scaled print puts the cut lines off the art and wastes the sheet. Check with a ruler: the print area is {areaText}{checkBar ? ', and the bar under it in the PDF is 1 in' : ''}.
+      </p>
       <p className="mt-3 text-xs text-ink-faint">Before cutting: follow your cutter's manual, keep fingers clear of the moving carriage, and change blades with the tool it provides.</p>
       <div className="mt-3 flex gap-2">
         <button type="button" onClick={() => void start()} disabled={unsaved || job?.status === 'running' || (errors.length > 0 && !acceptErrors)} className="rounded-full bg-ink px-4 py-1 font-bold text-paper disabled:opacity-50">Export</button>
