@@ -3,6 +3,8 @@
 // Outlines each art file, arranges the pieces and writes sheet.json (the sheet document with the art
 // files), sheet.svg (every cut line, in mm) and sheet.png (the print image at 300 DPI); more sheets
 // when one is not enough (sheet-2.*). Prints one JSON line. No database needed.
+import { DEFAULT_ART_BACKGROUND, pieceOutlineOptions } from '../shared/sheet/outline-request';
+import { DEFAULT_PREFLIGHT_LIMITS } from '../shared/sheet/preflight';
 import { mkdir, readFile, writeFile } from 'node:fs/promises';
 import path from 'node:path';
 import { parseArgs } from 'node:util';
@@ -63,7 +65,8 @@ for (const [index, spec] of positionals.entries()) {
     continue;
   }
   try {
-    const result = await outline(await readFile(file), { width: artWidth, border, dpi });
+    // The same request a sheet piece makes (white border, default background), at the CLI's resolution.
+    const result = await outline(await readFile(file), pieceOutlineOptions(DEFAULT_ART_BACKGROUND, { width: artWidth, border, borderColour: '#ffffff' }, { minFeatureMm: DEFAULT_PREFLIGHT_LIMITS.minFeatureMm, dpi }));
     const piece = result.pieces[0];
     const key = String(index + 1);
     files.set(key, { file: path.resolve(file), png: piece.png, widthMm: piece.widthMm, heightMm: piece.heightMm });

@@ -2,6 +2,8 @@
 //   [--background transparent|white] [--bleed 0mm] [--paper letter|a4] [--dxf-unit mm|in] [--name "…"]
 // Exports a sheet saved as JSON by the arrange CLI (the sheet document plus its art files); writes
 // every file and the bundle zip. No database needed.
+import { DEFAULT_ART_BACKGROUND, pieceOutlineOptions } from '../shared/sheet/outline-request';
+import { DEFAULT_PREFLIGHT_LIMITS } from '../shared/sheet/preflight';
 import { mkdir, readFile, writeFile } from 'node:fs/promises';
 import path from 'node:path';
 import { parseArgs } from 'node:util';
@@ -51,7 +53,7 @@ for (const piece of document.pieces) {
   const artFile = art[piece.artId] ?? fail(`Piece ${piece.id}: its art ${piece.artId} is not listed in ${file}`);
   if (!images.has(artFile)) images.set(artFile, await readFile(artFile).catch(() => fail(`${artFile}: no such file`)));
   try {
-    pieces.push(await exportPiece(piece, path.basename(artFile), dpi, bleedMm, (options) => outline(images.get(artFile)!, options)));
+    pieces.push(await exportPiece(piece, path.basename(artFile), pieceOutlineOptions(DEFAULT_ART_BACKGROUND, piece, { minFeatureMm: DEFAULT_PREFLIGHT_LIMITS.minFeatureMm, dpi }), bleedMm, (options) => outline(images.get(artFile)!, options)));
   } catch (error) {
     fail(`${artFile}: ${error instanceof OutlineInputError ? error.message : (error as Error).message}`);
   }

@@ -1,5 +1,6 @@
 // npm run bench:export: renders a full sheet of 40 pieces at 300 DPI (every format and the zip),
 // and in the same run the floor: one sharp composite of the same rasters with none of our work.
+import { DEFAULT_ART_BACKGROUND, pieceOutlineOptions } from '../../shared/sheet/outline-request';
 import sharp from 'sharp';
 import type { Piece } from '../../shared/sheet/document';
 import { inchToMm } from '../../shared/units';
@@ -14,7 +15,7 @@ const art = await sharp(Buffer.from('<svg xmlns="http://www.w3.org/2000/svg" wid
 const pieces: ExportPiece[] = [];
 for (let i = 0; i < 40; i++) {
   const piece: Piece = { id: `b${i}`, artId: '1', x: 14 + (i % 5) * 35, y: 14 + Math.floor(i / 5) * 29, rotation: (i * 37) % 360, width: 22, border: 2, borderColour: '#ffffff', locked: false };
-  pieces.push(await exportPiece(piece, 'disc.png', 300, 0, (o) => outline(art, o)));
+  pieces.push(await exportPiece(piece, 'disc.png', pieceOutlineOptions(DEFAULT_ART_BACKGROUND, piece, { minFeatureMm: 1, dpi: 300 }), 0, (o) => outline(art, o)));
 }
 const sheet = { name: 'Bench', unit: 'in' as const, doc: { schemaVersion: 1 as const, printArea: { width: W, height: H }, safeMargin: 3, minGap: 3, pieces: pieces.map((p) => p.piece) }, pieces, paper: { paperWidthMm: 215.9, paperHeightMm: 279.4, areaXMm: 22.225, areaYMm: 22.225 } };
 

@@ -1,3 +1,4 @@
+import { pieceSizeOptions } from './outline-request';
 import type { Box, Point, Ring } from '../geometry/polygon';
 import { boundingBox } from '../geometry/polygon';
 import type { Piece } from './document';
@@ -94,5 +95,7 @@ export function cutLineDistance(a: Ring, b: Ring, stopBelow = Infinity): number 
  * cut line itself is exact in millimetres at any DPI.
  */
 export function pieceOutlineQuery(p: Pick<Piece, 'width' | 'border' | 'borderColour'>, minFeatureMm: number): Record<string, string> {
-  return { width: `${p.width.toFixed(2)}mm`, border: `${p.border.toFixed(3)}mm`, borderColour: p.borderColour, dpi: '150', minFeature: `${minFeatureMm.toFixed(2)}mm` };
+  // The editor's URL form of pieceOutlineOptions() (the server adds the art's background setting).
+  const o = pieceSizeOptions(p, minFeatureMm);
+  return { width: `${o.width.toFixed(2)}mm`, border: `${o.border.toFixed(3)}mm`, borderColour: o.borderColour, dpi: String(o.dpi), minFeature: `${o.minFeature.toFixed(2)}mm` };
 }

@@ -1,5 +1,7 @@
 import JSZip from 'jszip';
+import sharp from 'sharp';
 import { describe, expect, it } from 'vitest';
+import { pieceOutlineQuery } from '../../shared/sheet/placement';
 import { svgArt } from '../helpers/art';
 import { Client, makeTeamWithRoles, useTestApp } from '../helpers/app';
 import { uploadFile } from '../helpers/library';
@@ -76,6 +78,45 @@ describe('sheet exports', () => {
     }
     expect((await member.get(`/api/teams/${team.id}/sheets/${sheet.id}/exports/${started.body.id}/files/not-there.png`)).status).toBe(404);
     expect((await member.get(`/api/teams/${team.id}/sheets/${sheet.id}/exports/${started.body.id}/files/..%2Fsecret.txt`)).status).toBe(400);
+  });
+
+  it('prints exactly what the editor previewed: the same raster for art with a non-default background tolerance', async () => {
+    const { team, users } = await makeTeamWithRoles(t.db);
+    const member = new Client(t.sheetsmith.app);
+    await member.signIn(users.member.email);
+    // No transparency: a plum disc with a pale halo (#f0f0f0, 26 from white in RGB) on white.
+    // The default tolerance (32) removes the halo with the background; a tolerance of 10 keeps it.
+    const flat = await sharp(Buffer.from('<svg xmlns="http://www.w3.org/2000/svg" width="600" height="600"><rect width="600" height="600" fill="#ffffff"/><circle cx="300" cy="300" r="260" fill="#f0f0f0"/><circle cx="300" cy="300" r="180" fill="#8e44ad"/></svg>')).flatten({ background: '#ffffff' }).png().toBuffer();
+    const art = (await uploadFile(member, team.id, flat, 'halo.png')).body.results[0].item;
+    expect((await member.send('patch', `/api/teams/${team.id}/art/${art.id}`, { background: { mode: 'auto', tolerance: 10 } })).status).toBe(200);
+    const piece = testPiece('h1', art.id, 60, 60, { width: 50 });
+    const { body: sheet } = await member.post(`/api/teams/${team.id}/sheets`, { name: 'Halo' });
+    await placePieces(member, team.id, sheet, [piece]);
+    const binary = (res: import('superagent').Response, cb: (err: Error | null, body: Buffer) => void) => {
+      const parts: Buffer[] = [];
+      res.on('data', (c: Buffer) => parts.push(c));
+      res.on('end', () => cb(null, Buffer.concat(parts)));
+    };
+    // The visible part is always printed 50 mm wide, so what the tolerance changes is how much of
+    // it is plum: with the halo kept, the plum disc is (180/260)² ≈ 0.48 of what it is without.
+    const opaque = async (png: Buffer) => {
+      const { data } = await sharp(png).ensureAlpha().raw().toBuffer({ resolveWithObject: true });
+      let n = 0;
+      for (let i = 0; i < data.length; i += 4) if (data[i + 3] > 127 && data[i] < 180 && data[i + 1] < 110 && data[i + 2] > 120) n++;
+      return n;
+    };
+    // What the editor shows: its own outline request for the piece (the server adds the art's setting).
+    const previewOf = async (extra = '') => {
+      const outline = await member.get(`/api/teams/${team.id}/art/${art.id}/outline?${new URLSearchParams(pieceOutlineQuery(piece, 1))}${extra}`);
+      return opaque((await member.get(outline.body.pieces[0].pngUrl).buffer(true).parse(binary)).body as Buffer);
+    };
+    const preview = await previewOf();
+    const atDefault = await previewOf('&background=auto&backgroundTolerance=32');
+    expect(preview / atDefault).toBeLessThan(0.6); // the setting matters: the halo stays
+    const started = await member.post(`/api/teams/${team.id}/sheets/${sheet.id}/exports`, { dpi: 150, formats: ['png'] });
+    const done = await waitFor(member, `/api/teams/${team.id}/sheets/${sheet.id}/exports/${started.body.id}`);
+    const print = (await member.get(done.files.find((f: { name: string }) => f.name.endsWith('-print.png')).url).buffer(true).parse(binary)).body as Buffer;
+    expect(Math.abs((await opaque(print)) - preview) / preview).toBeLessThan(0.005);
   });
 
   it('gives clear errors: another team’s sheet (404), an empty sheet (422), a DPI out of range (400), a viewer (403)', async () => {

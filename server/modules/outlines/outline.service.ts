@@ -3,7 +3,7 @@ import type { DataSource } from 'typeorm';
 import type { OutlineOptions } from '../../../shared/schemas/outline';
 import { outlineOptionsSchema } from '../../../shared/schemas/outline';
 import type { Piece } from '../../../shared/sheet/document';
-import { pieceOutlineQuery } from '../../../shared/sheet/placement';
+import { artBackgroundOptions, pieceOutlineOptions } from '../../../shared/sheet/outline-request';
 import type { OutlineResult } from '../../engine/outline/outline';
 import type { OutlinePool } from '../../engine/outline/pool';
 import { AppError, notFound } from '../../lib/errors';
@@ -36,9 +36,7 @@ export function outlineCacheKey(artSha256: string, options: OutlineOptions): str
 /** Without a background in the request, the art item's saved background setting applies. */
 export function withArtBackground(item: ArtItem, options: OutlineOptions, explicitBackground: boolean): OutlineOptions {
   if (explicitBackground) return options;
-  if (item.backgroundMode === 'keep') return { ...options, background: 'keep' };
-  if (item.backgroundMode === 'colour') return { ...options, background: { colour: item.backgroundColour!, tolerance: item.backgroundTolerance } };
-  return { ...options, backgroundTolerance: item.backgroundTolerance };
+  return outlineOptionsSchema.parse({ ...options, ...artBackgroundOptions(item) });
 }
 
 /**
@@ -61,7 +59,7 @@ export class OutlineService {
 
   /** The outline the editor requests for a placed piece: the same options, so the same cache entry. */
   forPiece(art: ArtItem, piece: Pick<Piece, 'width' | 'border' | 'borderColour'>, minFeatureMm: number, access: OutlineAccess = 'compute') {
-    return this.forArt(art, withArtBackground(art, outlineOptionsSchema.parse(pieceOutlineQuery(piece, minFeatureMm)), false), access);
+    return this.forArt(art, outlineOptionsSchema.parse(pieceOutlineOptions(art, piece, { minFeatureMm })), access);
   }
 
   /** The outline of a team's art at the given options, from cache when it was computed before. */

@@ -4,6 +4,8 @@ import { documentProblems } from '../../../shared/sheet/bounds';
 import type { Log } from '../../lib/log';
 import { exportFileType, listZip, readFromZip } from '../../engine/export/bundle';
 import { exportFileLabel } from '../../../shared/schemas/exports';
+import { pieceOutlineOptions } from '../../../shared/sheet/outline-request';
+import { DEFAULT_PREFLIGHT_LIMITS } from '../../../shared/sheet/preflight';
 import { migrateDocument } from '../../../shared/sheet/document';
 import { ExportInputError, exportSheet } from '../../engine/export/export';
 import { exportPiece } from '../../engine/export/prepare';
@@ -85,8 +87,9 @@ export class ExportsService {
         const art = arts.get(piece.artId);
         if (!art) throw new ExportInputError(`Piece ${i + 1} uses art that is no longer in the team.`);
         if (!bytes.has(art.id)) bytes.set(art.id, await this.storage.get(art.storageKey));
-        const background = art.backgroundMode === 'keep' ? ('keep' as const) : art.backgroundMode === 'colour' ? { colour: art.backgroundColour!, tolerance: art.backgroundTolerance } : ('auto' as const);
-        pieces.push(await exportPiece(piece, art.name, options.dpi, options.bleedMm, (o) => this.pool.run(bytes.get(art.id)!, { ...o, background })));
+        // The same request the editor's outline was made from, at the export's resolution.
+        const request = pieceOutlineOptions(art, piece, { minFeatureMm: profile?.minFeatureMm ?? DEFAULT_PREFLIGHT_LIMITS.minFeatureMm, dpi: options.dpi });
+        pieces.push(await exportPiece(piece, art.name, request, options.bleedMm, (o) => this.pool.run(bytes.get(art.id)!, o)));
         await this.progress(id, 0.4 * ((i + 1) / doc.pieces.length), `Outlining piece ${i + 1} of ${doc.pieces.length}`);
       }
       const paper = profile
