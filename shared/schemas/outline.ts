@@ -51,6 +51,10 @@ export const outlineOptionsSchema = z
     smoothing: lengthSchema('Smoothing').pipe(z.number().min(0).max(1)).default(0.05),
     /** Narrowest part of a cut line that still cuts cleanly (common practice: about 1 mm). */
     minFeature: lengthSchema('Smallest feature').pipe(z.number().min(0).max(20)).default(1),
+    /** Width of the cut shape where it joins separate parts of the art (never below minFeature). */
+    bridgeWidth: lengthSchema('Bridge width').pipe(z.number().min(0.5).max(20)).default(3),
+    /** Also widen necks inside one part of the art to the bridge width (the maker agreed to change the shape). */
+    widenNecks: z.union([z.boolean(), z.enum(['true', 'false', '1', '0']).transform((v) => v === 'true' || v === '1')]).default(false),
   })
   .refine((o) => (o.width === undefined) !== (o.height === undefined), {
     message: 'Give the printed width or the printed height (one of them)',
@@ -65,12 +69,16 @@ export type OutlineWarning = {
     | 'low-resolution'
     | 'very-low-resolution'
     | 'narrow-neck'
+    | 'narrow-slot'
+    | 'necks-widened'
     | 'specks-dropped'
     | 'islands-joined'
     | 'background-removed'
     | 'no-flat-background';
   severity: 'notice' | 'warning';
   message: string;
+  /** Where on the finished sticker (mm from its top-left corner), for warnings about a place. */
+  at?: { xMm: number; yMm: number };
 };
 
 const HEX = /^#?[0-9a-fA-F]{6}$/;

@@ -3,7 +3,7 @@
 
 type Pixel = { x: number; y: number };
 
-function boundaryPixels(labels: Int32Array, mask: Uint8Array, width: number, height: number, groups: number): Pixel[][] {
+export function boundaryPixels(labels: Int32Array, mask: Uint8Array, width: number, height: number, groups: number): Pixel[][] {
   const out: Pixel[][] = Array.from({ length: groups }, () => []);
   for (let y = 0; y < height; y++) {
     for (let x = 0; x < width; x++) {
@@ -20,7 +20,7 @@ function boundaryPixels(labels: Int32Array, mask: Uint8Array, width: number, hei
   });
 }
 
-function closestPair(a: Pixel[], b: Pixel[]): { p: Pixel; q: Pixel; d2: number } {
+export function closestPair(a: Pixel[], b: Pixel[]): { p: Pixel; q: Pixel; d2: number } {
   let best = { p: a[0], q: b[0], d2: Infinity };
   for (const p of a) {
     for (const q of b) {

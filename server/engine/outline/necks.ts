@@ -1,3 +1,4 @@
+import { boundaryPixels, closestPair } from './bridge';
 import { labelComponents } from './components';
 import { distanceTransform } from '../../../shared/geometry/distance-transform';
 
@@ -7,9 +8,19 @@ import { distanceTransform } from '../../../shared/geometry/distance-transform';
  * least the radius). Leftover pieces bigger than radius² px are reported; smaller ones are the
  * rounding of ordinary corners. Returns the centres (px) of the narrow parts found.
  */
-export function findNarrowParts(filled: Uint8Array, width: number, height: number, minWidth: number): Array<{ x: number; y: number; area: number }> {
+export function findNarrowParts(filled: Uint8Array, width: number, height: number, minWidth: number): Array<{ x: number; y: number; area: number; box: { minX: number; minY: number; maxX: number; maxY: number } }> {
   const r = minWidth / 2;
   if (r < 1) return [];
+  const residue = thinResidue(filled, width, height, r);
+  if (!residue) return [];
+  const { components } = labelComponents(residue, width, height);
+  return components
+    .filter((c) => c.area > r * r)
+    .map((c) => ({ x: (c.minX + c.maxX + 1) / 2, y: (c.minY + c.maxY + 1) / 2, area: c.area, box: { minX: c.minX, minY: c.minY, maxX: c.maxX, maxY: c.maxY } }));
+}
+
+/** The pixels of a filled shape an opening by a disk of radius `r` px removes; null when none. */
+export function thinResidue(filled: Uint8Array, width: number, height: number, r: number): Uint8Array | null {
   const outside = new Uint8Array(filled.length);
   for (let i = 0; i < filled.length; i++) outside[i] = filled[i] ? 0 : 1;
   // Distances run between pixel centres; the +0.5 puts them on the pixel edge the cut follows.
@@ -25,9 +36,62 @@ export function findNarrowParts(filled: Uint8Array, width: number, height: numbe
       any = true;
     }
   }
-  if (!any) return [];
-  const { components } = labelComponents(residue, width, height);
-  return components
-    .filter((c) => c.area > r * r)
-    .map((c) => ({ x: (c.minX + c.maxX + 1) / 2, y: (c.minY + c.maxY + 1) / 2, area: c.area }));
+  return any ? residue : null;
+}
+
+/** What an inward offset by `r` px leaves of a filled shape (distances measured to the pixel edge). */
+export function erode(filled: Uint8Array, width: number, height: number, r: number): Uint8Array {
+  const outside = new Uint8Array(filled.length);
+  for (let i = 0; i < filled.length; i++) outside[i] = filled[i] ? 0 : 1;
+  const inner = distanceTransform(outside, width, height);
+  const out = new Uint8Array(filled.length);
+  for (let i = 0; i < filled.length; i++) out[i] = filled[i] && inner[i] - 0.5 >= r ? 1 : 0;
+  return out;
+}
+
+/**
+ * Necks narrower than `minWidth` px: places where an inward offset by half that width splits the
+ * shape in two (the narrowest width of a shape is where its erosion first disconnects). Each neck is
+ * reported at the midpoint between the closest points of the parts it separates. Parts smaller than
+ * r² px are the erosion's rounding, not parts.
+ */
+export function findNecks(filled: Uint8Array, width: number, height: number, minWidth: number): Array<{ x: number; y: number }> {
+  const r = minWidth / 2;
+  if (r < 1) return [];
+  const eroded = erode(filled, width, height, r);
+  const { labels, components } = labelComponents(eroded, width, height);
+  const kept = components.filter((c) => c.area > r * r);
+  if (kept.length < 2) return [];
+  const index = new Map(kept.map((c, i) => [c.label, i + 1]));
+  const groupLabels = new Int32Array(labels.length);
+  for (let i = 0; i < labels.length; i++) groupLabels[i] = index.get(labels[i]) ?? 0;
+  const boundary = boundaryPixels(groupLabels, eroded, width, height, kept.length);
+  // A spanning tree of closest pairs: one neck per join the erosion undid.
+  const inTree = new Set([0]);
+  const necks: Array<{ x: number; y: number }> = [];
+  while (inTree.size < kept.length) {
+    let best: { p: { x: number; y: number }; q: { x: number; y: number }; d2: number; g: number } | null = null;
+    for (const t of inTree) {
+      for (let g = 0; g < kept.length; g++) {
+        if (inTree.has(g) || !boundary[g].length || !boundary[t].length) continue;
+        const pair = closestPair(boundary[t], boundary[g]);
+        if (!best || pair.d2 < best.d2) best = { ...pair, g };
+      }
+    }
+    if (!best) break;
+    inTree.add(best.g);
+    necks.push({ x: (best.p.x + best.q.x + 1) / 2, y: (best.p.y + best.q.y + 1) / 2 });
+  }
+  return necks;
+}
+
+/** Slots and notches narrower than `minWidth` px: thin parts of the outside reaching into the shape. */
+export function findSlots(filled: Uint8Array, width: number, height: number, minWidth: number): Array<{ x: number; y: number; area: number }> {
+  // The outside goes on past the canvas: pad it, so the strip between the shape and the canvas
+  // edge is not taken for a slot.
+  const m = Math.ceil(minWidth) + 2;
+  const W = width + 2 * m, H = height + 2 * m;
+  const outside = new Uint8Array(W * H).fill(1);
+  for (let y = 0; y < height; y++) for (let x = 0; x < width; x++) if (filled[y * width + x]) outside[(y + m) * W + x + m] = 0;
+  return findNarrowParts(outside, W, H, minWidth).map((p) => ({ ...p, x: p.x - m, y: p.y - m }));
 }

@@ -9,9 +9,9 @@ import { bridgeIslands } from './bridge';
 import { clearComponents, fillHoles, labelComponents, labelRuns } from './components';
 import type { Component } from './components';
 import { decodeArt } from './decode';
-import { squaredDistanceTransform } from '../../../shared/geometry/distance-transform';
+import { distanceTransform, squaredDistanceTransform } from '../../../shared/geometry/distance-transform';
 import { OutlineInputError } from './errors';
-import { findNarrowParts } from './necks';
+import { erode, findNarrowParts, findNecks, findSlots, thinResidue } from './necks';
 import { composeSticker, encodePng } from './raster';
 import type { Frame } from './raster';
 import { simplifyRing, traceOuterRings } from './trace';
@@ -216,15 +216,24 @@ export async function outline(image: Buffer, rawOptions: OutlineOptionsInput, li
           })();
     const points = scale(translate(ring, -frame.x, -frame.y), 1 / pxPerMm);
 
-    // A border at least half the smallest feature makes the shape a union of disks that wide, which
-    // an opening by that disk leaves unchanged: no neck is possible, so the search is skipped.
-    const necks = level >= minFeaturePx / 2 ? [] : findNarrowParts(filled, cw, ch, minFeaturePx);
+    // Three ways a blade tears a sticker: a waist narrower than the smallest feature (an inward offset
+    // by half of it splits the shape), a thin spike (an opening by a disk that wide removes it; with a
+    // border at least half the smallest feature the shape is a union of such disks and has none),
+    // and a slot too narrow to cut (the same opening of the outside).
+    const where = (p: { x: number; y: number }) => ({ xMm: toMm(p.x - frame.x), yMm: toMm(p.y - frame.y) });
+    const at = (p: { xMm: number; yMm: number }) => `(${formatLength(p.xMm, 'mm')}, ${formatLength(p.yMm, 'mm')})`;
+    const waists = findNecks(filled, cw, ch, minFeaturePx);
+    const slack = minFeaturePx;
+    // A thin part that holds a waist is that waist: one warning for one place.
+    const spikes = level >= minFeaturePx / 2 ? [] : findNarrowParts(filled, cw, ch, minFeaturePx).filter((t) => !waists.some((w) => w.x >= t.box.minX - slack && w.x <= t.box.maxX + 1 + slack && w.y >= t.box.minY - slack && w.y <= t.box.maxY + 1 + slack));
+    const necks = [...waists, ...spikes];
     for (const neck of necks) {
-      warnings.push({
-        code: 'narrow-neck',
-        severity: 'warning',
-        message: `The cut line narrows below ${formatLength(options.minFeature, 'mm')} near (${formatLength(toMm(neck.x - frame.x), 'mm')}, ${formatLength(toMm(neck.y - frame.y), 'mm')}): the blade may tear it. Widen the border or join the parts.`,
-      });
+      const p = where(neck);
+      warnings.push({ code: 'narrow-neck', severity: 'warning', at: p, message: `The cut line narrows below ${formatLength(options.minFeature, 'mm')} near ${at(p)} from the sticker's top-left corner: the blade may tear it. Widen the border, or let Sheetsmith widen narrow necks.` });
+    }
+    for (const slot of findSlots(filled, cw, ch, minFeaturePx)) {
+      const p = where(slot);
+      warnings.push({ code: 'narrow-slot', severity: 'warning', at: p, message: `The cut line has a slot narrower than ${formatLength(options.minFeature, 'mm')} near ${at(p)} from the sticker's top-left corner: the blade cannot cut it cleanly. Widen the border to close it.` });
     }
     const rgbaOut = composeSticker({ frame, canvasWidth: cw, field, holes, art, artWidth: artW, artHeight: artH, artOrigin: origin, artVisible, border });
     pieces.push({
@@ -242,13 +251,32 @@ export async function outline(image: Buffer, rawOptions: OutlineOptionsInput, li
   };
 
   if (options.islands === 'join' || groups.components.length === 1) {
-    if (groups.components.length > 1) {
-      const groupOfArt = new Int32Array(cw * ch);
-      for (let i = 0; i < artMask.length; i++) if (artMask[i]) groupOfArt[i] = groups.labels[i];
-      const radius = Math.max(0.75, minFeaturePx / 2);
-      const bridges = bridgeIslands(artMask, groupOfArt, groups.components.length, cw, ch, radius);
+    // Parts are what the grown shape holds together more widely than the bridge width: an inward
+    // offset by half of it keeps them apart where only a thin waist of border joins them. Parts of
+    // one piece of art stay one part unless the maker asked to widen necks.
+    const bridgePx = Math.max(options.bridgeWidth, options.minFeature) * pxPerMm;
+    const wide = formatLength(Math.max(options.bridgeWidth, options.minFeature), 'mm');
+    if (options.widenNecks) {
+      // The maker agreed to change the shape: every part of the cut shape thinner than the bridge
+      // width (what an opening by it removes) gets art added around it until it is that wide.
+      const residue = thinResidue(grown, cw, ch, bridgePx / 2);
+      const thin = residue ? labelComponents(residue, cw, ch).components.filter((c) => c.area > (bridgePx / 2) ** 2).length : 0;
+      if (residue && thin > 0) {
+        const reach = distanceTransform(residue, cw, ch);
+        const grow = Math.max(1, bridgePx / 2 - (level - 0.5) + 1);
+        for (let i = 0; i < artMask.length; i++) if (reach[i] <= grow) artMask[i] = 1;
+        squared = squaredDistanceTransform(artMask, cw, ch);
+        for (let i = 0; i < grown.length; i++) grown[i] = squared[i] <= level2 ? 1 : 0;
+        warnings.push({ code: 'necks-widened', severity: 'notice', message: `Widened ${thin} narrow part${thin === 1 ? '' : 's'} of the cut line to at least ${wide}, as asked.` });
+      }
+    }
+    const parts = joinParts(artMask, grown, cw, ch, bridgePx / 2);
+    if (parts.count > 1) {
+      // The capsule drawn into the art grows by the border, so it needs only what the border lacks.
+      const radius = Math.max(0.75, bridgePx / 2 - (level - 0.5) + 1);
+      const bridges = bridgeIslands(artMask, parts.labels, parts.count, cw, ch, radius);
       squared = squaredDistanceTransform(artMask, cw, ch);
-      warnings.push({ code: 'islands-joined', severity: 'notice', message: `Joined ${bridges + 1} separate parts of the art into one sticker with ${bridges} bridge${bridges === 1 ? '' : 's'}.` });
+      warnings.push({ code: 'islands-joined', severity: 'notice', message: `Joined ${parts.count} separate parts of the art into one sticker with ${bridges} bridge${bridges === 1 ? '' : 's'} at least ${wide} wide.` });
     }
     await buildPiece(artMask, () => true);
   } else {
@@ -281,4 +309,32 @@ export async function outline(image: Buffer, rawOptions: OutlineOptionsInput, li
     borderMm: options.border,
     warnings,
   };
+}
+
+/**
+ * Labels art pixels by the part of the sticker they belong to (1..count): the components of the
+ * grown shape eroded by `r` px, merged where one connected piece of art spans several (a piece of
+ * art's own thin waist is the maker's drawing, warned about, not bridged unless asked).
+ */
+function joinParts(artMask: Uint8Array, grown: Uint8Array, width: number, height: number, r: number): { labels: Int32Array; count: number } {
+  const eroded = erode(grown, width, height, r);
+  const er = labelComponents(eroded, width, height);
+  const art = labelComponents(artMask, width, height);
+  const E = er.components.length;
+  const parent = Int32Array.from({ length: E + art.components.length + 1 }, (_, i) => i);
+  const find = (a: number): number => (parent[a] === a ? a : (parent[a] = find(parent[a])));
+  const union = (a: number, b: number) => {
+    const ra = find(a), rb = find(b);
+    if (ra !== rb) parent[Math.max(ra, rb)] = Math.min(ra, rb);
+  };
+  for (let i = 0; i < artMask.length; i++) if (artMask[i] && er.labels[i] > 0) union(er.labels[i], E + art.labels[i]);
+  const ids = new Map<number, number>();
+  const labels = new Int32Array(artMask.length);
+  for (let i = 0; i < artMask.length; i++) {
+    if (!artMask[i]) continue;
+    const root = find(E + art.labels[i]);
+    if (!ids.has(root)) ids.set(root, ids.size + 1);
+    labels[i] = ids.get(root)!;
+  }
+  return { labels, count: ids.size };
 }

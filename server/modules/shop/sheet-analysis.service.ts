@@ -9,7 +9,7 @@ import { migrateDocument } from '../../../shared/sheet/document';
 import { pieceOutlineQuery, placeCutLine } from '../../../shared/sheet/placement';
 import { pieceProblems } from '../../../shared/sheet/bounds';
 import type { Finding, PreflightLimits, PreflightOutline } from '../../../shared/sheet/preflight';
-import { DEFAULT_PREFLIGHT_LIMITS, preflight } from '../../../shared/sheet/preflight';
+import { countTearRisks, DEFAULT_PREFLIGHT_LIMITS, preflight } from '../../../shared/sheet/preflight';
 import { renderPrintImage } from '../../engine/export/print-image';
 import type { ExportPiece } from '../../engine/export/types';
 import type { Storage } from '../../storage/storage';
@@ -70,7 +70,7 @@ export class SheetAnalysisService {
         widthMm: first.widthMm,
         heightMm: first.heightMm,
         effectiveDpi: outline.effectiveDpi,
-        narrowNecks: outline.warnings.filter((w) => w.code === 'narrow-neck').length,
+        narrowNecks: countTearRisks(outline.warnings),
       });
     }
     const names = new Map(doc.pieces.map((p) => {

@@ -1,3 +1,4 @@
+import { countTearRisks } from '../../../../shared/sheet/preflight';
 import { useQueries } from '@tanstack/react-query';
 import { useEffect, useMemo, useRef, useState } from 'react';
 import type { Ring } from '../../../../shared/geometry/polygon';
@@ -35,7 +36,7 @@ function fetchOutline(teamId: string, key: string): Promise<PieceOutline> {
     areaMm2: r.pieces[0].areaMm2,
     pngUrl: r.pieces[0].pngUrl,
     effectiveDpi: r.effectiveDpi,
-    narrowNecks: r.warnings.filter((w) => w.code === 'narrow-neck').length,
+    narrowNecks: countTearRisks(r.warnings),
   }));
 }
 
