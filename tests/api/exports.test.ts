@@ -119,6 +119,24 @@ describe('sheet exports', () => {
     expect(Math.abs((await opaque(print)) - preview) / preview).toBeLessThan(0.005);
   });
 
+  it('a 0.6 mm neck shows in the sheet analysis (preflight) and in the export’s settings text', async () => {
+    const { team, users } = await makeTeamWithRoles(t.db);
+    const member = new Client(t.sheetsmith.app);
+    await member.signIn(users.member.email);
+    // Two discs joined by a bar 0.6 mm wide at 40 mm, cut with no border.
+    const necked = await sharp(Buffer.from('<svg xmlns="http://www.w3.org/2000/svg" width="1600" height="640" viewBox="0 0 40 16"><circle cx="8" cy="8" r="8" fill="#1f618d"/><circle cx="32" cy="8" r="8" fill="#1f618d"/><rect x="15" y="7.7" width="10" height="0.6" fill="#1f618d"/></svg>')).png().toBuffer();
+    const art = (await uploadFile(member, team.id, necked, 'dumbbell.png')).body.results[0].item;
+    const { body: sheet } = await member.post(`/api/teams/${team.id}/sheets`, { name: 'Necked' });
+    await placePieces(member, team.id, sheet, [testPiece('n1', art.id, 60, 60, { width: 40, border: 0 })]);
+    const analysis = await member.get(`/api/teams/${team.id}/sheets/${sheet.id}/analysis`);
+    const finding = analysis.body.findings.find((f: { code: string }) => f.code === 'narrow-neck');
+    expect(finding?.message).toMatch(/^dumbbell's cut line narrows below 0\.039 in|^dumbbell's cut line narrows below 1 mm/);
+    const started = await member.post(`/api/teams/${team.id}/sheets/${sheet.id}/exports`, { dpi: 150, formats: ['png'] });
+    const done = await waitFor(member, `/api/teams/${team.id}/sheets/${sheet.id}/exports/${started.body.id}`);
+    const settings = await member.get(done.files.find((f: { name: string }) => f.name.endsWith('-settings.txt')).url);
+    expect(settings.text).toMatch(/WARNING: dumbbell's cut line narrows below/);
+  });
+
   it('gives clear errors: another team’s sheet (404), an empty sheet (422), a DPI out of range (400), a viewer (403)', async () => {
     const a = await sheetWithPieces(1);
     const b = await sheetWithPieces(1);
