@@ -66,7 +66,7 @@ for (const [index, spec] of positionals.entries()) {
   }
   try {
     // The same request a sheet piece makes (white border, default background), at the CLI's resolution.
-    const result = await outline(await readFile(file), pieceOutlineOptions(DEFAULT_ART_BACKGROUND, { width: artWidth, border, borderColour: '#ffffff' }, { minFeatureMm: DEFAULT_PREFLIGHT_LIMITS.minFeatureMm, dpi }));
+    const result = await outline(await readFile(file), pieceOutlineOptions(DEFAULT_ART_BACKGROUND, { width: artWidth, border, borderColour: '#ffffff' }, { ...DEFAULT_PREFLIGHT_LIMITS, dpi }));
     const piece = result.pieces[0];
     const key = String(index + 1);
     files.set(key, { file: path.resolve(file), png: piece.png, widthMm: piece.widthMm, heightMm: piece.heightMm });

@@ -53,7 +53,7 @@ for (const piece of document.pieces) {
   const artFile = art[piece.artId] ?? fail(`Piece ${piece.id}: its art ${piece.artId} is not listed in ${file}`);
   if (!images.has(artFile)) images.set(artFile, await readFile(artFile).catch(() => fail(`${artFile}: no such file`)));
   try {
-    pieces.push(await exportPiece(piece, path.basename(artFile), pieceOutlineOptions(DEFAULT_ART_BACKGROUND, piece, { minFeatureMm: DEFAULT_PREFLIGHT_LIMITS.minFeatureMm, dpi }), bleedMm, (options) => outline(images.get(artFile)!, options)));
+    pieces.push(await exportPiece(piece, path.basename(artFile), pieceOutlineOptions(DEFAULT_ART_BACKGROUND, piece, { ...DEFAULT_PREFLIGHT_LIMITS, dpi }), bleedMm, (options) => outline(images.get(artFile)!, options)));
   } catch (error) {
     fail(`${artFile}: ${error instanceof OutlineInputError ? error.message : (error as Error).message}`);
   }

@@ -15,7 +15,7 @@ const art = await sharp(Buffer.from('<svg xmlns="http://www.w3.org/2000/svg" wid
 const pieces: ExportPiece[] = [];
 for (let i = 0; i < 40; i++) {
   const piece: Piece = { id: `b${i}`, artId: '1', x: 14 + (i % 5) * 35, y: 14 + Math.floor(i / 5) * 29, rotation: (i * 37) % 360, width: 22, border: 2, borderColour: '#ffffff', locked: false };
-  pieces.push(await exportPiece(piece, 'disc.png', pieceOutlineOptions(DEFAULT_ART_BACKGROUND, piece, { minFeatureMm: 1, dpi: 300 }), 0, (o) => outline(art, o)));
+  pieces.push(await exportPiece(piece, 'disc.png', pieceOutlineOptions(DEFAULT_ART_BACKGROUND, piece, { minFeatureMm: 1, bridgeWidthMm: 3, dpi: 300 }), 0, (o) => outline(art, o)));
 }
 const sheet = { name: 'Bench', unit: 'in' as const, doc: { schemaVersion: 1 as const, printArea: { width: W, height: H }, safeMargin: 3, minGap: 3, pieces: pieces.map((p) => p.piece) }, pieces, paper: { paperWidthMm: 215.9, paperHeightMm: 279.4, areaXMm: 22.225, areaYMm: 22.225 } };
 

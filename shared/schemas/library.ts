@@ -1,4 +1,5 @@
 import { z } from 'zod';
+import { DEFAULT_TOLERANCE } from './outline';
 import { idSchema } from './team';
 
 export const LICENCE_KINDS = ['personal', 'commercial', 'commercial_limited'] as const;
@@ -47,11 +48,15 @@ export const artListQuerySchema = z.object({
 });
 export type ArtListQuery = z.infer<typeof artListQuerySchema>;
 
-export const backgroundSettingSchema = z.object({
-  mode: z.enum(['auto', 'keep', 'colour']),
-  colour: z.string().regex(/^#[0-9a-f]{6}$/i, 'Give a colour like #ffffff').nullable().optional(),
-  tolerance: z.coerce.number().int().min(0).max(255).optional().default(32),
-}).refine((b) => b.mode !== 'colour' || Boolean(b.colour), { message: 'Pick the colour to remove', path: ['colour'] });
+/** A saved background setting; without a tolerance the mode's own default applies (none carries over from another mode). */
+export const backgroundSettingSchema = z
+  .object({
+    mode: z.enum(['auto', 'keep', 'colour']),
+    colour: z.string().regex(/^#[0-9a-f]{6}$/i, 'Give a colour like #ffffff').nullable().optional(),
+    tolerance: z.coerce.number({ error: 'Give the tolerance as a number from 0 to 255' }).int().min(0, 'The tolerance is at least 0').max(255, 'The tolerance is at most 255').optional(),
+  })
+  .refine((b) => b.mode !== 'colour' || Boolean(b.colour), { message: 'Pick the colour to remove', path: ['colour'] })
+  .transform((b) => ({ ...b, tolerance: b.tolerance ?? (b.mode === 'colour' ? DEFAULT_TOLERANCE.colour : DEFAULT_TOLERANCE.auto) }));
 
 export const artUpdateSchema = z.object({
   name: z.string().trim().min(1, 'Give the art a name').max(200).optional(),
@@ -60,6 +65,8 @@ export const artUpdateSchema = z.object({
   collectionIds: z.array(idSchema).max(100).optional(),
   licence: licenceSchema.nullable().optional(),
   background: backgroundSettingSchema.optional(),
+  /** The maker agrees that narrow parts of the cut line may be widened to the profile's bridge width. */
+  widenNecks: z.boolean({ error: 'Say yes or no to widening narrow parts' }).optional(),
 });
 export type ArtUpdateInput = z.infer<typeof artUpdateSchema>;
 
@@ -112,6 +119,7 @@ export type ArtView = {
   collections: Array<{ id: string; name: string }>;
   licence: LicenceView | null;
   background: { mode: 'auto' | 'keep' | 'colour'; colour: string | null; tolerance: number };
+  widenNecks: boolean;
   uploadedBy: { id: string; name: string };
   createdAt: string;
   updatedAt: string;

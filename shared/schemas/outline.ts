@@ -18,11 +18,18 @@ const hexColour = z
   .regex(/^#?[0-9a-fA-F]{6}$/, 'Give a colour like #ffffff')
   .transform((value) => `#${value.replace('#', '').toLowerCase()}`);
 
+/**
+ * Each removal mode's own default tolerance (distance in RGB). Automatic removal guesses the colour
+ * from the edge, so it allows more spread; a picked colour is exact, so it starts tighter. Switching
+ * mode starts again from the new mode's default: a tolerance tuned for one never carries over.
+ */
+export const DEFAULT_TOLERANCE = { auto: 32, colour: 24 } as const;
+
 export const backgroundSchema = z
   .union([
     z.literal('auto'),
     z.literal('keep'),
-    z.object({ colour: hexColour, tolerance: z.coerce.number().min(0).max(255).default(32) }),
+    z.object({ colour: hexColour, tolerance: z.coerce.number().min(0).max(255).default(DEFAULT_TOLERANCE.colour) }),
   ])
   .default('auto');
 
@@ -43,7 +50,9 @@ export const outlineOptionsSchema = z
     alphaThreshold: z.coerce.number().int().min(1).max(255).default(48),
     background: backgroundSchema,
     /** Tolerance (0–255, distance in RGB) for `auto` background removal. */
-    backgroundTolerance: z.coerce.number().min(0).max(255).default(32),
+    backgroundTolerance: z.coerce.number().min(0).max(255).default(DEFAULT_TOLERANCE.auto),
+    /** Largest share of the art (0–1) background removal may take before it warns (the art-taken check). */
+    removalGuard: z.coerce.number().min(0).max(1).default(0.02),
     /** Bits of art smaller than this (mm²) are dropped as specks. */
     minSpeckArea: z.coerce.number().min(0).max(10_000).default(0.5),
     islands: z.enum(['join', 'split']).default('join'),
@@ -74,6 +83,7 @@ export type OutlineWarning = {
     | 'specks-dropped'
     | 'islands-joined'
     | 'background-removed'
+    | 'background-took-art'
     | 'no-flat-background';
   severity: 'notice' | 'warning';
   message: string;
@@ -90,7 +100,14 @@ const HEX = /^#?[0-9a-fA-F]{6}$/;
 export const outlineQuerySchema = z.preprocess((raw) => {
   const query = { ...(raw as Record<string, unknown>) };
   if (typeof query.background === 'string' && HEX.test(query.background)) {
-    query.background = { colour: query.background, tolerance: query.backgroundTolerance ?? 32 };
+    query.background = { colour: query.background, tolerance: query.backgroundTolerance ?? DEFAULT_TOLERANCE.colour };
   }
   return query;
 }, outlineOptionsSchema);
+
+/** The removal preview's query: the background as the outline query gives it (auto, keep or a colour) and its tolerance. */
+export const removalPreviewQuerySchema = z.object({
+  background: z.union([z.enum(['auto', 'keep']), z.string().regex(HEX, 'Give a colour like #ffffff')]).default('auto'),
+  backgroundTolerance: z.coerce.number({ error: 'Give the tolerance as a number from 0 to 255' }).min(0, 'The tolerance is at least 0').max(255, 'The tolerance is at most 255').optional(),
+});
+export type RemovalPreviewQuery = z.output<typeof removalPreviewQuerySchema>;

@@ -7,6 +7,11 @@ export type PaperKind = keyof typeof PAPER_SIZES | 'custom';
 
 const mm = (label: string, min = 0, max = 2000) => z.coerce.number({ error: `${label}: give a number of millimetres` }).min(min, `${label}: at least ${min} mm`).max(max, `${label}: at most ${max} mm`);
 
+/** Registration mark shapes: three corners of the print area get one each (the fourth stays empty, so the sheet's turn can be read). */
+export const REG_MARK_SHAPES = ['none', 'square', 'dot', 'bracket'] as const;
+export type RegMarkShape = (typeof REG_MARK_SHAPES)[number];
+export const REG_MARK_LABELS: Record<RegMarkShape, string> = { none: 'None (the cutter software adds its own)', square: 'Filled squares', dot: 'Filled dots', bracket: 'Corner brackets' };
+
 /** A sheet profile: paper, the cutter's print area placed on it, safe margin and minimum gap (mm). */
 export const profileInputSchema = z
   .object({
@@ -22,6 +27,11 @@ export const profileInputSchema = z
     minGapMm: mm('Minimum gap', 0, 50),
     smallestStickerMm: mm('Smallest sticker', 1, 200).optional().default(12.7),
     minFeatureMm: mm('Smallest cuttable feature', 0.1, 20).optional().default(1),
+    bridgeWidthMm: mm('Bridge width', 0.5, 20).optional().default(3),
+    spotColour: z.string().trim().regex(/^[A-Za-z0-9_-]{1,40}$/, 'Cut layer colour name: letters, digits, - and _ only').optional().default('CutContour'),
+    regMarkShape: z.enum(REG_MARK_SHAPES, { error: 'Choose a registration mark shape' }).optional().default('none'),
+    regMarkSizeMm: mm('Registration mark size', 1, 25).optional().default(5),
+    regMarkOffsetMm: mm('Registration mark offset', 0, 25).optional().default(5),
   })
   .transform((p, ctx) => {
     const paper = p.paper === 'custom' ? { width: p.paperWidthMm, height: p.paperHeightMm } : PAPER_SIZES[p.paper];
@@ -34,7 +44,18 @@ export const profileInputSchema = z
     if (x < 0 || x + p.areaWidthMm > paper.width + 1e-6) ctx.addIssue({ code: 'custom', message: 'The print area does not fit across the paper', path: ['areaWidthMm'] });
     if (y < 0 || y + p.areaHeightMm > paper.height + 1e-6) ctx.addIssue({ code: 'custom', message: 'The print area does not fit down the paper', path: ['areaHeightMm'] });
     if (2 * p.safeMarginMm >= Math.min(p.areaWidthMm, p.areaHeightMm)) ctx.addIssue({ code: 'custom', message: 'The safe margin leaves no room on the print area', path: ['safeMarginMm'] });
-    return { name: p.name, paper: p.paper, paperWidthMm: paper.width, paperHeightMm: paper.height, areaWidthMm: p.areaWidthMm, areaHeightMm: p.areaHeightMm, areaXMm: x, areaYMm: y, safeMarginMm: p.safeMarginMm, minGapMm: p.minGapMm, smallestStickerMm: p.smallestStickerMm, minFeatureMm: p.minFeatureMm };
+    if (p.bridgeWidthMm < p.minFeatureMm) ctx.addIssue({ code: 'custom', message: 'The bridge width cannot be below the smallest cuttable feature', path: ['bridgeWidthMm'] });
+    if (p.regMarkShape !== 'none') {
+      // Marks sit outside the print area's corners and must land on the paper.
+      const reach = p.regMarkOffsetMm + p.regMarkSizeMm;
+      const room = Math.min(x, y, paper.width - x - p.areaWidthMm, paper.height - y - p.areaHeightMm);
+      if (reach > room + 1e-6) ctx.addIssue({ code: 'custom', message: `The registration marks need ${Number(reach.toFixed(2))} mm of paper around the print area; there is ${Number(Math.max(0, room).toFixed(2))} mm. Use smaller marks, a smaller offset or a smaller print area.`, path: ['regMarkOffsetMm'] });
+    }
+    return {
+      name: p.name, paper: p.paper, paperWidthMm: paper.width, paperHeightMm: paper.height, areaWidthMm: p.areaWidthMm, areaHeightMm: p.areaHeightMm, areaXMm: x, areaYMm: y,
+      safeMarginMm: p.safeMarginMm, minGapMm: p.minGapMm, smallestStickerMm: p.smallestStickerMm, minFeatureMm: p.minFeatureMm,
+      bridgeWidthMm: p.bridgeWidthMm, spotColour: p.spotColour, regMarkShape: p.regMarkShape, regMarkSizeMm: p.regMarkSizeMm, regMarkOffsetMm: p.regMarkOffsetMm,
+    };
   });
 export type ProfileInput = z.output<typeof profileInputSchema>;
 export type ProfileView = ProfileInput & { id: string; isDefault: boolean };
@@ -102,5 +123,5 @@ export type SheetDetail = SheetSummary & {
   /** Each art item's effective licence kind (its own or its collection's), for preflight. */
   artLicences: Record<string, string | null>;
   /** The profile's preflight limits (mm). */
-  limits: { smallestStickerMm: number; minFeatureMm: number };
+  limits: { smallestStickerMm: number; minFeatureMm: number; bridgeWidthMm: number };
 };

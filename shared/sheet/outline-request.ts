@@ -1,8 +1,14 @@
 import type { OutlineOptionsInput } from '../schemas/outline';
 import type { Piece } from './document';
 
-/** What an art item has saved about its background (the art page's "Background" setting). */
-export type ArtBackgroundSetting = { backgroundMode: 'auto' | 'keep' | 'colour'; backgroundColour: string | null; backgroundTolerance: number };
+/**
+ * What an art item has saved about its outline: the art page's "Background" setting and whether the
+ * maker agreed that narrow parts of the cut line may be widened.
+ */
+export type ArtBackgroundSetting = { backgroundMode: 'auto' | 'keep' | 'colour'; backgroundColour: string | null; backgroundTolerance: number; widenNecks?: boolean };
+
+/** The cut limits a sheet profile sets for outlines: the smallest cuttable feature and the bridge width (mm). */
+export type CutLimits = { minFeatureMm: number; bridgeWidthMm: number };
 
 /** The art's saved background as outline options: the one place that reads the setting. */
 export function artBackgroundOptions(art: ArtBackgroundSetting): Pick<OutlineOptionsInput, 'background' | 'backgroundTolerance'> {
@@ -22,17 +28,17 @@ export const PREVIEW_DPI = 150;
 export function pieceOutlineOptions(
   art: ArtBackgroundSetting,
   piece: Pick<Piece, 'width' | 'border' | 'borderColour'>,
-  { minFeatureMm, dpi = PREVIEW_DPI }: { minFeatureMm: number; dpi?: number },
+  { dpi = PREVIEW_DPI, ...limits }: CutLimits & { dpi?: number },
 ): OutlineOptionsInput {
-  return { ...pieceSizeOptions(piece, minFeatureMm, dpi), ...artBackgroundOptions(art) };
+  return { ...pieceSizeOptions(piece, limits, dpi), ...artBackgroundOptions(art), widenNecks: art.widenNecks ?? false };
 }
 
 const round = (value: number, digits: number) => Number(value.toFixed(digits));
 
 /** The piece's part of the request, rounded as the editor's outline URLs carry it (so both agree to the bit). */
-export function pieceSizeOptions(piece: Pick<Piece, 'width' | 'border' | 'borderColour'>, minFeatureMm: number, dpi = PREVIEW_DPI) {
-  return { width: round(piece.width, 2), border: round(piece.border, 3), borderColour: piece.borderColour, dpi, minFeature: round(minFeatureMm, 2) };
+export function pieceSizeOptions(piece: Pick<Piece, 'width' | 'border' | 'borderColour'>, limits: CutLimits, dpi = PREVIEW_DPI) {
+  return { width: round(piece.width, 2), border: round(piece.border, 3), borderColour: piece.borderColour, dpi, minFeature: round(limits.minFeatureMm, 2), bridgeWidth: round(Math.max(limits.bridgeWidthMm, limits.minFeatureMm), 2) };
 }
 
 /** Art with no saved setting (the CLIs' files): automatic removal at the engine's default tolerance. */
-export const DEFAULT_ART_BACKGROUND: ArtBackgroundSetting = { backgroundMode: 'auto', backgroundColour: null, backgroundTolerance: 32 };
+export const DEFAULT_ART_BACKGROUND: ArtBackgroundSetting = { backgroundMode: 'auto', backgroundColour: null, backgroundTolerance: 32, widenNecks: false };

@@ -1,3 +1,4 @@
+import type { CutLimits } from './outline-request';
 import { pieceSizeOptions } from './outline-request';
 import type { Box, Point, Ring } from '../geometry/polygon';
 import { boundingBox } from '../geometry/polygon';
@@ -94,8 +95,8 @@ export function cutLineDistance(a: Ring, b: Ring, stopBelow = Infinity): number 
  * options from it, so both hit one cached outline. 150 DPI is plenty on screen and for preflight; the
  * cut line itself is exact in millimetres at any DPI.
  */
-export function pieceOutlineQuery(p: Pick<Piece, 'width' | 'border' | 'borderColour'>, minFeatureMm: number): Record<string, string> {
-  // The editor's URL form of pieceOutlineOptions() (the server adds the art's background setting).
-  const o = pieceSizeOptions(p, minFeatureMm);
-  return { width: `${o.width.toFixed(2)}mm`, border: `${o.border.toFixed(3)}mm`, borderColour: o.borderColour, dpi: String(o.dpi), minFeature: `${o.minFeature.toFixed(2)}mm` };
+export function pieceOutlineQuery(p: Pick<Piece, 'width' | 'border' | 'borderColour'>, limits: CutLimits): Record<string, string> {
+  // The editor's URL form of pieceOutlineOptions() (the server adds the art's saved setting).
+  const o = pieceSizeOptions(p, limits);
+  return { width: `${o.width.toFixed(2)}mm`, border: `${o.border.toFixed(3)}mm`, borderColour: o.borderColour, dpi: String(o.dpi), minFeature: `${o.minFeature.toFixed(2)}mm`, bridgeWidth: `${o.bridgeWidth.toFixed(2)}mm` };
 }

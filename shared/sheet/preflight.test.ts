@@ -45,7 +45,7 @@ describe('preflight', () => {
     expect(f).toMatchObject([{ code: 'too-small', severity: 'warning' }]);
     expect(f[0].message).toContain('12.7 mm smallest practical sticker');
     expect(run([piece('a', 30, 30)], { a: circle(6.5) })).toEqual([]);
-    expect(run([piece('a', 30, 30)], { a: circle(10) }, { limits: { smallestStickerMm: 25, minFeatureMm: 1 } })).toMatchObject([{ code: 'too-small' }]);
+    expect(run([piece('a', 30, 30)], { a: circle(10) }, { limits: { smallestStickerMm: 25, minFeatureMm: 1, bridgeWidthMm: 3 } })).toMatchObject([{ code: 'too-small' }]);
   });
 
   it('grades resolution: under 300 DPI a notice, under 150 DPI a warning (common practice)', () => {

@@ -17,8 +17,12 @@ export type Finding = { code: FindingCode; severity: Severity; pieceIds: string[
 export type PreflightOutline = PieceOutline & { effectiveDpi: number; narrowNecks: number };
 
 /** Limits set on the sheet profile. Defaults are common practice (see TRADE.md). */
-export type PreflightLimits = { smallestStickerMm: number; minFeatureMm: number };
-export const DEFAULT_PREFLIGHT_LIMITS: PreflightLimits = { smallestStickerMm: inchToMm(0.5), minFeatureMm: 1 };
+export type PreflightLimits = { smallestStickerMm: number; minFeatureMm: number; bridgeWidthMm: number };
+export const DEFAULT_PREFLIGHT_LIMITS: PreflightLimits = { smallestStickerMm: inchToMm(0.5), minFeatureMm: 1, bridgeWidthMm: 3 };
+
+/** A profile's limits (the defaults where a sheet has no profile). */
+export const profileLimits = (profile: PreflightLimits | null | undefined): PreflightLimits =>
+  profile ? { smallestStickerMm: profile.smallestStickerMm, minFeatureMm: profile.minFeatureMm, bridgeWidthMm: profile.bridgeWidthMm } : DEFAULT_PREFLIGHT_LIMITS;
 /** Common practice: 1/16 in between cut lines is the hard floor; under it the blade catches the neighbour. */
 export const HARD_GAP_FLOOR_MM = inchToMm(1 / 16);
 

@@ -107,7 +107,7 @@ describe('sheet exports', () => {
     };
     // What the editor shows: its own outline request for the piece (the server adds the art's setting).
     const previewOf = async (extra = '') => {
-      const outline = await member.get(`/api/teams/${team.id}/art/${art.id}/outline?${new URLSearchParams(pieceOutlineQuery(piece, 1))}${extra}`);
+      const outline = await member.get(`/api/teams/${team.id}/art/${art.id}/outline?${new URLSearchParams(pieceOutlineQuery(piece, { minFeatureMm: 1, bridgeWidthMm: 3 }))}${extra}`);
       return opaque((await member.get(outline.body.pieces[0].pngUrl).buffer(true).parse(binary)).body as Buffer);
     };
     const preview = await previewOf();

@@ -17,6 +17,38 @@ function partsAfterInset(ring: Ring, insetMm: number): number {
   return merged.filter((p) => Clipper.area(p) * Math.sign(Clipper.area(toPaths([ring])[0])) > 0).length;
 }
 
+// A second, raster measure: the cut polygon drawn by librsvg (through sharp) at 25 px/mm, dark on
+// white, and eroded with sharp's morphology (a square of half-width r: stricter than a disc, so one
+// region left means the shape is at least 2r wide wherever it joins). Regions counted 4-connected.
+const RASTER_PX_PER_MM = 25;
+async function regionsAfterErosion(ring: Ring, widthMm: number, heightMm: number, halfWidthMm: number): Promise<number> {
+  const k = RASTER_PX_PER_MM, pad = 4;
+  const w = Math.ceil(widthMm * k) + 2 * pad, h = Math.ceil(heightMm * k) + 2 * pad;
+  const d = ring.map((p, i) => `${i ? 'L' : 'M'}${(p.x * k + pad).toFixed(2)} ${(p.y * k + pad).toFixed(2)}`).join('') + 'Z';
+  const svg = `<svg xmlns="http://www.w3.org/2000/svg" width="${w}" height="${h}"><rect width="${w}" height="${h}" fill="#fff"/><path d="${d}" fill="#000"/></svg>`;
+  // sharp's erode shrinks dark shapes on a light ground.
+  const data = await sharp(Buffer.from(svg)).flatten({ background: '#ffffff' }).extractChannel(0).erode(Math.floor(halfWidthMm * k)).raw().toBuffer();
+  const seen = new Uint8Array(w * h);
+  let regions = 0;
+  for (let start = 0; start < w * h; start++) {
+    if (seen[start] || data[start] >= 128) continue;
+    regions++;
+    const stack = [start];
+    seen[start] = 1;
+    while (stack.length) {
+      const p = stack.pop()!;
+      const x = p % w;
+      for (const q of [x > 0 ? p - 1 : -1, x < w - 1 ? p + 1 : -1, p - w, p + w]) {
+        if (q >= 0 && q < w * h && !seen[q] && data[q] < 128) {
+          seen[q] = 1;
+          stack.push(q);
+        }
+      }
+    }
+  }
+  return regions;
+}
+
 /** Art drawn in millimetres at 40 px/mm: an SVG body with a viewBox in mm. */
 const mmArt = (widthMm: number, heightMm: number, body: string) =>
   sharp(Buffer.from(`<svg xmlns="http://www.w3.org/2000/svg" width="${widthMm * 40}" height="${heightMm * 40}" viewBox="0 0 ${widthMm} ${heightMm}">${body}</svg>`)).png().toBuffer();
@@ -32,12 +64,16 @@ describe('bridges between parts of the art are at least the bridge width', () =>
     expect(pieces).toHaveLength(1);
     expect(partsAfterInset(pieces[0].cutLine.points, 0.3)).toBe(1); // wider than 0.6 mm …
     expect(partsAfterInset(pieces[0].cutLine.points, 0.5)).toBe(2); // … but under 1 mm
+    const p = pieces[0];
+    expect(await regionsAfterErosion(p.cutLine.points, p.widthMm, p.heightMm, 0.5)).toBe(2); // the raster measure agrees
   });
 
   it('with the defaults (3 mm bridge, 1 mm smallest feature) the join is at least 3 mm wide', async () => {
     const { pieces, warnings } = await outline(await twoIslands(), { width: W, border: '0.125in', dpi: 300 });
     expect(pieces).toHaveLength(1);
     expect(partsAfterInset(pieces[0].cutLine.points, 1.5)).toBe(1);
+    // Rasterised at 25 px/mm and eroded by half of 3 mm, the shape stays one region.
+    expect(await regionsAfterErosion(pieces[0].cutLine.points, pieces[0].widthMm, pieces[0].heightMm, 1.5)).toBe(1);
     expect(warnings.find((w) => w.code === 'islands-joined')?.message).toMatch(/at least 3 mm wide/);
     expect(warnings.filter((w) => w.code === 'narrow-neck')).toEqual([]);
   });

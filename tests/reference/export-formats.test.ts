@@ -39,7 +39,7 @@ beforeAll(async () => {
   const pieces = [];
   for (const [i, [x, y, rotation]] of placements.entries()) {
     const piece: Piece = { id: `p${i}`, artId: '1', x, y, rotation, width: 45, border: 3, borderColour: '#ffffff', locked: false, cut: i === 4 ? 'die' : 'kiss' };
-    pieces.push(await exportPiece(piece, 'ellipse.png', pieceOutlineOptions(DEFAULT_ART_BACKGROUND, piece, { minFeatureMm: 1, dpi: 300 }), 0, (o) => outline(art, o)));
+    pieces.push(await exportPiece(piece, 'ellipse.png', pieceOutlineOptions(DEFAULT_ART_BACKGROUND, piece, { minFeatureMm: 1, bridgeWidthMm: 3, dpi: 300 }), 0, (o) => outline(art, o)));
   }
   sheet = {
     name: 'Reference sheet',

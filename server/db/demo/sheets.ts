@@ -102,7 +102,7 @@ export async function seedSheets(dataSource: DataSource, storage: Storage): Prom
         const art = arts.get(name);
         if (!art) continue;
         const template: Piece = { id: '', artId: art.id, x: 0, y: 0, rotation: 0, width: inchToMm(widthIn), border: BORDER_MM, borderColour: '#ffffff', locked: false };
-        const { outline } = await outlines.forPiece(art, template, DEFAULT_PREFLIGHT_LIMITS.minFeatureMm);
+        const { outline } = await outlines.forPiece(art, template, DEFAULT_PREFLIGHT_LIMITS);
         const first = outline.pieces[0];
         items.push({ key: name, outline: { points: first.cutLine.points, widthMm: first.widthMm, heightMm: first.heightMm }, count });
         templates.set(name, template);

@@ -4,6 +4,7 @@ import { area, boundingBox, perimeter, ringToSvgPath, scale, translate } from '.
 import type { OutlineOptions, OutlineOptionsInput, OutlineWarning } from '../../../shared/schemas/outline';
 import { outlineOptionsSchema } from '../../../shared/schemas/outline';
 import { MM_PER_INCH, formatLength } from '../../../shared/units';
+import type { RemovalPlan } from './background';
 import { detectBackground, parseHex, removeBackground } from './background';
 import { bridgeIslands } from './bridge';
 import { clearComponents, fillHoles, labelComponents, labelRuns } from './components';
@@ -94,20 +95,30 @@ export async function outline(image: Buffer, rawOptions: OutlineOptionsInput, li
 
   // 1. Background: transparency if the art has it, else a flat colour flooded in from the edges.
   const explicit = typeof options.background === 'object' ? options.background : null;
+  let removal: { plan: RemovalPlan; tolerance: number } | null = null;
   if (explicit) {
-    const cleared = removeBackground(rgba, W, H, parseHex(explicit.colour), explicit.tolerance);
-    if (cleared > 0) warnings.push({ code: 'background-removed', severity: 'notice', message: `Removed the ${explicit.colour} background.` });
+    const plan = removeBackground(rgba, W, H, parseHex(explicit.colour), explicit.tolerance);
+    removal = { plan, tolerance: explicit.tolerance };
+    if (plan.removed > 0) warnings.push({ code: 'background-removed', severity: 'notice', message: `Removed the ${explicit.colour} background.` });
   } else if (options.background === 'auto' && !decoded.hasTransparency) {
     const colour = detectBackground(rgba, W, H, options.backgroundTolerance);
     // An image that is one flat colour edge to edge is all art, not all background.
     const flat = colour !== null && isFlat(rgba, colour, options.backgroundTolerance);
     if (colour && !flat) {
-      removeBackground(rgba, W, H, colour, options.backgroundTolerance);
+      removal = { plan: removeBackground(rgba, W, H, colour, options.backgroundTolerance), tolerance: options.backgroundTolerance };
       const hex = `#${[colour.r, colour.g, colour.b].map((v) => v.toString(16).padStart(2, '0')).join('')}`;
       warnings.push({ code: 'background-removed', severity: 'notice', message: `No transparency: removed the flat ${hex} background around the art.` });
     } else {
       warnings.push({ code: 'no-flat-background', severity: 'notice', message: 'No transparency and no flat background colour: the whole image is used as the art.' });
     }
+  }
+  if (removal && removal.plan.share > options.removalGuard) {
+    const percent = (removal.plan.share * 100).toFixed(removal.plan.share < 0.1 ? 1 : 0);
+    warnings.push({
+      code: 'background-took-art',
+      severity: 'warning',
+      message: `Background removal at tolerance ${removal.tolerance} also took away ${percent} % of the art (parts that differ from the background, inside the art). Lower the tolerance, or pick the colour to remove, and check the preview.`,
+    });
   }
 
   // 2. Threshold and trim at source resolution, dropping specks (their size judged at print size).

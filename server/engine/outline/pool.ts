@@ -4,7 +4,8 @@ import type { OutlineOptionsInput } from '../../../shared/schemas/outline';
 import { OutlineInputError } from './errors';
 import type { OutlineLimits, OutlineResult } from './outline';
 import { DEFAULT_LIMITS } from './outline';
-import type { OutlineTaskResult } from './worker';
+import type { RemovalPreview } from './removal-preview';
+import type { OutlineTask, OutlineTaskResult } from './worker';
 
 export class OutlinePoolBusyError extends Error {}
 
@@ -38,15 +39,29 @@ export class OutlinePool {
     return this.piscina.queueSize;
   }
 
-  async run(image: Buffer, options: OutlineOptionsInput): Promise<OutlineResult> {
+  private async task(task: OutlineTask): Promise<Exclude<OutlineTaskResult, { ok: false }>> {
     let reply: OutlineTaskResult;
     try {
-      reply = await this.piscina.run({ image, options, limits: this.limits });
+      reply = await this.piscina.run(task);
     } catch (error) {
       if (String((error as Error).message).includes('queue is at limit')) throw new OutlinePoolBusyError('The outline workers are busy. Try again in a moment.');
       throw error;
     }
     if (!reply.ok) throw new OutlineInputError(reply.code, reply.message);
+    return reply;
+  }
+
+  /** The original with what background removal takes drawn over it (see removalPreview). */
+  async removalPreview(image: Buffer, options: OutlineOptionsInput): Promise<RemovalPreview> {
+    const reply = await this.task({ kind: 'removal-preview', image, options, limits: this.limits });
+    if (!('preview' in reply)) throw new Error('The outline worker answered a removal preview with something else.');
+    const { png } = reply.preview;
+    return { ...reply.preview, png: Buffer.from(png.buffer, png.byteOffset, png.byteLength) };
+  }
+
+  async run(image: Buffer, options: OutlineOptionsInput): Promise<OutlineResult> {
+    const reply = await this.task({ image, options, limits: this.limits });
+    if (!('result' in reply)) throw new Error('The outline worker answered an outline with something else.');
     // Buffers come back from the thread as plain Uint8Arrays.
     for (const piece of reply.result.pieces) piece.png = Buffer.from(piece.png.buffer, piece.png.byteOffset, piece.png.byteLength);
     return reply.result;

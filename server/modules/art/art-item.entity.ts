@@ -55,6 +55,10 @@ export class ArtItem {
   @Column({ name: 'background_tolerance', type: 'smallint', unsigned: true, default: 32 })
   backgroundTolerance!: number;
 
+  /** The maker agreed that narrow parts of the cut line may be widened to the bridge width. */
+  @Column({ name: 'widen_necks', type: 'boolean', default: false })
+  widenNecks!: boolean;
+
   /** The item's own licence; empty fields fall back to its collection's. */
   @Column(() => LicenceColumns, { prefix: false })
   licence!: LicenceColumns;

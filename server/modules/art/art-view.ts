@@ -54,6 +54,7 @@ export async function artViews(manager: EntityManager, items: ArtItem[]): Promis
       collections: (memberships.get(item.id) ?? []).map((c) => ({ id: c.id, name: c.name })),
       licence,
       background: { mode: item.backgroundMode, colour: item.backgroundColour, tolerance: item.backgroundTolerance },
+      widenNecks: item.widenNecks,
       uploadedBy: { id: item.uploadedBy, name: users.get(item.uploadedBy)?.name ?? 'Former member' },
       createdAt: item.createdAt.toISOString(),
       updatedAt: item.updatedAt.toISOString(),

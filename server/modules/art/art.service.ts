@@ -194,6 +194,7 @@ export class ArtService {
         changes.backgroundColour = input.background.mode === 'colour' ? input.background.colour!.toLowerCase() : null;
         changes.backgroundTolerance = input.background.tolerance;
       }
+      if (input.widenNecks !== undefined) changes.widenNecks = input.widenNecks;
       if (input.licence !== undefined) {
         const l = input.licence;
         Object.assign(changes, {

@@ -1,12 +1,14 @@
 import { createHash } from 'node:crypto';
 import type { DataSource } from 'typeorm';
 import type { OutlineOptions } from '../../../shared/schemas/outline';
-import { outlineOptionsSchema } from '../../../shared/schemas/outline';
+import type { RemovalPreviewQuery } from '../../../shared/schemas/outline';
+import { DEFAULT_TOLERANCE, outlineOptionsSchema } from '../../../shared/schemas/outline';
 import type { Piece } from '../../../shared/sheet/document';
+import type { CutLimits } from '../../../shared/sheet/outline-request';
 import { artBackgroundOptions, pieceOutlineOptions } from '../../../shared/sheet/outline-request';
 import type { OutlineResult } from '../../engine/outline/outline';
 import type { OutlinePool } from '../../engine/outline/pool';
-import { AppError, notFound } from '../../lib/errors';
+import { AppError, forbidden, notFound } from '../../lib/errors';
 import type { Role } from '../../../shared/permissions';
 import { can } from '../../../shared/permissions';
 import type { Storage } from '../../storage/storage';
@@ -14,7 +16,7 @@ import { ArtItem } from '../art/art-item.entity';
 import { OutlineCacheEntry } from './outline-cache.entity';
 
 /** Bump when the engine's output changes, so old cache entries are not served. */
-export const OUTLINE_ENGINE_VERSION = 'outline-1';
+export const OUTLINE_ENGINE_VERSION = 'outline-2';
 
 export type StoredPiece = Omit<OutlineResult['pieces'][number], 'png'> & { pngKey: string };
 export type StoredOutline = Omit<OutlineResult, 'pieces'> & { pieces: StoredPiece[] };
@@ -33,10 +35,10 @@ export function outlineCacheKey(artSha256: string, options: OutlineOptions): str
   return createHash('sha256').update(`${OUTLINE_ENGINE_VERSION}\n${artSha256}\n${canonical(options)}`).digest('hex');
 }
 
-/** Without a background in the request, the art item's saved background setting applies. */
-export function withArtBackground(item: ArtItem, options: OutlineOptions, explicitBackground: boolean): OutlineOptions {
-  if (explicitBackground) return options;
-  return outlineOptionsSchema.parse({ ...options, ...artBackgroundOptions(item) });
+/** What the request leaves out, the art item's saved setting fills in: its background and whether narrow parts may be widened. */
+export function withArtSetting(item: ArtItem, options: OutlineOptions, explicit: { background: boolean; widenNecks: boolean }): OutlineOptions {
+  if (explicit.background && explicit.widenNecks) return options;
+  return outlineOptionsSchema.parse({ ...options, ...(explicit.background ? {} : artBackgroundOptions(item)), ...(explicit.widenNecks ? {} : { widenNecks: item.widenNecks }) });
 }
 
 /**
@@ -58,8 +60,8 @@ export class OutlineService {
   ) {}
 
   /** The outline the editor requests for a placed piece: the same options, so the same cache entry. */
-  forPiece(art: ArtItem, piece: Pick<Piece, 'width' | 'border' | 'borderColour'>, minFeatureMm: number, access: OutlineAccess = 'compute') {
-    return this.forArt(art, outlineOptionsSchema.parse(pieceOutlineOptions(art, piece, { minFeatureMm })), access);
+  forPiece(art: ArtItem, piece: Pick<Piece, 'width' | 'border' | 'borderColour'>, limits: CutLimits, access: OutlineAccess = 'compute') {
+    return this.forArt(art, outlineOptionsSchema.parse(pieceOutlineOptions(art, piece, limits)), access);
   }
 
   /** The outline of a team's art at the given options, from cache when it was computed before. */
@@ -100,6 +102,14 @@ export class OutlineService {
     // Another process may have written the same key meanwhile: keep whichever landed first.
     await repo.createQueryBuilder().insert().into(OutlineCacheEntry).values(entry).orIgnore().execute();
     return { entry: await repo.findOneByOrFail({ cacheKey: key }), cached: false };
+  }
+
+  /** The art's original with what removing `background` takes drawn over it (not cached: it is small and quick). */
+  async removalPreview(art: ArtItem, query: RemovalPreviewQuery, access: OutlineAccess) {
+    if (access === 'cached') throw forbidden('Only people who can edit sheets or add art preview background removal.');
+    const tolerance = query.backgroundTolerance;
+    const background = query.background === 'auto' || query.background === 'keep' ? query.background : { colour: query.background, tolerance: tolerance ?? DEFAULT_TOLERANCE.colour };
+    return this.pool.removalPreview(await this.storage.get(art.storageKey), { width: 10, background, backgroundTolerance: tolerance ?? DEFAULT_TOLERANCE.auto });
   }
 
   /** A piece's PNG, only if the team has art with the outline's content hash. */

@@ -1,13 +1,13 @@
 import { Router } from 'express';
 import type { DataSource } from 'typeorm';
 import { z } from 'zod';
-import { outlineQuerySchema } from '../../../shared/schemas/outline';
+import { outlineQuerySchema, removalPreviewQuerySchema } from '../../../shared/schemas/outline';
 import { idSchema } from '../../../shared/schemas/team';
 import { requirePermission, teamScope } from '../../middleware/auth';
 import { route } from '../../middleware/validate';
 import type { ArtService } from '../art/art.service';
 import type { OutlineService } from './outline.service';
-import { outlineAccess, withArtBackground } from './outline.service';
+import { outlineAccess, withArtSetting } from './outline.service';
 
 const artParams = z.object({ teamId: idSchema, artId: idSchema });
 const pieceParams = z.object({
@@ -31,7 +31,7 @@ export function outlinesRouter({ dataSource, art, outlines }: { dataSource: Data
     route({ params: artParams, query: outlineQuerySchema }, async ({ params, query }, req) => {
       const teamId = req.membership!.teamId;
       const item = await art.find(teamId, params.artId);
-      const options = withArtBackground(item, query, req.query.background !== undefined);
+      const options = withArtSetting(item, query, { background: req.query.background !== undefined, widenNecks: req.query.widenNecks !== undefined });
       const { key, cached, outline } = await outlines.forArt(item, options, outlineAccess(req.membership!.role));
       return {
         key,
@@ -44,6 +44,18 @@ export function outlinesRouter({ dataSource, art, outlines }: { dataSource: Data
           pngUrl: `/api/teams/${teamId}/outlines/${key}/pieces/${index}.png`,
         })),
       };
+    }),
+  );
+
+  // What background removal takes from the art at a mode and tolerance, tinted over the original.
+  router.get(
+    '/teams/:teamId/art/:artId/background-removal.png',
+    scoped,
+    requirePermission('team.view'),
+    route({ params: artParams, query: removalPreviewQuerySchema }, async ({ params, query }, req, res) => {
+      const item = await art.find(req.membership!.teamId, params.artId);
+      const preview = await outlines.removalPreview(item, query, outlineAccess(req.membership!.role));
+      res.type('png').set('Cache-Control', 'private, max-age=3600').set('X-Art-Taken', preview.takenShare.toFixed(4)).send(preview.png);
     }),
   );
 

@@ -5,7 +5,7 @@ import type { Log } from '../../lib/log';
 import { exportFileType, listZip, readFromZip } from '../../engine/export/bundle';
 import { exportFileLabel } from '../../../shared/schemas/exports';
 import { pieceOutlineOptions } from '../../../shared/sheet/outline-request';
-import { DEFAULT_PREFLIGHT_LIMITS } from '../../../shared/sheet/preflight';
+import { profileLimits } from '../../../shared/sheet/preflight';
 import { migrateDocument } from '../../../shared/sheet/document';
 import { ExportInputError, exportSheet } from '../../engine/export/export';
 import { exportPiece } from '../../engine/export/prepare';
@@ -88,7 +88,7 @@ export class ExportsService {
         if (!art) throw new ExportInputError(`Piece ${i + 1} uses art that is no longer in the team.`);
         if (!bytes.has(art.id)) bytes.set(art.id, await this.storage.get(art.storageKey));
         // The same request the editor's outline was made from, at the export's resolution.
-        const request = pieceOutlineOptions(art, piece, { minFeatureMm: profile?.minFeatureMm ?? DEFAULT_PREFLIGHT_LIMITS.minFeatureMm, dpi: options.dpi });
+        const request = pieceOutlineOptions(art, piece, { ...profileLimits(profile), dpi: options.dpi });
         pieces.push(await exportPiece(piece, art.name, request, options.bleedMm, (o) => this.pool.run(bytes.get(art.id)!, o)));
         await this.progress(id, 0.4 * ((i + 1) / doc.pieces.length), `Outlining piece ${i + 1} of ${doc.pieces.length}`);
       }

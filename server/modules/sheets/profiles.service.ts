@@ -20,6 +20,13 @@ export const DEFAULT_PROFILE: ProfileInput = {
   // Common practice: stickers under about 0.5 in lift off the liner; necks under 1 mm tear.
   smallestStickerMm: inchToMm(0.5),
   minFeatureMm: 1,
+  // Common practice: bridges between parts of the art about 3 mm wide survive weeding and handling.
+  bridgeWidthMm: 3,
+  spotColour: 'CutContour',
+  // Off: most cutters' own software prints its marks around the print area.
+  regMarkShape: 'none',
+  regMarkSizeMm: 5,
+  regMarkOffsetMm: 5,
 };
 
 const view = (p: SheetProfile): ProfileView => ({
@@ -36,6 +43,11 @@ const view = (p: SheetProfile): ProfileView => ({
   minGapMm: p.minGapMm,
   smallestStickerMm: p.smallestStickerMm,
   minFeatureMm: p.minFeatureMm,
+  bridgeWidthMm: p.bridgeWidthMm,
+  spotColour: p.spotColour,
+  regMarkShape: p.regMarkShape,
+  regMarkSizeMm: p.regMarkSizeMm,
+  regMarkOffsetMm: p.regMarkOffsetMm,
   isDefault: p.isDefault,
 });
 
@@ -71,8 +83,7 @@ export class ProfilesService {
 
   async update(teamId: string, id: string, input: ProfileInput, makeDefault: boolean): Promise<ProfileView> {
     await this.find(teamId, id);
-    const { name, paper, paperWidthMm, paperHeightMm, areaWidthMm, areaHeightMm, areaXMm, areaYMm, safeMarginMm, minGapMm, smallestStickerMm, minFeatureMm } = input;
-    const fields = { name, paper, paperWidthMm, paperHeightMm, areaWidthMm, areaHeightMm, areaXMm, areaYMm, safeMarginMm, minGapMm, smallestStickerMm, minFeatureMm };
+    const fields: ProfileInput = { ...input };
     await inTransaction(this.dataSource, async (manager) => {
       if (makeDefault) await manager.update(SheetProfile, { teamId }, { isDefault: false });
       await manager.update(SheetProfile, { id, teamId }, { ...fields, ...(makeDefault ? { isDefault: true } : {}) });

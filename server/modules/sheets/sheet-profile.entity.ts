@@ -47,6 +47,25 @@ export class SheetProfile {
   @Column({ name: 'min_feature_mm', ...decimal, precision: 6 })
   minFeatureMm!: number;
 
+  /** Width of the cut shape where the border joins separate parts of the art (never below the smallest feature). */
+  @Column({ name: 'bridge_width_mm', ...decimal, precision: 6 })
+  bridgeWidthMm!: number;
+
+  /** Name of the spot colour the cutter's software looks for on the PDF's cut layer. */
+  @Column({ name: 'spot_colour', type: 'varchar', length: 40, default: 'CutContour' })
+  spotColour!: string;
+
+  /** Registration marks printed around the print area, for cutters that read them ('none': the cutter's software adds its own). */
+  @Column({ name: 'reg_mark_shape', type: 'enum', enum: ['none', 'square', 'dot', 'bracket'], default: 'none' })
+  regMarkShape!: 'none' | 'square' | 'dot' | 'bracket';
+
+  @Column({ name: 'reg_mark_size_mm', ...decimal, precision: 6 })
+  regMarkSizeMm!: number;
+
+  /** Gap between the print area's corner and the nearest edge of its mark. */
+  @Column({ name: 'reg_mark_offset_mm', ...decimal, precision: 6 })
+  regMarkOffsetMm!: number;
+
   @Column({ name: 'is_default', type: 'boolean', default: false })
   isDefault!: boolean;
 

@@ -18,7 +18,7 @@ import type { ProfilesService } from './profiles.service';
 import { SheetProfile } from './sheet-profile.entity';
 import { Sheet } from './sheet.entity';
 import { inTransaction } from '../../db/transaction';
-import { DEFAULT_PREFLIGHT_LIMITS } from '../../../shared/sheet/preflight';
+import { profileLimits } from '../../../shared/sheet/preflight';
 
 type Actor = { userId: string; teamId: string; role: Role };
 
@@ -90,7 +90,7 @@ export class SheetsService {
       document,
       artNames: Object.fromEntries(art.map((a) => [a.id, a.name])),
       artLicences: Object.fromEntries(licences),
-      limits: { smallestStickerMm: profile?.smallestStickerMm ?? DEFAULT_PREFLIGHT_LIMITS.smallestStickerMm, minFeatureMm: profile?.minFeatureMm ?? DEFAULT_PREFLIGHT_LIMITS.minFeatureMm },
+      limits: profileLimits(profile),
     };
   }
 

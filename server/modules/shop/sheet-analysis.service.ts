@@ -9,7 +9,7 @@ import { migrateDocument } from '../../../shared/sheet/document';
 import { pieceOutlineQuery, placeCutLine } from '../../../shared/sheet/placement';
 import { pieceProblems } from '../../../shared/sheet/bounds';
 import type { Finding, PreflightLimits, PreflightOutline } from '../../../shared/sheet/preflight';
-import { countTearRisks, DEFAULT_PREFLIGHT_LIMITS, preflight } from '../../../shared/sheet/preflight';
+import { countTearRisks, preflight, profileLimits } from '../../../shared/sheet/preflight';
 import { renderPrintImage } from '../../engine/export/print-image';
 import type { ExportPiece } from '../../engine/export/types';
 import type { Storage } from '../../storage/storage';
@@ -47,7 +47,7 @@ export class SheetAnalysisService {
   private async gather(teamId: string, sheet: Sheet, access: OutlineAccess = 'compute'): Promise<Gathered> {
     const doc = migrateDocument(JSON.parse(sheet.document));
     const profile = sheet.profileId ? await this.dataSource.getRepository(SheetProfile).findOneBy({ id: sheet.profileId }) : null;
-    const minFeature = profile?.minFeatureMm ?? DEFAULT_PREFLIGHT_LIMITS.minFeatureMm;
+    const limits = profileLimits(profile);
     const ids = [...new Set(doc.pieces.map((p) => p.artId))];
     const arts = new Map((ids.length ? await this.dataSource.getRepository(ArtItem).findBy({ id: In(ids), teamId }) : []).map((a) => [a.id, a]));
     const outlines = new Map<string, PreflightOutline>();
@@ -57,10 +57,10 @@ export class SheetAnalysisService {
       const art = arts.get(piece.artId);
       // Out of bounds: preflight names it; no outline is made at an absurd size.
       if (!art || pieceProblems(doc, piece, index).length > 0) continue;
-      const key = `${art.id}|${JSON.stringify(pieceOutlineQuery(piece, minFeature))}`;
+      const key = `${art.id}|${JSON.stringify(pieceOutlineQuery(piece, limits))}`;
       let outline = byQuery.get(key);
       if (!outline) {
-        outline = (await this.outlines.forPiece(art, piece, minFeature, access)).outline;
+        outline = (await this.outlines.forPiece(art, piece, limits, access)).outline;
         byQuery.set(key, outline);
       }
       const first = outline.pieces[0];
@@ -79,7 +79,7 @@ export class SheetAnalysisService {
       return [p.id, same.length > 1 ? `${art} ${same.indexOf(p) + 1}` : art];
     }));
     const paperArea = profile ? profile.paperWidthMm * profile.paperHeightMm : 215.9 * 279.4;
-    return { doc, outlines, stored, names, licences: await effectiveLicenceKinds(this.dataSource, teamId, ids), paperArea, limits: profile ? { smallestStickerMm: profile.smallestStickerMm, minFeatureMm: profile.minFeatureMm } : DEFAULT_PREFLIGHT_LIMITS };
+    return { doc, outlines, stored, names, licences: await effectiveLicenceKinds(this.dataSource, teamId, ids), paperArea, limits };
   }
 
   private findings(g: Gathered, sheet: Sheet, bleedMm?: number): Finding[] {

@@ -5,6 +5,7 @@ import type { Ring } from '../../../../shared/geometry/polygon';
 import type { Piece } from '../../../../shared/sheet/document';
 import { api } from '../../../lib/api-client';
 import { pieceOutlineQuery } from '../../../../shared/sheet/placement';
+import type { CutLimits } from '../../../../shared/sheet/outline-request';
 
 export type PieceOutline = {
   points: Ring;
@@ -24,7 +25,7 @@ type OutlineResponse = {
 };
 
 /** The outline a piece needs: same art, printed width, border and border colour share one request. */
-export const outlineKey = (p: Pick<Piece, 'artId' | 'width' | 'border' | 'borderColour'>, minFeatureMm: number) => `${p.artId}?${new URLSearchParams(pieceOutlineQuery(p, minFeatureMm))}`;
+export const outlineKey = (p: Pick<Piece, 'artId' | 'width' | 'border' | 'borderColour'>, limits: CutLimits) => `${p.artId}?${new URLSearchParams(pieceOutlineQuery(p, limits))}`;
 
 function fetchOutline(teamId: string, key: string): Promise<PieceOutline> {
   const [artId, search] = key.split('?');
@@ -45,8 +46,8 @@ function fetchOutline(teamId: string, key: string): Promise<PieceOutline> {
  * handle never sends a request per frame; until the new outline arrives a piece keeps its last one
  * and is marked pending.
  */
-export function usePieceOutlines(teamId: string, pieces: Piece[], minFeatureMm: number) {
-  const wanted = useMemo(() => new Map(pieces.map((p) => [p.id, outlineKey(p, minFeatureMm)])), [pieces, minFeatureMm]);
+export function usePieceOutlines(teamId: string, pieces: Piece[], { minFeatureMm, bridgeWidthMm }: CutLimits) {
+  const wanted = useMemo(() => new Map(pieces.map((p) => [p.id, outlineKey(p, { minFeatureMm, bridgeWidthMm })])), [pieces, minFeatureMm, bridgeWidthMm]);
   const [settled, setSettled] = useState(wanted);
   useEffect(() => {
     const handle = setTimeout(() => setSettled(wanted), 250);

@@ -13,8 +13,8 @@ export function planArrange(doc: SheetDocument, selection: ReadonlySet<string>, 
   const fixed = doc.pieces.filter((p) => !movable.includes(p));
   const groups = new Map<string, Piece[]>();
   for (const p of movable) {
-    // Only groups equal shapes: any fixed smallest-feature value gives the same grouping.
-    const key = outlineKey(p, 0);
+    // Only groups equal shapes: any fixed cut limits give the same grouping.
+    const key = outlineKey(p, { minFeatureMm: 0, bridgeWidthMm: 0 });
     groups.set(key, [...(groups.get(key) ?? []), p]);
   }
   const items: ArrangeItem[] = [];

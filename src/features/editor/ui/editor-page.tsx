@@ -41,7 +41,7 @@ export function EditorPage({ teamId, sheet, canEdit }: { teamId: string; sheet: 
   const [artLicences] = useState(() => new Map<string, string | null>(Object.entries(sheet.artLicences)));
   // While an arrange preview is shown, everything drawn and measured is the preview's.
   const shown = preview ?? state.doc;
-  const { outlines } = usePieceOutlines(teamId, shown.pieces, sheet.limits.minFeatureMm);
+  const { outlines } = usePieceOutlines(teamId, shown.pieces, sheet.limits);
   const unit = state.meta.unit;
 
   const sizes = useMemo(() => {

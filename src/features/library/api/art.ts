@@ -31,19 +31,21 @@ export const artQueryOptions = (teamId: string, artId: string) =>
 
 export const useArt = (teamId: string, artId: string) => useQuery(artQueryOptions(teamId, artId));
 
-function useLibraryMutation<I, O>(teamId: string, fn: (input: I) => Promise<O>) {
+function useLibraryMutation<I, O>(teamId: string, fn: (input: I) => Promise<O>, { outlines = false } = {}) {
   const client = useQueryClient();
   return useMutation({
     mutationFn: fn,
     onSettled: () => {
       void client.invalidateQueries({ queryKey: artKeys.all(teamId) });
+      // The editor's outlines carry the art's saved background and neck setting: a change redraws them.
+      if (outlines) void client.invalidateQueries({ queryKey: ['teams', teamId, 'outline'] });
       void client.invalidateQueries({ queryKey: ['teams', teamId, 'collections'] });
     },
   });
 }
 
 export const useUpdateArt = (teamId: string, artId: string) =>
-  useLibraryMutation(teamId, (input: ArtUpdateInput) => api<ArtView>('PATCH', `/teams/${teamId}/art/${artId}`, input));
+  useLibraryMutation(teamId, (input: ArtUpdateInput) => api<ArtView>('PATCH', `/teams/${teamId}/art/${artId}`, input), { outlines: true });
 
 export const useBulkArt = (teamId: string) =>
   useLibraryMutation(teamId, (action: BulkAction) => api<{ changed: number }>('POST', `/teams/${teamId}/art/bulk`, action));

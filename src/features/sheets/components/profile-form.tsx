@@ -1,6 +1,7 @@
 import { useState } from 'react';
 import type { ProfileView } from '../../../../shared/schemas/sheets';
-import { PAPER_SIZES } from '../../../../shared/schemas/sheets';
+import type { RegMarkShape } from '../../../../shared/schemas/sheets';
+import { PAPER_SIZES, REG_MARK_LABELS, REG_MARK_SHAPES } from '../../../../shared/schemas/sheets';
 import type { LengthUnit } from '../../../../shared/units';
 import { fromMm, toMm } from '../../../../shared/units';
 import { FormMessage } from '../../../components/form';
@@ -21,6 +22,11 @@ function draftFrom(unit: LengthUnit, p?: ProfileView) {
     gap: len(p?.minGapMm ?? (unit === 'in' ? 3.175 : 3)),
     smallest: len(p?.smallestStickerMm ?? 12.7),
     feature: len(p?.minFeatureMm ?? 1),
+    bridge: len(p?.bridgeWidthMm ?? 3),
+    spot: p?.spotColour ?? 'CutContour',
+    marks: p?.regMarkShape ?? 'none',
+    markSize: len(p?.regMarkSizeMm ?? 5),
+    markOffset: len(p?.regMarkOffsetMm ?? 5),
   };
 }
 
@@ -54,6 +60,11 @@ export function ProfileForm({ profile, unit, onSave, onCancel }: { profile?: Pro
         minGapMm: mm(form.gap),
         smallestStickerMm: mm(form.smallest),
         minFeatureMm: mm(form.feature),
+        bridgeWidthMm: mm(form.bridge),
+        spotColour: form.spot,
+        regMarkShape: form.marks,
+        regMarkSizeMm: mm(form.markSize),
+        regMarkOffsetMm: mm(form.markOffset),
       });
       setMessage({ text: profile ? 'Profile saved.' : 'Profile added.', tone: 'ok' });
     } catch (e) {
@@ -82,10 +93,23 @@ export function ProfileForm({ profile, unit, onSave, onCancel }: { profile?: Pro
         {field('gap', `Minimum gap (${unit})`)}
         {field('smallest', `Smallest sticker (${unit})`)}
         {field('feature', `Smallest cuttable feature (${unit})`)}
+        {field('bridge', `Bridge width (${unit})`)}
+        <label className="flex flex-col gap-1 text-xs font-bold">
+          Cut layer colour name
+          <input value={form.spot} onChange={(e) => setForm({ ...form, spot: e.target.value })} className="w-28 rounded border-2 border-paper-edge px-2 py-1 font-normal" />
+        </label>
+        <label className="flex flex-col gap-1 text-xs font-bold">
+          Registration marks
+          <select value={form.marks} onChange={(e) => setForm({ ...form, marks: e.target.value as RegMarkShape })} className="rounded border-2 border-paper-edge bg-white px-2 py-1 font-normal">
+            {REG_MARK_SHAPES.map((s) => <option key={s} value={s}>{REG_MARK_LABELS[s]}</option>)}
+          </select>
+        </label>
+        {form.marks !== 'none' && field('markSize', `Mark size (${unit})`)}
+        {form.marks !== 'none' && field('markOffset', `Mark offset (${unit})`)}
         <button type="submit" className="rounded-full bg-ink px-4 py-1 font-bold text-paper">{profile ? 'Save profile' : 'Add profile'}</button>
         {onCancel && <button type="button" className="font-bold underline" onClick={onCancel}>Cancel</button>}
       </div>
-      <p className="mt-1 text-xs text-ink-faint">The print area is centred on the paper. Common practice for home cutters: 6.75 × 9.25 in on Letter, gaps of at least 1/8 in.{profile ? ' Sheets already made keep their print area; preflight uses the new smallest sizes.' : ''}</p>
+      <p className="mt-1 text-xs text-ink-faint">The print area is centred on the paper. Common practice for home cutters: 6.75 × 9.25 in on Letter, gaps of at least 1/8 in. Parts of the art the border joins get bridges at least the bridge width (common practice: 3 mm). Registration marks are for cutters that read marks printed with the art; most cutters' own software adds its own, so leave them off unless your machine's manual asks for printed marks.{profile ? ' Sheets already made keep their print area; preflight uses the new smallest sizes.' : ''}</p>
       {Object.values(errors).map((e) => <p key={e} role="alert" className="font-semibold text-alarm">{e}</p>)}
       {message && !Object.keys(errors).length && <FormMessage tone={message.tone}>{message.text}</FormMessage>}
     </form>

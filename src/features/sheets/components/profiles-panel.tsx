@@ -1,6 +1,6 @@
 import { useState } from 'react';
 import type { ProfileView } from '../../../../shared/schemas/sheets';
-import { PAPER_SIZES } from '../../../../shared/schemas/sheets';
+import { PAPER_SIZES, REG_MARK_LABELS } from '../../../../shared/schemas/sheets';
 import type { LengthUnit } from '../../../../shared/units';
 import { formatLength } from '../../../../shared/units';
 import { useCreateProfile, useMakeDefaultProfile, useUpdateProfile } from '../api/sheets';
@@ -21,7 +21,7 @@ export function ProfilesPanel({ teamId, profiles, unit, canManage }: { teamId: s
           <li key={p.id} className="rounded-lg bg-paper px-3 py-2">
             <strong>{p.name}</strong> {p.isDefault && <span className="rounded-full bg-sage-light px-2 text-xs text-sage-deep">default</span>}
             <div className="text-ink-soft">
-              Print area {f(p.areaWidthMm)} × {f(p.areaHeightMm)} on {p.paper === 'custom' ? `${f(p.paperWidthMm)} × ${f(p.paperHeightMm)}` : PAPER_SIZES[p.paper].label} · margin {f(p.safeMarginMm)} · gap {f(p.minGapMm)} · smallest sticker {f(p.smallestStickerMm)} · smallest feature {f(p.minFeatureMm)}
+              Print area {f(p.areaWidthMm)} × {f(p.areaHeightMm)} on {p.paper === 'custom' ? `${f(p.paperWidthMm)} × ${f(p.paperHeightMm)}` : PAPER_SIZES[p.paper].label} · margin {f(p.safeMarginMm)} · gap {f(p.minGapMm)} · smallest sticker {f(p.smallestStickerMm)} · smallest feature {f(p.minFeatureMm)} · bridges {f(p.bridgeWidthMm)} · cut layer {p.spotColour}{p.regMarkShape !== 'none' && ` · marks: ${REG_MARK_LABELS[p.regMarkShape].toLowerCase()} ${f(p.regMarkSizeMm)}, ${f(p.regMarkOffsetMm)} out`}
             </div>
             {canManage && (
               <div className="flex gap-3 text-xs font-bold">
