@@ -7,7 +7,10 @@ export const exportRequestSchema = z.object({
   formats: z.array(z.enum(['png', 'svg', 'combined', 'pdf', 'dxf'])).min(1, 'Pick at least one format').default(['png', 'svg', 'combined', 'pdf', 'dxf']),
   dxfUnit: z.enum(['mm', 'in']).default('mm'),
   sheetCut: z.object({ marginMm: z.number().min(0).max(50), radiusMm: z.number().min(0).max(50) }).nullable().default(null),
-  spotColour: z.string().regex(/^[A-Za-z0-9_-]{1,40}$/, 'Letters, digits, - and _ only').default('CutContour'),
+  /** The PDF cut layer's spot colour; without it the sheet profile's. */
+  spotColour: z.string().regex(/^[A-Za-z0-9_-]{1,40}$/, 'Cut layer colour name: letters, digits, - and _ only').optional(),
+  /** Put the profile's registration marks in the cut files too (they always print when the profile has them). */
+  marksInCutFile: z.boolean().default(false),
   /** The summary as extra PDF pages; off by default (it is always a file of its own). */
   summaryPage: z.boolean().default(false),
   /** A 1 in scale bar in the PDF's margin. */

@@ -124,4 +124,6 @@ export type SheetDetail = SheetSummary & {
   artLicences: Record<string, string | null>;
   /** The profile's preflight limits (mm). */
   limits: { smallestStickerMm: number; minFeatureMm: number; bridgeWidthMm: number };
+  /** How the profile's cutter finds the print: the PDF cut layer's spot colour and any printed registration marks. */
+  printing: { spotColour: string; marks: { shape: Exclude<RegMarkShape, 'none'>; sizeMm: number; offsetMm: number } | null };
 };

@@ -19,6 +19,12 @@ async function sheetWithPieces(pieces: number) {
   return { team, users, member, sheet };
 }
 
+const binary = (res: import('superagent').Response, cb: (err: Error | null, body: Buffer) => void) => {
+  const parts: Buffer[] = [];
+  res.on('data', (c: Buffer) => parts.push(c));
+  res.on('end', () => cb(null, Buffer.concat(parts)));
+};
+
 async function waitFor(client: Client, url: string) {
   for (let i = 0; i < 120; i++) {
     const res = await client.get(url);
@@ -135,6 +141,45 @@ describe('sheet exports', () => {
     const done = await waitFor(member, `/api/teams/${team.id}/sheets/${sheet.id}/exports/${started.body.id}`);
     const settings = await member.get(done.files.find((f: { name: string }) => f.name.endsWith('-settings.txt')).url);
     expect(settings.text).toMatch(/WARNING: dumbbell's cut line narrows below/);
+  });
+
+  it('the profile’s bridge width reaches the editor’s outline, its marks the export; the art’s “widen narrow parts” its outline', async () => {
+    const { team, users } = await makeTeamWithRoles(t.db);
+    const admin = new Client(t.sheetsmith.app);
+    await admin.signIn(users.admin.email);
+    const profile = (await admin.post(`/api/teams/${team.id}/sheet-profiles`, { name: 'Wide bridges', paper: 'letter', areaWidthMm: 171.45, areaHeightMm: 234.95, safeMarginMm: 3, minGapMm: 3, bridgeWidthMm: 6, regMarkShape: 'dot', regMarkSizeMm: 5, regMarkOffsetMm: 5 })).body;
+    // Two discs 6.56 mm apart across 2 in (the measured case): the border alone joins them in a 0.74 mm waist.
+    const islands = await sharp(Buffer.from('<svg xmlns="http://www.w3.org/2000/svg" width="2032" height="820" viewBox="0 0 50.8 20.56"><circle cx="10.28" cy="10.28" r="10.28" fill="#884ea0"/><circle cx="40.52" cy="10.28" r="10.28" fill="#884ea0"/></svg>')).png().toBuffer();
+    const art = (await uploadFile(admin, team.id, islands, 'twins.png')).body.results[0].item;
+    const { body: created } = await admin.post(`/api/teams/${team.id}/sheets`, { name: 'Twins', profileId: profile.id });
+    const piece = testPiece('t1', art.id, 60, 60, { width: 50.8, border: 3.175 });
+    await placePieces(admin, team.id, created, [piece]);
+    const sheet = (await admin.get(`/api/teams/${team.id}/sheets/${created.id}`)).body;
+    expect(sheet.limits).toMatchObject({ minFeatureMm: 1, bridgeWidthMm: 6 });
+    expect(sheet.printing).toEqual({ spotColour: 'CutContour', marks: { shape: 'dot', sizeMm: 5, offsetMm: 5 } });
+    const outline = await admin.get(`/api/teams/${team.id}/art/${art.id}/outline?${new URLSearchParams(pieceOutlineQuery(piece, sheet.limits))}`);
+    expect(outline.body.warnings.find((w: { code: string }) => w.code === 'islands-joined')?.message).toMatch(/at least 6 mm wide/);
+    const started = await admin.post(`/api/teams/${team.id}/sheets/${created.id}/exports`, { dpi: 150, formats: ['pdf', 'svg'] });
+    const done = await waitFor(admin, `/api/teams/${team.id}/sheets/${created.id}/exports/${started.body.id}`);
+    const settings = (await admin.get(done.files.find((f: { name: string }) => f.name.endsWith('-settings.txt')).url)).text;
+    expect(settings).toMatch(/Registration marks: filled dots 0\.197 in, 0\.197 in outside .*not in the cut files/);
+    const cut = String((await admin.get(done.files.find((f: { name: string }) => f.name.endsWith('-cut.svg')).url).buffer(true).parse(binary)).body);
+    expect(cut).not.toContain('registration-marks');
+
+    // A necked piece of one art: warned as drawn; once the maker agrees, the editor's same request widens it.
+    const necked = await sharp(Buffer.from('<svg xmlns="http://www.w3.org/2000/svg" width="1600" height="640" viewBox="0 0 40 16"><circle cx="8" cy="8" r="8" fill="#1f618d"/><circle cx="32" cy="8" r="8" fill="#1f618d"/><rect x="15" y="7.7" width="10" height="0.6" fill="#1f618d"/></svg>')).png().toBuffer();
+    const dumbbell = (await uploadFile(admin, team.id, necked, 'dumbbell.png')).body.results[0].item;
+    const query = new URLSearchParams(pieceOutlineQuery({ width: 40, border: 0, borderColour: '#ffffff' }, sheet.limits));
+    const codes = async () => (await admin.get(`/api/teams/${team.id}/art/${dumbbell.id}/outline?${query}`)).body.warnings.map((w: { code: string }) => w.code);
+    expect(await codes()).toContain('narrow-neck');
+    const agreed = await admin.send('patch', `/api/teams/${team.id}/art/${dumbbell.id}`, { widenNecks: true });
+    expect(agreed.body.widenNecks).toBe(true);
+    const after = await codes();
+    expect(after).toContain('necks-widened');
+    expect(after).not.toContain('narrow-neck');
+    const refused = await admin.send('patch', `/api/teams/${team.id}/art/${dumbbell.id}`, { widenNecks: 'sure' });
+    expect(refused.status).toBe(400);
+    expect(refused.body.error.fields.widenNecks).toBe('Say yes or no to widening narrow parts');
   });
 
   it('gives clear errors: another team’s sheet (404), an empty sheet (422), a DPI out of range (400), a viewer (403)', async () => {

@@ -1,3 +1,4 @@
+import sharp from 'sharp';
 import request from 'supertest';
 import { describe, expect, it } from 'vitest';
 import { ArtItem } from '../../server/modules/art/art-item.entity';
@@ -113,5 +114,51 @@ describe('GET /api/teams/:teamId/art/:artId/outline', () => {
     expect(results.map((r) => r.status)).toEqual(Array(10).fill(200));
     // The API answered before the outline work was done, not after it.
     expect(finished.filter((t) => t <= healthAt).length).toBeLessThan(10);
+  });
+});
+
+describe('GET /api/teams/:teamId/art/:artId/background-removal.png', () => {
+  it('tints what removal takes for editors, says how much art it takes, refuses viewers and bad tolerances', async () => {
+    const { team, users } = await makeTeamWithRoles(t.db);
+    const member = new Client(t.sheetsmith.app);
+    await member.signIn(users.member.email);
+    // No transparency: a cream-tipped shape on white (the tip is about 37 from white).
+    const flat = await sharp(Buffer.from('<svg xmlns="http://www.w3.org/2000/svg" width="300" height="300"><rect width="300" height="300" fill="#fff"/><rect x="100" y="40" width="100" height="60" fill="#fcf4dc"/><rect x="100" y="100" width="100" height="160" fill="#f28c28"/></svg>')).flatten({ background: '#ffffff' }).png().toBuffer();
+    const art = (await upload(member, team.id, flat, 'corn.png')).body.results[0].item;
+    const url = (q: string) => `/api/teams/${team.id}/art/${art.id}/background-removal.png?${q}`;
+    const binary = (res: import('superagent').Response, cb: (err: Error | null, body: Buffer) => void) => {
+      const parts: Buffer[] = [];
+      res.on('data', (c: Buffer) => parts.push(c));
+      res.on('end', () => cb(null, Buffer.concat(parts)));
+    };
+    const safe = await member.get(url('background=auto&backgroundTolerance=32')).buffer(true).parse(binary);
+    expect(safe.status).toBe(200);
+    expect(safe.headers['content-type']).toBe('image/png');
+    expect(pngSize(safe.body as Buffer)).toEqual({ width: 300, height: 300 });
+    expect(Number(safe.headers['x-art-taken'])).toBe(0);
+    const eaten = await member.get(url('background=%23ffffff&backgroundTolerance=42'));
+    // The tip is 6000 of 22000 art pixels.
+    expect(Number(eaten.headers['x-art-taken'])).toBeGreaterThan(0.2);
+    const outline = await member.get(`/api/teams/${team.id}/art/${art.id}/outline?width=2in&background=%23ffffff&backgroundTolerance=42`);
+    expect(outline.body.warnings.find((w: { code: string }) => w.code === 'background-took-art')?.message).toMatch(/^Background removal at tolerance 42 also took away \d+ % of the art/);
+    const bad = await member.get(url('background=auto&backgroundTolerance=400'));
+    expect(bad.status).toBe(400);
+    expect(bad.body.error.fields['query.backgroundTolerance']).toBe('The tolerance is at most 255');
+    const viewer = new Client(t.sheetsmith.app);
+    await viewer.signIn(users.viewer.email);
+    const refused = await viewer.get(url('background=auto'));
+    expect(refused.status).toBe(403);
+    expect(refused.body.error.message).toBe('Only people who can edit sheets or add art preview background removal.');
+  });
+
+  it('saving a background without a tolerance gives the mode its own default; none carries over', async () => {
+    const { team, users } = await makeTeamWithRoles(t.db);
+    const member = new Client(t.sheetsmith.app);
+    await member.signIn(users.member.email);
+    const art = (await upload(member, team.id, await svgArt(100, 100, '<circle cx="50" cy="50" r="40" fill="#ca6f1e"/>'), 'dot.png')).body.results[0].item;
+    const path = `/api/teams/${team.id}/art/${art.id}`;
+    expect((await member.send('patch', path, { background: { mode: 'auto', tolerance: 42 } })).body.background).toEqual({ mode: 'auto', colour: null, tolerance: 42 });
+    expect((await member.send('patch', path, { background: { mode: 'colour', colour: '#FFFFFF' } })).body.background).toEqual({ mode: 'colour', colour: '#ffffff', tolerance: 24 });
+    expect((await member.send('patch', path, { background: { mode: 'auto' } })).body.background).toEqual({ mode: 'auto', colour: null, tolerance: 32 });
   });
 });

@@ -42,6 +42,29 @@ describe('sheet profiles', () => {
   });
 });
 
+describe('sheet profiles: bridges, the cut layer and registration marks', () => {
+  it('keep the bridge width, spot colour and marks; refuse a bridge under the smallest feature and marks that run off the paper', async () => {
+    const { team, admin, member } = await setup();
+    const base = { name: 'Marks', paper: 'letter', areaWidthMm: 171.45, areaHeightMm: 234.95, safeMarginMm: 3, minGapMm: 3 };
+    const listed = (await member.get(`/api/teams/${team.id}/sheet-profiles`)).body.profiles[0];
+    // Defaults: 3 mm bridges (common practice), the usual spot colour name, marks off.
+    expect(listed).toMatchObject({ bridgeWidthMm: 3, spotColour: 'CutContour', regMarkShape: 'none' });
+    const made = await admin.post(`/api/teams/${team.id}/sheet-profiles`, { ...base, bridgeWidthMm: 5, spotColour: 'Thru-cut', regMarkShape: 'bracket', regMarkSizeMm: 6, regMarkOffsetMm: 4 });
+    expect(made.status).toBe(201);
+    expect(made.body).toMatchObject({ bridgeWidthMm: 5, spotColour: 'Thru-cut', regMarkShape: 'bracket', regMarkSizeMm: 6, regMarkOffsetMm: 4 });
+    const thin = await admin.post(`/api/teams/${team.id}/sheet-profiles`, { ...base, minFeatureMm: 1, bridgeWidthMm: 0.6 });
+    expect(thin.status).toBe(400);
+    expect(thin.body.error.fields.bridgeWidthMm).toBe('The bridge width cannot be below the smallest cuttable feature');
+    // 22.225 mm of paper around a 6.75 × 9.25 in area on Letter: 12 + 12 mm does not fit.
+    const off = await admin.post(`/api/teams/${team.id}/sheet-profiles`, { ...base, regMarkShape: 'square', regMarkSizeMm: 12, regMarkOffsetMm: 12 });
+    expect(off.status).toBe(400);
+    expect(off.body.error.fields.regMarkOffsetMm).toBe('The registration marks need 24 mm of paper around the print area; there is 22.22 mm. Use smaller marks, a smaller offset or a smaller print area.');
+    const badName = await admin.post(`/api/teams/${team.id}/sheet-profiles`, { ...base, spotColour: 'Cut Contour!' });
+    expect(badName.body.error.fields.spotColour).toMatch(/letters, digits, - and _ only/);
+    expect((await member.get(`/api/teams/${team.id}/sheet-profiles`)).body.profiles).toHaveLength(2);
+  });
+});
+
 describe('sheets', () => {
   it('create, read, save with versions, duplicate, template, delete; viewers read only', async () => {
     const { team, member, viewer, art } = await setup();

@@ -179,6 +179,74 @@ describe('export: the PDF prints no cut lines (pdf.js, rendered with @napi-rs/ca
   }, 60_000);
 });
 
+describe('export: registration marks (a layout of our own; off by default)', () => {
+  const marks = { shape: 'square' as const, sizeMm: 5, offsetMm: 5 };
+  /** Renders page 1 for print at 50 DPI with pdf.js and tells whether a paper point (mm) is near black. */
+  const printedDark = async (data: Buffer) => {
+    const pdfjs = await import('pdfjs-dist/legacy/build/pdf.mjs');
+    const { createCanvas } = await import('@napi-rs/canvas');
+    const standardFontDataUrl = `${path.dirname(createRequire(import.meta.url).resolve('pdfjs-dist/package.json'))}/standard_fonts/`;
+    const doc = await pdfjs.getDocument({ data: new Uint8Array(data), useSystemFonts: false, isEvalSupported: false, standardFontDataUrl }).promise;
+    const page = await doc.getPage(1);
+    const viewport = page.getViewport({ scale: 50 / 72 });
+    const canvas = createCanvas(Math.ceil(viewport.width), Math.ceil(viewport.height));
+    const ctx = canvas.getContext('2d');
+    ctx.fillStyle = '#fff';
+    ctx.fillRect(0, 0, canvas.width, canvas.height);
+    await page.render({ canvasContext: ctx as never, viewport, intent: 'print', optionalContentConfigPromise: doc.getOptionalContentConfig({ intent: 'print' }) }).promise;
+    const pixels = ctx.getImageData(0, 0, canvas.width, canvas.height).data;
+    return (xMm: number, yMm: number) => {
+      const i = (Math.round((yMm / IN) * 50) * canvas.width + Math.round((xMm / IN) * 50)) * 4;
+      return pixels[i] < 60 && pixels[i + 1] < 60 && pixels[i + 2] < 60;
+    };
+  };
+
+  it('print black outside three corners of the print area on the PDF page, and never on it by default', async () => {
+    const { areaXMm: ax, areaYMm: ay } = sheet.paper;
+    const plain = await printedDark(file('.pdf') as Buffer);
+    expect(plain(ax - 7.5, ay - 7.5)).toBe(false); // the check can fail: nothing there by default
+    const withMarks = await exportSheet(sheet, { ...DEFAULT_EXPORT_OPTIONS, dpi: 150, formats: ['pdf', 'svg', 'dxf'], marks });
+    const dark = await printedDark(withMarks.files.find((f) => f.name.endsWith('.pdf'))!.data as Buffer);
+    // Each mark's centre: 5 mm off the corner plus half of 5 mm, outside both edges.
+    expect(dark(ax - 7.5, ay - 7.5)).toBe(true);
+    expect(dark(ax + W + 7.5, ay - 7.5)).toBe(true);
+    expect(dark(ax - 7.5, ay + H + 7.5)).toBe(true);
+    expect(dark(ax + W + 7.5, ay + H + 7.5)).toBe(false); // the fourth corner stays empty
+    expect(dark(ax - 2.5, ay - 2.5)).toBe(false); // the offset is paper, not mark
+    // Not asked into the cut files: the cut SVG and DXF are as before.
+    const cut = withMarks.files.find((f) => f.name.endsWith('-cut.svg'))!.data as string;
+    expect(cut).toBe(file('-cut.svg'));
+    expect(new DxfParser().parseSync(withMarks.files.find((f) => f.name.endsWith('-cut.dxf'))!.data as string)!.entities.some((e) => e.layer === 'REGISTRATION')).toBe(false);
+    const settings = withMarks.files.find((f) => f.name.endsWith('-settings.txt'))!.data as string;
+    expect(settings).toMatch(/Registration marks: filled squares 0\.197 in, 0\.197 in outside the top-left, top-right and bottom-left corners .*not in the cut files/);
+  }, 60_000);
+
+  it('go into the cut SVG and DXF only when asked, without moving a cut line', async () => {
+    const asked = await exportSheet(sheet, { ...DEFAULT_EXPORT_OPTIONS, dpi: 150, formats: ['svg', 'dxf'], dxfUnit: 'in', marks, marksInCutFile: true });
+    const svg = new XMLParser({ ignoreAttributes: false, attributeNamePrefix: '' }).parse(asked.files.find((f) => f.name.endsWith('-cut.svg'))!.data as string).svg;
+    // The view widens by offset + size (10 mm) on every side; user space keeps its origin at the print area.
+    const [vx, vy, vw, vh] = (svg.viewBox as string).split(' ').map(Number);
+    expect(vx).toBeCloseTo(-10 / IN, 4);
+    expect(vy).toBeCloseTo(-10 / IN, 4);
+    expect(vw).toBeCloseTo((W + 20) / IN, 4);
+    expect(vh).toBeCloseTo((H + 20) / IN, 4);
+    expect(parseFloat(svg.width)).toBeCloseTo(vw, 3);
+    const groups = (Array.isArray(svg.g) ? svg.g : [svg.g]) as Array<{ id: string; path: Array<{ id: string; d: string }> | { id: string; d: string } }>;
+    const markPaths = groups.find((g) => g.id === 'registration-marks')!.path as Array<{ id: string; d: string }>;
+    expect(markPaths.map((p) => p.id)).toEqual(['mark-top-left', 'mark-top-right', 'mark-bottom-left']);
+    expect(svgPathBbox(markPaths[0].d).map((v) => v * IN)).toEqual([-10, -10, -5, -5].map((v) => expect.closeTo(v, 2)));
+    const before = new XMLParser({ ignoreAttributes: false, attributeNamePrefix: '' }).parse(file('-cut.svg') as string).svg;
+    expect(groups.filter((g) => g.id !== 'registration-marks')).toEqual(Array.isArray(before.g) ? before.g : [before.g]);
+    const dxf = new DxfParser().parseSync(asked.files.find((f) => f.name.endsWith('-cut.dxf'))!.data as string)!;
+    const registration = dxf.entities.filter((e) => e.layer === 'REGISTRATION') as unknown as Array<{ vertices: Array<{ x: number; y: number }> }>;
+    expect(registration).toHaveLength(3);
+    // DXF y runs up from the print area's bottom edge: the top-left mark sits above its top.
+    const xs = registration[0].vertices.map((v) => v.x), ys = registration[0].vertices.map((v) => v.y);
+    expect(Math.min(...xs)).toBeCloseTo(-10 / IN, 4);
+    expect(Math.max(...ys)).toBeCloseTo((H + 10) / IN, 4);
+  }, 60_000);
+});
+
 describe('export: the cut SVG, read with fast-xml-parser and svg-path-bbox', () => {
   it('has width/height in inches matching its viewBox and each path where its piece is, within 0.01 in', () => {
     const svg = new XMLParser({ ignoreAttributes: false, attributeNamePrefix: '' }).parse(file('-cut.svg') as string).svg;

@@ -1,3 +1,4 @@
+import { REG_MARK_LABELS } from '../../../shared/schemas/sheets';
 import { formatLength } from '../../../shared/units';
 import { cutDxf } from './dxf';
 import { sheetCutLines } from './geometry';
@@ -36,9 +37,11 @@ export async function exportSheet(sheet: ExportSheet, options: ExportOptions, on
   const png = needsPng ? await renderPrintImage(sheet, options.dpi, options.background, (d, t) => onProgress?.(0.05 + 0.6 * (d / t), 'Rendering the print image')) : null;
   if (wants.has('png')) files.push({ name: `${base}-print.png`, data: png! });
   onProgress?.(0.7, 'Writing the cut files');
-  if (wants.has('svg')) files.push({ name: `${base}-cut.svg`, data: cutSvg(sheet, lines) });
-  if (wants.has('combined')) files.push({ name: `${base}-print-and-cut.svg`, data: combinedSvg(sheet, lines, png!) });
-  if (wants.has('dxf')) files.push({ name: `${base}-cut.dxf`, data: cutDxf(sheet, lines, options.dxfUnit) });
+  const marks = options.marks;
+  const cutMarks = options.marksInCutFile ? marks : null;
+  if (wants.has('svg')) files.push({ name: `${base}-cut.svg`, data: cutSvg(sheet, lines, cutMarks) });
+  if (wants.has('combined')) files.push({ name: `${base}-print-and-cut.svg`, data: combinedSvg(sheet, lines, png!, marks) });
+  if (wants.has('dxf')) files.push({ name: `${base}-cut.dxf`, data: cutDxf(sheet, lines, options.dxfUnit, cutMarks) });
   const u = sheet.unit;
   const area = `${formatLength(sheet.doc.printArea.width, u)} x ${formatLength(sheet.doc.printArea.height, u)}`;
   const settings = [
@@ -48,6 +51,9 @@ export async function exportSheet(sheet: ExportSheet, options: ExportOptions, on
     `Resolution: ${options.dpi} DPI; background ${options.background}; bleed ${formatLength(options.bleedMm, u)}`,
     `Minimum gap ${formatLength(sheet.doc.minGap, u)}; safe margin ${formatLength(sheet.doc.safeMargin, u)}`,
     `Cut lines: ${lines.length} (${lines.filter((l) => l.kind === 'die').length} die cut), PDF spot colour ${options.spotColour}, DXF in ${options.dxfUnit}`,
+    marks
+      ? `Registration marks: ${REG_MARK_LABELS[marks.shape].toLowerCase()} ${formatLength(marks.sizeMm, u)}, ${formatLength(marks.offsetMm, u)} outside the top-left, top-right and bottom-left corners of the print area; printed on the PDF page and in the print-and-cut SVG (not in the print PNG, which covers the print area only)${options.marksInCutFile ? '; also outlined in the cut SVG, the DXF and the PDF cut layer' : '; not in the cut files'}`
+      : 'Registration marks: none (the cutter software adds its own)',
     `Pieces: ${sheet.pieces.length}`,
     ...sheet.pieces.map((p, i) => `  ${i + 1}. ${p.name}: ${formatLength(p.piece.width, u)} wide, border ${formatLength(p.piece.border, u)}, at (${formatLength(p.piece.x, u)}, ${formatLength(p.piece.y, u)}), turned ${Math.round(p.piece.rotation)} deg`),
     ...(sheet.preflight?.length ? ['Preflight:', ...sheet.preflight.map((f) => `  - ${f}`)] : []),
@@ -56,7 +62,7 @@ export async function exportSheet(sheet: ExportSheet, options: ExportOptions, on
   ];
   if (wants.has('pdf')) {
     onProgress?.(0.8, 'Writing the PDF');
-    files.push({ name: `${base}.pdf`, data: await sheetPdf(sheet, lines, png!, options.spotColour, { checkBar: options.checkBar, summary: options.summaryPage ? settings.filter(Boolean) : null }) });
+    files.push({ name: `${base}.pdf`, data: await sheetPdf(sheet, lines, png!, options.spotColour, { checkBar: options.checkBar, summary: options.summaryPage ? settings.filter(Boolean) : null, marks, marksInCutFile: options.marksInCutFile }) });
     files.push({ name: `${base}-summary.pdf`, data: await summaryPdf(`${sheet.name}: export summary`, settings, { widthMm: sheet.paper.paperWidthMm, heightMm: sheet.paper.paperHeightMm }) });
   }
   files.push({ name: `${base}-settings.txt`, data: `${settings.join('\n')}\n` });

@@ -1,6 +1,8 @@
 import { PDFDocument, PDFName, PDFNumber, PDFOperator, PDFString, StandardFonts, rgb } from 'pdf-lib';
 import type { PDFDict, PDFPage, PDFRef } from 'pdf-lib';
 import type { Ring } from '../../../shared/geometry/polygon';
+import type { RegMarks } from './marks';
+import { registrationMarks } from './marks';
 import type { ExportSheet } from './types';
 
 const PT_PER_MM = 72 / 25.4; // PDF user space: 1/72 in (ISO 32000-1 §8.3.2.3)
@@ -19,6 +21,10 @@ export type PdfExtras = {
   checkBar: boolean;
   /** The summary as extra pages (off by default: "print all pages" would waste a sheet). */
   summary: string[] | null;
+  /** Registration marks, printed in black outside the print area's corners. */
+  marks?: RegMarks | null;
+  /** Also outline the marks on the cut layer. */
+  marksInCutFile?: boolean;
 };
 
 /**
@@ -68,11 +74,22 @@ export async function sheetPdf(
     PDFOperator.of('SCN' as never, [PDFNumber.of(1)]),
     PDFOperator.of('w' as never, [PDFNumber.of(0.25)]),
   ];
-  for (const line of lines) {
-    line.ring.forEach((p, i) => ops.push(PDFOperator.of((i === 0 ? 'm' : 'l') as never, [x(p.x), y(p.y)])));
+  const marks = extras.marks ? registrationMarks(area, extras.marks) : [];
+  const cutRings = [...lines.map((l) => l.ring), ...(extras.marksInCutFile ? marks.map((m) => m.ring) : [])];
+  for (const ring of cutRings) {
+    ring.forEach((p, i) => ops.push(PDFOperator.of((i === 0 ? 'm' : 'l') as never, [x(p.x), y(p.y)])));
     ops.push(PDFOperator.of('h' as never), PDFOperator.of('S' as never));
   }
   ops.push(PDFOperator.of('Q' as never), PDFOperator.of('EMC' as never));
+  if (marks.length) {
+    // Printed marks: solid black (DeviceGray 0), outside any optional content, so they always print.
+    ops.push(PDFOperator.of('q' as never), PDFOperator.of('g' as never, [PDFNumber.of(0)]));
+    for (const mark of marks) {
+      mark.ring.forEach((p, i) => ops.push(PDFOperator.of((i === 0 ? 'm' : 'l') as never, [x(p.x), y(p.y)])));
+      ops.push(PDFOperator.of('h' as never), PDFOperator.of('f' as never));
+    }
+    ops.push(PDFOperator.of('Q' as never));
+  }
   page.pushOperators(...ops);
 
   const bottomMargin = (paperHeightMm - areaYMm - area.height) * PT_PER_MM;

@@ -1,5 +1,6 @@
 import type { Ring } from '../../../shared/geometry/polygon';
 import type { Piece, SheetDocument } from '../../../shared/sheet/document';
+import type { RegMarks } from './marks';
 
 export type ExportFormat = 'png' | 'svg' | 'combined' | 'pdf' | 'dxf';
 export const EXPORT_FORMATS: ExportFormat[] = ['png', 'svg', 'combined', 'pdf', 'dxf'];
@@ -28,6 +29,10 @@ export type ExportOptions = {
   summaryPage: boolean;
   /** A 1 in scale bar in the PDF's margin, to check on paper that nothing was scaled. */
   checkBar: boolean;
+  /** Registration marks printed outside the print area's corners (the profile's; null: none). */
+  marks: RegMarks | null;
+  /** Also put the marks' outlines in the cut files (cut SVG, DXF, the PDF's cut layer). */
+  marksInCutFile: boolean;
 };
 
 export type ExportSheet = {
@@ -49,4 +54,6 @@ export const DEFAULT_EXPORT_OPTIONS: ExportOptions = {
   spotColour: 'CutContour',
   summaryPage: false,
   checkBar: true,
+  marks: null,
+  marksInCutFile: false,
 };

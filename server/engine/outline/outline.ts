@@ -268,14 +268,39 @@ export async function outline(image: Buffer, rawOptions: OutlineOptionsInput, li
     const bridgePx = Math.max(options.bridgeWidth, options.minFeature) * pxPerMm;
     const wide = formatLength(Math.max(options.bridgeWidth, options.minFeature), 'mm');
     if (options.widenNecks) {
-      // The maker agreed to change the shape: every part of the cut shape thinner than the bridge
-      // width (what an opening by it removes) gets art added around it until it is that wide.
-      const residue = thinResidue(grown, cw, ch, bridgePx / 2);
-      const thin = residue ? labelComponents(residue, cw, ch).components.filter((c) => c.area > (bridgePx / 2) ** 2).length : 0;
+      // The maker agreed to change the shape: each narrow place the checks below would warn about
+      // (a waist or a thin part under the smallest feature) gets art added around the part of the
+      // cut shape thinner than the bridge width that holds it (what an opening by it removes),
+      // until it is that wide; a closing then rounds the crevices where the widened part meets the rest.
+      const filledGrown = fillHoles(grown, cw, ch);
+      const narrow = [...findNecks(filledGrown, cw, ch, minFeaturePx), ...(level >= minFeaturePx / 2 ? [] : findNarrowParts(filledGrown, cw, ch, minFeaturePx))];
+      const residue = narrow.length ? thinResidue(grown, cw, ch, bridgePx / 2) : null;
+      const pieces = residue ? labelComponents(residue, cw, ch) : null;
+      const slack = Math.ceil(minFeaturePx) + 1;
+      const holding = new Set<number>();
+      for (const n of pieces ? narrow : []) {
+        // The residue component at (or within the smallest feature of) the narrow place.
+        for (let dy = -slack; dy <= slack; dy++) {
+          for (let dx = -slack; dx <= slack; dx++) {
+            const x = Math.floor(n.x) + dx, y = Math.floor(n.y) + dy;
+            if (x >= 0 && y >= 0 && x < cw && y < ch && pieces!.labels[y * cw + x] > 0 && residue![y * cw + x]) holding.add(pieces!.labels[y * cw + x]);
+          }
+        }
+      }
+      const thin = holding.size;
       if (residue && thin > 0) {
-        const reach = distanceTransform(residue, cw, ch);
+        const target = new Uint8Array(cw * ch);
+        for (let i = 0; i < target.length; i++) if (residue[i] && holding.has(pieces!.labels[i])) target[i] = 1;
+        const reach = distanceTransform(target, cw, ch);
         const grow = Math.max(1, bridgePx / 2 - (level - 0.5) + 1);
         for (let i = 0; i < artMask.length; i++) if (reach[i] <= grow) artMask[i] = 1;
+        // Closing by a disc of the smallest feature, only around what was added: no new slots.
+        const rc = Math.max(1, minFeaturePx);
+        const toArt = distanceTransform(artMask, cw, ch);
+        const dilated = new Uint8Array(cw * ch);
+        for (let i = 0; i < dilated.length; i++) dilated[i] = toArt[i] <= rc ? 0 : 1; // the outside of the dilation
+        const toOutside = distanceTransform(dilated, cw, ch);
+        for (let i = 0; i < artMask.length; i++) if (!artMask[i] && toOutside[i] > rc && reach[i] <= grow + 2 * rc) artMask[i] = 1;
         squared = squaredDistanceTransform(artMask, cw, ch);
         for (let i = 0; i < grown.length; i++) grown[i] = squared[i] <= level2 ? 1 : 0;
         warnings.push({ code: 'necks-widened', severity: 'notice', message: `Widened ${thin} narrow part${thin === 1 ? '' : 's'} of the cut line to at least ${wide}, as asked.` });

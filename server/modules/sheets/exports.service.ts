@@ -9,6 +9,8 @@ import { profileLimits } from '../../../shared/sheet/preflight';
 import { migrateDocument } from '../../../shared/sheet/document';
 import { ExportInputError, exportSheet } from '../../engine/export/export';
 import { exportPiece } from '../../engine/export/prepare';
+import type { ExportOptions } from '../../engine/export/types';
+import { DEFAULT_EXPORT_OPTIONS } from '../../engine/export/types';
 import type { OutlinePool } from '../../engine/outline/pool';
 import { AppError, notFound } from '../../lib/errors';
 import type { Storage } from '../../storage/storage';
@@ -98,7 +100,13 @@ export class ExportsService {
       let last = 0;
       // Progress writes run one after another and are awaited before the job is marked done.
       let writes = Promise.resolve();
-      const result = await exportSheet({ name: sheet.name, unit: sheet.unit, doc, pieces, paper, preflight: findings.map((f) => `${f.severity.toUpperCase()}: ${f.message}`) }, options, (fraction, step) => {
+      // The profile says how its cutter finds the print: the cut layer's spot colour and any printed marks.
+      const resolved: ExportOptions = {
+        ...options,
+        spotColour: options.spotColour ?? profile?.spotColour ?? DEFAULT_EXPORT_OPTIONS.spotColour,
+        marks: profile && profile.regMarkShape !== 'none' ? { shape: profile.regMarkShape, sizeMm: profile.regMarkSizeMm, offsetMm: profile.regMarkOffsetMm } : null,
+      };
+      const result = await exportSheet({ name: sheet.name, unit: sheet.unit, doc, pieces, paper, preflight: findings.map((f) => `${f.severity.toUpperCase()}: ${f.message}`) }, resolved, (fraction, step) => {
         if (fraction - last >= 0.1 || fraction === 1) {
           last = fraction;
           writes = writes.then(() => this.progress(id, 0.4 + 0.55 * fraction, step)).catch(() => undefined);

@@ -91,6 +91,10 @@ export class SheetsService {
       artNames: Object.fromEntries(art.map((a) => [a.id, a.name])),
       artLicences: Object.fromEntries(licences),
       limits: profileLimits(profile),
+      printing: {
+        spotColour: profile?.spotColour ?? 'CutContour',
+        marks: profile && profile.regMarkShape !== 'none' ? { shape: profile.regMarkShape, sizeMm: profile.regMarkSizeMm, offsetMm: profile.regMarkOffsetMm } : null,
+      },
     };
   }
 

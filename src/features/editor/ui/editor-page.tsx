@@ -197,7 +197,7 @@ export function EditorPage({ teamId, sheet, canEdit }: { teamId: string; sheet: 
             addArt(art, at);
           }}
         />
-        {exporting && <ExportPanel teamId={teamId} sheetId={sheet.id} unsaved={state.save !== 'saved'} findings={findings} areaText={`${formatLength(state.doc.printArea.width, unit)} × ${formatLength(state.doc.printArea.height, unit)}`} onClose={() => setExporting(false)} />}
+        {exporting && <ExportPanel teamId={teamId} sheetId={sheet.id} unsaved={state.save !== 'saved'} findings={findings} areaText={`${formatLength(state.doc.printArea.width, unit)} × ${formatLength(state.doc.printArea.height, unit)}`} printing={sheet.printing} formatLength={(mm) => formatLength(mm, unit)} onClose={() => setExporting(false)} />}
         {arranging && <ArrangePanel store={store} outlines={outlines} onPreview={setPreview} onClose={() => setArranging(false)} />}
         </div>
         <aside className="flex min-h-0 flex-col gap-4 overflow-auto rounded-sticker border-2 border-paper-edge bg-white p-3" aria-label="Selection and checks">

@@ -5,9 +5,20 @@ import { exportFileLabel } from '../../../../shared/schemas/exports';
 import { ApiError } from '../../../lib/api-client';
 import { getExport, latestExport, startExport } from '../api/exports';
 import type { Finding } from '../../../../shared/sheet/preflight';
+import type { SheetDetail } from '../../../../shared/schemas/sheets';
+import { REG_MARK_LABELS } from '../../../../shared/schemas/sheets';
 
 /** Export settings, the running job's progress, and the bundle to download (kept per sheet version). */
-export function ExportPanel({ teamId, sheetId, unsaved, findings, areaText, onClose }: { teamId: string; sheetId: string; unsaved: boolean; findings: Finding[]; areaText: string; onClose: () => void }) {
+export function ExportPanel({ teamId, sheetId, unsaved, findings, areaText, printing, formatLength, onClose }: {
+  teamId: string;
+  sheetId: string;
+  unsaved: boolean;
+  findings: Finding[];
+  areaText: string;
+  printing: SheetDetail['printing'];
+  formatLength: (mm: number) => string;
+  onClose: () => void;
+}) {
   const errors = findings.filter((f) => f.severity === 'error');
   const [acceptErrors, setAcceptErrors] = useState(false);
   const [dpi, setDpi] = useState(300);
@@ -15,6 +26,7 @@ export function ExportPanel({ teamId, sheetId, unsaved, findings, areaText, onCl
   const [bleed, setBleed] = useState(0);
   const [sheetCut, setSheetCut] = useState(false);
   const [checkBar, setCheckBar] = useState(true);
+  const [marksInCutFile, setMarksInCutFile] = useState(false);
   const [job, setJob] = useState<ExportJobView | null>(null);
   const [error, setError] = useState<string | null>(null);
   const latest = useQuery({ queryKey: ['teams', teamId, 'sheets', sheetId, 'export-latest'], queryFn: () => latestExport(teamId, sheetId) });
@@ -28,7 +40,7 @@ export function ExportPanel({ teamId, sheetId, unsaved, findings, areaText, onCl
   const start = async () => {
     setError(null);
     try {
-      setJob(await startExport(teamId, sheetId, { dpi, background, bleedMm: bleed, sheetCut: sheetCut ? { marginMm: 1.5, radiusMm: 3 } : null, checkBar, acceptErrors }));
+      setJob(await startExport(teamId, sheetId, { dpi, background, bleedMm: bleed, sheetCut: sheetCut ? { marginMm: 1.5, radiusMm: 3 } : null, checkBar, marksInCutFile, acceptErrors }));
     } catch (e) {
       setError(e instanceof ApiError ? e.message : 'The export could not start.');
     }
@@ -52,6 +64,13 @@ export function ExportPanel({ teamId, sheetId, unsaved, findings, areaText, onCl
         <p className="text-xs text-ink-faint">White borders need no bleed; coloured borders: 0.5 to 1.5 mm (common practice).</p>
         <label className="flex items-center gap-2 font-bold"><input type="checkbox" checked={sheetCut} onChange={(e) => setSheetCut(e.target.checked)} />Die cut around the whole sheet</label>
         <label className="flex items-center gap-2 font-bold"><input type="checkbox" checked={checkBar} onChange={(e) => setCheckBar(e.target.checked)} />1 in check bar in the PDF's margin</label>
+        <p className="text-xs text-ink-soft" data-testid="export-marks">
+          {printing.marks
+            ? `Registration marks from the profile: ${REG_MARK_LABELS[printing.marks.shape].toLowerCase()} ${formatLength(printing.marks.sizeMm)}, ${formatLength(printing.marks.offsetMm)} outside three corners, printed on the PDF page.`
+            : 'No registration marks: the cutter software adds its own (set them on the sheet profile if your machine reads printed marks).'}{' '}
+          Cut layer colour: {printing.spotColour}.
+        </p>
+        {printing.marks && <label className="flex items-center gap-2 font-bold"><input type="checkbox" checked={marksInCutFile} onChange={(e) => setMarksInCutFile(e.target.checked)} />Outline the marks in the cut files too</label>}
       </div>
       {errors.length > 0 && (
         <div className="mt-3 rounded-lg border-l-4 border-alarm bg-alarm-light p-2" data-testid="export-preflight">
