@@ -98,7 +98,7 @@ export function preflight(input: PreflightInput): Finding[] {
     if (dpi < 150) findings.push({ code: 'low-resolution', severity: 'warning', pieceIds: [piece.id], dpi, message: `${name} prints at ${Math.round(dpi)} DPI: under 150 looks soft. Print it smaller or use a larger file.` });
     else if (dpi < 300) findings.push({ code: 'low-resolution', severity: 'notice', pieceIds: [piece.id], dpi, message: `${name} prints at ${Math.round(dpi)} DPI (300 is ideal for stickers).` });
     if (outline.narrowNecks > 0) {
-      findings.push({ code: 'narrow-neck', severity: 'warning', pieceIds: [piece.id], message: `${name}'s cut line narrows below ${len(limits.minFeatureMm)} (or has a slot that narrow) in ${outline.narrowNecks === 1 ? 'one place' : `${outline.narrowNecks} places`}: the blade may tear it. Widen the border.` });
+      findings.push({ code: 'narrow-neck', severity: 'warning', pieceIds: [piece.id], message: `${name}'s cut line narrows below ${len(limits.minFeatureMm)} (or has a slot that narrow) in ${outline.narrowNecks === 1 ? 'one place' : `${outline.narrowNecks} places`}: the blade may tear it. Widen the border, or let Sheetsmith widen narrow parts on the art's page.` });
     }
   }
 

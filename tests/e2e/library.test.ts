@@ -132,4 +132,37 @@ describe('art library in Chromium', { timeout: BROWSER_TEST_TIMEOUT }, () => {
     await screenshot(page, 'art-two-collections');
     await page.close();
   });
+
+  it('the art page tints what background removal takes, warns when it eats the light tip, and starts each mode at its own tolerance', async () => {
+    const { team, users } = await makeTeamWithRoles(t.db);
+    const member = new Client(t.served.url);
+    await member.signIn(users.member.email);
+    // A candy-corn-like piece with no transparency: a cream tip (about 37 from white) on white, 300 DPI at the preview's 3 in.
+    const corn = await sharp(Buffer.from(`<svg xmlns="http://www.w3.org/2000/svg" width="1500" height="1500" viewBox="0 0 600 600"><rect width="600" height="600" fill="#fff"/><clipPath id="c"><polygon points="300,40 480,560 120,560"/></clipPath><g clip-path="url(#c)"><rect width="600" height="200" fill="#fcf4dc"/><rect y="200" width="600" height="180" fill="#f28c28"/><rect y="380" width="600" height="220" fill="#f7c531"/></g></svg>`)).flatten({ background: '#ffffff' }).png().toBuffer();
+    const art = (await uploadFile(member, team.id, corn, 'candy-corn.png')).body.results[0].item;
+    const page = await t.browser.newPage({ viewport: { width: 1280, height: 800 } });
+    await signInThroughForm(page, t.served.url, users.member.email);
+    await page.goto(`${t.served.url}/t/${team.id}/library/${art.id}`);
+    await page.getByRole('heading', { name: 'Background' }).waitFor();
+    const removal = page.getByTestId('removal-preview');
+    await expect.poll(() => removal.evaluate((img: HTMLImageElement) => img.complete && img.naturalWidth > 0), { timeout: 30_000 }).toBe(true);
+    await page.getByTestId('after-preview').waitFor({ timeout: 30_000 });
+    expect(await page.getByTestId('tolerance-value').textContent()).toBe('32');
+    expect(await page.getByTestId('outline-cautions').count()).toBe(0);
+    // Ten steps up by keyboard: 42, the tolerance that was measured to eat the tip.
+    await page.getByRole('slider').focus();
+    for (let i = 0; i < 10; i++) await page.keyboard.press('ArrowRight');
+    expect(await page.getByTestId('tolerance-value').textContent()).toBe('42');
+    await expect.poll(() => page.getByTestId('outline-cautions').textContent(), { timeout: 30_000 }).toMatch(/Background removal at tolerance 42 also took away \d+(\.\d)? % of the art/);
+    await expect.poll(() => removal.getAttribute('src')).toContain('backgroundTolerance=42');
+    await expect.poll(() => removal.evaluate((img: HTMLImageElement) => img.complete && img.naturalWidth > 0), { timeout: 30_000 }).toBe(true);
+    await screenshot(page, 'background-removal-eats-tip');
+    // Another mode starts from its own default, not from 42.
+    await page.getByLabel('Remove a colour').check();
+    expect(await page.getByTestId('tolerance-value').textContent()).toBe('24');
+    await page.getByLabel('Automatic').check();
+    expect(await page.getByTestId('tolerance-value').textContent()).toBe('32');
+    await expect.poll(() => page.getByTestId('outline-cautions').count(), { timeout: 30_000 }).toBe(0);
+    await page.close();
+  });
 });

@@ -8,9 +8,9 @@ import type { OutlineLimits } from './outline';
 
 export type RemovalPreview = { png: Buffer; removedShare: number; takenShare: number };
 
-/** Tints: removed background in a cool blue-grey, art that would be taken in a strong orange. */
+/** Tints: removed background in a cool blue-grey, art that would be taken in a hot magenta few clip-art palettes use. */
 const BACKGROUND_TINT = { r: 120, g: 160, b: 200, a: 0.7 };
-const TAKEN_TINT = { r: 255, g: 110, b: 0, a: 0.9 };
+const TAKEN_TINT = { r: 200, g: 0, b: 120, a: 0.85 };
 
 /** The same removal the outline engine does for `options.background`, drawn at most `maxSide` px. */
 export async function removalPreview(image: Buffer, options: Pick<OutlineOptions, 'background' | 'backgroundTolerance'>, limits: OutlineLimits, maxSide = 640): Promise<RemovalPreview> {

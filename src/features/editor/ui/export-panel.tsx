@@ -20,6 +20,7 @@ export function ExportPanel({ teamId, sheetId, unsaved, findings, areaText, prin
   onClose: () => void;
 }) {
   const errors = findings.filter((f) => f.severity === 'error');
+  const warnings = findings.filter((f) => f.severity === 'warning');
   const [acceptErrors, setAcceptErrors] = useState(false);
   const [dpi, setDpi] = useState(300);
   const [background, setBackground] = useState<'transparent' | 'white'>('transparent');
@@ -48,7 +49,7 @@ export function ExportPanel({ teamId, sheetId, unsaved, findings, areaText, prin
   const shown = job ?? latest.data?.export ?? null;
 
   return (
-    <section role="dialog" aria-labelledby="export-title" className="absolute right-3 top-3 z-30 w-80 rounded-sticker border-2 border-sage bg-white p-4 text-sm shadow-lg">
+    <section role="dialog" aria-labelledby="export-title" className="absolute right-3 top-3 z-30 max-h-[calc(100vh-7rem)] w-80 overflow-y-auto rounded-sticker border-2 border-sage bg-white p-4 text-sm shadow-lg">
       <h2 id="export-title" className="mb-2 text-lg font-extrabold">Export for print and cut</h2>
       {unsaved && <p className="mb-2 text-peel-deep">Saving your latest changes first; the export uses the saved sheet.</p>}
       <div className="flex flex-col gap-2">
@@ -77,6 +78,12 @@ export function ExportPanel({ teamId, sheetId, unsaved, findings, areaText, prin
           <p className="font-bold">Preflight found {errors.length} error{errors.length === 1 ? '' : 's'}:</p>
           <ul className="ml-4 list-disc text-xs">{errors.map((f, i) => <li key={i}>{f.message}</li>)}</ul>
           <label className="mt-1 flex items-center gap-2 font-bold"><input type="checkbox" checked={acceptErrors} onChange={(e) => setAcceptErrors(e.target.checked)} />Export anyway: I have read these</label>
+        </div>
+      )}
+      {warnings.length > 0 && (
+        <div className="mt-3 rounded-lg border-l-4 border-peel bg-paper-deep p-2" data-testid="export-warnings">
+          <p className="font-bold">Check before printing ({warnings.length}):</p>
+          <ul className="ml-4 list-disc text-xs">{warnings.map((f, i) => <li key={i}>{f.message}</li>)}</ul>
         </div>
       )}
       {shown && (

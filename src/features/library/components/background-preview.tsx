@@ -16,7 +16,7 @@ const toleranceFor = (art: ArtView, mode: Mode) => (mode === art.background.mode
 /**
  * Before, what is removed and after, for the outline engine's background removal: the tolerance is a
  * slider, clicking the original picks the colour to remove, and the middle picture tints what goes
- * (blue-grey the background, orange any art the removal would take). Also where the maker agrees
+ * (blue-grey the background, magenta any art the removal would take). Also where the maker agrees
  * that narrow parts of the cut line may be widened.
  */
 export function BackgroundPreview({ teamId, art, canEdit }: { teamId: string; art: ArtView; canEdit: boolean }) {
@@ -81,13 +81,13 @@ export function BackgroundPreview({ teamId, art, canEdit }: { teamId: string; ar
             <figcaption className="mb-1 text-sm font-bold">What is removed</figcaption>
             <img
               src={removalPreviewUrl(teamId, art.id, { background, backgroundTolerance: debounced.tolerance })}
-              alt={`${art.name} with the removed background tinted blue-grey and any art it takes in orange`}
+              alt={`${art.name} with the removed background tinted blue-grey and any art it takes in magenta`}
               data-testid="removal-preview"
               className="max-h-72 w-full rounded-lg object-contain"
             />
             <p className="mt-1 text-xs text-ink-soft">
               <span className="mr-1 inline-block h-3 w-3 rounded-sm bg-[#78a0c8] align-middle" aria-hidden="true" />background removed
-              <span className="ml-3 mr-1 inline-block h-3 w-3 rounded-sm bg-[#ff6e00] align-middle" aria-hidden="true" />art taken with it
+              <span className="ml-3 mr-1 inline-block h-3 w-3 rounded-sm bg-[#c80078] align-middle" aria-hidden="true" />art taken with it
             </p>
           </figure>
         )}
