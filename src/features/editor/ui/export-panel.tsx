@@ -49,7 +49,7 @@ export function ExportPanel({ teamId, sheetId, unsaved, findings, areaText, prin
   const shown = job ?? latest.data?.export ?? null;
 
   return (
-    <section role="dialog" aria-labelledby="export-title" className="absolute right-3 top-3 z-30 max-h-[calc(100vh-7rem)] w-80 overflow-y-auto rounded-sticker border-2 border-sage bg-white p-4 text-sm shadow-lg">
+    <section role="dialog" aria-labelledby="export-title" className="absolute right-3 top-3 z-30 max-h-[calc(100vh-14rem)] w-80 overflow-y-auto rounded-sticker border-2 border-sage bg-white p-4 text-sm shadow-lg">
       <h2 id="export-title" className="mb-2 text-lg font-extrabold">Export for print and cut</h2>
       {unsaved && <p className="mb-2 text-peel-deep">Saving your latest changes first; the export uses the saved sheet.</p>}
       <div className="flex flex-col gap-2">
