@@ -6,6 +6,7 @@
 import type { Ring } from '../geometry/polygon';
 import { area, boundingBox } from '../geometry/polygon';
 import { cutLineDistance } from '../sheet/placement';
+import { overlaps } from '../geometry/overlap';
 import { seeded } from './prng';
 import type { ShapeMask } from './raster';
 import { shapeMask } from './raster';
@@ -94,7 +95,7 @@ class Board {
     for (const placed of this.rings) {
       const b = placed.box;
       if (box.x > b.x + b.width + gap || b.x > box.x + box.width + gap || box.y > b.y + b.height + gap || b.y > box.y + box.height + gap) continue;
-      if (cutLineDistance(ring, placed.ring, gap) < gap - 1e-6) return false;
+      if (gap > 0 ? cutLineDistance(ring, placed.ring, gap) < gap - 1e-6 : overlaps(ring, placed.ring)) return false;
     }
     return true;
   }

@@ -80,3 +80,21 @@ describe('preflight', () => {
     expect(f[1].message).toContain('0.079 in apart; the cutter needs 0.125 in');
   });
 });
+
+describe('preflight at a gap of 0', () => {
+  // Squares 20 mm wide; with a gap of 0 they may touch (one cut serves both) but never cross.
+  const square = (): PreflightOutline => ({ points: [{ x: 0, y: 0 }, { x: 20, y: 0 }, { x: 20, y: 20 }, { x: 0, y: 20 }], widthMm: 20, heightMm: 20, effectiveDpi: 600, narrowNecks: 0 });
+  const atGap0 = (pieces: Piece[]) =>
+    preflight({ doc: { ...doc(pieces), minGap: 0 }, outlines: new Map(pieces.map((p) => [p.id, square()])), unit: 'mm', limits: DEFAULT_PREFLIGHT_LIMITS, forSale: false, licenceOf: () => null, name: (p) => `Art ${p.id}` }).filter((f) => f.code === 'overlap' || f.code === 'too-close');
+
+  it('finds two pieces that cross (a distance test alone never could at 0)', () => {
+    expect(atGap0([piece('a', 40, 40), piece('b', 55, 40)])).toMatchObject([{ code: 'overlap', severity: 'error', pieceIds: ['a', 'b'] }]);
+    // One exactly on top of the other: no edge crosses, the whole area is shared.
+    expect(atGap0([piece('a', 40, 40), piece('b', 40, 40)])).toMatchObject([{ code: 'overlap' }]);
+  });
+
+  it('lets two pieces touch along an edge, and says nothing of pieces apart', () => {
+    expect(atGap0([piece('a', 40, 40), piece('b', 60, 40)])).toEqual([]);
+    expect(atGap0([piece('a', 40, 40), piece('b', 61, 40)])).toEqual([]);
+  });
+});

@@ -5,6 +5,7 @@ import { formatLength, inchToMm } from '../units';
 import type { Piece, SheetDocument } from './document';
 import type { PieceOutline } from './placement';
 import { cutLineDistance, placeCutLine } from './placement';
+import { overlaps } from '../geometry/overlap';
 import { pieceProblems } from './bounds';
 
 export type Severity = 'error' | 'warning' | 'notice';
@@ -105,7 +106,9 @@ export function preflight(input: PreflightInput): Finding[] {
   for (let i = 0; i < placed.length; i++) {
     for (let j = i + 1; j < placed.length; j++) {
       const d = cutLineDistance(placed[i].ring, placed[j].ring, doc.minGap);
-      if (d >= doc.minGap - 1e-6) continue;
+      // At a gap of 0 two cut lines may touch (one cut serves both) but never cross: only the shared area tells.
+      const crossing = d === 0 && (doc.minGap > 0 || overlaps(placed[i].ring, placed[j].ring));
+      if (!crossing && d >= doc.minGap - 1e-6) continue;
       const pieceIds = [placed[i].piece.id, placed[j].piece.id];
       const pair = `${input.name(placed[i].piece)} and ${input.name(placed[j].piece)}`;
       if (d === 0) findings.push({ code: 'overlap', severity: 'error', pieceIds, distanceMm: 0, message: `${pair} overlap: their cut lines touch or cross.` });

@@ -1,17 +1,20 @@
 import Flatten from '@flatten-js/core';
+import { readFileSync } from 'node:fs';
 import { describe, expect, it } from 'vitest';
 import type { ArrangeItem, ArrangeResult, Outline } from '../../shared/arrange/nester';
 import { ArrangeInputError, arrange } from '../../shared/arrange/nester';
 import { benchmarkSet, blob, disk, lShape, star } from '../../scripts/bench/arrange-shapes';
 
-const W = 171.45, H = 234.95;
+const SHEET_W = 171.45, SHEET_H = 234.95;
+const W = SHEET_W, H = SHEET_H;
 
 /**
  * An independent validity check: it places each cut line itself (rotation about the frame centre,
  * then the piece position) and measures with @flatten-js/core, a general geometry package from npm,
  * not with any of the packer's own geometry.
  */
-function checkLayout(items: Array<{ key: string; outline: Outline }>, result: ArrangeResult, opts: { gap: number; margin: number }) {
+function checkLayout(items: Array<{ key: string; outline: Outline }>, result: ArrangeResult, opts: { gap: number; margin: number; width?: number; height?: number }) {
+  const W = opts.width ?? SHEET_W, H = opts.height ?? SHEET_H;
   const outlines = new Map(items.map((i) => [i.key, i.outline]));
   const bySheet = new Map<number, Flatten.Polygon[]>();
   for (const p of result.placements) {
@@ -38,6 +41,8 @@ function checkLayout(items: Array<{ key: string; outline: Outline }>, result: Ar
         const [distance] = polygons[i].distanceTo(polygons[j]);
         closest = Math.min(closest, distance);
         expect(distance).toBeGreaterThanOrEqual(opts.gap - 1e-6);
+        // At a gap of 0 a distance cannot tell touching from crossing: the shared area must be nil.
+        if (opts.gap === 0 && distance === 0) expect(Flatten.BooleanOperations.intersect(polygons[i], polygons[j]).area()).toBeLessThan(1e-3);
       }
     }
   }
@@ -164,4 +169,26 @@ describe('arrange: the benchmark claim', () => {
     checkLayout(set, ours, { gap, margin });
     expect(ours.placed).toBeGreaterThanOrEqual(Math.ceil(boxes * 1.2));
   });
+});
+
+// ESICUP jakobs1 (../shared/nesting/, read from there): 25 pieces, quarter turns, scaled so the strip
+// is 200 mm high. At a gap of 0 every spot must still be collision-free (it once checked nothing).
+describe('arrange at a gap of 0 (ESICUP jakobs1)', () => {
+  it('places no two pieces so that they cross, by @flatten-js/core boolean intersection', () => {
+    const instance = JSON.parse(readFileSync(new URL('../../../shared/nesting/jakobs1.json', import.meta.url), 'utf8')) as { strip_height: number; items: Array<{ id: number; demand: number; shape: { data: number[][] } }> };
+    const k = 200 / instance.strip_height;
+    const items: ArrangeItem[] = instance.items.map((item) => {
+      const xs = item.shape.data.map((p) => p[0]), ys = item.shape.data.map((p) => p[1]);
+      const x0 = Math.min(...xs), y0 = Math.min(...ys);
+      let points = item.shape.data.map(([x, y]) => ({ x: (x - x0) * k, y: (y - y0) * k }));
+      if (points.length > 1 && points[0].x === points.at(-1)!.x && points[0].y === points.at(-1)!.y) points = points.slice(0, -1);
+      const signed = points.reduce((s, p, i) => s + p.x * points[(i + 1) % points.length].y - points[(i + 1) % points.length].x * p.y, 0);
+      if (signed < 0) points.reverse();
+      return { key: String(item.id), count: item.demand, outline: { points, widthMm: (Math.max(...xs) - x0) * k, heightMm: (Math.max(...ys) - y0) * k } };
+    });
+    const width = 1200, height = 200;
+    const result = arrange(items, { width, height, gap: 0, margin: 0, rotate: '90', timeMs: 1500, seed: 1 });
+    expect(result.placed).toBe(25);
+    checkLayout(items, result, { gap: 0, margin: 0, width, height });
+  }, 60_000);
 });
