@@ -1,7 +1,10 @@
 import { squaredDistanceTransform } from '../geometry/distance-transform';
 import type { Ring } from '../geometry/polygon';
 
-/** A shape on the search grid: for each row, the span of cells it blocks (inflated by half the gap). */
+/**
+ * A shape on the search grid: for each row, every run of cells it blocks (grown by the raster's
+ * share of the gap). All runs are kept, so a notch or the inside of a U stays open for other pieces.
+ */
 export type ShapeMask = {
   rotation: number;
   /** The rotated cut line about the frame centre (mm). */
@@ -14,8 +17,13 @@ export type ShapeMask = {
   /** Cell offset of the mask's first row/column from the centre's cell. */
   offsetX: number;
   offsetY: number;
-  rows: Array<{ x0: number; x1: number } | null>;
+  /** Runs per row, [x0, x1] inclusive, relative to offsetX. */
+  rows: Array<Array<[number, number]>>;
+  /** The rows in the order a collision test should try them: widest first (the likeliest to hit). */
+  order: number[];
   cells: number;
+  /** Cells the grown mask reaches past the shape on each side (they may hang off the board). */
+  pad: number;
 };
 
 export function rotateRing(ring: Ring, centre: { x: number; y: number }, degrees: number): Ring {
@@ -26,19 +34,30 @@ export function rotateRing(ring: Ring, centre: { x: number; y: number }, degrees
   });
 }
 
-function inside(ring: Ring, x: number, y: number): boolean {
-  let hit = false;
-  for (let i = 0, j = ring.length - 1; i < ring.length; j = i++) {
-    const a = ring[i], b = ring[j];
-    if (a.y > y !== b.y > y && x < ((b.x - a.x) * (y - a.y)) / (b.y - a.y) + a.x) hit = !hit;
+/** Scanline fill: the cells (of `cell` mm, from `x0`,`y0` cells) whose centres are inside the ring. */
+function fillCentres(ring: Ring, cell: number, x0: number, y0: number, w: number, h: number): Uint8Array {
+  const filled = new Uint8Array(w * h);
+  const xs: number[] = [];
+  for (let j = 0; j < h; j++) {
+    const y = (y0 + j + 0.5) * cell;
+    xs.length = 0;
+    for (let i = 0, k = ring.length - 1; i < ring.length; k = i++) {
+      const a = ring[i], b = ring[k];
+      if (a.y > y !== b.y > y) xs.push(a.x + ((y - a.y) * (b.x - a.x)) / (b.y - a.y));
+    }
+    xs.sort((p, q) => p - q);
+    for (let t = 0; t + 1 < xs.length; t += 2) {
+      const from = Math.max(0, Math.ceil(xs[t] / cell - 0.5) - x0), to = Math.min(w - 1, Math.floor(xs[t + 1] / cell - 0.5) - x0);
+      for (let i = from; i <= to; i++) filled[j * w + i] = 1;
+    }
   }
-  return hit;
+  return filled;
 }
 
 /**
- * Rasterises a rotated cut line on cells of `cell` mm and grows it by `grow` mm with an exact
- * Euclidean distance transform, so two masks that do not overlap belong to shapes about 2·grow apart.
- * Each row keeps one span (holes between parts of a row are filled: never wrong, only cautious).
+ * Rasterises a rotated cut line on cells of `cell` mm (cells whose centre is inside) and grows it by
+ * `grow` mm with an exact Euclidean distance transform. The raster is a quick filter: it may miss a
+ * sliver narrower than a cell, never a whole cell of the shape; the exact geometry has the last word.
  */
 export function shapeMask(outline: { points: Ring; widthMm: number; heightMm: number }, rotation: number, cell: number, grow: number): ShapeMask {
   const ring = rotateRing(outline.points, { x: outline.widthMm / 2, y: outline.heightMm / 2 }, rotation);
@@ -52,28 +71,28 @@ export function shapeMask(outline: { points: Ring; widthMm: number; heightMm: nu
   const pad = Math.ceil(grow / cell) + 1;
   const x0 = Math.floor(minX / cell) - pad, y0 = Math.floor(minY / cell) - pad;
   const w = Math.ceil(maxX / cell) + pad - x0 + 1, h = Math.ceil(maxY / cell) + pad - y0 + 1;
-  const filled = new Uint8Array(w * h);
-  for (let j = 0; j < h; j++) {
-    for (let i = 0; i < w; i++) {
-      // A cell counts when its centre or any corner is inside: thin parts are never missed.
-      const cx = (x0 + i) * cell, cy = (y0 + j) * cell;
-      if (inside(ring, cx + cell / 2, cy + cell / 2) || inside(ring, cx, cy) || inside(ring, cx + cell, cy) || inside(ring, cx, cy + cell) || inside(ring, cx + cell, cy + cell)) filled[j * w + i] = 1;
-    }
+  const filled = fillCentres(ring, cell, x0, y0, w, h);
+  let blocked = filled;
+  if (grow > 0) {
+    const d2 = squaredDistanceTransform(filled, w, h);
+    const limit = (grow / cell) ** 2;
+    blocked = new Uint8Array(w * h);
+    for (let i = 0; i < blocked.length; i++) blocked[i] = d2[i] <= limit ? 1 : 0;
   }
-  const d2 = squaredDistanceTransform(filled, w, h);
-  const limit = (grow / cell + 0.5) ** 2;
   const rows: ShapeMask['rows'] = [];
   let cells = 0;
   for (let j = 0; j < h; j++) {
-    let a = -1, b = -1;
+    const runs: Array<[number, number]> = [];
     for (let i = 0; i < w; i++) {
-      if (d2[j * w + i] <= limit) {
-        if (a < 0) a = i;
-        b = i;
-      }
+      if (!blocked[j * w + i]) continue;
+      const start = i;
+      while (i + 1 < w && blocked[j * w + i + 1]) i++;
+      runs.push([start, i]);
+      cells += i - start + 1;
     }
-    rows.push(a < 0 ? null : { x0: a, x1: b });
-    if (a >= 0) cells += b - a + 1;
+    rows.push(runs);
   }
-  return { rotation, ring, minX, minY, maxX, maxY, offsetX: x0, offsetY: y0, rows, cells };
+  const widths = rows.map((r) => r.reduce((s, [a, b]) => s + b - a + 1, 0));
+  const order = rows.map((_, j) => j).filter((j) => rows[j].length > 0).sort((a, b) => widths[b] - widths[a]);
+  return { rotation, ring, minX, minY, maxX, maxY, offsetX: x0, offsetY: y0, rows, order, cells, pad };
 }

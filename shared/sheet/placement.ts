@@ -91,6 +91,37 @@ export function cutLineDistance(a: Ring, b: Ring, stopBelow = Infinity): number 
 }
 
 /**
+ * Whether two cut lines come closer than `gap` (touching or crossing included): the yes/no form of
+ * cutLineDistance, which stops at the first pair of edges that close, and compares only the edges of
+ * each ring that lie within `gap` of the other ring's box.
+ */
+export function closerThan(a: Ring, b: Ring, gap: number, boxA = boundingBox(a), boxB = boundingBox(b)): boolean {
+  if (boxGap(boxA, boxB) >= gap) return false;
+  if (pointInRing(a[0], b) || pointInRing(b[0], a)) return true;
+  const near = (ring: Ring, box: Box) => {
+    const out: number[] = [];
+    for (let i = 0; i < ring.length; i++) {
+      const p = ring[i], q = ring[(i + 1) % ring.length];
+      const gx = Math.max(0, box.x - Math.max(p.x, q.x), Math.min(p.x, q.x) - (box.x + box.width));
+      const gy = Math.max(0, box.y - Math.max(p.y, q.y), Math.min(p.y, q.y) - (box.y + box.height));
+      if (gx < gap && gy < gap) out.push(i);
+    }
+    return out;
+  };
+  const ea = near(a, boxB), eb = near(b, boxA);
+  for (const i of ea) {
+    const a0 = a[i], a1 = a[(i + 1) % a.length];
+    const ax0 = Math.min(a0.x, a1.x) - gap, ax1 = Math.max(a0.x, a1.x) + gap, ay0 = Math.min(a0.y, a1.y) - gap, ay1 = Math.max(a0.y, a1.y) + gap;
+    for (const j of eb) {
+      const b0 = b[j], b1 = b[(j + 1) % b.length];
+      if (Math.max(b0.x, b1.x) < ax0 || Math.min(b0.x, b1.x) > ax1 || Math.max(b0.y, b1.y) < ay0 || Math.min(b0.y, b1.y) > ay1) continue;
+      if (segmentDistance(a0, a1, b0, b1) < gap) return true;
+    }
+  }
+  return false;
+}
+
+/**
  * The outline request for a piece, as query text: the editor sends it and the server builds the same
  * options from it, so both hit one cached outline. 150 DPI is plenty on screen and for preflight; the
  * cut line itself is exact in millimetres at any DPI.

@@ -192,3 +192,45 @@ describe('arrange at a gap of 0 (ESICUP jakobs1)', () => {
     checkLayout(items, result, { gap: 0, margin: 0, width, height });
   }, 60_000);
 });
+
+describe('arrange: concavities and bad input', () => {
+  // A U 60 mm square with a slot 30 mm wide and 44 mm deep open at the top, and a cross 24 mm across
+  // with 8 mm arms: on an area only as large as the U, the cross can go nowhere but the slot.
+  const U: Outline = { points: [{ x: 0, y: 0 }, { x: 15, y: 0 }, { x: 15, y: 44 }, { x: 45, y: 44 }, { x: 45, y: 0 }, { x: 60, y: 0 }, { x: 60, y: 60 }, { x: 0, y: 60 }], widthMm: 60, heightMm: 60 };
+  const cross: Outline = {
+    points: [{ x: 8, y: 0 }, { x: 16, y: 0 }, { x: 16, y: 8 }, { x: 24, y: 8 }, { x: 24, y: 16 }, { x: 16, y: 16 }, { x: 16, y: 24 }, { x: 8, y: 24 }, { x: 8, y: 16 }, { x: 0, y: 16 }, { x: 0, y: 8 }, { x: 8, y: 8 }],
+    widthMm: 24,
+    heightMm: 24,
+  };
+
+  it('places a cross inside a U when nothing else has room for it', () => {
+    const items = [{ key: 'u', outline: U, count: 1, priority: 1 }, { key: 'cross', outline: cross, count: 1 }];
+    const result = arrange(items, { width: 61, height: 61, gap: 1, margin: 0, rotate: 'none', timeMs: 300, seed: 2 });
+    expect(result.placed).toBe(2);
+    checkLayout(items, result, { gap: 1, margin: 0, width: 61, height: 61 });
+    const u = result.placements.find((p) => p.key === 'u')!, c = result.placements.find((p) => p.key === 'cross')!;
+    // The cross's centre lies in the slot: between the U's arms and above its floor.
+    expect(Math.abs(c.x - u.x)).toBeLessThan(15 - 12);
+    expect(c.y - (u.y - 30)).toBeLessThan(44);
+  });
+
+  it('names each bad piece and still arranges the rest; a gap that leaves no room is refused', () => {
+    const bowTie: Outline = { points: [{ x: 0, y: 0 }, { x: 20, y: 20 }, { x: 20, y: 0 }, { x: 0, y: 20 }], widthMm: 20, heightMm: 20 };
+    const result = arrange(
+      [
+        { key: 'bow', name: 'Bow tie', outline: bowTie, count: 1 },
+        { key: 'none', name: 'Ghost', outline: disk(20), count: 0 },
+        { key: 'minus', name: 'Pumpkin', outline: disk(20), count: -2 },
+        { key: 'ok', name: 'Moon', outline: disk(20), count: 3 },
+      ],
+      { width: W, height: H, gap: 3.175, margin: 3.175, timeMs: 200 },
+    );
+    expect(result.placed).toBe(3);
+    expect(result.unplaced.map((u) => u.reason)).toEqual([
+      'Bow tie: its cut line crosses itself, so no blade can follow it.',
+      'Ghost: the quantity must be a whole number above zero.',
+      'Pumpkin: the quantity must be a whole number above zero.',
+    ]);
+    expect(() => arrange([{ key: 'a', outline: disk(20), count: 1 }], { width: W, height: H, gap: 200 })).toThrow('A gap of 200 mm leaves no room on a 171.45 × 234.95 mm print area.');
+  });
+});

@@ -66,7 +66,7 @@ export function ArrangePanel({ store, outlines, onPreview, onClose }: { store: E
         </label>
         <label className="flex items-center justify-between font-bold">
           Turning
-          <select value={typeof choice.rotate === 'object' ? `step${choice.rotate.step}` : choice.rotate} onChange={(e) => setChoice({ ...choice, rotate: e.target.value === 'none' ? 'none' : e.target.value === '90' ? '90' : { step: Number(e.target.value.slice(4)) } })} className="rounded border-2 border-paper-edge px-1">
+          <select value={typeof choice.rotate === 'object' ? ('step' in choice.rotate ? `step${choice.rotate.step}` : '90') : choice.rotate} onChange={(e) => setChoice({ ...choice, rotate: e.target.value === 'none' ? 'none' : e.target.value === '90' ? '90' : { step: Number(e.target.value.slice(4)) } })} className="rounded border-2 border-paper-edge px-1">
             <option value="none">Keep upright</option>
             <option value="90">Quarter turns</option>
             <option value="step15">Any angle, 15° steps</option>
