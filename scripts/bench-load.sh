@@ -6,7 +6,8 @@ set -euo pipefail
 
 ensure_deps
 start_db
-if [ "$DB_STARTED_HERE" = "1" ]; then trap cleanup_db EXIT; fi
+start_redis
+trap cleanup_services EXIT
 BENCH_DB="${DB_NAME}_bench"
 log "recreating the bench database $BENCH_DB"
 recreate_database "$BENCH_DB"

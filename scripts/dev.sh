@@ -5,7 +5,9 @@ set -euo pipefail
 
 ensure_deps
 start_db
-trap 'kill $(jobs -p) 2>/dev/null; cleanup_db' EXIT
+STOP_DB_ON_EXIT=1
+start_redis
+trap 'kill $(jobs -p) 2>/dev/null; cleanup_services' EXIT
 trap 'exit 130' INT TERM
 ensure_database "$DB_NAME"
 npx --no-install tsx scripts/migrate.ts

@@ -37,6 +37,14 @@ if [ "${#DB_SOCKET}" -gt 100 ]; then
 fi
 export DB_SOCKET
 
+# Redis for the job queues: our own on 127.0.0.1:$REDIS_PORT unless REDIS_URL points elsewhere.
+export REDIS_PORT="${REDIS_PORT:-6390}"
+REDIS_OWN_URL="redis://127.0.0.1:$REDIS_PORT"
+export REDIS_URL="${REDIS_URL:-$REDIS_OWN_URL}"
+REDIS_DIR="$DATA_DIR/redis"
+REDIS_PIDFILE="$REDIS_DIR/redis.pid"
+REDIS_LOG="$REDIS_DIR/redis.log"
+
 log() { printf '\033[36m[sheetsmith]\033[0m %s\n' "$*"; }
 
 as_root() {
@@ -135,6 +143,59 @@ stop_db() {
       for i in $(seq 1 60); do kill -0 "$pid" 2>/dev/null || return 0; sleep 0.25; done
     fi
   fi
+}
+
+ensure_redis_installed() {
+  if command -v redis-server >/dev/null 2>&1; then return 0; fi
+  log "installing Redis from Debian's redis-server package"
+  as_root apt-get update -qq >/dev/null
+  DEBIAN_FRONTEND=noninteractive as_root apt-get install -y -qq redis-server >/dev/null
+}
+
+redis_ping() { [ "$(redis-cli -p "$REDIS_PORT" -h 127.0.0.1 ping 2>/dev/null)" = "PONG" ]; }
+
+# Starts our own redis-server on 127.0.0.1:$REDIS_PORT (never the system one on 6379), unless
+# REDIS_URL names another Redis. Sets REDIS_STARTED_HERE=1 when this call started it.
+REDIS_STARTED_HERE=0
+start_redis() {
+  if [ "$REDIS_URL" != "$REDIS_OWN_URL" ]; then log "using the Redis at $REDIS_URL"; return 0; fi
+  if [ "$REDIS_PORT" = "6379" ]; then log "REDIS_PORT=6379 is the system Redis's port; pick another (default 6390)"; return 1; fi
+  ensure_redis_installed
+  mkdir -p "$REDIS_DIR"
+  if redis_ping; then log "Redis already running on 127.0.0.1:$REDIS_PORT"; return 0; fi
+  rm -f "$REDIS_PIDFILE"
+  log "starting Redis on 127.0.0.1:$REDIS_PORT"
+  # BullMQ needs noeviction: a queue must never lose a job to memory pressure.
+  setsid nohup redis-server --port "$REDIS_PORT" --bind 127.0.0.1 --dir "$REDIS_DIR" --daemonize no \
+    --save "" --appendonly yes --pidfile "$REDIS_PIDFILE" --logfile "$REDIS_LOG" --maxmemory-policy noeviction \
+    </dev/null >/dev/null 2>&1 &
+  local i
+  for i in $(seq 1 80); do
+    if redis_ping; then REDIS_STARTED_HERE=1; return 0; fi
+    sleep 0.25
+  done
+  log "Redis did not come up; its log follows"; tail -n 40 "$REDIS_LOG" || true
+  return 1
+}
+
+stop_redis() {
+  if [ -f "$REDIS_PIDFILE" ]; then
+    local pid; pid="$(cat "$REDIS_PIDFILE")"
+    if kill -0 "$pid" 2>/dev/null; then
+      log "stopping Redis"
+      kill "$pid" 2>/dev/null || true
+      local i
+      for i in $(seq 1 40); do kill -0 "$pid" 2>/dev/null || return 0; sleep 0.25; done
+    fi
+  fi
+}
+
+# For EXIT traps: stops what this script started, even when the terminal or pipe is gone.
+cleanup_services() {
+  trap '' PIPE INT TERM
+  set +e
+  if [ "${DB_STARTED_HERE:-0}" = "1" ] || [ "${STOP_DB_ON_EXIT:-0}" = "1" ]; then stop_db >/dev/null 2>&1; fi
+  if [ "${REDIS_STARTED_HERE:-0}" = "1" ] || [ "${STOP_REDIS_ON_EXIT:-0}" = "1" ]; then stop_redis >/dev/null 2>&1; fi
 }
 
 sql_quote() { printf "%s" "$1" | sed "s/'/''/g"; }

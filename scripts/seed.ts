@@ -3,14 +3,14 @@
 import { createDataSource } from '../server/db/data-source';
 import { seedDemo } from '../server/db/demo/seed';
 import { env } from '../server/config/env';
-import { LocalDiskStorage } from '../server/storage/local-disk';
+import { createStorage } from '../server/storage/create';
 
 if (!env.demoMode) {
   console.log('demo mode is off (DEMO=off, a non-loopback HOST or your own SESSION_SECRET): nothing seeded');
 } else {
   const dataSource = await createDataSource().initialize();
   try {
-    const added = await seedDemo(dataSource, new LocalDiskStorage(env.storageDir));
+    const added = await seedDemo(dataSource, createStorage(env));
     console.log(added > 0 ? `demo shop: added ${added} rows` : 'demo shop already seeded');
   } finally {
     await dataSource.destroy();

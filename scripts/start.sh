@@ -5,7 +5,10 @@ set -euo pipefail
 
 ensure_deps
 start_db
-trap cleanup_db EXIT
+STOP_DB_ON_EXIT=1
+start_redis
+STOP_REDIS_ON_EXIT=$REDIS_STARTED_HERE
+trap cleanup_services EXIT
 trap 'exit 130' INT TERM
 ensure_database "$DB_NAME"
 

@@ -7,7 +7,8 @@ ensure_deps
 ensure_chromium
 ensure_client_build
 start_db
-if [ "$DB_STARTED_HERE" = "1" ]; then trap cleanup_db EXIT; fi
+start_redis
+trap cleanup_services EXIT
 log "recreating the test database $DB_TEST_NAME"
 recreate_database "$DB_TEST_NAME"
 drop_scratch_databases "$DB_TEST_NAME"

@@ -31,6 +31,8 @@ import { ProfilesService } from './modules/sheets/profiles.service';
 import { SheetsService } from './modules/sheets/sheets.service';
 import { sheetsRouter } from './modules/sheets/sheets.router';
 import { ExportsService } from './modules/sheets/exports.service';
+import { JobQueues } from './jobs/queues';
+import { jobSettingsFrom, startExportWorker } from './jobs/workers';
 import { OutlineService } from './modules/outlines/outline.service';
 import { outlinesRouter } from './modules/outlines/outlines.router';
 import { OutlinePool } from './engine/outline/pool';
@@ -40,7 +42,7 @@ import { RunsService } from './modules/shop/runs.service';
 import { SheetAnalysisService } from './modules/shop/sheet-analysis.service';
 import { shopRouter } from './modules/shop/shop.router';
 import { StockService } from './modules/shop/stock.service';
-import { LocalDiskStorage } from './storage/local-disk';
+import { createStorage } from './storage/create';
 import type { Storage } from './storage/storage';
 
 
@@ -60,6 +62,8 @@ export type AppOptions = {
   log?: Log;
   /** Separates rate-limit counters of apps sharing one database (tests give each app its own). */
   rateLimitPrefix?: string;
+  /** Separates job queues of apps sharing one Redis (tests give each app its own); QUEUE_PREFIX otherwise. */
+  queuePrefix?: string;
 };
 
 export type SheetsmithApp = { app: express.Express; close: () => Promise<void> };
@@ -69,12 +73,13 @@ export function createApp({
   env,
   dataSource,
   mailer = createMailer(env),
-  storage = new LocalDiskStorage(env.storageDir),
+  storage = createStorage(env),
   outlinePool,
   packLimits,
   extraApi,
   clientDir,
   rateLimitPrefix = 'ss',
+  queuePrefix = env.QUEUE_PREFIX,
   log = createLog(env),
 }: AppOptions): SheetsmithApp {
   const app = express();
@@ -119,7 +124,13 @@ export function createApp({
   const sheets = new SheetsService(dataSource, storage, profiles);
   const outlines = new OutlineService(dataSource, storage, pool);
   const analysis = new SheetAnalysisService(dataSource, storage, outlines);
-  const exportsService = new ExportsService(dataSource, storage, pool, sheets, analysis, log);
+  const jobSettings = jobSettingsFrom(env, queuePrefix);
+  const queues = new JobQueues(jobSettings);
+  const exportsService = new ExportsService(dataSource, storage, pool, sheets, analysis, log, queues);
+  const workers = env.WORKERS_EMBEDDED ? startExportWorker(exportsService, jobSettings, env, log, 'embedded') : null;
+  // Running exports whose job the queue no longer runs end as failed, even if nobody looks at them.
+  const reconciler = setInterval(() => void exportsService.reconcile().catch(() => undefined), 15_000);
+  reconciler.unref();
   const stock = new StockService(dataSource);
   const machines = new MachinesService(dataSource);
   const runs = new RunsService(dataSource, storage, sheets, stock, machines, analysis);
@@ -166,6 +177,9 @@ export function createApp({
   return {
     app,
     close: async () => {
+      clearInterval(reconciler);
+      await workers?.close();
+      await queues.close();
       await store.close();
       if (ownPool) await pool.close();
     },

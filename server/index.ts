@@ -4,14 +4,14 @@ import { createDataSource } from './db/data-source';
 import { createApp } from './app';
 import { DEMO_ACCOUNTS, DEMO_PASSWORD } from './db/demo/accounts';
 import { createLog } from './lib/log';
-import { LocalDiskStorage } from './storage/local-disk';
+import { createStorage } from './storage/create';
 import { sweepStorage } from './storage/sweep';
 
 const log = createLog(env);
 
 async function main() {
   const dataSource = await createDataSource(env.DB_NAME, env, log).initialize();
-  const storage = new LocalDiskStorage(env.storageDir);
+  const storage = createStorage(env);
   const { app, close } = createApp({ env, dataSource, log, storage, clientDir: path.resolve('dist') });
   const server = app.listen(env.PORT, env.HOST);
   server.on('error', (error: NodeJS.ErrnoException) => {

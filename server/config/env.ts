@@ -59,6 +59,33 @@ const envSchema = z.object({
   OUTLINE_MAX_PIXELS: z.coerce.number().int().min(16).default(50_000_000),
   OUTLINE_MAX_OUTPUT_PIXELS: z.coerce.number().int().min(16).default(40_000_000),
   OUTLINE_THREADS: z.coerce.number().int().min(0).max(16).default(0),
+  /** The job queues' Redis (scripts start a private one on 127.0.0.1:6390 unless this points elsewhere). */
+  REDIS_URL: z.string().regex(/^rediss?:\/\//, 'REDIS_URL: give an address like redis://127.0.0.1:6390').default('redis://127.0.0.1:6390'),
+  /** Key prefix in Redis, so several deployments can share one. */
+  QUEUE_PREFIX: z.string().regex(/^[A-Za-z0-9_:-]+$/).default('sheetsmith'),
+  /** Run a job worker inside each app process (a laptop needs nothing else); off when workers run on their own. */
+  WORKERS_EMBEDDED: z.enum(['true', 'false', '1', '0']).default('true').transform((v) => v === 'true' || v === '1'),
+  /** Jobs one worker process runs at once. */
+  WORKER_CONCURRENCY: z.coerce.number().int().min(1).max(32).default(1),
+  /** A worker's lock on its job; a dead worker's job is taken up again after it runs out. */
+  JOB_LOCK_SECONDS: z.coerce.number().min(1).default(30),
+  /** How often workers look for jobs whose worker died. */
+  JOB_STALLED_SECONDS: z.coerce.number().min(0.5).default(15),
+  /** Times a job may lose its worker before it fails with a message. */
+  JOB_MAX_STALLS: z.coerce.number().int().min(0).max(10).default(1),
+  /** Where files live: `local` (DATA_DIR/storage) or `s3` (any S3-compatible service). */
+  STORAGE_DRIVER: z.enum(['local', 's3']).default('local'),
+  S3_ENDPOINT: z.string().default(''),
+  S3_REGION: z.string().default('us-east-1'),
+  S3_BUCKET: z.string().regex(/^[a-z0-9][a-z0-9.-]{1,61}[a-z0-9]$/, 'S3_BUCKET: 3 to 63 lower-case letters, digits, dots or dashes').optional(),
+  S3_ACCESS_KEY_ID: z.string().default(''),
+  S3_SECRET_ACCESS_KEY: z.string().default(''),
+  /** Path-style addresses (http://host/bucket/key), which most self-hosted S3 services need. */
+  S3_FORCE_PATH_STYLE: bool,
+  /** A folder inside the bucket, so several deployments can share one. */
+  S3_PREFIX: z.string().default(''),
+  /** An export running longer than this is stopped and ends failed. */
+  EXPORT_TIMEOUT_SECONDS: z.coerce.number().int().min(5).default(900),
 });
 
 export type LogLevel = NonNullable<z.infer<typeof envSchema>['LOG_LEVEL']>;
@@ -79,6 +106,7 @@ export function loadEnv(source: NodeJS.ProcessEnv = process.env): Env {
     throw new Error(`Bad configuration in .env or the environment:\n${lines.join('\n')}`);
   }
   const env = parsed.data;
+  if (env.STORAGE_DRIVER === 's3' && !env.S3_BUCKET) throw new Error('Bad configuration in .env or the environment:\n  S3_BUCKET: STORAGE_DRIVER=s3 needs the bucket name');
   const loopback = isLoopbackHost(env.HOST);
   if (!loopback && PUBLISHED_SECRETS.has(env.SESSION_SECRET)) {
     throw new Error(

@@ -29,13 +29,14 @@ export class LocalDiskStorage implements Storage {
     return { key, size: data.length };
   }
 
-  get(key: string): Promise<Buffer> {
+  async get(key: string): Promise<Buffer> {
     return readFile(this.pathOf(key));
   }
 
   async exists(key: string): Promise<boolean> {
+    const file = this.pathOf(key);
     try {
-      await stat(this.pathOf(key));
+      await stat(file);
       return true;
     } catch {
       return false;

@@ -46,7 +46,8 @@ export async function scratchDatabase(label: string): Promise<{ db: DataSource; 
 
 export function testApp(dataSource: DataSource, overrides: Partial<Env> = {}, extra: Partial<AppOptions> = {}) {
   // Each app counts rate limits under its own prefix, so test files sharing a database do not add up.
-  return createApp({ env: { ...baseEnv, ...overrides }, dataSource, rateLimitPrefix: unique('t'), ...extra });
+  // … and its own job queues in the shared Redis, worked by its own embedded worker.
+  return createApp({ env: { ...baseEnv, ...overrides }, dataSource, rateLimitPrefix: unique('t'), queuePrefix: unique('tq'), ...extra });
 }
 
 /**

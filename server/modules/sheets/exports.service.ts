@@ -12,6 +12,8 @@ import { exportPiece } from '../../engine/export/prepare';
 import type { ExportOptions } from '../../engine/export/types';
 import { DEFAULT_EXPORT_OPTIONS } from '../../engine/export/types';
 import type { OutlinePool } from '../../engine/outline/pool';
+import { OutlineInputError } from '../../engine/outline/errors';
+import type { ExportJobData, JobQueues } from '../../jobs/queues';
 import { AppError, notFound } from '../../lib/errors';
 import type { Storage } from '../../storage/storage';
 import { ArtItem } from '../art/art-item.entity';
@@ -20,12 +22,16 @@ import { SheetProfile } from './sheet-profile.entity';
 import type { SheetAnalysisService } from '../shop/sheet-analysis.service';
 import type { Finding } from '../../../shared/sheet/preflight';
 
+/** The row stopped being "running" under the job (the maker stopped it): the job ends quietly. */
+class ExportCancelled extends Error {}
+
 type Row = { id: string; sheet_version: number; status: ExportJobView['status']; progress: string; step: string; error: string | null; zip_key: string | null; files_json: string | null; created_at: Date };
 
 /**
- * Export jobs: the request answers at once; the work runs in the background (rasters in the outline
- * worker pool, compositing in sharp's own threads) and reports progress in its row. The bundle of
- * each sheet version is kept in storage and can be downloaded again.
+ * Export jobs: the request answers at once and queues a BullMQ job; a worker (embedded in an app, or
+ * its own process anywhere) does the work (rasters in its outline thread pool, compositing in
+ * sharp's threads) and reports progress in the row. The bundle of each sheet version is kept in
+ * storage and can be downloaded again through any app.
  */
 export class ExportsService {
   constructor(
@@ -35,6 +41,7 @@ export class ExportsService {
     private readonly sheets: SheetsService,
     private readonly analysis: SheetAnalysisService,
     private readonly log: Log,
+    private readonly queues: JobQueues,
   ) {}
 
   private view(teamId: string, sheetId: string, r: Row): ExportJobView {
@@ -66,66 +73,142 @@ export class ExportsService {
       throw new AppError(409, 'preflight_errors', `Preflight found ${errors.length} error${errors.length === 1 ? '' : 's'}: ${errors.map((f) => f.message).join(' ')} Fix them, or confirm to export anyway.`);
     }
     const insert = await this.dataSource.query(
-      "INSERT INTO sheet_exports (team_id, sheet_id, sheet_version, status, options_json, created_by, step) VALUES (?, ?, ?, 'running', ?, ?, 'Queued')",
-      [teamId, sheetId, sheet.version, JSON.stringify(options), userId],
+      "INSERT INTO sheet_exports (team_id, sheet_id, sheet_version, status, options_json, document_json, findings_json, created_by, step) VALUES (?, ?, ?, 'running', ?, ?, ?, ?, 'Waiting for a worker')",
+      [teamId, sheetId, sheet.version, JSON.stringify(options), JSON.stringify(doc), JSON.stringify(findings.map((f) => `${f.severity.toUpperCase()}: ${f.message}`)), userId],
     );
     const id = String(insert.insertId);
-    void this.run(teamId, id, sheet, doc, options, findings);
+    try {
+      await this.queues.addExport({ teamId, sheetId, exportId: id });
+    } catch (error) {
+      this.log.error({ err: error, exportId: id }, 'could not queue the export');
+      await this.fail(id, 'The export could not be queued: the job service is not answering. Try again in a moment.');
+    }
     return this.get(teamId, sheetId, id);
   }
 
-  private async progress(id: string, fraction: number, step: string) {
-    // Only a running job moves: a late progress write never undoes "done" or "failed".
-    await this.dataSource.query("UPDATE sheet_exports SET progress = ?, step = ? WHERE id = ? AND status = 'running'", [Math.min(1, fraction).toFixed(3), step, id]);
+  /** Ends a running export as failed with a message for the maker; false when it had already ended. */
+  async fail(id: string, message: string): Promise<boolean> {
+    const result = await this.dataSource.query("UPDATE sheet_exports SET status = 'failed', error = ?, step = 'Failed' WHERE id = ? AND status = 'running'", [message.slice(0, 500), id]);
+    return result.affectedRows > 0;
   }
 
-  private async run(teamId: string, id: string, sheet: Awaited<ReturnType<SheetsService['find']>>, doc: ReturnType<typeof migrateDocument>, options: ExportRequest, findings: Finding[]) {
+  /** The maker stops a running export: it ends at once; a worker already on it notices at its next step. */
+  async cancel(teamId: string, sheetId: string, id: string): Promise<ExportJobView> {
+    const view = await this.get(teamId, sheetId, id);
+    if (view.status !== 'running') throw new AppError(409, 'export_finished', 'This export has already finished.');
+    await this.fail(id, 'Stopped before it finished.');
+    await this.queues.removeExport(id);
+    return this.get(teamId, sheetId, id);
+  }
+
+  /** Moves a running job on; throws Cancelled when the row is no longer running (stopped, or failed elsewhere). */
+  private async progress(id: string, fraction: number, step: string) {
+    // Only a running job moves: a late progress write never undoes "done" or "failed".
+    const result = await this.dataSource.query("UPDATE sheet_exports SET progress = ?, step = ? WHERE id = ? AND status = 'running'", [Math.min(1, fraction).toFixed(3), step, id]);
+    if (result.affectedRows === 0) throw new ExportCancelled();
+  }
+
+  /**
+   * The queue job: one export from its row (the document and findings it was started with). Runs in
+   * whichever worker took the job; a retry after a dead worker starts again from the beginning.
+   */
+  async process(data: ExportJobData, timeoutMs: number): Promise<void> {
+    const { teamId, exportId: id } = data;
+    const [row] = await this.dataSource.query('SELECT * FROM sheet_exports WHERE id = ? AND team_id = ?', [id, teamId]);
+    if (!row || row.status !== 'running') return; // stopped, or finished by an earlier attempt
+    await this.dataSource.query("UPDATE sheet_exports SET attempts = attempts + 1, progress = 0, step = 'Starting' WHERE id = ? AND status = 'running'", [id]);
+    let timer: NodeJS.Timeout | undefined;
+    const limit = new Promise<never>((_, reject) => {
+      timer = setTimeout(() => reject(new ExportInputError(`The export took longer than ${Math.round(timeoutMs / 60_000) || 1} minutes and was stopped. Try a lower resolution or fewer pieces.`)), timeoutMs);
+    });
     try {
-      const profile = sheet.profileId ? await this.dataSource.getRepository(SheetProfile).findOneBy({ id: sheet.profileId }) : null;
-      const arts = new Map((await this.dataSource.getRepository(ArtItem).findBy({ teamId })).filter((a) => doc.pieces.some((p) => p.artId === a.id)).map((a) => [a.id, a]));
-      const bytes = new Map<string, Buffer>();
-      const pieces = [];
-      for (const [i, piece] of doc.pieces.entries()) {
-        const art = arts.get(piece.artId);
-        if (!art) throw new ExportInputError(`Piece ${i + 1} uses art that is no longer in the team.`);
-        if (!bytes.has(art.id)) bytes.set(art.id, await this.storage.get(art.storageKey));
-        // The same request the editor's outline was made from, at the export's resolution.
-        const request = pieceOutlineOptions(art, piece, { ...profileLimits(profile), dpi: options.dpi });
-        pieces.push(await exportPiece(piece, art.name, request, options.bleedMm, (o) => this.pool.run(bytes.get(art.id)!, o)));
-        await this.progress(id, 0.4 * ((i + 1) / doc.pieces.length), `Outlining piece ${i + 1} of ${doc.pieces.length}`);
-      }
-      const paper = profile
-        ? { paperWidthMm: profile.paperWidthMm, paperHeightMm: profile.paperHeightMm, areaXMm: profile.areaXMm, areaYMm: profile.areaYMm }
-        : { paperWidthMm: 215.9, paperHeightMm: 279.4, areaXMm: (215.9 - doc.printArea.width) / 2, areaYMm: (279.4 - doc.printArea.height) / 2 };
-      let last = 0;
-      // Progress writes run one after another and are awaited before the job is marked done.
-      let writes = Promise.resolve();
-      // The profile says how its cutter finds the print: the cut layer's spot colour and any printed marks.
-      const resolved: ExportOptions = {
-        ...options,
-        spotColour: options.spotColour ?? profile?.spotColour ?? DEFAULT_EXPORT_OPTIONS.spotColour,
-        marks: profile && profile.regMarkShape !== 'none' ? { shape: profile.regMarkShape, sizeMm: profile.regMarkSizeMm, offsetMm: profile.regMarkOffsetMm } : null,
-      };
-      const result = await exportSheet({ name: sheet.name, unit: sheet.unit, doc, pieces, paper, preflight: findings.map((f) => `${f.severity.toUpperCase()}: ${f.message}`) }, resolved, (fraction, step) => {
-        if (fraction - last >= 0.1 || fraction === 1) {
-          last = fraction;
-          writes = writes.then(() => this.progress(id, 0.4 + 0.55 * fraction, step)).catch(() => undefined);
-        }
-      });
-      await writes;
-      const { key } = await this.storage.put(result.zip);
-      const files = JSON.stringify(await listZip(result.zip));
-      await this.dataSource.query("UPDATE sheet_exports SET status = 'done', progress = 1, step = 'Ready', zip_key = ?, zip_name = ?, files_json = ? WHERE id = ?", [key, result.zipName, files, id]);
+      await Promise.race([this.run(row), limit]);
     } catch (error) {
-      const message = error instanceof ExportInputError || (error as { code?: string }).code ? (error as Error).message : 'The export failed on our side. Try again.';
-      if (!(error instanceof ExportInputError)) this.log.error({ err: error, exportId: id }, 'export failed');
-      await this.dataSource.query("UPDATE sheet_exports SET status = 'failed', error = ?, step = 'Failed' WHERE id = ?", [message.slice(0, 500), id]);
+      if (error instanceof ExportCancelled) return;
+      const known = error instanceof ExportInputError || (error as { code?: string }).code === 'too-large-output' || error instanceof OutlineInputError;
+      if (!known) this.log.error({ err: error, exportId: id }, 'export failed');
+      await this.fail(id, known ? (error as Error).message : 'The export failed on our side. Try again.');
+    } finally {
+      clearTimeout(timer);
     }
   }
 
+  private async run(row: Row & { team_id: string; sheet_id: string; options_json: string; document_json: string | null; findings_json: string | null }) {
+    const id = String(row.id);
+    const teamId = String(row.team_id);
+    const sheet = await this.sheets.find(teamId, String(row.sheet_id));
+    const doc = migrateDocument(JSON.parse(row.document_json ?? sheet.document));
+    const options = JSON.parse(row.options_json) as ExportRequest;
+    const findings: string[] = row.findings_json ? JSON.parse(row.findings_json) : [];
+    const profile = sheet.profileId ? await this.dataSource.getRepository(SheetProfile).findOneBy({ id: sheet.profileId }) : null;
+    const arts = new Map((await this.dataSource.getRepository(ArtItem).findBy({ teamId })).filter((a) => doc.pieces.some((p) => p.artId === a.id)).map((a) => [a.id, a]));
+    const bytes = new Map<string, Buffer>();
+    const pieces = [];
+    for (const [i, piece] of doc.pieces.entries()) {
+      const art = arts.get(piece.artId);
+      if (!art) throw new ExportInputError(`Piece ${i + 1} uses art that is no longer in the team.`);
+      if (!bytes.has(art.id)) bytes.set(art.id, await this.storage.get(art.storageKey));
+      // The same request the editor's outline was made from, at the export's resolution.
+      const request = pieceOutlineOptions(art, piece, { ...profileLimits(profile), dpi: options.dpi });
+      pieces.push(await exportPiece(piece, art.name, request, options.bleedMm, (o) => this.pool.run(bytes.get(art.id)!, o)));
+      await this.progress(id, 0.4 * ((i + 1) / doc.pieces.length), `Outlining piece ${i + 1} of ${doc.pieces.length}`);
+    }
+    const paper = profile
+      ? { paperWidthMm: profile.paperWidthMm, paperHeightMm: profile.paperHeightMm, areaXMm: profile.areaXMm, areaYMm: profile.areaYMm }
+      : { paperWidthMm: 215.9, paperHeightMm: 279.4, areaXMm: (215.9 - doc.printArea.width) / 2, areaYMm: (279.4 - doc.printArea.height) / 2 };
+    let last = 0;
+    // Progress writes run one after another and are awaited before the job is marked done.
+    let writes = Promise.resolve();
+    let cancelled = false;
+    // The profile says how its cutter finds the print: the cut layer's spot colour and any printed marks.
+    const resolved: ExportOptions = {
+      ...options,
+      spotColour: options.spotColour ?? profile?.spotColour ?? DEFAULT_EXPORT_OPTIONS.spotColour,
+      marks: profile && profile.regMarkShape !== 'none' ? { shape: profile.regMarkShape, sizeMm: profile.regMarkSizeMm, offsetMm: profile.regMarkOffsetMm } : null,
+    };
+    const result = await exportSheet({ name: sheet.name, unit: sheet.unit, doc, pieces, paper, preflight: findings }, resolved, (fraction, step) => {
+      if (fraction - last >= 0.1 || fraction === 1) {
+        last = fraction;
+        writes = writes.then(() => this.progress(id, 0.4 + 0.55 * fraction, step)).catch((error) => {
+          if (error instanceof ExportCancelled) cancelled = true;
+        });
+      }
+    });
+    await writes;
+    if (cancelled) throw new ExportCancelled();
+    const { key } = await this.storage.put(result.zip);
+    const files = JSON.stringify(await listZip(result.zip));
+    await this.dataSource.query("UPDATE sheet_exports SET status = 'done', progress = 1, step = 'Ready', zip_key = ?, zip_name = ?, files_json = ? WHERE id = ? AND status = 'running'", [key, result.zipName, files, id]);
+  }
+
+  /**
+   * Running rows whose job the queue no longer runs (it failed after its worker died too often, or
+   * vanished with a wiped Redis) end as failed with the reason: no export stays "running" for ever.
+   */
+  async reconcile(ids?: string[]): Promise<number> {
+    const rows: Array<{ id: string }> = ids?.length
+      ? await this.dataSource.query(`SELECT id FROM sheet_exports WHERE status = 'running' AND id IN (${ids.map(() => '?').join(',')})`, ids)
+      : await this.dataSource.query("SELECT id FROM sheet_exports WHERE status = 'running' AND created_at < NOW(3) - INTERVAL 5 SECOND LIMIT 500");
+    let ended = 0;
+    for (const { id } of rows) {
+      const job = await this.queues.exportState(String(id)).catch(() => undefined);
+      if (job === undefined) continue; // Redis not answering: decide later
+      if (job === null || job.state === 'failed' || job.state === 'completed' || job.state === 'unknown') {
+        const message = job?.reason && /stalled/i.test(job.reason)
+          ? 'The export stopped because the machine working on it went away, more than once. Try again.'
+          : 'The export stopped before it finished. Try again.';
+        if (await this.fail(String(id), message)) ended++;
+      }
+    }
+    return ended;
+  }
+
   async get(teamId: string, sheetId: string, id: string): Promise<ExportJobView> {
-    const [row] = await this.dataSource.query('SELECT * FROM sheet_exports WHERE id = ? AND sheet_id = ? AND team_id = ?', [id, sheetId, teamId]);
+    let [row] = await this.dataSource.query('SELECT * FROM sheet_exports WHERE id = ? AND sheet_id = ? AND team_id = ?', [id, sheetId, teamId]);
     if (!row) throw notFound('That export');
+    if (row.status === 'running' && Date.now() - new Date(row.created_at).getTime() > 5000 && (await this.reconcile([String(id)])) > 0) {
+      [row] = await this.dataSource.query('SELECT * FROM sheet_exports WHERE id = ?', [id]);
+    }
     return this.view(teamId, sheetId, row);
   }
 

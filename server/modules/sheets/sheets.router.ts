@@ -96,6 +96,12 @@ export function sheetsRouter({ dataSource, sheets, profiles, exports, costing }:
       return exports.start(teamId(req), req.user!.id, params.sheetId, body);
     }),
   );
+  router.post(
+    '/teams/:teamId/sheets/:sheetId/exports/:exportId/cancel',
+    scoped,
+    edit,
+    route({ params: exportParams }, ({ params }, req) => exports.cancel(teamId(req), params.sheetId, params.exportId)),
+  );
   router.get('/teams/:teamId/sheets/:sheetId/exports/latest', scoped, view, route({ params: sheetParamsSchema }, async ({ params }, req) => ({ export: await exports.latest(teamId(req), params.sheetId) })));
   router.get('/teams/:teamId/sheets/:sheetId/exports/:exportId', scoped, view, route({ params: exportParams }, ({ params }, req) => exports.get(teamId(req), params.sheetId, params.exportId)));
   router.get(

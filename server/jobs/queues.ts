@@ -1,0 +1,86 @@
+// Background work on BullMQ over Redis: the app enqueues, workers (embedded in the app, or their own
+// processes on any machine: `npm run worker`) take jobs. A worker that dies leaves its job's lock to
+// expire; another worker's stalled-job check puts it back on the queue (at most `maxStalls` times,
+// then it fails with a message), so no job stays "running" without a live worker.
+import { Queue, QueueEvents, Worker } from 'bullmq';
+import type { ConnectionOptions, Job, Processor } from 'bullmq';
+
+export type JobSettings = {
+  redisUrl: string;
+  /** Key prefix in Redis: separates deployments (and test apps) sharing one Redis. */
+  prefix: string;
+  /** How long a worker's lock on a job lasts without renewal; a dead worker's job is free after it. */
+  lockMs: number;
+  /** How often workers look for jobs whose worker died. */
+  stalledMs: number;
+  /** How many times a job may lose its worker before it fails. */
+  maxStalls: number;
+  concurrency: number;
+};
+
+export const QUEUE_NAMES = { exports: 'exports' } as const;
+
+export type ExportJobData = { teamId: string; sheetId: string; exportId: string };
+
+export function connection(url: string): ConnectionOptions {
+  const u = new URL(url);
+  return {
+    host: u.hostname,
+    port: Number(u.port || 6379),
+    username: u.username || undefined,
+    password: u.password ? decodeURIComponent(u.password) : undefined,
+    db: u.pathname.length > 1 ? Number(u.pathname.slice(1)) : 0,
+    tls: u.protocol === 'rediss:' ? {} : undefined,
+    // BullMQ's workers block on Redis; they must retry forever rather than fail a command.
+    maxRetriesPerRequest: null,
+  };
+}
+
+/** The queues the app puts work on. */
+export class JobQueues {
+  readonly exports: Queue<ExportJobData>;
+
+  constructor(readonly settings: JobSettings) {
+    this.exports = new Queue<ExportJobData>(QUEUE_NAMES.exports, { connection: connection(settings.redisUrl), prefix: settings.prefix });
+  }
+
+  async addExport(data: ExportJobData) {
+    // The job id is the export's id: one job per export, found again by it.
+    await this.exports.add('export', data, { jobId: `export-${data.exportId}`, attempts: 1, removeOnComplete: { age: 24 * 3600, count: 1000 }, removeOnFail: { age: 7 * 24 * 3600 } });
+  }
+
+  /** The export job's state ('active', 'waiting', 'failed', …), or null when the queue has no such job. */
+  async exportState(exportId: string): Promise<{ state: string; reason?: string } | null> {
+    const job = await this.exports.getJob(`export-${exportId}`);
+    if (!job) return null;
+    return { state: await job.getState(), reason: job.failedReason };
+  }
+
+  async removeExport(exportId: string) {
+    const job = await this.exports.getJob(`export-${exportId}`);
+    await job?.remove().catch(() => undefined); // an active job is locked by its worker: it notices the cancel itself
+  }
+
+  close() {
+    return this.exports.close();
+  }
+}
+
+/** A worker for one queue with the deployment's lock, stall and concurrency settings. */
+export function startWorker<T>(name: string, settings: JobSettings, processor: Processor<T>, onFailed: (job: Job<T> | undefined, error: Error) => void, workerName?: string) {
+  const worker = new Worker<T>(name, processor, {
+    connection: connection(settings.redisUrl),
+    prefix: settings.prefix,
+    concurrency: settings.concurrency,
+    lockDuration: settings.lockMs,
+    stalledInterval: settings.stalledMs,
+    maxStalledCount: settings.maxStalls,
+    name: workerName,
+  });
+  worker.on('failed', (job, error) => onFailed(job, error));
+  // Redis errors are logged by the caller's handler; without one Node would throw them.
+  worker.on('error', () => undefined);
+  return worker;
+}
+
+export { QueueEvents };

@@ -1,0 +1,31 @@
+import type { Env } from '../config/env';
+import type { Log } from '../lib/log';
+import type { ExportsService } from '../modules/sheets/exports.service';
+import type { ExportJobData, JobSettings } from './queues';
+import { QUEUE_NAMES, startWorker } from './queues';
+
+export const jobSettingsFrom = (env: Env, prefix = env.QUEUE_PREFIX): JobSettings => ({
+  redisUrl: env.REDIS_URL,
+  prefix,
+  lockMs: env.JOB_LOCK_SECONDS * 1000,
+  stalledMs: env.JOB_STALLED_SECONDS * 1000,
+  maxStalls: env.JOB_MAX_STALLS,
+  concurrency: env.WORKER_CONCURRENCY,
+});
+
+/**
+ * The export worker: takes export jobs and runs them with `exports.process`. A job that fails in
+ * the queue itself (its worker died more often than allowed) ends its row with a message.
+ */
+export function startExportWorker(exports: ExportsService, settings: JobSettings, env: Env, log: Log, name: string) {
+  return startWorker<ExportJobData>(
+    QUEUE_NAMES.exports,
+    settings,
+    (job) => exports.process(job.data, env.EXPORT_TIMEOUT_SECONDS * 1000),
+    (job, error) => {
+      log.warn({ err: error, jobId: job?.id }, 'export job failed in the queue');
+      if (job) void exports.reconcile([job.data.exportId]).catch(() => undefined);
+    },
+    name,
+  );
+}
