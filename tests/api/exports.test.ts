@@ -182,6 +182,25 @@ describe('sheet exports', () => {
     expect(refused.body.error.fields.widenNecks).toBe('Say yes or no to widening narrow parts');
   });
 
+  it('can be stopped while running, and a running row whose job is gone ends failed with a message', async () => {
+    const { team, member, sheet } = await sheetWithPieces(12);
+    const started = await member.post(`/api/teams/${team.id}/sheets/${sheet.id}/exports`, { dpi: 600 });
+    const stopped = await member.post(`/api/teams/${team.id}/sheets/${sheet.id}/exports/${started.body.id}/cancel`);
+    expect(stopped.status).toBe(200);
+    expect(stopped.body).toMatchObject({ status: 'failed', error: 'Stopped before it finished.' });
+    // The worker notices at its next step and leaves the row alone.
+    await new Promise((r) => setTimeout(r, 1500));
+    expect((await member.get(`/api/teams/${team.id}/sheets/${sheet.id}/exports/${started.body.id}`)).body.status).toBe('failed');
+    expect((await member.post(`/api/teams/${team.id}/sheets/${sheet.id}/exports/${started.body.id}/cancel`)).status).toBe(409);
+
+    // A row left "running" by a job the queue no longer has (a wiped Redis, a worker that died for good).
+    const insert = await t.db.query("INSERT INTO sheet_exports (team_id, sheet_id, sheet_version, status, options_json, created_by, step, created_at) VALUES (?, ?, 2, 'running', '{}', ?, 'Outlining piece 5 of 40', NOW(3) - INTERVAL 1 MINUTE)", [team.id, sheet.id, started.body.id ? (await t.db.query('SELECT created_by FROM sheet_exports WHERE id = ?', [started.body.id]))[0].created_by : null]);
+    const orphan = await member.get(`/api/teams/${team.id}/sheets/${sheet.id}/exports/${insert.insertId}`);
+    expect(orphan.body).toMatchObject({ status: 'failed', error: 'The export stopped before it finished. Try again.' });
+    const list = await member.get(`/api/teams/${team.id}/sheets`);
+    expect(list.body.sheets[0].lastExport.status).not.toBe('running');
+  });
+
   it('gives clear errors: another team’s sheet (404), an empty sheet (422), a DPI out of range (400), a viewer (403)', async () => {
     const a = await sheetWithPieces(1);
     const b = await sheetWithPieces(1);

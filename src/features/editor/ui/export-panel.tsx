@@ -3,7 +3,7 @@ import { useEffect, useState } from 'react';
 import type { ExportJobView } from '../../../../shared/schemas/exports';
 import { exportFileLabel } from '../../../../shared/schemas/exports';
 import { ApiError } from '../../../lib/api-client';
-import { getExport, latestExport, startExport } from '../api/exports';
+import { cancelExport, getExport, latestExport, startExport } from '../api/exports';
 import type { Finding } from '../../../../shared/sheet/preflight';
 import type { SheetDetail } from '../../../../shared/schemas/sheets';
 import { REG_MARK_LABELS } from '../../../../shared/schemas/sheets';
@@ -47,6 +47,14 @@ export function ExportPanel({ teamId, sheetId, unsaved, findings, areaText, prin
     }
   };
   const shown = job ?? latest.data?.export ?? null;
+  const stop = async () => {
+    if (!shown) return;
+    try {
+      setJob(await cancelExport(teamId, sheetId, shown.id));
+    } catch (e) {
+      setError(e instanceof ApiError ? e.message : 'The export could not be stopped.');
+    }
+  };
 
   return (
     <section role="dialog" aria-labelledby="export-title" className="absolute right-3 top-3 z-30 max-h-[calc(100vh-14rem)] w-80 overflow-y-auto rounded-sticker border-2 border-sage bg-white p-4 text-sm shadow-lg">
@@ -90,6 +98,10 @@ export function ExportPanel({ teamId, sheetId, unsaved, findings, areaText, prin
         <div className="mt-3" role="status" data-testid="export-status">
           <progress max={1} value={shown.progress} className="h-2 w-full accent-sage" aria-label="Export progress" />
           <p>{shown.status === 'done' ? `Ready (sheet version ${shown.sheetVersion}).` : shown.status === 'failed' ? shown.error : `${shown.step}…`}</p>
+          {shown.status === 'running' && <button type="button" onClick={() => void stop()} className="mt-1 rounded-full border-2 border-paper-edge px-3 font-bold">Stop this export</button>}
+          {shown.status === 'failed' && (
+            <button type="button" onClick={() => void start()} disabled={unsaved || (errors.length > 0 && !acceptErrors)} className="mt-1 rounded-full border-2 border-alarm px-3 font-bold text-alarm disabled:opacity-50">Try again</button>
+          )}
           {shown.status === 'done' && shown.files.length > 0 && (
             <ul className="mt-1 flex flex-col gap-0.5" aria-label="Files of this export">
               {shown.files.map((f) => (
