@@ -18,6 +18,7 @@ import { arrange } from '../../shared/arrange/nester';
 import { rotateRing } from '../../shared/arrange/raster';
 import type { Ring } from '../../shared/geometry/polygon';
 import { area, signedArea } from '../../shared/geometry/polygon';
+import { nestingDir } from './nesting-dir';
 
 type Instance = { name: string; strip_height: number; items: Array<{ id: number; demand: number; allowed_orientations?: number[]; shape: { type: string; data: number[][] } }> };
 
@@ -161,7 +162,7 @@ async function sticker(file: string, seed: number) {
   return { name: instance.name, placed: ours.placed, areaUsed: ours.areaUsed[0], ms, boxes, boxAreaUsed: boxArea / (W * Hs) };
 }
 
-const files = await instanceFiles(positionals.length ? positionals : [path.resolve('../shared/nesting')]);
+const files = await instanceFiles(positionals.length ? positionals : [nestingDir()]);
 const seed = Number(values.seed);
 if (values.sticker) {
   if (!values.json) console.log('sticker protocol: 171.45 × 234.95 mm, 3.175 mm gap and margin, quarter turns, 2 s; median piece 44.45 mm');

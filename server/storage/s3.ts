@@ -3,6 +3,10 @@ import { DeleteObjectCommand, GetObjectCommand, HeadObjectCommand, ListObjectsV2
 import type { Storage } from './storage';
 import { KEY_PATTERN, StorageKeyError } from './storage';
 
+// The SDK warns on every start that its releases after January 2027 will need Node 22; this
+// project runs on Node 20 by requirement, so the warning says nothing a maker or operator can act on.
+process.env.AWS_SDK_JS_NODE_VERSION_SUPPORT_WARNING_DISABLED ??= 'true';
+
 export type S3Settings = { endpoint?: string; region: string; bucket: string; accessKeyId?: string; secretAccessKey?: string; forcePathStyle: boolean; prefix?: string };
 
 /** A missing object, as the local driver reports it (code ENOENT), so callers treat both alike. */

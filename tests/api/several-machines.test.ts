@@ -92,9 +92,10 @@ describe('several machines: two apps and two workers on one MariaDB, Redis and S
       QUEUE_PREFIX: prefix,
       WORKERS_EMBEDDED: 'false',
       OUTLINE_THREADS: '1',
-      // Short locks so a killed worker's job is taken up again within seconds (defaults: 30 s / 15 s).
-      JOB_LOCK_SECONDS: '3',
-      JOB_STALLED_SECONDS: '1',
+      // Short locks so a killed worker's job is taken up again within seconds (defaults: 30 s / 15 s),
+      // yet long enough that a busy CI machine does not take a live worker for a dead one.
+      JOB_LOCK_SECONDS: '8',
+      JOB_STALLED_SECONDS: '2',
       JOB_MAX_STALLS: '2',
     };
     const ports = [await freePort(), await freePort()];

@@ -1,5 +1,7 @@
 import Flatten from '@flatten-js/core';
 import { readFileSync } from 'node:fs';
+import path from 'node:path';
+import { nestingDir } from '../../scripts/bench/nesting-dir';
 import { describe, expect, it } from 'vitest';
 import type { ArrangeItem, ArrangeResult, Outline } from '../../shared/arrange/nester';
 import { ArrangeInputError, arrange } from '../../shared/arrange/nester';
@@ -175,7 +177,7 @@ describe('arrange: the benchmark claim', () => {
 // is 200 mm high. At a gap of 0 every spot must still be collision-free (it once checked nothing).
 describe('arrange at a gap of 0 (ESICUP jakobs1)', () => {
   it('places no two pieces so that they cross, by @flatten-js/core boolean intersection', () => {
-    const instance = JSON.parse(readFileSync(new URL('../../../shared/nesting/jakobs1.json', import.meta.url), 'utf8')) as { strip_height: number; items: Array<{ id: number; demand: number; shape: { data: number[][] } }> };
+    const instance = JSON.parse(readFileSync(path.join(nestingDir(), 'jakobs1.json'), 'utf8')) as { strip_height: number; items: Array<{ id: number; demand: number; shape: { data: number[][] } }> };
     const k = 200 / instance.strip_height;
     const items: ArrangeItem[] = instance.items.map((item) => {
       const xs = item.shape.data.map((p) => p[0]), ys = item.shape.data.map((p) => p[1]);

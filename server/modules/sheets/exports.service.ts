@@ -193,7 +193,10 @@ export class ExportsService {
     for (const { id } of rows) {
       const job = await this.queues.exportState(String(id)).catch(() => undefined);
       if (job === undefined) continue; // Redis not answering: decide later
-      if (job === null || job.state === 'failed' || job.state === 'completed' || job.state === 'unknown') {
+      // Only a job the queue has dropped or failed is dead; any other state (waiting again after its
+      // worker died, active, delayed) is still on its way.
+      if (job === null || job.state === 'failed') {
+        this.log.warn({ exportId: id, state: job?.state ?? 'missing', reason: job?.reason }, 'running export without a live job: ended');
         const message = job?.reason && /stalled/i.test(job.reason)
           ? 'The export stopped because the machine working on it went away, more than once. Try again.'
           : 'The export stopped before it finished. Try again.';
