@@ -7,7 +7,7 @@ import { env } from '../server/config/env';
 import { createDataSource } from '../server/db/data-source';
 import { OutlinePool } from '../server/engine/outline/pool';
 import { JobQueues } from '../server/jobs/queues';
-import { jobSettingsFrom, startExportWorker } from '../server/jobs/workers';
+import { jobSettingsFrom, startExportWorker, startOutlineWorker } from '../server/jobs/workers';
 import { createLog } from '../server/lib/log';
 import { OutlineService } from '../server/modules/outlines/outline.service';
 import { ExportsService } from '../server/modules/sheets/exports.service';
@@ -23,10 +23,11 @@ const pool = new OutlinePool({ maxInputPixels: env.OUTLINE_MAX_PIXELS, maxOutput
 const settings = jobSettingsFrom(env);
 const queues = new JobQueues(settings);
 const sheets = new SheetsService(dataSource, storage, new ProfilesService(dataSource));
-const exportsService = new ExportsService(dataSource, storage, pool, sheets, new SheetAnalysisService(dataSource, storage, new OutlineService(dataSource, storage, pool)), log, queues);
+const outlines = new OutlineService(dataSource, storage, pool);
+const exportsService = new ExportsService(dataSource, storage, pool, sheets, new SheetAnalysisService(dataSource, storage, outlines), log, queues);
 const name = `${hostname()}:${process.pid}`;
-const worker = startExportWorker(exportsService, settings, env, log, name);
-await worker.waitUntilReady();
+const workers = [startExportWorker(exportsService, settings, env, log, name), startOutlineWorker(outlines, settings, log, name, Math.max(2, pool.size))];
+await Promise.all(workers.map((w) => w.waitUntilReady()));
 log.info({ name, concurrency: settings.concurrency, prefix: settings.prefix }, 'worker ready');
 console.log(`[sheetsmith] worker ${name} ready (${settings.concurrency} at once)`);
 
@@ -35,7 +36,7 @@ const stop = async (signal: string) => {
   if (stopping) return;
   stopping = true;
   log.info({ signal }, 'worker stopping');
-  await worker.close();
+  await Promise.all(workers.map((w) => w.close()));
   await queues.close();
   await pool.close();
   await dataSource.destroy();

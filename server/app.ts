@@ -32,7 +32,7 @@ import { SheetsService } from './modules/sheets/sheets.service';
 import { sheetsRouter } from './modules/sheets/sheets.router';
 import { ExportsService } from './modules/sheets/exports.service';
 import { JobQueues } from './jobs/queues';
-import { jobSettingsFrom, startExportWorker } from './jobs/workers';
+import { jobSettingsFrom, startExportWorker, startOutlineWorker } from './jobs/workers';
 import { OutlineService } from './modules/outlines/outline.service';
 import { outlinesRouter } from './modules/outlines/outlines.router';
 import { OutlinePool } from './engine/outline/pool';
@@ -122,12 +122,12 @@ export function createApp({
   const collections = new CollectionsService(dataSource, storage);
   const profiles = new ProfilesService(dataSource);
   const sheets = new SheetsService(dataSource, storage, profiles);
-  const outlines = new OutlineService(dataSource, storage, pool);
-  const analysis = new SheetAnalysisService(dataSource, storage, outlines);
   const jobSettings = jobSettingsFrom(env, queuePrefix);
   const queues = new JobQueues(jobSettings);
+  const outlines = new OutlineService(dataSource, storage, pool, queues);
+  const analysis = new SheetAnalysisService(dataSource, storage, outlines);
   const exportsService = new ExportsService(dataSource, storage, pool, sheets, analysis, log, queues);
-  const workers = env.WORKERS_EMBEDDED ? startExportWorker(exportsService, jobSettings, env, log, 'embedded') : null;
+  const workers = env.WORKERS_EMBEDDED ? [startExportWorker(exportsService, jobSettings, env, log, 'embedded'), startOutlineWorker(outlines, jobSettings, log, 'embedded', Math.max(2, pool.size))] : [];
   // Running exports whose job the queue no longer runs end as failed, even if nobody looks at them.
   const reconciler = setInterval(() => void exportsService.reconcile().catch(() => undefined), 15_000);
   reconciler.unref();
@@ -178,7 +178,7 @@ export function createApp({
     app,
     close: async () => {
       clearInterval(reconciler);
-      await workers?.close();
+      await Promise.all(workers.map((w) => w.close()));
       await queues.close();
       await store.close();
       if (ownPool) await pool.close();

@@ -4,6 +4,9 @@
 // then it fails with a message), so no job stays "running" without a live worker.
 import { Queue, QueueEvents, Worker } from 'bullmq';
 import type { ConnectionOptions, Job, Processor } from 'bullmq';
+import type { OutlineOptions } from '../../shared/schemas/outline';
+import { OutlineInputError } from '../engine/outline/errors';
+import { OutlinePoolBusyError } from '../engine/outline/pool';
 
 export type JobSettings = {
   redisUrl: string;
@@ -18,9 +21,13 @@ export type JobSettings = {
   concurrency: number;
 };
 
-export const QUEUE_NAMES = { exports: 'exports' } as const;
+export const QUEUE_NAMES = { exports: 'exports', outlines: 'outlines' } as const;
 
 export type ExportJobData = { teamId: string; sheetId: string; exportId: string };
+export type OutlineJobData = { key: string; artSha256: string; storageKey: string; options: OutlineOptions };
+
+/** An outline job's failure carries the engine's code, so the app answers as if it had run it itself. */
+export const OUTLINE_INPUT_PREFIX = 'outline-input:';
 
 export function connection(url: string): ConnectionOptions {
   const u = new URL(url);
@@ -39,9 +46,33 @@ export function connection(url: string): ConnectionOptions {
 /** The queues the app puts work on. */
 export class JobQueues {
   readonly exports: Queue<ExportJobData>;
+  readonly outlines: Queue<OutlineJobData>;
+  private outlineEvents: QueueEvents | null = null;
 
   constructor(readonly settings: JobSettings) {
     this.exports = new Queue<ExportJobData>(QUEUE_NAMES.exports, { connection: connection(settings.redisUrl), prefix: settings.prefix });
+    this.outlines = new Queue<OutlineJobData>(QUEUE_NAMES.outlines, { connection: connection(settings.redisUrl), prefix: settings.prefix });
+  }
+
+  /**
+   * Queues an outline and waits for a worker to make it (the result lands in the cache table). One
+   * job per outline key: requests from several apps for the same outline share it.
+   */
+  async runOutline(data: OutlineJobData, timeoutMs = 120_000): Promise<void> {
+    this.outlineEvents ??= new QueueEvents(QUEUE_NAMES.outlines, { connection: connection(this.settings.redisUrl), prefix: this.settings.prefix });
+    await this.outlineEvents.waitUntilReady();
+    const job = await this.outlines.add('outline', data, { jobId: `outline-${data.key}`, removeOnComplete: true, removeOnFail: { age: 60 } });
+    try {
+      await job.waitUntilFinished(this.outlineEvents, timeoutMs);
+    } catch (error) {
+      const message = (error as Error).message ?? '';
+      if (message.startsWith(OUTLINE_INPUT_PREFIX)) {
+        const { code, text } = JSON.parse(message.slice(OUTLINE_INPUT_PREFIX.length)) as { code: OutlineInputError['code']; text: string };
+        throw new OutlineInputError(code, text);
+      }
+      if (/timed out|time out/i.test(message)) throw new OutlinePoolBusyError('The outline workers are busy. Try again in a moment.');
+      throw error;
+    }
   }
 
   async addExport(data: ExportJobData) {
@@ -61,8 +92,10 @@ export class JobQueues {
     await job?.remove().catch(() => undefined); // an active job is locked by its worker: it notices the cancel itself
   }
 
-  close() {
-    return this.exports.close();
+  async close() {
+    await this.outlineEvents?.close();
+    await this.outlines.close();
+    await this.exports.close();
   }
 }
 

@@ -1,8 +1,11 @@
 import type { Env } from '../config/env';
 import type { Log } from '../lib/log';
 import type { ExportsService } from '../modules/sheets/exports.service';
-import type { ExportJobData, JobSettings } from './queues';
-import { QUEUE_NAMES, startWorker } from './queues';
+import { UnrecoverableError } from 'bullmq';
+import { OutlineInputError } from '../engine/outline/errors';
+import type { OutlineService } from '../modules/outlines/outline.service';
+import type { ExportJobData, JobSettings, OutlineJobData } from './queues';
+import { OUTLINE_INPUT_PREFIX, QUEUE_NAMES, startWorker } from './queues';
 
 export const jobSettingsFrom = (env: Env, prefix = env.QUEUE_PREFIX): JobSettings => ({
   redisUrl: env.REDIS_URL,
@@ -25,6 +28,26 @@ export function startExportWorker(exports: ExportsService, settings: JobSettings
     (job, error) => {
       log.warn({ err: error, jobId: job?.id }, 'export job failed in the queue');
       if (job) void exports.reconcile([job.data.exportId]).catch(() => undefined);
+    },
+    name,
+  );
+}
+
+/** The outline worker: makes outlines into the cache; unusable art fails the job with the engine's code and message. */
+export function startOutlineWorker(outlines: OutlineService, settings: JobSettings, log: Log, name: string, concurrency: number) {
+  return startWorker<OutlineJobData>(
+    QUEUE_NAMES.outlines,
+    { ...settings, concurrency },
+    async (job) => {
+      try {
+        await outlines.make(job.data);
+      } catch (error) {
+        if (error instanceof OutlineInputError) throw new UnrecoverableError(`${OUTLINE_INPUT_PREFIX}${JSON.stringify({ code: error.code, text: error.message })}`);
+        throw error;
+      }
+    },
+    (job, error) => {
+      if (!(error.message ?? '').startsWith(OUTLINE_INPUT_PREFIX)) log.warn({ err: error, jobId: job?.id }, 'outline job failed');
     },
     name,
   );

@@ -31,6 +31,11 @@ export class OutlinePool {
     });
   }
 
+  /** Threads the pool may use: a worker takes this many outline jobs at once. */
+  get size() {
+    return this.piscina.options.maxThreads;
+  }
+
   get threads() {
     return this.piscina.threads.length;
   }

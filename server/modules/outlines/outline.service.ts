@@ -8,6 +8,7 @@ import type { CutLimits } from '../../../shared/sheet/outline-request';
 import { artBackgroundOptions, pieceOutlineOptions } from '../../../shared/sheet/outline-request';
 import type { OutlineResult } from '../../engine/outline/outline';
 import type { OutlinePool } from '../../engine/outline/pool';
+import type { JobQueues, OutlineJobData } from '../../jobs/queues';
 import { AppError, forbidden, notFound } from '../../lib/errors';
 import type { Role } from '../../../shared/permissions';
 import { can } from '../../../shared/permissions';
@@ -57,6 +58,7 @@ export class OutlineService {
     private readonly dataSource: DataSource,
     private readonly storage: Storage,
     private readonly pool: OutlinePool,
+    private readonly queues?: JobQueues,
   ) {}
 
   /** The outline the editor requests for a placed piece: the same options, so the same cache entry. */
@@ -85,15 +87,25 @@ export class OutlineService {
   }
 
   private async compute(key: string, art: ArtItem, options: OutlineOptions) {
+    const data: OutlineJobData = { key, artSha256: art.sha256, storageKey: art.storageKey, options };
+    // On the queue when there is one: any worker, on any machine, may make it.
+    if (this.queues) await this.queues.runOutline(data);
+    else await this.make(data);
+    return { entry: await this.dataSource.getRepository(OutlineCacheEntry).findOneByOrFail({ cacheKey: key }), cached: false };
+  }
+
+  /** Makes one outline and stores it (PNGs in storage, the result in the cache table): the outline job. */
+  async make({ key, artSha256, storageKey, options }: OutlineJobData): Promise<void> {
+    const repo = this.dataSource.getRepository(OutlineCacheEntry);
+    if (await repo.existsBy({ cacheKey: key })) return; // made meanwhile by another request
     const started = performance.now();
-    const result = await this.pool.run(await this.storage.get(art.storageKey), options);
+    const result = await this.pool.run(await this.storage.get(storageKey), options);
     const pieces: StoredPiece[] = [];
     for (const { png, ...piece } of result.pieces) pieces.push({ ...piece, pngKey: (await this.storage.put(png)).key });
     const stored: StoredOutline = { ...result, pieces };
-    const repo = this.dataSource.getRepository(OutlineCacheEntry);
     const entry = repo.create({
       cacheKey: key,
-      artSha256: art.sha256,
+      artSha256,
       optionsJson: canonical(options),
       resultJson: JSON.stringify(stored),
       computeMs: Math.round(performance.now() - started),
@@ -101,7 +113,6 @@ export class OutlineService {
     });
     // Another process may have written the same key meanwhile: keep whichever landed first.
     await repo.createQueryBuilder().insert().into(OutlineCacheEntry).values(entry).orIgnore().execute();
-    return { entry: await repo.findOneByOrFail({ cacheKey: key }), cached: false };
   }
 
   /** The art's original with what removing `background` takes drawn over it (not cached: it is small and quick). */
