@@ -52,6 +52,8 @@ export class JobQueues {
   constructor(readonly settings: JobSettings) {
     this.exports = new Queue<ExportJobData>(QUEUE_NAMES.exports, { connection: connection(settings.redisUrl), prefix: settings.prefix });
     this.outlines = new Queue<OutlineJobData>(QUEUE_NAMES.outlines, { connection: connection(settings.redisUrl), prefix: settings.prefix });
+    // Every waiting request listens for its job: many at once is the normal case, not a leak.
+    this.outlines.setMaxListeners(0);
   }
 
   /**
@@ -59,7 +61,10 @@ export class JobQueues {
    * job per outline key: requests from several apps for the same outline share it.
    */
   async runOutline(data: OutlineJobData, timeoutMs = 120_000): Promise<void> {
-    this.outlineEvents ??= new QueueEvents(QUEUE_NAMES.outlines, { connection: connection(this.settings.redisUrl), prefix: this.settings.prefix });
+    if (!this.outlineEvents) {
+      this.outlineEvents = new QueueEvents(QUEUE_NAMES.outlines, { connection: connection(this.settings.redisUrl), prefix: this.settings.prefix });
+      this.outlineEvents.setMaxListeners(0);
+    }
     await this.outlineEvents.waitUntilReady();
     const job = await this.outlines.add('outline', data, { jobId: `outline-${data.key}`, removeOnComplete: true, removeOnFail: { age: 60 } });
     try {
