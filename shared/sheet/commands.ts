@@ -10,7 +10,11 @@ export type Diff = {
   removed: Piece[];
 };
 
-export type Command = { name: string; diff: Diff };
+/**
+ * `merge`: commands with the same key in a row (typing "135" into Rotation, dragging the colour
+ * picker) become one undo step, until the history is marked (a field left, a gesture ended).
+ */
+export type Command = { name: string; diff: Diff; merge?: string };
 
 export const emptyDiff = (): Diff => ({ added: [], updated: [], removed: [] });
 
@@ -27,6 +31,19 @@ export function invertDiff(diff: Diff): Diff {
     removed: diff.added,
     updated: diff.updated.map(({ from, to }) => ({ from: to, to: from })),
   };
+}
+
+const withMerge = (command: Command, field: string, ids: Iterable<string>): Command => ({ ...command, merge: `${field}:${[...ids].sort().join(',')}` });
+
+/** Two update-only diffs as one: each piece from its first state to its last. */
+export function composeDiffs(first: Diff, second: Diff): Diff | null {
+  if (first.added.length || first.removed.length || second.added.length || second.removed.length) return null;
+  const byPiece = new Map(first.updated.map((u) => [u.to.id, { ...u }]));
+  for (const u of second.updated) {
+    const earlier = byPiece.get(u.to.id);
+    byPiece.set(u.to.id, earlier ? { from: earlier.from, to: u.to } : { ...u });
+  }
+  return { added: [], removed: [], updated: [...byPiece.values()] };
 }
 
 const byId = (doc: SheetDocument, ids: Iterable<string>) => {
@@ -72,13 +89,17 @@ export const commands = {
     update(doc, 'Rotate', ids, (p) => ({ rotation: (((p.rotation + by) % 360) + 360) % 360 })),
 
   setRotation: (doc: SheetDocument, ids: Iterable<string>, rotation: number): Command =>
-    update(doc, 'Rotate', ids, () => ({ rotation: ((rotation % 360) + 360) % 360 })),
+    withMerge(update(doc, 'Rotate', ids, () => ({ rotation: ((rotation % 360) + 360) % 360 })), 'rotation', ids),
 
   resizePieces: (doc: SheetDocument, ids: Iterable<string>, width: number): Command =>
     update(doc, 'Resize', ids, () => ({ width })),
 
-  setBorder: (doc: SheetDocument, ids: Iterable<string>, border: number, borderColour?: string): Command =>
-    update(doc, 'Border', ids, (p) => ({ border, borderColour: borderColour ?? p.borderColour })),
+  /** The border's width only: each piece keeps its own colour. */
+  setBorder: (doc: SheetDocument, ids: Iterable<string>, border: number): Command => update(doc, 'Border', ids, () => ({ border })),
+
+  /** The border's colour only: each piece keeps its own width. */
+  setBorderColour: (doc: SheetDocument, ids: Iterable<string>, borderColour: string): Command =>
+    withMerge(update(doc, 'Border colour', ids, () => ({ borderColour })), 'border-colour', ids),
 
   setLocked: (doc: SheetDocument, ids: Iterable<string>, locked: boolean): Command =>
     update(doc, locked ? 'Lock' : 'Unlock', ids, () => ({ locked }), true),

@@ -1,6 +1,6 @@
 import type { SheetDocument } from './document';
 import type { Command, Diff } from './commands';
-import { applyDiff, invertDiff } from './commands';
+import { applyDiff, composeDiffs, invertDiff } from './commands';
 
 const isEmpty = (d: Diff) => d.added.length === 0 && d.updated.length === 0 && d.removed.length === 0;
 
@@ -8,19 +8,34 @@ const isEmpty = (d: Diff) => d.added.length === 0 && d.updated.length === 0 && d
 export class History {
   private undoStack: Command[] = [];
   private redoStack: Command[] = [];
+  /** Whether the top of the undo stack may still take in a following command with its merge key. */
+  private open = false;
 
   constructor(private readonly limit = 500) {}
 
-  /** Applies a command, records it and clears redo. Empty commands change nothing and are not kept. */
+  /**
+   * Applies a command, records it and clears redo. Empty commands change nothing and are not kept.
+   * A command with the same merge key as the last one (and no mark between them) joins its undo step.
+   */
   apply(doc: SheetDocument, command: Command): SheetDocument {
     if (isEmpty(command.diff)) return doc;
-    this.undoStack.push(command);
+    const top = this.undoStack[this.undoStack.length - 1];
+    const joined = this.open && top && command.merge && top.merge === command.merge ? composeDiffs(top.diff, command.diff) : null;
+    if (joined) this.undoStack[this.undoStack.length - 1] = { ...top, diff: joined };
+    else this.undoStack.push(command);
     if (this.undoStack.length > this.limit) this.undoStack.shift();
     this.redoStack = [];
+    this.open = Boolean(command.merge);
     return applyDiff(doc, command.diff);
   }
 
+  /** Ends the current undo step: the next command starts a new one even if it could merge. */
+  mark() {
+    this.open = false;
+  }
+
   undo(doc: SheetDocument): SheetDocument {
+    this.open = false;
     const command = this.undoStack.pop();
     if (!command) return doc;
     this.redoStack.push(command);
@@ -28,6 +43,7 @@ export class History {
   }
 
   redo(doc: SheetDocument): SheetDocument {
+    this.open = false;
     const command = this.redoStack.pop();
     if (!command) return doc;
     this.undoStack.push(command);

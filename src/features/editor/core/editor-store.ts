@@ -64,6 +64,11 @@ export class EditorStore {
     this.set({ doc, selection, save: this.dirty(doc, this.state.meta) });
   }
 
+  /** Ends the current undo step (a field left, a gesture ended). */
+  mark() {
+    this.history.mark();
+  }
+
   undo() {
     const doc = this.history.undo(this.state.doc);
     this.set({ doc, save: this.dirty(doc, this.state.meta) });

@@ -74,7 +74,7 @@ export function Inspector({ ctx, pieces, sizes }: { ctx: ActionContext; pieces: 
         <LengthInput label="Border" mm={first.border} unit={unit} min={0} max={Math.max(0, Math.min(50, ...pieces.map((p) => (Math.max(doc().printArea.width, doc().printArea.height) - p.width) / 2)))} maxReason="with it the sticker must fit the print area" onCommit={(b) => store.dispatch(commands.setBorder(doc(), ids, b))} />
         <label className="flex items-center justify-between gap-2 text-sm font-bold">
           Rotation
-          <input type="number" value={Math.round(first.rotation)} min={-MAX_ROTATION_DEG} max={MAX_ROTATION_DEG} onChange={(e) => { const r = Number(e.target.value); if (Number.isFinite(r) && Math.abs(r) <= MAX_ROTATION_DEG) store.dispatch(commands.setRotation(doc(), ids, r)); }} className="w-20 rounded border-2 border-paper-edge px-2 py-1 text-right font-normal" aria-label="Rotation (degrees)" />
+          <input type="number" value={Math.round(first.rotation)} min={-MAX_ROTATION_DEG} max={MAX_ROTATION_DEG} onChange={(e) => { const r = Number(e.target.value); if (Number.isFinite(r) && Math.abs(r) <= MAX_ROTATION_DEG) store.dispatch(commands.setRotation(doc(), ids, r)); }} onBlur={() => store.mark()} className="w-20 rounded border-2 border-paper-edge px-2 py-1 text-right font-normal" aria-label="Rotation (degrees)" />
         </label>
         <label className="flex items-center justify-between gap-2 text-sm font-bold">
           Cut
@@ -85,7 +85,7 @@ export function Inspector({ ctx, pieces, sizes }: { ctx: ActionContext; pieces: 
         </label>
         <label className="flex items-center justify-between gap-2 text-sm font-bold">
           Border colour
-          <input type="color" value={first.borderColour} onChange={(e) => store.dispatch(commands.setBorder(doc(), ids, first.border, e.target.value))} aria-label="Border colour" />
+          <input type="color" value={first.borderColour} onChange={(e) => store.dispatch(commands.setBorderColour(doc(), ids, e.target.value))} onBlur={() => store.mark()} aria-label="Border colour" />
         </label>
       </fieldset>
       {frame && (
