@@ -45,6 +45,8 @@ export type ArrangeOptions = {
   cell?: number;
   /** Checked between layouts: true ends the search with the best layout so far. */
   shouldStop?: () => boolean;
+  /** Told each new best layout, so a caller that stops the search early keeps the best so far. */
+  onBest?: (result: ArrangeResult) => void;
 };
 
 export type Placement = { key: string; sheet: number; x: number; y: number; rotation: number };
@@ -358,8 +360,29 @@ export function arrange(items: ArrangeItem[], options: ArrangeOptions, locked: L
     const compact = o.strip ? -last.bottom / o.height : -last.bottom / (o.height * 10) + r.boards[0].usedArea / (o.width * o.height * 100);
     return r.placements.length * 1e6 - r.boards.length * 1e4 + compact * 100;
   };
-  const report = (layout: Layout, iteration: number) =>
+  const resultOf = (layout: Layout, iteration: number): ArrangeResult => {
+    const counts = new Map<string, number>();
+    for (const key of layout.left) counts.set(key, (counts.get(key) ?? 0) + 1);
+    const left = [...counts].map(([key, count]) => {
+      const name = shapes.get(key)!.item.name ?? key;
+      return { key, name, count, reason: `${count} × ${name} did not fit on ${o.fill ? 'the sheet' : o.strip ? 'the strip' : `${o.maxSheets} sheets`}.` };
+    });
+    return {
+      placements: layout.placements,
+      sheets: layout.boards.length,
+      requested,
+      placed: layout.placements.length,
+      unplaced: [...unplaced, ...left],
+      areaUsed: layout.boards.map((b) => b.usedArea / (o.width * o.height)),
+      length: o.strip ? layout.boards[0].bottom : undefined,
+      iterations: iteration,
+      ms: Date.now() - started,
+    };
+  };
+  const report = (layout: Layout, iteration: number) => {
+    o.onBest?.(resultOf(layout, iteration));
     onProgress?.({ iteration, placed: layout.placements.length, elapsedMs: Date.now() - started, sheets: layout.boards.length, areaUsed: layout.boards[0].usedArea / (o.width * o.height), length: o.strip ? layout.boards[0].bottom : undefined });
+  };
 
   let current = run(base);
   let best = current;
@@ -406,24 +429,8 @@ export function arrange(items: ArrangeItem[], options: ArrangeOptions, locked: L
       report(best, iterations);
     }
   }
-  report(best, iterations);
-  const counts = new Map<string, number>();
-  for (const key of best.left) counts.set(key, (counts.get(key) ?? 0) + 1);
-  for (const [key, count] of counts) {
-    const name = shapes.get(key)!.item.name ?? key;
-    unplaced.push({ key, name, count, reason: `${count} × ${name} did not fit on ${o.fill ? 'the sheet' : o.strip ? 'the strip' : `${o.maxSheets} sheets`}.` });
-  }
-  return {
-    placements: best.placements,
-    sheets: best.boards.length,
-    requested,
-    placed: best.placements.length,
-    unplaced,
-    areaUsed: best.boards.map((b) => b.usedArea / (o.width * o.height)),
-    length: o.strip ? best.boards[0].bottom : undefined,
-    iterations,
-    ms: Date.now() - started,
-  };
+  onProgress?.({ iteration: iterations, placed: best.placements.length, elapsedMs: Date.now() - started, sheets: best.boards.length, areaUsed: best.boards[0].usedArea / (o.width * o.height), length: o.strip ? best.boards[0].bottom : undefined });
+  return resultOf(best, iterations);
 }
 
 /** Whether a ring's edges cross (other than neighbours sharing their end point). */

@@ -103,6 +103,28 @@ describe('sheet editor in Chromium', { timeout: BROWSER_TEST_TIMEOUT }, () => {
     await page.close();
   });
 
+  it('auto-arrange can be stopped: the best layout so far is previewed at once, long before the time is up', async () => {
+    const { team, users, client, art } = await teamWithArt();
+    const { body: sheet } = await client.post(`/api/teams/${team.id}/sheets`, { name: 'Stop early' });
+    await placePieces(client, team.id, sheet, Array.from({ length: 12 }, (_, i) => testPiece(`s${i}`, art[i % 3].id, 80 + i, 110 + i)));
+    const page = await t.browser.newPage({ viewport: { width: 1280, height: 900 } });
+    await signIn(page, users.member.email);
+    await page.goto(`${t.served.url}/t/${team.id}/sheets/${sheet.id}`);
+    await expect.poll(() => page.getByTestId('area-used').textContent(), { timeout: 20_000 }).toMatch(/^12 pieces · [1-9]/);
+    await page.getByRole('button', { name: 'Auto-arrange…' }).click();
+    const dialog = page.getByRole('dialog', { name: 'Auto-arrange' });
+    expect(await dialog.textContent()).toContain('may turn art upside down (180°)');
+    await dialog.getByLabel('Try for').selectOption('10');
+    await dialog.getByRole('button', { name: 'Arrange' }).click();
+    await expect.poll(() => page.getByTestId('arrange-progress').textContent(), { timeout: 10_000 }).toMatch(/tried; the best places 12 on 1 sheet/);
+    const stoppedAt = Date.now();
+    await dialog.getByRole('button', { name: 'Stop and keep the best so far' }).click();
+    await expect.poll(() => page.getByTestId('arrange-summary').textContent(), { timeout: 3_000 }).toMatch(/^Preview: 12 of 12 placed/);
+    expect(Date.now() - stoppedAt).toBeLessThan(3_000);
+    await screenshot(page, 'editor-arrange-stopped');
+    await page.close();
+  });
+
   it('auto-arranges the sheet in a Web Worker: preview, keep, and undo in one step', async () => {
     const { team, users, client, art } = await teamWithArt();
     const { body: sheet } = await client.post(`/api/teams/${team.id}/sheets`, { name: 'Pile' });

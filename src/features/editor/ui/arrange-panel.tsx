@@ -17,6 +17,8 @@ export function ArrangePanel({ store, outlines, onPreview, onClose }: { store: E
   const [result, setResult] = useState<{ command: Command; summary: ArrangeResult } | null>(null);
   const [error, setError] = useState<string | null>(null);
   const worker = useRef<Worker | null>(null);
+  const best = useRef<{ result: ArrangeResult; groups: ReturnType<typeof planArrange>['groups']; doc: ReturnType<EditorStore['getState']>['doc'] } | null>(null);
+  const running = progress !== null && !result && !error;
 
   const state0 = store.getState();
   const waiting = state0.doc.pieces.filter((p) => !p.locked && (choice.scope === 'sheet' || state0.selection.has(p.id)) && !outlines.get(p.id)?.outline).length;
@@ -33,18 +35,34 @@ export function ArrangePanel({ store, outlines, onPreview, onClose }: { store: E
     worker.current?.terminate();
     const w = new Worker(new URL('../core/arrange.worker.ts', import.meta.url), { type: 'module' });
     worker.current = w;
+    best.current = null;
     w.onmessage = (event) => {
       const message = event.data;
       if (message.type === 'progress') setProgress(message.progress);
+      if (message.type === 'best') best.current = { result: message.result, groups: plan.groups, doc: state.doc };
       if (message.type === 'error') setError(message.message);
-      if (message.type === 'done') {
-        const command = arrangeCommand(plan.groups, message.result);
-        setResult({ command, summary: message.result });
-        onPreview(applyDiff(state.doc, command.diff));
-        w.terminate();
-      }
+      if (message.type === 'done') finish(plan.groups, state.doc, message.result);
     };
     w.postMessage({ items: plan.items, options: plan.options, locked: plan.locked });
+  };
+
+  const finish = (groups: ReturnType<typeof planArrange>['groups'], doc: ReturnType<EditorStore['getState']>['doc'], summary: ArrangeResult) => {
+    worker.current?.terminate();
+    worker.current = null;
+    const command = arrangeCommand(groups, summary);
+    setProgress(null);
+    setResult({ command, summary });
+    onPreview(applyDiff(doc, command.diff));
+  };
+
+  /** Stops the search at once and previews the best layout found so far. */
+  const stop = () => {
+    const b = best.current;
+    if (b) finish(b.groups, b.doc, b.result);
+    else {
+      worker.current?.terminate();
+      setProgress(null);
+    }
   };
 
   const close = () => {
@@ -81,7 +99,12 @@ export function ArrangePanel({ store, outlines, onPreview, onClose }: { store: E
         </label>
       </fieldset>
       {waiting > 0 && <p role="status" className="mb-2">Waiting for {waiting} outline{waiting === 1 ? '' : 's'}…</p>}
-      {progress && !result && <p role="status" className="mb-2">Trying layouts… {progress.iteration} tried, best places {progress.placed}</p>}
+      <p className="mb-2 text-xs text-ink-soft">Quarter turns and any angle may turn art upside down (180°): keep stickers upright for sheets sold whole.</p>
+      {progress && !result && (
+        <p role="status" className="mb-2" data-testid="arrange-progress">
+          Trying layouts… {progress.iteration} tried; the best places {progress.placed} on {progress.sheets} sheet{progress.sheets === 1 ? '' : 's'}, {Math.round(progress.areaUsed * 100)} % of the print area.
+        </p>
+      )}
       {error && <p role="alert" className="mb-2 font-semibold text-alarm">{error}</p>}
       {result && (
         <p role="status" className="mb-2" data-testid="arrange-summary">
@@ -91,7 +114,9 @@ export function ArrangePanel({ store, outlines, onPreview, onClose }: { store: E
         </p>
       )}
       <div className="flex flex-wrap gap-2">
-        {!result ? (
+        {running ? (
+          <button type="button" onClick={stop} className="rounded-full bg-ink px-4 py-1 font-bold text-paper">Stop and keep the best so far</button>
+        ) : !result ? (
           <button type="button" onClick={start} disabled={waiting > 0} className="rounded-full bg-ink px-4 py-1 font-bold text-paper disabled:opacity-50">Arrange</button>
         ) : (
           <>
