@@ -103,6 +103,26 @@ describe('sheet editor in Chromium', { timeout: BROWSER_TEST_TIMEOUT }, () => {
     await page.close();
   });
 
+  it('"Add" puts a new piece at the first free spot, clear of the pieces already there, not on top of them in the centre', async () => {
+    const { team, users, client, art } = await teamWithArt();
+    const { body: sheet } = await client.post(`/api/teams/${team.id}/sheets`, { name: 'Add here' });
+    // One piece in the middle and one in the top-left corner.
+    await placePieces(client, team.id, sheet, [testPiece('mid', art[0].id, 85.7, 117.5), testPiece('corner', art[1].id, 30, 30)]);
+    const page = await t.browser.newPage({ viewport: { width: 1280, height: 900 } });
+    await signIn(page, users.member.email);
+    await page.goto(`${t.served.url}/t/${team.id}/sheets/${sheet.id}`);
+    await expect.poll(() => page.getByTestId('area-used').textContent(), { timeout: 20_000 }).toMatch(/^2 pieces · [1-9]/);
+    await page.getByRole('button', { name: `Add ${art[2].name} to the sheet` }).click();
+    await expect.poll(() => page.getByTestId('save-state').textContent(), { timeout: 15_000 }).toBe('All changes saved');
+    const pieces = (await sheetOf(client, team.id, sheet.id)).document.pieces as Piece[];
+    const added = pieces.find((p) => p.id !== 'mid' && p.id !== 'corner')!;
+    // Beside the corner piece on the top row, not at the centre where "mid" is.
+    expect(added.y).toBeLessThan(60);
+    expect(added.x).toBeGreaterThan(55);
+    await expect.poll(() => page.getByTestId('preflight-ok').count(), { timeout: 20_000 }).toBe(1);
+    await page.close();
+  });
+
   it('auto-arrange can be stopped: the best layout so far is previewed at once, long before the time is up', async () => {
     const { team, users, client, art } = await teamWithArt();
     const { body: sheet } = await client.post(`/api/teams/${team.id}/sheets`, { name: 'Stop early' });

@@ -12,6 +12,7 @@ import { usePieceOutlines } from '../api/outlines';
 import { saveAsCopy, sheetQueryOptions } from '../api/sheet';
 import type { ActionContext } from '../core/actions';
 import { handleKey, newPiece, runAction } from '../core/actions';
+import { firstFreeSpot } from '../core/arrange-plan';
 import { EditorStore } from '../core/editor-store';
 import { SheetStage } from '../render/sheet-stage';
 import { PreflightPanel } from './preflight-panel';
@@ -100,14 +101,18 @@ export function EditorPage({ teamId, sheet, canEdit }: { teamId: string; sheet: 
     return () => window.removeEventListener('keydown', onKey);
   }, [ctx]);
 
-  const addArt = (art: { artId: string; widthPx: number }, at?: { x: number; y: number }) => {
+  const addArt = (art: { artId: string; widthPx: number; heightPx?: number }, at?: { x: number; y: number }) => {
     const doc = store.getState().doc;
-    store.dispatch(commands.addPieces([newPiece(art.artId, at?.x ?? doc.printArea.width / 2, at?.y ?? doc.printArea.height / 2, Math.round(defaultWidthMm(art) * 100) / 100)]));
+    const piece = newPiece(art.artId, 0, 0, Math.round(defaultWidthMm(art) * 100) / 100);
+    // Dropped at a point: there. Added from the panel: the first free spot for a sticker that size.
+    const aspect = art.heightPx && art.widthPx ? art.heightPx / art.widthPx : 1;
+    const spot = at ?? firstFreeSpot(doc, outlines, { widthMm: piece.width + 2 * piece.border, heightMm: piece.width * aspect + 2 * piece.border });
+    store.dispatch(commands.addPieces([{ ...piece, x: spot.x, y: spot.y }]));
   };
   const onAddFromPanel = (item: ArtView) => {
     artNames.set(item.id, item.name);
     artLicences.set(item.id, item.licence?.kind ?? null);
-    addArt({ artId: item.id, widthPx: item.widthPx });
+    addArt({ artId: item.id, widthPx: item.widthPx, heightPx: item.heightPx });
   };
 
   const reloadTheirs = async () => {
