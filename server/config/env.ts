@@ -61,8 +61,8 @@ const envSchema = z.object({
   OUTLINE_THREADS: z.coerce.number().int().min(0).max(16).default(0),
   /** The job queues' Redis (scripts start a private one on 127.0.0.1:6390 unless this points elsewhere). */
   REDIS_URL: z.string().regex(/^rediss?:\/\//, 'REDIS_URL: give an address like redis://127.0.0.1:6390').default('redis://127.0.0.1:6390'),
-  /** Key prefix in Redis, so several deployments can share one. */
-  QUEUE_PREFIX: z.string().regex(/^[A-Za-z0-9_:-]+$/).default('sheetsmith'),
+  /** Key prefix in Redis, so several deployments can share one (default: one per database, `sheetsmith-<DB_NAME>`). */
+  QUEUE_PREFIX: z.string().regex(/^[A-Za-z0-9_:-]+$/).optional(),
   /** Run a job worker inside each app process (a laptop needs nothing else); off when workers run on their own. */
   WORKERS_EMBEDDED: z.enum(['true', 'false', '1', '0']).default('true').transform((v) => v === 'true' || v === '1'),
   /** Jobs one worker process runs at once. */
@@ -89,8 +89,10 @@ const envSchema = z.object({
 });
 
 export type LogLevel = NonNullable<z.infer<typeof envSchema>['LOG_LEVEL']>;
-export type Env = Omit<z.infer<typeof envSchema>, 'LOG_LEVEL'> & {
+export type Env = Omit<z.infer<typeof envSchema>, 'LOG_LEVEL' | 'QUEUE_PREFIX'> & {
   LOG_LEVEL: LogLevel;
+  /** Jobs belong to one database: apps and workers of one deployment share this; others never see its jobs. */
+  QUEUE_PREFIX: string;
   appUrl: string;
   dataDir: string;
   outboxDir: string;
@@ -120,6 +122,7 @@ export function loadEnv(source: NodeJS.ProcessEnv = process.env): Env {
   return {
     ...env,
     LOG_LEVEL: env.LOG_LEVEL ?? (env.NODE_ENV === 'test' ? 'silent' : 'info'),
+    QUEUE_PREFIX: env.QUEUE_PREFIX ?? `sheetsmith-${env.DB_NAME}`,
     appUrl: (env.APP_URL ?? `http://${env.HOST}:${env.PORT}`).replace(/\/$/, ''),
     dataDir,
     outboxDir: path.join(dataDir, 'outbox'),
