@@ -73,8 +73,8 @@ export class ExportsService {
       throw new AppError(409, 'preflight_errors', `Preflight found ${errors.length} error${errors.length === 1 ? '' : 's'}: ${errors.map((f) => f.message).join(' ')} Fix them, or confirm to export anyway.`);
     }
     const insert = await this.dataSource.query(
-      "INSERT INTO sheet_exports (team_id, sheet_id, sheet_version, status, options_json, document_json, findings_json, created_by, step) VALUES (?, ?, ?, 'running', ?, ?, ?, ?, 'Waiting for a worker')",
-      [teamId, sheetId, sheet.version, JSON.stringify(options), JSON.stringify(doc), JSON.stringify(findings.map((f) => `${f.severity.toUpperCase()}: ${f.message}`)), userId],
+      "INSERT INTO sheet_exports (team_id, sheet_id, sheet_version, status, options_json, document_json, findings_json, created_by, step, queue_prefix) VALUES (?, ?, ?, 'running', ?, ?, ?, ?, 'Waiting for a worker', ?)",
+      [teamId, sheetId, sheet.version, JSON.stringify(options), JSON.stringify(doc), JSON.stringify(findings.map((f) => `${f.severity.toUpperCase()}: ${f.message}`)), userId, this.queues.settings.prefix],
     );
     const id = String(insert.insertId);
     try {
@@ -186,9 +186,12 @@ export class ExportsService {
    * vanished with a wiped Redis) end as failed with the reason: no export stays "running" for ever.
    */
   async reconcile(ids?: string[]): Promise<number> {
+    // Only rows queued on this app's queue (or on none: rows from before the queue): another queue's
+    // jobs are not ours to judge.
+    const prefix = this.queues.settings.prefix;
     const rows: Array<{ id: string }> = ids?.length
-      ? await this.dataSource.query(`SELECT id FROM sheet_exports WHERE status = 'running' AND id IN (${ids.map(() => '?').join(',')})`, ids)
-      : await this.dataSource.query("SELECT id FROM sheet_exports WHERE status = 'running' AND created_at < NOW(3) - INTERVAL 5 SECOND LIMIT 500");
+      ? await this.dataSource.query(`SELECT id FROM sheet_exports WHERE status = 'running' AND (queue_prefix = ? OR queue_prefix IS NULL) AND id IN (${ids.map(() => '?').join(',')})`, [prefix, ...ids])
+      : await this.dataSource.query("SELECT id FROM sheet_exports WHERE status = 'running' AND (queue_prefix = ? OR queue_prefix IS NULL) AND created_at < NOW(3) - INTERVAL 5 SECOND LIMIT 500", [prefix]);
     let ended = 0;
     for (const { id } of rows) {
       const job = await this.queues.exportState(String(id)).catch(() => undefined);
