@@ -1,3 +1,4 @@
+import { MM_PER_INCH } from '../../../shared/units';
 import type { EntityManager } from 'typeorm';
 import { In } from 'typeorm';
 import type { ArtView, LicenceView } from '../../../shared/schemas/library';
@@ -8,7 +9,6 @@ import type { ArtItem } from './art-item.entity';
 import { keywordsOf } from './terms';
 import { collectionsOf } from './memberships';
 
-const MM_PER_INCH = 25.4;
 
 export function licenceView(licence: LicenceColumns, proofUrl: string | null): Omit<LicenceView, 'inheritedFrom'> | null {
   if (!licence.kind) return null;

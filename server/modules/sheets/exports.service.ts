@@ -1,5 +1,6 @@
 import type { DataSource } from 'typeorm';
 import type { ExportJobView, ExportRequest } from '../../../shared/schemas/exports';
+import { PAPER_SIZES } from '../../../shared/schemas/sheets';
 import { documentProblems } from '../../../shared/sheet/bounds';
 import type { Log } from '../../lib/log';
 import { exportFileType, listZip, readFromZip } from '../../engine/export/bundle';
@@ -155,7 +156,7 @@ export class ExportsService {
     }
     const paper = profile
       ? { paperWidthMm: profile.paperWidthMm, paperHeightMm: profile.paperHeightMm, areaXMm: profile.areaXMm, areaYMm: profile.areaYMm }
-      : { paperWidthMm: 215.9, paperHeightMm: 279.4, areaXMm: (215.9 - doc.printArea.width) / 2, areaYMm: (279.4 - doc.printArea.height) / 2 };
+      : { paperWidthMm: PAPER_SIZES.letter.width, paperHeightMm: PAPER_SIZES.letter.height, areaXMm: (PAPER_SIZES.letter.width - doc.printArea.width) / 2, areaYMm: (PAPER_SIZES.letter.height - doc.printArea.height) / 2 };
     let last = 0;
     // Progress writes run one after another and are awaited before the job is marked done.
     let writes = Promise.resolve();

@@ -1,5 +1,6 @@
 import type { DataSource } from 'typeorm';
 import type { ProfileInput, ProfileView } from '../../../shared/schemas/sheets';
+import { PAPER_SIZES } from '../../../shared/schemas/sheets';
 import { inchToMm } from '../../../shared/units';
 import { conflict, notFound } from '../../lib/errors';
 import { SheetProfile } from './sheet-profile.entity';
@@ -9,12 +10,12 @@ import { inTransaction } from '../../db/transaction';
 export const DEFAULT_PROFILE: ProfileInput = {
   name: 'Letter print-and-cut',
   paper: 'letter',
-  paperWidthMm: 215.9,
-  paperHeightMm: 279.4,
+  paperWidthMm: PAPER_SIZES.letter.width,
+  paperHeightMm: PAPER_SIZES.letter.height,
   areaWidthMm: inchToMm(6.75),
   areaHeightMm: inchToMm(9.25),
-  areaXMm: (215.9 - inchToMm(6.75)) / 2,
-  areaYMm: (279.4 - inchToMm(9.25)) / 2,
+  areaXMm: (PAPER_SIZES.letter.width - inchToMm(6.75)) / 2,
+  areaYMm: (PAPER_SIZES.letter.height - inchToMm(9.25)) / 2,
   safeMarginMm: inchToMm(0.125),
   minGapMm: inchToMm(0.125),
   // Common practice: stickers under about 0.5 in lift off the liner; necks under 1 mm tear.

@@ -1,3 +1,4 @@
+import { PAPER_SIZES } from '../../../shared/schemas/sheets';
 import sharp from 'sharp';
 import type { DataSource } from 'typeorm';
 import { In } from 'typeorm';
@@ -78,7 +79,7 @@ export class SheetAnalysisService {
       const art = arts.get(p.artId)?.name ?? 'Piece';
       return [p.id, same.length > 1 ? `${art} ${same.indexOf(p) + 1}` : art];
     }));
-    const paperArea = profile ? profile.paperWidthMm * profile.paperHeightMm : 215.9 * 279.4;
+    const paperArea = profile ? profile.paperWidthMm * profile.paperHeightMm : PAPER_SIZES.letter.width * PAPER_SIZES.letter.height;
     return { doc, outlines, stored, names, licences: await effectiveLicenceKinds(this.dataSource, teamId, ids), paperArea, limits };
   }
 
