@@ -178,6 +178,7 @@ export function createApp({
     app,
     close: async () => {
       clearInterval(reconciler);
+      await Promise.allSettled(workers.map((w) => w.waitUntilReady()));
       await Promise.all(workers.map((w) => w.close()));
       await queues.close();
       await store.close();

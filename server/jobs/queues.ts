@@ -54,6 +54,9 @@ export class JobQueues {
     this.outlines = new Queue<OutlineJobData>(QUEUE_NAMES.outlines, { connection: connection(settings.redisUrl), prefix: settings.prefix });
     // Every waiting request listens for its job: many at once is the normal case, not a leak.
     this.outlines.setMaxListeners(0);
+    // Redis errors surface where a job is added or awaited; an idle queue's own errors are not news.
+    this.exports.on('error', () => undefined);
+    this.outlines.on('error', () => undefined);
   }
 
   /**
@@ -97,7 +100,9 @@ export class JobQueues {
     await job?.remove().catch(() => undefined); // an active job is locked by its worker: it notices the cancel itself
   }
 
+  /** Closes the connections once they are up: closing one mid-handshake leaves ioredis a rejected command. */
   async close() {
+    await Promise.allSettled([this.exports.waitUntilReady(), this.outlines.waitUntilReady(), this.outlineEvents?.waitUntilReady()]);
     await this.outlineEvents?.close();
     await this.outlines.close();
     await this.exports.close();
