@@ -133,17 +133,20 @@ cleanup_db() {
   stop_db >/dev/null 2>&1
 }
 
-stop_db() {
-  if [ -f "$DB_PIDFILE" ]; then
-    local pid; pid="$(cat "$DB_PIDFILE")"
+# Stops the server whose pid file is $2 (named $1 in the log), waiting up to $3 quarter seconds.
+stop_by_pidfile() {
+  if [ -f "$2" ]; then
+    local pid; pid="$(cat "$2")"
     if kill -0 "$pid" 2>/dev/null; then
-      log "stopping MariaDB"
+      log "stopping $1"
       kill "$pid" 2>/dev/null || true
       local i
-      for i in $(seq 1 60); do kill -0 "$pid" 2>/dev/null || return 0; sleep 0.25; done
+      for i in $(seq 1 "$3"); do kill -0 "$pid" 2>/dev/null || return 0; sleep 0.25; done
     fi
   fi
 }
+
+stop_db() { stop_by_pidfile MariaDB "$DB_PIDFILE" 60; }
 
 ensure_redis_installed() {
   if command -v redis-server >/dev/null 2>&1; then return 0; fi
@@ -178,17 +181,7 @@ start_redis() {
   return 1
 }
 
-stop_redis() {
-  if [ -f "$REDIS_PIDFILE" ]; then
-    local pid; pid="$(cat "$REDIS_PIDFILE")"
-    if kill -0 "$pid" 2>/dev/null; then
-      log "stopping Redis"
-      kill "$pid" 2>/dev/null || true
-      local i
-      for i in $(seq 1 40); do kill -0 "$pid" 2>/dev/null || return 0; sleep 0.25; done
-    fi
-  fi
-}
+stop_redis() { stop_by_pidfile Redis "$REDIS_PIDFILE" 40; }
 
 # For EXIT traps: stops what this script started, even when the terminal or pipe is gone.
 cleanup_services() {

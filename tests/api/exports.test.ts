@@ -3,7 +3,7 @@ import sharp from 'sharp';
 import { describe, expect, it } from 'vitest';
 import { pieceOutlineQuery } from '../../shared/sheet/placement';
 import { svgArt } from '../helpers/art';
-import { Client, makeTeamWithRoles, useTestApp } from '../helpers/app';
+import { Client, binary, makeTeamWithRoles, useTestApp } from '../helpers/app';
 import { uploadFile } from '../helpers/library';
 import { placePieces, testPiece } from '../helpers/sheets';
 
@@ -19,11 +19,6 @@ async function sheetWithPieces(pieces: number) {
   return { team, users, member, sheet };
 }
 
-const binary = (res: import('superagent').Response, cb: (err: Error | null, body: Buffer) => void) => {
-  const parts: Buffer[] = [];
-  res.on('data', (c: Buffer) => parts.push(c));
-  res.on('end', () => cb(null, Buffer.concat(parts)));
-};
 
 async function waitFor(client: Client, url: string) {
   for (let i = 0; i < 120; i++) {
@@ -61,11 +56,6 @@ describe('sheet exports', () => {
     const { team, member, sheet, users } = await sheetWithPieces(2);
     const started = await member.post(`/api/teams/${team.id}/sheets/${sheet.id}/exports`, { dpi: 150 });
     const done = await waitFor(member, `/api/teams/${team.id}/sheets/${sheet.id}/exports/${started.body.id}`);
-    const binary = (res: import('superagent').Response, cb: (err: Error | null, body: Buffer) => void) => {
-      const parts: Buffer[] = [];
-      res.on('data', (c: Buffer) => parts.push(c));
-      res.on('end', () => cb(null, Buffer.concat(parts)));
-    };
     const zip = await JSZip.loadAsync((await member.get(done.downloadUrl).buffer(true).parse(binary)).body as Buffer);
     // IANA media types: image/png, image/svg+xml, application/pdf, image/vnd.dxf, text/plain.
     const types: Record<string, string> = { png: 'image/png', svg: 'image/svg+xml', pdf: 'application/pdf', dxf: 'image/vnd.dxf', txt: 'text/plain; charset=utf-8' };
@@ -98,11 +88,6 @@ describe('sheet exports', () => {
     const piece = testPiece('h1', art.id, 60, 60, { width: 50 });
     const { body: sheet } = await member.post(`/api/teams/${team.id}/sheets`, { name: 'Halo' });
     await placePieces(member, team.id, sheet, [piece]);
-    const binary = (res: import('superagent').Response, cb: (err: Error | null, body: Buffer) => void) => {
-      const parts: Buffer[] = [];
-      res.on('data', (c: Buffer) => parts.push(c));
-      res.on('end', () => cb(null, Buffer.concat(parts)));
-    };
     // The visible part is always printed 50 mm wide, so what the tolerance changes is how much of
     // it is plum: with the halo kept, the plum disc is (180/260)² ≈ 0.48 of what it is without.
     const opaque = async (png: Buffer) => {

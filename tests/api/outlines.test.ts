@@ -4,7 +4,7 @@ import { describe, expect, it } from 'vitest';
 import { ArtItem } from '../../server/modules/art/art-item.entity';
 import { OutlineCacheEntry } from '../../server/modules/outlines/outline-cache.entity';
 import { svgArt } from '../helpers/art';
-import { Client, makeTeamWithRoles, useTestApp } from '../helpers/app';
+import { Client, binary, makeTeamWithRoles, useTestApp } from '../helpers/app';
 import { pngPhys, pngSize } from '../helpers/png';
 import { uploadFile } from '../helpers/library';
 
@@ -126,11 +126,6 @@ describe('GET /api/teams/:teamId/art/:artId/background-removal.png', () => {
     const flat = await sharp(Buffer.from('<svg xmlns="http://www.w3.org/2000/svg" width="300" height="300"><rect width="300" height="300" fill="#fff"/><rect x="100" y="40" width="100" height="60" fill="#fcf4dc"/><rect x="100" y="100" width="100" height="160" fill="#f28c28"/></svg>')).flatten({ background: '#ffffff' }).png().toBuffer();
     const art = (await upload(member, team.id, flat, 'corn.png')).body.results[0].item;
     const url = (q: string) => `/api/teams/${team.id}/art/${art.id}/background-removal.png?${q}`;
-    const binary = (res: import('superagent').Response, cb: (err: Error | null, body: Buffer) => void) => {
-      const parts: Buffer[] = [];
-      res.on('data', (c: Buffer) => parts.push(c));
-      res.on('end', () => cb(null, Buffer.concat(parts)));
-    };
     const safe = await member.get(url('background=auto&backgroundTolerance=32')).buffer(true).parse(binary);
     expect(safe.status).toBe(200);
     expect(safe.headers['content-type']).toBe('image/png');

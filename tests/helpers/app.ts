@@ -130,3 +130,10 @@ export class Client {
     return res;
   }
 }
+
+/** A supertest parser that keeps any response body as raw bytes (images, zips, PDFs). */
+export const binary = (res: import('superagent').Response, cb: (err: Error | null, body: Buffer) => void) => {
+  const parts: Buffer[] = [];
+  res.on('data', (c: Buffer) => parts.push(c));
+  res.on('end', () => cb(null, Buffer.concat(parts)));
+};

@@ -110,26 +110,32 @@ describe('export: the PDF, read back with pdf.js (pdfjs-dist, Mozilla)', () => {
   });
 });
 
+/** pdf.js (pdfjs-dist, test-only) with the standard 14 fonts' data it needs to draw the check bar's label. */
+const loadPdf = async (data: Buffer) => {
+  const pdfjs = await import('pdfjs-dist/legacy/build/pdf.mjs');
+  const standardFontDataUrl = `${path.dirname(createRequire(import.meta.url).resolve('pdfjs-dist/package.json'))}/standard_fonts/`;
+  return pdfjs.getDocument({ data: new Uint8Array(data), useSystemFonts: false, isEvalSupported: false, standardFontDataUrl }).promise;
+};
+
+/** Page 1 rendered at 50 DPI on white with @napi-rs/canvas, with the optional content of `intent`. */
+async function renderPage(data: Buffer, intent: 'display' | 'print') {
+  const { createCanvas } = await import('@napi-rs/canvas');
+  const doc = await loadPdf(data);
+  const page = await doc.getPage(1);
+  const viewport = page.getViewport({ scale: 50 / 72 });
+  const canvas = createCanvas(Math.ceil(viewport.width), Math.ceil(viewport.height));
+  const ctx = canvas.getContext('2d');
+  ctx.fillStyle = '#fff';
+  ctx.fillRect(0, 0, canvas.width, canvas.height);
+  await page.render({ canvasContext: ctx as never, viewport, intent, optionalContentConfigPromise: doc.getOptionalContentConfig({ intent }) }).promise;
+  return { pixels: ctx.getImageData(0, 0, canvas.width, canvas.height).data, width: canvas.width };
+}
+
 describe('export: the PDF prints no cut lines (pdf.js, rendered with @napi-rs/canvas)', () => {
-  const load = async (data: Buffer) => {
-    const pdfjs = await import('pdfjs-dist/legacy/build/pdf.mjs');
-    // The standard 14 fonts' data ships with pdfjs-dist; pdf.js needs it to draw the check bar's label.
-    const standardFontDataUrl = `${path.dirname(createRequire(import.meta.url).resolve('pdfjs-dist/package.json'))}/standard_fonts/`;
-    return pdfjs.getDocument({ data: new Uint8Array(data), useSystemFonts: false, isEvalSupported: false, standardFontDataUrl }).promise;
-  };
-  /** Renders page 1 at 50 DPI for the given intent and counts magenta (the cut layer's tint) pixels. */
+  const load = loadPdf;
+  /** Counts magenta (the cut layer's tint) pixels on page 1 rendered for the given intent. */
   const magentaPixels = async (data: Buffer, intent: 'display' | 'print') => {
-    const { createCanvas } = await import('@napi-rs/canvas');
-    const doc = await load(data);
-    const page = await doc.getPage(1);
-    const viewport = page.getViewport({ scale: 50 / 72 });
-    const canvas = createCanvas(Math.ceil(viewport.width), Math.ceil(viewport.height));
-    const ctx = canvas.getContext('2d');
-    ctx.fillStyle = '#fff';
-    ctx.fillRect(0, 0, canvas.width, canvas.height);
-    const optionalContentConfigPromise = doc.getOptionalContentConfig({ intent });
-    await page.render({ canvasContext: ctx as never, viewport, intent, optionalContentConfigPromise }).promise;
-    const pixels = ctx.getImageData(0, 0, canvas.width, canvas.height).data;
+    const { pixels } = await renderPage(data, intent);
     let n = 0;
     for (let i = 0; i < pixels.length; i += 4) if (pixels[i] > 180 && pixels[i + 1] < 120 && pixels[i + 2] > 120) n++;
     return n;
@@ -181,22 +187,11 @@ describe('export: the PDF prints no cut lines (pdf.js, rendered with @napi-rs/ca
 
 describe('export: registration marks (a layout of our own; off by default)', () => {
   const marks = { shape: 'square' as const, sizeMm: 5, offsetMm: 5 };
-  /** Renders page 1 for print at 50 DPI with pdf.js and tells whether a paper point (mm) is near black. */
+  /** Page 1 rendered for print: whether a paper point (mm) is near black. */
   const printedDark = async (data: Buffer) => {
-    const pdfjs = await import('pdfjs-dist/legacy/build/pdf.mjs');
-    const { createCanvas } = await import('@napi-rs/canvas');
-    const standardFontDataUrl = `${path.dirname(createRequire(import.meta.url).resolve('pdfjs-dist/package.json'))}/standard_fonts/`;
-    const doc = await pdfjs.getDocument({ data: new Uint8Array(data), useSystemFonts: false, isEvalSupported: false, standardFontDataUrl }).promise;
-    const page = await doc.getPage(1);
-    const viewport = page.getViewport({ scale: 50 / 72 });
-    const canvas = createCanvas(Math.ceil(viewport.width), Math.ceil(viewport.height));
-    const ctx = canvas.getContext('2d');
-    ctx.fillStyle = '#fff';
-    ctx.fillRect(0, 0, canvas.width, canvas.height);
-    await page.render({ canvasContext: ctx as never, viewport, intent: 'print', optionalContentConfigPromise: doc.getOptionalContentConfig({ intent: 'print' }) }).promise;
-    const pixels = ctx.getImageData(0, 0, canvas.width, canvas.height).data;
+    const { pixels, width } = await renderPage(data, 'print');
     return (xMm: number, yMm: number) => {
-      const i = (Math.round((yMm / IN) * 50) * canvas.width + Math.round((xMm / IN) * 50)) * 4;
+      const i = (Math.round((yMm / IN) * 50) * width + Math.round((xMm / IN) * 50)) * 4;
       return pixels[i] < 60 && pixels[i + 1] < 60 && pixels[i + 2] < 60;
     };
   };
