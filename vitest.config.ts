@@ -2,7 +2,7 @@ import { defineConfig } from 'vitest/config';
 
 export default defineConfig({
   test: {
-    include: ['shared/**/*.test.ts', 'server/**/*.test.ts', 'tests/**/*.test.ts'],
+    include: ['shared/**/*.test.ts', 'src/**/*.test.ts', 'server/**/*.test.ts', 'tests/**/*.test.ts'],
     environment: 'node',
     globalSetup: ['tests/setup/global-setup.ts'],
     testTimeout: 30_000,

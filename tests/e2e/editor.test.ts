@@ -175,6 +175,57 @@ describe('sheet editor in Chromium', { timeout: BROWSER_TEST_TIMEOUT }, () => {
     await page.close();
   });
 
+  it('auto-arrange takes a quantity per art, refuses a bad one with the art named, and makes the further sheets a quantity needs', async () => {
+    const { team, users, client, art } = await teamWithArt();
+    const { body: sheet } = await client.post(`/api/teams/${team.id}/sheets`, { name: 'Ghost run' });
+    await placePieces(client, team.id, sheet, [testPiece('q0', art[0].id, 40, 40), testPiece('q1', art[1].id, 100, 40), testPiece('q2', art[2].id, 40, 120)]);
+    const page = await t.browser.newPage({ viewport: { width: 1280, height: 900 } });
+    await signIn(page, users.member.email);
+    await page.goto(`${t.served.url}/t/${team.id}/sheets/${sheet.id}`);
+    await expect.poll(() => page.getByTestId('area-used').textContent(), { timeout: 20_000 }).toMatch(/^3 pieces · [1-9]/);
+    await page.getByRole('button', { name: 'Auto-arrange…' }).click();
+    const dialog = page.getByRole('dialog', { name: 'Auto-arrange' });
+    // Kiss-cut pieces: the sheet is sold whole, so the run starts upright.
+    expect(await dialog.getByLabel('Turning').inputValue()).toBe('none');
+    expect(await dialog.textContent()).toContain('Kiss-cut sheets are sold whole');
+    const quantities = dialog.getByLabel(/^Quantity of /);
+    await expect.poll(() => quantities.count()).toBe(3);
+    const circle = dialog.getByLabel(`Quantity of ${art[0].name}`);
+    await circle.fill('0');
+    await dialog.getByLabel(`Quantity of ${art[1].name}`).fill('2.5');
+    const alert = dialog.getByRole('alert');
+    await expect.poll(() => alert.textContent()).toContain(`${art[0].name}: give a whole number of stickers from 1 to 500.`);
+    expect(await alert.textContent()).toContain(`${art[1].name}: give a whole number`);
+    expect(await dialog.getByRole('button', { name: 'Arrange' }).isDisabled()).toBe(true);
+    await circle.fill('40');
+    await dialog.getByLabel(`Quantity of ${art[1].name}`).fill('1');
+    await dialog.getByRole('button', { name: 'Arrange' }).click();
+    await expect.poll(() => page.getByTestId('arrange-summary').textContent(), { timeout: 20_000 }).toMatch(/The quantity needs \d+ sheets/);
+    const summary = (await page.getByTestId('arrange-summary').textContent())!;
+    const needed = Number(/needs (\d+) sheets/.exec(summary)![1]);
+    const onThis = Number(/^Preview: (\d+) of 42 placed/.exec(summary)![1]);
+    expect(needed).toBeGreaterThanOrEqual(2);
+    await page.waitForTimeout(600);
+    await screenshot(page, 'editor-arrange-quantities');
+    await dialog.getByRole('button', { name: 'Keep this layout' }).click();
+    await expect.poll(() => page.getByTestId('arrange-made').locator('a').count(), { timeout: 20_000 }).toBe(needed - 1);
+    await screenshot(page, 'editor-arrange-made');
+    // The panel still shows what was asked for, not the sheet as it is after keeping.
+    expect(await quantities.count()).toBe(3);
+    expect(await dialog.textContent()).not.toContain('Waiting for');
+    await dialog.getByRole('button', { name: 'Done' }).click();
+    await expect.poll(() => page.getByTestId('save-state').textContent(), { timeout: 15_000 }).toBe('All changes saved');
+    // Every sticker asked for is on exactly one sheet: this one and the ones made.
+    const { body: list } = await client.get(`/api/teams/${team.id}/sheets`);
+    const further = (list.sheets as Array<{ id: string; name: string }>).filter((s) => s.name.startsWith('Ghost run · sheet '));
+    expect(further.map((s) => s.name).sort()).toEqual(Array.from({ length: needed - 1 }, (_, i) => `Ghost run · sheet ${i + 2} of ${needed}`).sort());
+    const docs = [await sheetOf(client, team.id, sheet.id), ...(await Promise.all(further.map((s) => sheetOf(client, team.id, s.id))))].map((d) => d.document.pieces as Piece[]);
+    expect(docs[0]).toHaveLength(onThis);
+    const byArt = (id: string) => docs.flat().filter((p) => p.artId === id).length;
+    expect([byArt(art[0].id), byArt(art[1].id), byArt(art[2].id)]).toEqual([40, 1, 1]);
+    await page.close();
+  });
+
   it('opens sheets read-only for a viewer', async () => {
     const { team, users, client, art } = await teamWithArt();
     const { body: sheet } = await client.post(`/api/teams/${team.id}/sheets`, { name: 'Look only' });

@@ -1,23 +1,52 @@
-import { useRef, useState } from 'react';
+import { useMemo, useRef, useState } from 'react';
+import { Link } from 'react-router';
 import type { ArrangeProgress, ArrangeResult } from '../../../../shared/arrange/nester';
 import { applyDiff } from '../../../../shared/sheet/commands';
 import type { Command } from '../../../../shared/sheet/commands';
 import type { PieceOutline } from '../api/outlines';
+import type { SheetDocument } from '../../../../shared/sheet/document';
 import type { ArrangeChoice } from '../core/arrange-plan';
-import { arrangeCommand, planArrange } from '../core/arrange-plan';
+import { arrangeCommand, arrangeGroups, defaultTurning, furtherSheets, MAX_QUANTITY, parseQuantity, planArrange } from '../core/arrange-plan';
 import type { EditorStore } from '../core/editor-store';
 
+type Props = {
+  store: EditorStore;
+  outlines: Map<string, { outline: PieceOutline | undefined }>;
+  nameOf: (artId: string) => string;
+  onPreview: (doc: SheetDocument | null) => void;
+  /** Saves the further sheets a quantity needs; answers their ids and names. */
+  onFurtherSheets: (docs: SheetDocument[]) => Promise<Array<{ id: string; name: string }>>;
+  sheetLink: (id: string) => string;
+  onClose: () => void;
+};
+
 /**
- * Arrange options, a run in a Web Worker with progress, then a preview on the canvas that the user
- * keeps (one undo step) or throws away.
+ * Arrange options (which pieces, how many of each, turning, time), a run in a Web Worker with
+ * progress, then a preview on the canvas that the user keeps (one undo step, plus any further sheets
+ * a quantity needs, made as new sheets) or throws away.
  */
-export function ArrangePanel({ store, outlines, onPreview, onClose }: { store: EditorStore; outlines: Map<string, { outline: PieceOutline | undefined }>; onPreview: (doc: ReturnType<EditorStore['getState']>['doc'] | null) => void; onClose: () => void }) {
-  const [choice, setChoice] = useState<ArrangeChoice>({ scope: store.getState().selection.size > 1 ? 'selection' : 'sheet', rotate: '90', fill: false, seconds: 2, seed: 1 });
+export function ArrangePanel({ store, outlines, nameOf, onPreview, onFurtherSheets, sheetLink, onClose }: Props) {
+  const [choice, setChoice] = useState<ArrangeChoice>(() => {
+    const s = store.getState();
+    const scope = s.selection.size > 1 ? 'selection' : 'sheet';
+    return { scope, rotate: defaultTurning([...arrangeGroups(s.doc, s.selection, scope).values()].flat()), fill: false, seconds: 2, seed: 1 };
+  });
+  const groups = useMemo(() => {
+    const s = store.getState();
+    return [...arrangeGroups(s.doc, s.selection, choice.scope)].map(([key, pieces]) => ({ key, name: nameOf(pieces[0].artId), count: pieces.length, die: pieces.every((p) => p.cut === 'die') }));
+    // Read when the panel opens or the scope changes, not after a kept layout has changed the sheet.
+  }, [store, choice.scope]); // eslint-disable-line react-hooks/exhaustive-deps
+  const [typed, setTyped] = useState<Record<string, string>>({});
+  const parsed = groups.map((g) => ({ ...g, q: parseQuantity(typed[g.key] ?? String(g.count), g.name) }));
+  const quantityErrors = choice.fill ? [] : parsed.flatMap((g) => ('error' in g.q ? [g.q.error] : []));
+  const [made, setMade] = useState<Array<{ id: string; name: string }> | null>(null);
+  const [making, setMaking] = useState(false);
+  const [kept, setKept] = useState(false);
   const [progress, setProgress] = useState<ArrangeProgress | null>(null);
-  const [result, setResult] = useState<{ command: Command; summary: ArrangeResult } | null>(null);
+  const [result, setResult] = useState<{ command: Command; summary: ArrangeResult; further: SheetDocument[] } | null>(null);
   const [error, setError] = useState<string | null>(null);
   const worker = useRef<Worker | null>(null);
-  const best = useRef<{ result: ArrangeResult; groups: ReturnType<typeof planArrange>['groups']; doc: ReturnType<EditorStore['getState']>['doc'] } | null>(null);
+  const best = useRef<{ result: ArrangeResult; groups: ReturnType<typeof planArrange>['groups']; doc: SheetDocument } | null>(null);
   const running = progress !== null && !result && !error;
 
   const state0 = store.getState();
@@ -27,7 +56,9 @@ export function ArrangePanel({ store, outlines, onPreview, onClose }: { store: E
     setError(null);
     setResult(null);
     const state = store.getState();
-    const plan = planArrange(state.doc, state.selection, outlines, choice);
+    if (quantityErrors.length) return;
+    const quantities = choice.fill ? undefined : Object.fromEntries(parsed.flatMap((g) => ('value' in g.q ? [[g.key, g.q.value]] : [])));
+    const plan = planArrange(state.doc, state.selection, outlines, { ...choice, quantities }, nameOf);
     if (plan.items.length === 0) {
       setError('Nothing to arrange: choose pieces that are not locked, and wait for their outlines.');
       return;
@@ -43,16 +74,39 @@ export function ArrangePanel({ store, outlines, onPreview, onClose }: { store: E
       if (message.type === 'error') setError(message.message);
       if (message.type === 'done') finish(plan.groups, state.doc, message.result);
     };
+    w.onerror = () => {
+      setError('Arranging stopped unexpectedly; nothing was changed. Try again, or with fewer pieces.');
+      setProgress(null);
+    };
     w.postMessage({ items: plan.items, options: plan.options, locked: plan.locked });
   };
 
-  const finish = (groups: ReturnType<typeof planArrange>['groups'], doc: ReturnType<EditorStore['getState']>['doc'], summary: ArrangeResult) => {
+  const finish = (groups: ReturnType<typeof planArrange>['groups'], doc: SheetDocument, summary: ArrangeResult) => {
     worker.current?.terminate();
     worker.current = null;
     const command = arrangeCommand(groups, summary);
     setProgress(null);
-    setResult({ command, summary });
+    setResult({ command, summary, further: furtherSheets(doc, groups, summary) });
     onPreview(applyDiff(doc, command.diff));
+  };
+
+  const keep = async () => {
+    if (!result || making) return;
+    if (!kept) {
+      store.dispatch(result.command);
+      setKept(true);
+    }
+    if (result.further.length === 0) return close();
+    setMaking(true);
+    setError(null);
+    try {
+      setMade(await onFurtherSheets(result.further));
+      onPreview(null);
+    } catch {
+      setError(`This sheet is arranged, but the ${result.further.length} new sheet${result.further.length === 1 ? '' : 's'} could not be saved (is the connection down?). Press “Make the new sheets” to try again; nothing here is lost.`);
+    } finally {
+      setMaking(false);
+    }
   };
 
   /** Stops the search at once and previews the best layout found so far. */
@@ -91,6 +145,27 @@ export function ArrangePanel({ store, outlines, onPreview, onClose }: { store: E
           </select>
         </label>
         <label className="flex items-center gap-2 font-bold"><input type="checkbox" checked={choice.fill} onChange={(e) => setChoice({ ...choice, fill: e.target.checked })} />Fill the sheet with more copies</label>
+        {!choice.fill && groups.length > 0 && (
+          <div className="flex max-h-40 flex-col gap-1 overflow-y-auto" data-testid="arrange-quantities">
+            <span className="font-bold">How many of each</span>
+            {parsed.map((g) => (
+              <label key={g.key} className="flex items-center justify-between gap-2">
+                <span className="truncate" title={g.name}>{g.name}</span>
+                <input
+                  type="number"
+                  inputMode="numeric"
+                  min={1}
+                  max={MAX_QUANTITY}
+                  aria-label={`Quantity of ${g.name}`}
+                  aria-invalid={'error' in g.q}
+                  value={typed[g.key] ?? String(g.count)}
+                  onChange={(e) => setTyped({ ...typed, [g.key]: e.target.value })}
+                  className={`w-20 rounded border-2 px-1 text-right ${'error' in g.q ? 'border-alarm' : 'border-paper-edge'}`}
+                />
+              </label>
+            ))}
+          </div>
+        )}
         <label className="flex items-center justify-between font-bold">
           Try for
           <select value={choice.seconds} onChange={(e) => setChoice({ ...choice, seconds: Number(e.target.value) })} className="rounded border-2 border-paper-edge px-1">
@@ -98,8 +173,15 @@ export function ArrangePanel({ store, outlines, onPreview, onClose }: { store: E
           </select>
         </label>
       </fieldset>
-      {waiting > 0 && <p role="status" className="mb-2">Waiting for {waiting} outline{waiting === 1 ? '' : 's'}…</p>}
-      <p className="mb-2 text-xs text-ink-soft">Quarter turns and any angle may turn art upside down (180°): keep stickers upright for sheets sold whole.</p>
+      {!result && waiting > 0 && <p role="status" className="mb-2">Waiting for {waiting} outline{waiting === 1 ? '' : 's'}…</p>}
+      <p className="mb-2 text-xs text-ink-soft">
+        {groups.length > 0 && groups.every((g) => g.die) ? 'Die-cut stickers are sold one by one, so they may turn a quarter to fit more.' : 'Kiss-cut sheets are sold whole, so their stickers stay upright unless you choose turning.'} Quarter turns and any angle may turn art upside down (180°).
+      </p>
+      {quantityErrors.length > 0 && (
+        <ul role="alert" className="mb-2 list-disc pl-4 font-semibold text-alarm">
+          {quantityErrors.map((m) => <li key={m}>{m}</li>)}
+        </ul>
+      )}
       {progress && !result && (
         <p role="status" className="mb-2" data-testid="arrange-progress">
           Trying layouts… {progress.iteration} tried; the best places {progress.placed} on {progress.sheets} sheet{progress.sheets === 1 ? '' : 's'}, {Math.round(progress.areaUsed * 100)} % of the print area.
@@ -111,20 +193,31 @@ export function ArrangePanel({ store, outlines, onPreview, onClose }: { store: E
           Preview: {result.summary.placements.filter((p) => p.sheet === 0).length} of {result.summary.requested} placed
           {result.command.diff.added.length > 0 && `, ${result.command.diff.added.length} copies added`} · {Math.round(result.summary.areaUsed[0] * 100)} % of the print area.
           {result.summary.unplaced.length > 0 && ` ${result.summary.unplaced.map((u) => u.reason).join(' ')}`}
+          {result.further.length > 0 && ` The quantity needs ${result.further.length + 1} sheets: ${result.summary.placements.filter((p) => p.sheet > 0).length} more go on ${result.further.length} new sheet${result.further.length === 1 ? '' : 's'}, made when you keep this layout.`}
         </p>
+      )}
+      {made && (
+        <div role="status" className="mb-2" data-testid="arrange-made">
+          <p className="font-bold">Made {made.length} new sheet{made.length === 1 ? '' : 's'}:</p>
+          <ul className="list-disc pl-4">
+            {made.map((m) => <li key={m.id}><Link to={sheetLink(m.id)} className="underline">{m.name}</Link></li>)}
+          </ul>
+        </div>
       )}
       <div className="flex flex-wrap gap-2">
         {running ? (
           <button type="button" onClick={stop} className="rounded-full bg-ink px-4 py-1 font-bold text-paper">Stop and keep the best so far</button>
+        ) : made ? (
+          <button type="button" onClick={close} className="rounded-full bg-ink px-4 py-1 font-bold text-paper">Done</button>
         ) : !result ? (
-          <button type="button" onClick={start} disabled={waiting > 0} className="rounded-full bg-ink px-4 py-1 font-bold text-paper disabled:opacity-50">Arrange</button>
+          <button type="button" onClick={start} disabled={waiting > 0 || quantityErrors.length > 0} className="rounded-full bg-ink px-4 py-1 font-bold text-paper disabled:opacity-50">Arrange</button>
         ) : (
           <>
-            <button type="button" onClick={() => { store.dispatch(result.command); close(); }} className="rounded-full bg-ink px-4 py-1 font-bold text-paper">Keep this layout</button>
-            <button type="button" onClick={() => { setResult(null); onPreview(null); }} className="rounded-full border-2 border-ink px-3 py-1 font-bold">Try again</button>
+            <button type="button" onClick={() => void keep()} disabled={making} className="rounded-full bg-ink px-4 py-1 font-bold text-paper disabled:opacity-50">{making ? 'Making sheets…' : kept ? 'Make the new sheets' : 'Keep this layout'}</button>
+            <button type="button" onClick={() => { setResult(null); onPreview(null); }} disabled={making || kept} className="rounded-full border-2 border-ink px-3 py-1 font-bold">Try again</button>
           </>
         )}
-        <button type="button" onClick={close} className="rounded-full border-2 border-paper-edge px-3 py-1 font-bold">{result ? 'Discard' : 'Cancel'}</button>
+        {!made && <button type="button" onClick={close} disabled={making} className="rounded-full border-2 border-paper-edge px-3 py-1 font-bold">{kept ? 'Close' : result ? 'Discard' : 'Cancel'}</button>}
       </div>
     </section>
   );

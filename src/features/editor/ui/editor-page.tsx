@@ -203,7 +203,25 @@ export function EditorPage({ teamId, sheet, canEdit }: { teamId: string; sheet: 
           }}
         />
         {exporting && <ExportPanel teamId={teamId} sheetId={sheet.id} unsaved={state.save !== 'saved'} findings={findings} areaText={`${formatLength(state.doc.printArea.width, unit)} × ${formatLength(state.doc.printArea.height, unit)}`} printing={sheet.printing} formatLength={(mm) => formatLength(mm, unit)} onClose={() => setExporting(false)} />}
-        {arranging && <ArrangePanel store={store} outlines={outlines} onPreview={setPreview} onClose={() => setArranging(false)} />}
+        {arranging && (
+          <ArrangePanel
+            store={store}
+            outlines={outlines}
+            nameOf={(id) => artNames.get(id) ?? 'Piece'}
+            onPreview={setPreview}
+            onFurtherSheets={async (docs) => {
+              const s = store.getState();
+              const made: Array<{ id: string; name: string }> = [];
+              for (const [i, doc] of docs.entries()) {
+                const name = `${s.meta.name.slice(0, 100)} · sheet ${i + 2} of ${docs.length + 1}`;
+                made.push({ id: await saveAsCopy(teamId, name, s.meta.unit, doc), name });
+              }
+              return made;
+            }}
+            sheetLink={(id) => `/t/${teamId}/sheets/${id}`}
+            onClose={() => setArranging(false)}
+          />
+        )}
         </div>
         <aside className="flex min-h-0 flex-col gap-4 overflow-auto rounded-sticker border-2 border-paper-edge bg-white p-3" aria-label="Selection and checks">
           <section aria-labelledby="sel-title">
