@@ -1,4 +1,5 @@
 import { z } from 'zod';
+import './messages';
 
 /** The one error shape every API route answers with. */
 export const apiErrorSchema = z.object({

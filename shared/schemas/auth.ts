@@ -1,4 +1,5 @@
 import { z } from 'zod';
+import './messages';
 import { ROLES } from '../permissions';
 import { LENGTH_UNITS } from '../units';
 

@@ -1,4 +1,5 @@
 import { z } from 'zod';
+import './messages';
 
 export const exportRequestSchema = z.object({
   dpi: z.coerce.number({ error: 'Choose a resolution' }).int().min(150, 'At least 150 DPI').max(600, 'At most 600 DPI').default(300),

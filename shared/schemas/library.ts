@@ -1,4 +1,5 @@
 import { z } from 'zod';
+import './messages';
 import { DEFAULT_TOLERANCE } from './outline';
 import { idSchema } from './team';
 
@@ -15,7 +16,7 @@ export const licenceSchema = z
     kind: z.enum(LICENCE_KINDS, { error: 'Pick a licence kind' }),
     source: z.string().trim().max(300, 'Use at most 300 characters').optional().default(''),
     notes: z.string().trim().max(4000, 'Use at most 4000 characters').optional().default(''),
-    unitLimit: z.coerce.number().int('Whole units').min(1, 'At least 1 unit').max(10_000_000).nullable().optional(),
+    unitLimit: z.coerce.number({ error: 'Units allowed: give a whole number, like 500' }).int('Units allowed: a whole number, like 500').min(1, 'Units allowed: at least 1').max(10_000_000, 'Units allowed: at most 10,000,000').nullable().optional(),
   })
   .refine((l) => l.kind !== 'commercial_limited' || (l.unitLimit ?? null) !== null, {
     message: 'Give the number of units the licence allows',

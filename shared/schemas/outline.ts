@@ -1,4 +1,5 @@
 import { z } from 'zod';
+import './messages';
 import { parseLength, inchToMm } from '../units';
 
 /** A length given as "2in", "3mm", "0.5\"" or a bare number of millimetres. */

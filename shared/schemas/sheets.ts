@@ -1,4 +1,5 @@
 import { z } from 'zod';
+import './messages';
 import { sheetDocumentSchema } from '../sheet/document';
 import { idSchema } from './team';
 

@@ -1,4 +1,5 @@
 import { z } from 'zod';
+import './messages';
 import type { Coverage } from '../production/coverage';
 import type { CostBreakdown } from '../production/cost';
 import type { Finding } from '../sheet/preflight';

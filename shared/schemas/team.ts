@@ -1,4 +1,5 @@
 import { z } from 'zod';
+import './messages';
 import { ROLES } from '../permissions';
 import { emailSchema } from './auth';
 

@@ -1,4 +1,5 @@
 import { z } from 'zod';
+import '../schemas/messages';
 
 /**
  * The sheet document: a plain, serialisable record shared by the editor, the server, the arrange
