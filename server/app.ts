@@ -163,7 +163,8 @@ export function createApp({
   api.use(shopRouter({ dataSource, sheets, stock, machines, runs, costing, analysis }));
   api.use(collectionsRouter({ dataSource, collections }));
   api.use(outlinesRouter({ dataSource, art, outlines }));
-  if (mailer.outboxDir && env.NODE_ENV !== 'production') api.use(outboxRouter(mailer.outboxDir));
+  // The outbox holds reset links: listed in development and on a laptop (demo mode: loopback only), never on a shop's server.
+  if (mailer.outboxDir && (env.NODE_ENV !== 'production' || env.demoMode)) api.use(outboxRouter(mailer.outboxDir));
   extraApi?.(api);
   api.use(apiNotFound);
   api.use(errorHandler);

@@ -1,6 +1,7 @@
 import type { ErrorRequestHandler, RequestHandler } from 'express';
 import { ERROR_CODES } from '../../shared/schemas/api-error';
 import { AppError } from '../lib/errors';
+import { sizeText } from './uploads';
 import { OutlineInputError } from '../engine/outline/errors';
 import { OutlinePoolBusyError } from '../engine/outline/pool';
 
@@ -22,7 +23,7 @@ export function isDatabaseUnreachable(error: unknown, depth = 0): boolean {
 export const DATABASE_RETRY_SECONDS = 5;
 
 export const apiNotFound: RequestHandler = (req, res) => {
-  res.status(404).json({ error: { code: ERROR_CODES.notFound, message: `No API route ${req.method} ${req.path}.` } });
+  res.status(404).json({ error: { code: ERROR_CODES.notFound, message: 'Sheetsmith has no such page or action. Check the address, or go back and try again.' } });
 };
 
 /** One error shape for every failure: `{ error: { code, message, fields? } }`. */
@@ -64,11 +65,15 @@ export const errorHandler: ErrorRequestHandler = (err, req, res, _next) => {
     return;
   }
   if (err?.type === 'entity.too.large' || err?.code === 'LIMIT_FILE_SIZE') {
-    res.status(413).json({ error: { code: ERROR_CODES.payloadTooLarge, message: 'That upload is too large.' } });
+    const limit = typeof err.limit === 'number' ? `the ${sizeText(err.limit)}` : 'what';
+    res.status(413).json({ error: { code: ERROR_CODES.payloadTooLarge, message: `That is more than ${limit} one change may carry. Nothing was saved; make the change in smaller steps.` } });
     return;
   }
   if (typeof err?.status === 'number' && err.status >= 400 && err.status < 500) {
-    res.status(err.status).json({ error: { code: 'bad_request', message: String(err.message ?? 'Bad request') } });
+    // Other client mistakes from body parsing (an aborted body, an unknown charset): logged as they
+    // are, answered in words; the library's own text is for us, not the maker.
+    (req.log ?? console).warn({ err }, 'request refused before routing');
+    res.status(err.status).json({ error: { code: 'bad_request', message: 'The request could not be read. Reload the page and try again; nothing was changed.' } });
     return;
   }
   (req.log ?? console).error({ err }, 'unexpected error');

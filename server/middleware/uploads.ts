@@ -8,7 +8,7 @@ export type UploadLimits = { maxBytes: number; fields: number; fieldBytes: numbe
 /** A licence proof: one file of up to 10 MB and nothing much besides. */
 export const PROOF_LIMITS: UploadLimits = { maxBytes: 10 * 1024 * 1024, fields: 4, fieldBytes: 1024 };
 
-const sizeText = (bytes: number) => (bytes >= 1024 * 1024 ? `${Math.round(bytes / (1024 * 1024))} MB` : `${Math.max(1, Math.round(bytes / 1024))} KB`);
+export const sizeText = (bytes: number) => (bytes >= 1024 * 1024 ? `${Math.round(bytes / (1024 * 1024))} MB` : `${Math.max(1, Math.round(bytes / 1024))} KB`);
 
 /**
  * One file in `field`, held in memory, with every multer limit set: file size, number of files,

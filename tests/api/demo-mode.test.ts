@@ -24,6 +24,22 @@ describe('demo mode', () => {
     expect(loadEnv({ ...base, HOST: '0.0.0.0', SESSION_SECRET: 'a-secret-of-this-shop-only-0123456789', DEMO: 'on' }).demoMode).toBe(false);
   });
 
+  it('npm start on a laptop (production build, demo mode on, no SMTP) lists the outbox, where invites and resets go; a live shop does not', async () => {
+    const laptop = testApp(t.db, { NODE_ENV: 'production', demoMode: true });
+    const live = testApp(t.db, { NODE_ENV: 'production', demoMode: false });
+    try {
+      const listed = await new Client(laptop.app).get('/api/dev/outbox');
+      expect(listed.status).toBe(200);
+      expect(Array.isArray(listed.body.messages)).toBe(true);
+      const hidden = await new Client(live.app).get('/api/dev/outbox');
+      expect(hidden.status).toBe(404);
+      expect(hidden.body.error.message).not.toMatch(/No API route|GET/);
+    } finally {
+      await laptop.close();
+      await live.close();
+    }
+  });
+
   it('refuses to start on a non-loopback HOST with a published session secret, saying why', () => {
     expect(() => loadEnv({ NODE_ENV: 'test', HOST: '0.0.0.0' } as NodeJS.ProcessEnv)).toThrow(/SESSION_SECRET is the published default/);
     expect(() => loadEnv({ NODE_ENV: 'test', HOST: '10.1.2.3', SESSION_SECRET: 'change-me-to-a-long-random-string' } as NodeJS.ProcessEnv)).toThrow(/openssl rand/);

@@ -1,6 +1,7 @@
 import sharp from 'sharp';
 import { describe, expect, it } from 'vitest';
 import { Sheet } from '../../server/modules/sheets/sheet.entity';
+import { zipSync } from 'fflate';
 import { svgArt } from '../helpers/art';
 import { Client, makeTeamWithRoles, useTestApp } from '../helpers/app';
 import { uploadFile } from '../helpers/library';
@@ -108,6 +109,34 @@ describe('multipart uploads', () => {
       expect(res.status, label).toBe(400);
       expect(res.body.error.message, label).toMatch(/upload (was cut off|could not be read)/i);
     }
+  });
+});
+
+describe('refusals of the request itself say what to do', () => {
+  it('a body over the 1 MB a request may carry is refused with the limit named, and nothing is saved', async () => {
+    const { team, member, sheet } = await shop();
+    await member.refreshCsrf();
+    const res = await member.agent.put(`/api/teams/${team.id}/sheets/${sheet.id}`).set('x-csrf-token', member.csrf).send({ version: 1, name: 'x'.repeat(1_200_000) });
+    expect(res.status).toBe(413);
+    expect(res.body.error.message).toBe('That is more than the 1 MB one change may carry. Nothing was saved; make the change in smaller steps.');
+    expect((await member.get(`/api/teams/${team.id}/sheets/${sheet.id}`)).body.version).toBe(1);
+  });
+
+  it('a zip cut short or not a zip at all is refused in a maker’s words, not the unzip library’s', async () => {
+    const { team, member } = await shop();
+    const zip = Buffer.from(zipSync({ 'a.png': await svgArt(40, 40, '<rect width="40" height="40" fill="#c0392b"/>') }));
+    for (const [label, bytes] of [['cut short', zip.subarray(0, zip.length - 30)], ['only its first bytes a zip', Buffer.concat([Buffer.from([0x50, 0x4b, 0x03, 0x04]), Buffer.from('the rest is only text')])]] as const) {
+      const res = await uploadFile(member, team.id, bytes, 'pack.zip');
+      expect(res.status, label).toBe(422);
+      expect(res.body.error.message, label).toBe('This zip could not be opened: it is damaged or was only partly downloaded. Download the pack again, or unzip it yourself and upload the images. Nothing from this zip was stored.');
+    }
+  });
+
+  it('an address the API does not have is a 404 in words, without the method and path echoed', async () => {
+    const { member } = await shop();
+    const res = await member.get('/api/no-such-place');
+    expect(res.status).toBe(404);
+    expect(res.body.error.message).toBe('Sheetsmith has no such page or action. Check the address, or go back and try again.');
   });
 });
 

@@ -22,6 +22,7 @@ export type PackImage = { path: string; folders: string[]; data: Buffer };
 export type PackSkip = { path: string; reason: string };
 
 const IMAGE = /\.(png|jpe?g|webp)$/i;
+const DAMAGED = 'This zip could not be opened: it is damaged or was only partly downloaded. Download the pack again, or unzip it yourself and upload the images.';
 const refused = (message: string) => new AppError(422, 'zip_refused', `${message} Nothing from this zip was stored.`);
 
 function open(buffer: Buffer): Promise<ZipFile> {
@@ -59,7 +60,7 @@ export async function readPack(buffer: Buffer, limits: PackLimits = DEFAULT_PACK
   try {
     zip = await open(buffer);
   } catch (error) {
-    throw refused(`This zip could not be read (${(error as Error).message}).`);
+    throw refused(DAMAGED);
   }
   if (zip.entryCount > limits.maxEntries) {
     zip.close();
@@ -122,7 +123,8 @@ export async function readPack(buffer: Buffer, limits: PackLimits = DEFAULT_PACK
 function describe(error: unknown): AppError {
   const message = String((error as Error)?.message ?? error);
   if (/invalid relative path|absolute path|invalid characters/i.test(message)) {
-    return refused(`The zip holds a path that points outside its own folder (${message.replace(/^.*?: /, '')}).`);
+    const name = message.replace(/^.*?: /, '').slice(0, 120);
+    return refused(`The zip holds a file ("${name}") whose path points outside the zip's own folder, which Sheetsmith never unpacks. Unzip the pack yourself and upload the images.`);
   }
-  return refused(`This zip is damaged (${message}).`);
+  return refused(DAMAGED);
 }
