@@ -101,10 +101,10 @@ export const RUN_RESULT_LABELS: Record<(typeof RUN_RESULTS)[number], string> = {
 
 export const printRunInputSchema = z
   .object({
-    sheetId: idSchema,
-    copies: z.coerce.number({ error: 'Copies: give a number' }).int().min(1, 'At least 1 copy').max(1000, 'At most 1000 copies'),
-    wasted: z.coerce.number().int().min(0).max(1000).optional(),
-    stockId: idSchema,
+    sheetId: z.string({ error: 'Choose the sheet you printed' }).regex(/^\d{1,18}$/, 'Choose the sheet you printed'),
+    copies: z.coerce.number({ error: 'Copies: give a number' }).int('Copies: a whole number').min(1, 'At least 1 copy').max(1000, 'At most 1000 copies'),
+    wasted: z.coerce.number({ error: 'Wasted: give a number of sheets' }).int('Wasted: a whole number of sheets').min(0, 'Wasted: not below 0').max(1000, 'Wasted: at most 1000 sheets').optional(),
+    stockId: z.string({ error: 'Choose the stock you printed on' }).regex(/^\d{1,18}$/, 'Choose the stock you printed on'),
     printerId: idSchema.nullable().default(null),
     cutterId: idSchema.nullable().default(null),
     printerSettings: printerSettingsSchema.optional(),

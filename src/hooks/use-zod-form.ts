@@ -1,4 +1,4 @@
-import { useState } from 'react';
+import { useRef, useState } from 'react';
 import type { FormEvent } from 'react';
 import type { z } from 'zod';
 import { ApiError } from '../lib/api-client';
@@ -24,8 +24,11 @@ export function useZodForm<S extends z.ZodType>(schema: S, initial: Values) {
     },
   });
 
+  // A second submit while the first is still on its way is dropped: a double click sends once.
+  const submitting = useRef(false);
   const handleSubmit = (submit: (data: z.output<S>) => Promise<unknown>) => async (event: FormEvent) => {
     event.preventDefault();
+    if (submitting.current) return;
     setFormError(null);
     const parsed = schema.safeParse(values);
     if (!parsed.success) {
@@ -36,6 +39,7 @@ export function useZodForm<S extends z.ZodType>(schema: S, initial: Values) {
       return;
     }
     setFieldErrors({});
+    submitting.current = true;
     try {
       await submit(parsed.data);
     } catch (error) {
@@ -45,6 +49,8 @@ export function useZodForm<S extends z.ZodType>(schema: S, initial: Values) {
       } else {
         setFormError('Something went wrong. Nothing was lost; try again.');
       }
+    } finally {
+      submitting.current = false;
     }
   };
 

@@ -64,11 +64,21 @@ describe('print shop in Chromium', { timeout: BROWSER_TEST_TIMEOUT }, () => {
     expect(await form.getByLabel('Material setting').inputValue()).toBe('Matte sticker');
     await form.getByLabel('Pressure').fill('5');
     await form.getByLabel('Notes').fill('Berry corner lifted');
-    await form.getByRole('button', { name: 'Log run' }).click();
+    // A double click logs the run once.
+    await form.getByRole('button', { name: 'Log run' }).dblclick();
     const metres = ((3 * analysis.cutLengthMm) / 1000).toFixed(2);
     await expect.poll(() => page.getByTestId('run-logged').textContent(), { timeout: 15_000 }).toBe(`Logged: 3 × Market sheet, ${metres} m of cut.`);
     await expect.poll(() => page.getByTestId(`blade-${cutter.id}`).getByTestId('blade-length').textContent()).toBe(`${metres} m`);
     await expect.poll(() => page.getByTestId(`stock-${stock.id}`).getByTestId('on-hand').textContent()).toBe('17');
+    // The form is ready for the next run: sheet, copies and notes blank, stock and cutter kept; pressing
+    // Log run again asks for a sheet instead of logging the same run twice.
+    expect(await form.getByLabel('Sheet').inputValue()).toBe('');
+    expect(await form.getByLabel('Copies').inputValue()).toBe('1');
+    expect(await form.getByLabel('Notes').inputValue()).toBe('');
+    expect(await form.getByLabel('Stock').inputValue()).toBe(stock.id);
+    await form.getByRole('button', { name: 'Log run' }).click();
+    await expect.poll(() => page.getByRole('alert').first().textContent()).toMatch(/sheet/i);
+    expect((await owner.get(`${base}/print-runs`)).body.runs).toHaveLength(1);
     expect((await owner.get(`${base}/print-runs`)).body.runs[0].cutterSettings).toEqual({ material: 'Matte sticker', pressure: '5', passes: 1, blade: '' });
     await expect.poll(() => page.getByTestId('runs-table').textContent()).toMatch(/Market sheet v\d.*3.*3.*Matte sticker paper.*Bench cutter \/ Fine blade.*Tore.*Berry corner lifted/);
     expect(await page.getByTestId('run-chart').count()).toBe(1);
@@ -90,12 +100,21 @@ describe('print shop in Chromium', { timeout: BROWSER_TEST_TIMEOUT }, () => {
     const add = page.getByRole('form', { name: 'Add stock' });
     await add.getByLabel('Name').fill('Clear vinyl');
     await add.getByLabel('Finish').selectOption('clear');
+    // Three fields wrong at once: every one is named beside its input in the same answer, none lost.
     await add.getByLabel(/^Pack price/).fill('twelve');
-    await add.getByLabel('Sheets per pack').fill('10');
-    await add.getByLabel('Sheets per pack').press('Enter');
-    await expect.poll(() => add.getByRole('alert').textContent()).toMatch(/Pack price: give an amount/);
+    await add.getByLabel('Sheets per pack').fill('0');
+    await add.getByLabel('Rating 1–5').fill('9');
+    await add.getByLabel('Rating 1–5').press('Enter');
+    await expect.poll(() => add.getByRole('alert').textContent()).toBe('3 fields need a change: see the notes beside them.');
+    expect(await add.getByTestId('error-packPrice').textContent()).toBe('Pack price: give an amount');
+    expect(await add.getByTestId('error-sheetsPerPack').textContent()).toBe('At least 1 sheet per pack');
+    expect(await add.getByTestId('error-rating').textContent()).toBe('Rate 1 to 5');
+    expect(await add.getByLabel('Sheets per pack').getAttribute('aria-invalid')).toBe('true');
+    await screenshot(page, 'print-room-stock-three-errors');
     expect(await page.getByTestId('stock-table').locator('tbody tr').count()).toBe(0);
     await add.getByLabel(/^Pack price/).fill('12');
+    await add.getByLabel('Sheets per pack').fill('10');
+    await add.getByLabel('Rating 1–5').fill('');
     await add.getByLabel('Material setting').fill('Clear vinyl');
     await add.getByLabel('Material setting').press('Enter');
     const row = page.getByTestId('stock-table').locator('tbody tr').first();

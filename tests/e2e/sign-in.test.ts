@@ -39,6 +39,32 @@ describe('signing in as each demo account in Chromium', { timeout: BROWSER_TEST_
   }
 });
 
+describe('inviting on the team page', { timeout: BROWSER_TEST_TIMEOUT }, () => {
+  it('a refused invite replaces the earlier success, never shows beside it; a double click sends once', async () => {
+    const page = await t.browser.newPage({ viewport: { width: 1280, height: 800 } });
+    await page.goto(`${t.served.url}/sign-in`);
+    await page.getByLabel('E-mail').fill(DEMO_ACCOUNTS[0].email);
+    await page.getByLabel('Password').fill(DEMO_PASSWORD);
+    await page.getByRole('button', { name: 'Sign in' }).click();
+    await page.waitForURL(/\/t\/\d+\/library$/);
+    await page.getByRole('link', { name: 'Team' }).click();
+    const invites = page.waitForResponse((r) => r.url().includes('/invites') && r.request().method() === 'POST');
+    await page.getByLabel('Their e-mail').fill('new.helper@example.com');
+    await page.getByRole('button', { name: 'Send invitation' }).dblclick();
+    await invites;
+    await expect.poll(() => page.getByText('Invitation sent to new.helper@example.com', { exact: false }).count()).toBe(1);
+    await page.waitForTimeout(300);
+    expect(await page.getByText('new.helper@example.com ·', { exact: false }).count()).toBe(1); // one pending invite, not two
+
+    await page.getByLabel('Their e-mail').fill(DEMO_ACCOUNTS[2].email); // already in the team
+    await page.getByRole('button', { name: 'Send invitation' }).click();
+    await expect.poll(() => page.getByText('That person is already in this team.').count()).toBe(1);
+    expect(await page.getByText('Invitation sent to', { exact: false }).count()).toBe(0);
+    await screenshot(page, 'team-invite-refused');
+    await page.close();
+  });
+});
+
 describe('sign-in form', { timeout: BROWSER_TEST_TIMEOUT }, () => {
   it('shows inline field errors and keeps what the user typed', async () => {
     const page = await t.browser.newPage({ viewport: { width: 1280, height: 800 } });

@@ -47,7 +47,10 @@ export function RunLog({ teamId, canRecord }: { teamId: string; canRecord: boole
   const sheets = useQuery(sheetChoicesQueryOptions(teamId));
   const [filters, setFilters] = useState({ result: '', stockId: '', cutterId: '', from: '', to: '' });
   const runs = useQuery(runsQueryOptions(teamId, filters));
-  const [form, setForm] = useState({ sheetId: '', copies: '1', wasted: '', printedOn: '', stockId: '', printerId: '', cutterId: '', result: 'good', notes: '' });
+  const blankRun = { sheetId: '', copies: '1', wasted: '', printedOn: '', result: 'good', notes: '' };
+  const [form, setForm] = useState({ ...blankRun, stockId: '', printerId: '', cutterId: '' });
+  // A new key empties the photo input after a run is logged (a file input cannot be set from code).
+  const [photoKey, setPhotoKey] = useState(0);
   // What the printer and cutter were set to: the stock's settings that worked, changed where this run differed.
   const [used, setUsed] = useState<Pick<StockView, 'printerSettings' | 'cutterSettings'> | null>(null);
   const chooseStock = (stockId: string) => {
@@ -63,7 +66,7 @@ export function RunLog({ teamId, canRecord }: { teamId: string; canRecord: boole
     );
   const [photo, setPhoto] = useState<File | null>(null);
   const [done, setDone] = useState<string | null>(null);
-  const { error, run } = useAction({ preferField: true });
+  const { error, busy, run } = useAction({ preferField: true });
   const printers = (machines.data ?? []).filter((m) => m.kind === 'printer');
   const cutters = (machines.data ?? []).filter((m) => m.kind === 'cutter');
   const pick = (key: keyof typeof form, label: string, options: Array<{ id: string; name: string }>, none = 'None') => (
@@ -93,6 +96,11 @@ export function RunLog({ teamId, canRecord }: { teamId: string; canRecord: boole
         await apiUpload(`/teams/${teamId}/print-runs/${saved.id}/photo`, data);
       }
       setDone(`Logged: ${saved.copies} × ${saved.sheet.name}, ${saved.cutLengthM.toFixed(2)} m of cut.`);
+      // The next run starts blank but for the stock and machines, which usually stay: pressing Log
+      // run again cannot log this run a second time, it asks for a sheet.
+      setForm((current) => ({ ...current, ...blankRun }));
+      setPhoto(null);
+      setPhotoKey((k) => k + 1);
       await client.invalidateQueries({ queryKey: shopKeys.all(teamId) });
     });
   const filter = (key: keyof typeof filters, label: string, options: Array<{ id: string; name: string }>) => (
@@ -111,9 +119,9 @@ export function RunLog({ teamId, canRecord }: { teamId: string; canRecord: boole
           {pick('cutterId', 'Cutter', cutters)}
           <label className="flex flex-col text-xs font-bold">Result<select value={form.result} onChange={(e) => setForm({ ...form, result: e.target.value })} className={`${input} font-normal`}>{RUN_RESULTS.map((r) => <option key={r} value={r}>{RUN_RESULT_LABELS[r]}</option>)}</select></label>
           <label className="flex flex-col text-xs font-bold">Notes<input value={form.notes} onChange={(e) => setForm({ ...form, notes: e.target.value })} className={`${input} w-48 font-normal`} /></label>
-          <label className="flex flex-col text-xs font-bold">Photo (optional)<input type="file" accept="image/*" onChange={(e) => setPhoto(e.target.files?.[0] ?? null)} className="text-xs font-normal" /></label>
+          <label className="flex flex-col text-xs font-bold">Photo (optional)<input key={photoKey} type="file" accept="image/*" onChange={(e) => setPhoto(e.target.files?.[0] ?? null)} className="text-xs font-normal" /></label>
           <label className="flex flex-col text-xs font-bold">Printed on<input type="date" value={form.printedOn} onChange={(e) => setForm({ ...form, printedOn: e.target.value })} className={`${input} font-normal`} /></label>
-          <button type="submit" className="rounded-full bg-ink px-4 py-1 font-bold text-paper">Log run</button>
+          <button type="submit" disabled={busy} className="rounded-full bg-ink px-4 py-1 font-bold text-paper disabled:opacity-60">{busy ? 'Logging…' : 'Log run'}</button>
           {used && (
             <details className="w-full text-xs">
               <summary className="cursor-pointer font-bold">Settings used (from the stock; change what differed on this run)</summary>

@@ -43,12 +43,28 @@ const bodyOf = (d: Draft, unit: LengthUnit) => ({
   foodSafe: d.foodSafe, skinSafe: d.skinSafe, notes: d.notes,
 });
 
+/** The server's field paths that are not the form's own key's name. */
+const FIELD_OF: Record<string, keyof Draft> = { paperWidthMm: 'paperWidth', paperHeightMm: 'paperHeight', 'printerSettings.other': 'printerOther' };
+
 /** Adds stock (no `stock`) or edits it; every field the shelf keeps, grouped as the maker thinks of them. */
 export function StockForm({ stock, currency, unit, onSave, onCancel }: { stock?: StockView; currency: string; unit: LengthUnit; onSave: (body: ReturnType<typeof bodyOf>) => Promise<unknown>; onCancel?: () => void }) {
   const [d, setD] = useState(() => draftFrom(unit, stock));
-  const { error, run } = useAction({ preferField: true });
+  const { error, fields, busy, run } = useAction();
+  // Every refused field at once, each beside its input (the server's paths named as the form's keys).
+  const fieldErrors: Partial<Record<keyof Draft, string>> = {};
+  for (const [path, message] of Object.entries(fields)) {
+    const key = (FIELD_OF[path] ?? path.split('.').pop()) as keyof Draft;
+    fieldErrors[key] ??= message;
+  }
+  const formKey = stock ? `stock-${stock.id}` : 'stock-new';
   const text = (key: keyof Draft, label: string, w = 'w-28') => (
-    <label className="flex flex-col gap-1 text-xs font-bold">{label}<input value={String(d[key])} onChange={(e) => setD({ ...d, [key]: e.target.value })} className={`${input} ${w}`} /></label>
+    <div className="flex flex-col gap-1 text-xs font-bold">
+      <label className="flex flex-col gap-1">
+        {label}
+        <input value={String(d[key])} onChange={(e) => setD({ ...d, [key]: e.target.value })} aria-invalid={fieldErrors[key] ? true : undefined} aria-describedby={fieldErrors[key] ? `${formKey}-${key}-error` : undefined} className={`${input} ${w} ${fieldErrors[key] ? 'border-alarm' : ''}`} />
+      </label>
+      {fieldErrors[key] && <span id={`${formKey}-${key}-error`} data-testid={`error-${key}`} className={`${w} min-w-28 font-semibold text-alarm`}>{fieldErrors[key]}</span>}
+    </div>
   );
   const tick = (key: 'foodSafe' | 'skinSafe', label: string) => (
     <label className="flex items-center gap-1 text-xs font-bold"><input type="checkbox" checked={d[key]} onChange={(e) => setD({ ...d, [key]: e.target.checked })} />{label}</label>
@@ -91,9 +107,9 @@ export function StockForm({ stock, currency, unit, onSave, onCancel }: { stock?:
         <label className="flex grow flex-col gap-1 text-xs font-bold">Notes<input value={d.notes} onChange={(e) => setD({ ...d, notes: e.target.value })} className={`${input} w-full`} /></label>
       </div>
       <div className="flex items-center gap-3">
-        <button type="submit" className="rounded-full bg-ink px-4 py-1 font-bold text-paper">{stock ? 'Save stock' : 'Add stock'}</button>
+        <button type="submit" disabled={busy} className="rounded-full bg-ink px-4 py-1 font-bold text-paper disabled:opacity-60">{busy ? 'Saving…' : stock ? 'Save stock' : 'Add stock'}</button>
         {onCancel && <button type="button" className="font-bold underline" onClick={onCancel}>Cancel</button>}
-        {error && <p role="alert" className="font-semibold text-alarm">{error}</p>}
+        {error && <p role="alert" className="font-semibold text-alarm">{Object.keys(fields).length > 1 ? `${Object.keys(fields).length} fields need a change: see the notes beside them.` : (Object.values(fields)[0] ?? error)}</p>}
       </div>
     </form>
   );

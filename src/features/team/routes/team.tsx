@@ -1,4 +1,5 @@
 import { useState } from 'react';
+import type { FormEvent } from 'react';
 import { useNavigate } from 'react-router';
 import type { Role } from '../../../../shared/permissions';
 import { assignableRoles, PERMISSIONS, ROLE_LABELS, ROLE_PERMISSIONS, ROLES } from '../../../../shared/permissions';
@@ -115,11 +116,16 @@ function InviteForm({ teamId, roles }: { teamId: string; roles: Role[] }) {
   const invite = useInvite(teamId);
   const form = useZodForm(createInviteSchema, { email: '', role: 'member' });
   const [sent, setSent] = useState<string | null>(null);
-  const onSubmit = form.handleSubmit(async (data) => {
+  const send = form.handleSubmit(async (data) => {
     await invite.mutateAsync(data);
     setSent(data.email);
     form.setValues({ email: '', role: data.role });
   });
+  // A new try replaces the last answer: an earlier "sent" never stands beside a refusal.
+  const onSubmit = (event: FormEvent) => {
+    setSent(null);
+    return send(event);
+  };
   return (
     <form onSubmit={onSubmit} noValidate className="flex flex-col gap-3 rounded-sticker border-2 border-paper-edge bg-white p-5">
       <h2 className="text-lg font-extrabold">Invite someone</h2>
