@@ -20,6 +20,9 @@ import { closerThan } from '../sheet/placement';
 import { seeded } from './prng';
 import type { ShapeMask } from './raster';
 import { shapeMask } from './raster';
+import { exactlyValid, layoutOf, placementsOf } from './improve';
+import { variantsOf } from './shapes';
+import { shortenStrip } from './strip';
 
 export type Outline = { points: Ring; widthMm: number; heightMm: number };
 /** 'none': upright only; '90': quarter turns; a step in degrees (15, 5, …); or an explicit set. */
@@ -388,6 +391,25 @@ export function arrange(items: ArrangeItem[], options: ArrangeOptions, locked: L
   let best = current;
   let iterations = 1;
   report(best, iterations);
+  if (o.strip && best.left.length === 0 && base.length > 1 && o.timeMs > Date.now() - started && (o.maxIterations ?? Infinity) > 1) {
+    // Strip packing goes on from the constructive layout as a sequence of overlap searches.
+    const variants = new Map([...shapes].map(([key, shape]) => [key, variantsOf(shape.item.outline, rotationsOf(shape.item.rotate ?? o.rotate), o.gap / 2)]));
+    const area = { x0: o.margin, y0: o.margin, x1: o.width - o.margin, y1: o.height - o.margin };
+    const fixed = locked.map((l) => ({ key: l.key, x: l.x, y: l.y, rotation: l.rotation }));
+    for (const l of locked) if (!variants.has(l.key)) variants.set(l.key, variantsOf(l.outline, [l.rotation], o.gap / 2));
+    const { layout, keys } = layoutOf(best.placements, (key) => variants.get(key)!, area, fixed);
+    const { length, tries } = shortenStrip(layout, {
+      deadline: started + o.timeMs,
+      random,
+      shouldStop: o.shouldStop,
+      maxTries: o.maxIterations === undefined ? undefined : o.maxIterations - 1,
+      onBest: (bottom) => onProgress?.({ iteration: iterations, placed: best.placements.length, elapsedMs: Date.now() - started, sheets: 1, areaUsed: best.boards[0].usedArea / (o.width * o.height), length: bottom }),
+    });
+    if (exactlyValid(layout, o.gap)) {
+      const placements = placementsOf(layout, keys).map((p) => ({ ...p, sheet: 0 }));
+      return { ...resultOf(best, 1 + tries), placements, length, ms: Date.now() - started };
+    }
+  }
   const maxIterations = o.maxIterations ?? Infinity;
   // Late acceptance: a move is taken when it is no worse than the current layout or the one L moves ago.
   const L = 50;

@@ -195,6 +195,37 @@ describe('arrange at a gap of 0 (ESICUP jakobs1)', () => {
   }, 60_000);
 });
 
+// Strip packing goes on past the constructive layout with the overlap search (a sequence of
+// feasibility problems). ESICUP instances from ../shared/nesting/, read from there.
+describe('strip packing with the overlap search (ESICUP shapes0 and jakobs1)', () => {
+  const load = (name: string) => {
+    const instance = JSON.parse(readFileSync(path.join(nestingDir(), `${name}.json`), 'utf8')) as { strip_height: number; items: Array<{ id: number; demand: number; allowed_orientations?: number[]; shape: { data: number[][] } }> };
+    const k = 200 / instance.strip_height;
+    return instance.items.map((item): ArrangeItem => {
+      const xs = item.shape.data.map((p) => p[0] * k), ys = item.shape.data.map((p) => p[1] * k);
+      const x0 = Math.min(...xs), y0 = Math.min(...ys);
+      let points = item.shape.data.map(([x, y]) => ({ x: x * k - x0, y: y * k - y0 }));
+      if (points.length > 1 && points[0].x === points.at(-1)!.x && points[0].y === points.at(-1)!.y) points = points.slice(0, -1);
+      const signed = points.reduce((s, p, i) => s + p.x * points[(i + 1) % points.length].y - points[(i + 1) % points.length].x * p.y, 0);
+      if (signed < 0) points.reverse();
+      return { key: String(item.id), count: item.demand, rotate: { set: item.allowed_orientations ?? [0] }, outline: { points, widthMm: Math.max(...xs) - x0, heightMm: Math.max(...ys) - y0 } };
+    });
+  };
+
+  for (const [name, gap] of [['shapes0', 0], ['jakobs1', 0.5]] as const) {
+    it(`${name} at a gap of ${gap} mm: shorter than the constructive layout, valid by @flatten-js/core, the same for the same seed`, () => {
+      const items = load(name);
+      const options = { width: 200, height: 2000, gap, margin: 0, strip: true, timeMs: 60_000, seed: 4 };
+      const start = arrange(items, { ...options, maxIterations: 1 });
+      const searched = arrange(items, { ...options, maxIterations: 5 });
+      expect(searched.placed).toBe(start.placed);
+      expect(searched.length!).toBeLessThan(start.length!);
+      checkLayout(items, searched, { gap, margin: 0, width: 200, height: searched.length! + 1e-6 });
+      expect(arrange(items, { ...options, maxIterations: 5 }).placements).toEqual(searched.placements);
+    }, 120_000);
+  }
+});
+
 describe('arrange: concavities and bad input', () => {
   // A U 60 mm square with a slot 30 mm wide and 44 mm deep open at the top, and a cross 24 mm across
   // with 8 mm arms: on an area only as large as the U, the cross can go nowhere but the slot.

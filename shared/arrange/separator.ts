@@ -1,0 +1,261 @@
+// Overlap minimisation on a fixed area: pieces may overlap while the search runs, and a guided local
+// search moves them until none does (Egeblad, Nielsen & Odgaard 2007; Umetani et al. 2009; the
+// sampling and decaying depth of Gardeyn, Vanden Berghe & Wauters 2025).
+//
+// Each round moves every colliding piece to the spot (and allowed rotation) where its weighted
+// overlap with the others is least: random spots over the whole area and spots near where it is,
+// the best refined by coordinate descent. After a round the weight of every pair still overlapping
+// grows (more for deeper overlaps) and the others decay back to 1, so the search is pushed out of
+// the local minima that plain overlap leaves it in (guided local search, Voudouris & Tsang 1999).
+// After rounds without a new least overlap it returns to the best state seen and counts a strike.
+import RBush from 'rbush';
+import { collide, depth } from './collide';
+import type { Variant } from './shapes';
+
+export type LayoutPiece = { variants: Variant[]; v: number; x: number; y: number; fixed?: boolean };
+/** Where the cut lines' boxes must stay (the print area less the margin). */
+export type Area = { x0: number; y0: number; x1: number; y1: number };
+type Entry = { minX: number; minY: number; maxX: number; maxY: number; i: number };
+
+export type SeparateOptions = { strikes: number; roundsWithoutGain: number; deadline: number; random: () => number; shouldStop?: () => boolean };
+
+export class Layout {
+  readonly pieces: LayoutPiece[] = [];
+  private depths = new Float64Array(0);
+  private weights = new Float64Array(0);
+  private size = 0;
+  private tree = new RBush<Entry>();
+  private entries: Entry[] = [];
+  /** Samples per move: over the whole area, and near the piece. */
+  uniformSamples = 25;
+  nearSamples = 15;
+
+  constructor(public area: Area) {}
+
+  get length() {
+    return this.pieces.length;
+  }
+
+  /** Adds a piece (its spot already chosen) and returns its index. */
+  add(piece: LayoutPiece): number {
+    const i = this.pieces.length;
+    this.pieces.push({ ...piece });
+    if (i >= this.size) this.grow(Math.max(16, this.size * 2));
+    const entry = { minX: 0, minY: 0, maxX: 0, maxY: 0, i };
+    this.entries.push(entry);
+    this.index(i, true);
+    this.measure(i);
+    return i;
+  }
+
+  /** Removes the last piece (undoes an `add`). */
+  pop() {
+    const i = this.pieces.length - 1;
+    this.clearDepths(i);
+    this.tree.remove(this.entries[i]);
+    this.entries.pop();
+    this.pieces.pop();
+    for (let j = 0; j < this.size; j++) this.weights[i * this.size + j] = this.weights[j * this.size + i] = 1;
+  }
+
+  private grow(size: number) {
+    const depths = new Float64Array(size * size), weights = new Float64Array(size * size).fill(1);
+    for (let i = 0; i < this.size; i++) {
+      depths.set(this.depths.subarray(i * this.size, (i + 1) * this.size), i * size);
+      weights.set(this.weights.subarray(i * this.size, (i + 1) * this.size), i * size);
+    }
+    this.depths = depths;
+    this.weights = weights;
+    this.size = size;
+  }
+
+  private index(i: number, fresh = false) {
+    const p = this.pieces[i], s = p.variants[p.v], e = this.entries[i];
+    if (!fresh) this.tree.remove(e);
+    e.minX = s.gx0 + p.x;
+    e.minY = s.gy0 + p.y;
+    e.maxX = s.gx1 + p.x;
+    e.maxY = s.gy1 + p.y;
+    this.tree.insert(e);
+  }
+
+  private clearDepths(i: number) {
+    const n = this.pieces.length, size = this.size;
+    for (let j = 0; j < n; j++) this.depths[i * size + j] = this.depths[j * size + i] = 0;
+  }
+
+  /** Recomputes piece i's overlap with every other piece. */
+  private measure(i: number) {
+    this.clearDepths(i);
+    const p = this.pieces[i], s = p.variants[p.v], size = this.size;
+    for (const e of this.tree.search(this.entries[i])) {
+      if (e.i === i) continue;
+      const q = this.pieces[e.i], t = q.variants[q.v];
+      if (p.fixed && q.fixed) continue; // locked pieces are the maker's to place
+      if (collide(s, p.x, p.y, t, q.x, q.y)) this.depths[i * size + e.i] = this.depths[e.i * size + i] = depth(s, p.x, p.y, t, q.x, q.y);
+    }
+  }
+
+  /** Weighted overlap piece i would have as variant v at (x, y); stops counting once past `bound`. */
+  cost(i: number, v: number, x: number, y: number, bound = Infinity): number {
+    const s = this.pieces[i].variants[v], size = this.size;
+    let sum = 0;
+    const hits = this.tree.search({ minX: s.gx0 + x, minY: s.gy0 + y, maxX: s.gx1 + x, maxY: s.gy1 + y });
+    for (const e of hits) {
+      if (e.i === i) continue;
+      const q = this.pieces[e.i], t = q.variants[q.v];
+      if (!collide(s, x, y, t, q.x, q.y)) continue;
+      sum += this.weights[i * size + e.i] * depth(s, x, y, t, q.x, q.y);
+      if (sum >= bound) return sum;
+    }
+    return sum;
+  }
+
+  /** The spot range for piece i as variant v, or null when it cannot fit the area at all. */
+  range(i: number, v: number) {
+    const s = this.pieces[i].variants[v], a = this.area;
+    const x0 = a.x0 - s.bx0, x1 = a.x1 - s.bx1, y0 = a.y0 - s.by0, y1 = a.y1 - s.by1;
+    return x0 <= x1 && y0 <= y1 ? { x0, x1, y0, y1 } : null;
+  }
+
+  moveTo(i: number, v: number, x: number, y: number) {
+    const p = this.pieces[i];
+    p.v = v;
+    p.x = x;
+    p.y = y;
+    this.index(i);
+    this.measure(i);
+  }
+
+  overlapOf(i: number): number {
+    let sum = 0;
+    for (let j = 0; j < this.pieces.length; j++) sum += this.depths[i * this.size + j];
+    return sum;
+  }
+
+  totalOverlap(): number {
+    let sum = 0;
+    for (let i = 0; i < this.pieces.length; i++) sum += this.overlapOf(i);
+    return sum / 2;
+  }
+
+  snapshot() {
+    return this.pieces.map((p) => ({ v: p.v, x: p.x, y: p.y }));
+  }
+
+  restore(state: Array<{ v: number; x: number; y: number }>) {
+    state.forEach((s, i) => {
+      const p = this.pieces[i];
+      p.v = s.v;
+      p.x = s.x;
+      p.y = s.y;
+    });
+    this.tree.clear();
+    this.pieces.forEach((_, i) => this.index(i, true));
+    this.pieces.forEach((_, i) => this.measure(i));
+  }
+
+  /** Piece i moved to its least weighted overlap among sampled spots, refined by coordinate descent. */
+  relocate(i: number, random: () => number) {
+    const p = this.pieces[i];
+    let best = { v: p.v, x: p.x, y: p.y, c: this.cost(i, p.v, p.x, p.y) };
+    const consider = (v: number, x: number, y: number) => {
+      const c = this.cost(i, v, x, y, best.c);
+      if (c < best.c) best = { v, x, y, c };
+    };
+    const variants = p.variants.length;
+    for (let k = 0; k < this.uniformSamples && best.c > 0; k++) {
+      const v = Math.floor(random() * variants), r = this.range(i, v);
+      if (r) consider(v, r.x0 + random() * (r.x1 - r.x0), r.y0 + random() * (r.y1 - r.y0));
+    }
+    const s = p.variants[p.v], w = s.bx1 - s.bx0, h = s.by1 - s.by0;
+    for (let k = 0; k < this.nearSamples && best.c > 0; k++) {
+      const v = random() < 0.8 ? p.v : Math.floor(random() * variants), r = this.range(i, v);
+      if (!r) continue;
+      const x = Math.min(r.x1, Math.max(r.x0, p.x + (random() - 0.5) * w)), y = Math.min(r.y1, Math.max(r.y0, p.y + (random() - 0.5) * h));
+      consider(v, x, y);
+    }
+    if (best.c > 0) best = this.descend(i, best, Math.max(w, h));
+    this.moveTo(i, best.v, best.x, best.y);
+  }
+
+  /** Coordinate descent: steps along x and y, larger after a gain, halved after none. */
+  private descend(i: number, start: { v: number; x: number; y: number; c: number }, size: number) {
+    const r = this.range(i, start.v)!;
+    let { x, y, c } = start;
+    let step = size * 0.1;
+    const floor = size * 0.002;
+    let guard = 0;
+    while (step > floor && c > 0 && guard++ < 200) {
+      let gained = false;
+      for (const [dx, dy] of [[step, 0], [-step, 0], [0, step], [0, -step]]) {
+        const nx = Math.min(r.x1, Math.max(r.x0, x + dx)), ny = Math.min(r.y1, Math.max(r.y0, y + dy));
+        const nc = this.cost(i, start.v, nx, ny, c);
+        if (nc < c) {
+          x = nx;
+          y = ny;
+          c = nc;
+          gained = true;
+          break;
+        }
+      }
+      step = gained ? step * 1.5 : step / 2;
+    }
+    return { v: start.v, x, y, c };
+  }
+
+  /** Guided local search weights: overlapping pairs grow (deeper ones more), the rest decay to 1. */
+  private reweigh() {
+    const n = this.pieces.length, size = this.size;
+    let deepest = 0;
+    for (let i = 0; i < n; i++) for (let j = i + 1; j < n; j++) deepest = Math.max(deepest, this.depths[i * size + j]);
+    for (let i = 0; i < n; i++) {
+      for (let j = i + 1; j < n; j++) {
+        const d = this.depths[i * size + j];
+        let w = this.weights[i * size + j];
+        w = d > 0 ? w * (1.2 + (0.8 * d) / deepest) : Math.max(1, w * 0.95);
+        this.weights[i * size + j] = this.weights[j * size + i] = w;
+      }
+    }
+  }
+
+  resetWeights() {
+    this.weights.fill(1);
+  }
+
+  /** Moves colliding pieces until nothing overlaps (true) or the strikes run out (false, at the least overlap seen). */
+  separate(o: SeparateOptions): boolean {
+    let total = this.totalOverlap();
+    if (total === 0) return true;
+    let least = total, best = this.snapshot();
+    const order: number[] = [];
+    for (let strike = 0; strike < o.strikes; ) {
+      let gainedThisStrike = false;
+      for (let idle = 0; idle < o.roundsWithoutGain; ) {
+        if (Date.now() > o.deadline || o.shouldStop?.()) {
+          this.restore(best);
+          return false;
+        }
+        order.length = 0;
+        for (let i = 0; i < this.pieces.length; i++) if (!this.pieces[i].fixed && this.overlapOf(i) > 0) order.push(i);
+        for (let k = order.length - 1; k > 0; k--) {
+          const j = Math.floor(o.random() * (k + 1));
+          [order[k], order[j]] = [order[j], order[k]];
+        }
+        for (const i of order) if (this.overlapOf(i) > 0) this.relocate(i, o.random);
+        total = this.totalOverlap();
+        if (total === 0) return true;
+        if (total < least) {
+          least = total;
+          best = this.snapshot();
+          gainedThisStrike = true;
+          idle = 0;
+        } else idle++;
+        this.reweigh();
+      }
+      if (!gainedThisStrike) strike++;
+      this.restore(best);
+    }
+    return false;
+  }
+}
