@@ -87,6 +87,9 @@ class Board {
   readonly h: number;
   private readonly grid: Uint8Array;
   private readonly prefix: Int32Array;
+  /** Longest free run of each row; a run at either edge counts the cells a mask may hang off the board. */
+  private readonly freeRun: Int32Array;
+  private readonly hang: number;
   readonly rings: Array<{ ring: Ring; box: ReturnType<typeof boundingBox> }> = [];
   usedArea = 0;
   /** Lowest extent of any placed cut line (mm). */
@@ -97,6 +100,18 @@ class Board {
     this.h = Math.ceil(opts.height / opts.cell);
     this.grid = new Uint8Array(this.w * this.h);
     this.prefix = new Int32Array((this.w + 1) * this.h);
+    this.freeRun = new Int32Array(this.h).fill(1 << 30);
+    // A mask's grown rim (see shapeMask's pad) may lie off the board.
+    this.hang = Math.ceil(Math.max(0, opts.gap / 2 - 0.25 * opts.cell) / opts.cell) + 2;
+  }
+
+  /** Whether every row of the mask finds a free run as long as its own at row offset cy. */
+  private rowsCanTake(mask: ShapeMask, cy: number): boolean {
+    for (const j of mask.order) {
+      const row = cy + mask.offsetY + j;
+      if (row >= 0 && row < this.h && this.freeRun[row] < mask.longest[j]) return false;
+    }
+    return true;
   }
 
   /** The last blocked cell of row y in [a, b], or -1 (cells off the board count as free). */
@@ -149,6 +164,16 @@ class Board {
       }
       const base = row * (this.w + 1);
       for (let i = 0; i < this.w; i++) this.prefix[base + i + 1] = this.prefix[base + i] + this.grid[row * this.w + i];
+      let longest = 0, run = 0;
+      for (let i = 0; i < this.w; i++) {
+        run = this.grid[row * this.w + i] ? 0 : run + 1;
+        if (run > longest) longest = run;
+      }
+      // Runs at either edge go on past it for a mask allowed to hang off.
+      let lead = 0, tail = 0;
+      while (lead < this.w && !this.grid[row * this.w + lead]) lead++;
+      while (tail < this.w && !this.grid[row * this.w + this.w - 1 - tail]) tail++;
+      this.freeRun[row] = Math.max(longest, lead + this.hang, tail + this.hang);
     }
     const box = boundingBox(ring);
     this.rings.push({ ring, box });
@@ -173,6 +198,7 @@ class Board {
       if (scoreOf(xMin, cy) >= limit) return { spot: null, scanned: cy };
       const row = cy + mask.offsetY + widest;
       if (row >= 0 && row < this.h && this.w - this.prefix[row * (this.w + 1) + this.w] < need) continue;
+      if (!this.rowsCanTake(mask, cy)) continue;
       for (let cx = xMin; cx <= xMax; ) {
         const skip = this.rasterSkip(mask, cx, cy);
         if (skip > 0) {
@@ -236,9 +262,11 @@ class Board {
 function prepare(items: ArrangeItem[], opts: { gap: number; cell: number; rotate: RotateMode }): Map<string, Shape> {
   const shapes = new Map<string, Shape>();
   for (const item of items) {
-    // The raster is only a quick filter, so it errs on the optimistic side (grown a little less than
-    // half the gap); the exact polygon test has the last word on every spot.
-    const masks = rotationsOf(item.rotate ?? opts.rotate).map((r) => shapeMask(item.outline, r, opts.cell, Math.max(0, opts.gap / 2 - 0.25 * opts.cell)));
+    // The raster is only a quick filter and never refuses a spot the exact test would take: a mask
+    // cell is marked only when its centre lies within half the gap of the cut line, so two masks
+    // share a cell only when their cut lines are within the gap of each other (triangle inequality).
+    // It may take spots that are a little too close; the exact polygon test has the last word.
+    const masks = rotationsOf(item.rotate ?? opts.rotate).map((r) => shapeMask(item.outline, r, opts.cell, opts.gap / 2));
     shapes.set(item.key, { item, masks, areaMm2: area(item.outline.points) });
   }
   return shapes;

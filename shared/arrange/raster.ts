@@ -21,6 +21,8 @@ export type ShapeMask = {
   rows: Array<Array<[number, number]>>;
   /** The rows in the order a collision test should try them: widest first (the likeliest to hit). */
   order: number[];
+  /** The longest run of each row (cells): a board row with no free run this long cannot take it. */
+  longest: Int32Array;
   cells: number;
   /** Cells the grown mask reaches past the shape on each side (they may hang off the board). */
   pad: number;
@@ -93,6 +95,7 @@ export function shapeMask(outline: { points: Ring; widthMm: number; heightMm: nu
     rows.push(runs);
   }
   const widths = rows.map((r) => r.reduce((s, [a, b]) => s + b - a + 1, 0));
+  const longest = Int32Array.from(rows, (r) => r.reduce((m, [a, b]) => Math.max(m, b - a + 1), 0));
   const order = rows.map((_, j) => j).filter((j) => rows[j].length > 0).sort((a, b) => widths[b] - widths[a]);
-  return { rotation, ring, minX, minY, maxX, maxY, offsetX: x0, offsetY: y0, rows, order, cells, pad };
+  return { rotation, ring, minX, minY, maxX, maxY, offsetX: x0, offsetY: y0, rows, order, longest, cells, pad };
 }

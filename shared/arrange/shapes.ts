@@ -80,7 +80,7 @@ export function insideRing(px: number, py: number, xs: Float64Array, ys: Float64
  * Inscribed circles that do not overlap one another, each the largest that still fits in what the
  * earlier ones left: sampled on a grid, then each centre refined by a shrinking pattern search.
  */
-export function polesOf(xs: Float64Array, ys: Float64Array, maxPoles = 10): Float64Array {
+export function polesOf(xs: Float64Array, ys: Float64Array, maxPoles = 8): Float64Array {
   let x0 = Infinity, y0 = Infinity, x1 = -Infinity, y1 = -Infinity;
   for (let i = 0; i < xs.length; i++) {
     x0 = Math.min(x0, xs[i]);
