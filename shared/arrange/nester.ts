@@ -20,7 +20,9 @@ import { closerThan } from '../sheet/placement';
 import { seeded } from './prng';
 import type { ShapeMask } from './raster';
 import { shapeMask } from './raster';
+import type { Placed } from './improve';
 import { exactlyValid, layoutOf, placementsOf } from './improve';
+import { emptyLastSheet, fillSheet } from './sheet-search';
 import { variantsOf } from './shapes';
 import { shortenStrip } from './strip';
 
@@ -44,6 +46,8 @@ export type ArrangeOptions = {
   maxIterations?: number;
   seed?: number;
   maxSheets?: number;
+  /** false: the sequence search only, without the overlap search that follows it (quicker, looser). */
+  overlap?: boolean;
   /** Search grid cell (mm). */
   cell?: number;
   /** Checked between layouts: true ends the search with the best layout so far. */
@@ -278,7 +282,7 @@ type Gene = { key: string; turn: number };
 /** Arranges the pieces; problems with single pieces are reported in `unplaced`, naming the piece. */
 export function arrange(items: ArrangeItem[], options: ArrangeOptions, locked: LockedPiece[] = [], onProgress?: (p: ArrangeProgress) => void): ArrangeResult {
   const started = Date.now();
-  const o = { gap: 3.175, margin: 0, rotate: '90' as RotateMode, fill: false, strip: false, timeMs: 2000, seed: 1, maxSheets: 10, cell: 1, ...options };
+  const o = { gap: 3.175, margin: 0, rotate: '90' as RotateMode, fill: false, strip: false, overlap: true, timeMs: 2000, seed: 1, maxSheets: 10, cell: 1, ...options };
   if (!(o.width > 0 && o.height > 0)) throw new ArrangeInputError('The print area needs a width and a height.');
   if (2 * o.margin >= Math.min(o.width, o.height)) throw new ArrangeInputError(`A margin of ${o.margin} mm leaves no room on a ${o.width} × ${o.height} mm print area.`);
   if (!(o.gap >= 0)) throw new ArrangeInputError('The gap between cut lines cannot be negative.');
@@ -419,7 +423,7 @@ export function arrange(items: ArrangeItem[], options: ArrangeOptions, locked: L
   let best = current;
   let iterations = 1;
   report(best, iterations);
-  if (o.strip && best.left.length === 0 && base.length > 1 && o.timeMs > Date.now() - started && (o.maxIterations ?? Infinity) > 1) {
+  if (o.overlap && o.strip && best.left.length === 0 && base.length > 1 && o.timeMs > Date.now() - started && (o.maxIterations ?? Infinity) > 1) {
     // Strip packing goes on from the constructive layout as a sequence of overlap searches.
     const variants = new Map([...shapes].map(([key, shape]) => [key, variantsOf(shape.item.outline, rotationsOf(shape.item.rotate ?? o.rotate), o.gap / 2)]));
     const area = { x0: o.margin, y0: o.margin, x1: o.width - o.margin, y1: o.height - o.margin };
@@ -443,7 +447,9 @@ export function arrange(items: ArrangeItem[], options: ArrangeOptions, locked: L
   const L = 50;
   const history = new Array<number>(L).fill(score(current));
   let currentScore = score(current);
-  while (iterations < maxIterations && Date.now() - started < o.timeMs && base.length > 1 && !o.shouldStop?.()) {
+  // On sheets the overlap search gets the later part of the time (more pieces, fewer sheets).
+  const sequenceMs = o.strip || !o.overlap ? o.timeMs : o.timeMs * 0.4;
+  while (iterations < maxIterations && Date.now() - started < sequenceMs && base.length > 1 && !o.shouldStop?.()) {
     const genes = current.genes.map((g) => ({ ...g }));
     const n = genes.length;
     const move = random();
@@ -479,8 +485,42 @@ export function arrange(items: ArrangeItem[], options: ArrangeOptions, locked: L
       report(best, iterations);
     }
   }
+  if (o.overlap && !o.strip && (o.fill || best.boards.length > 1) && maxIterations > 1 && !o.shouldStop?.()) {
+    const maxTries = o.maxIterations === undefined ? undefined : o.maxIterations - 1;
+    const searched = searchSheets(best, { fill: o.fill, locked, rotate: o.rotate, shapes, random, deadline: started + o.timeMs, maxTries, shouldStop: o.shouldStop });
+    if (searched) {
+      const areaOf = new Map([...shapes].map(([key, s]) => [key, s.areaMm2]));
+      const sheets = Math.max(...searched.map((p) => p.sheet)) + 1;
+      const areaUsed = Array.from({ length: sheets }, (_, s) => searched.filter((p) => p.sheet === s).reduce((sum, p) => sum + areaOf.get(p.key)!, 0) / (o.width * o.height));
+      const result = { ...resultOf(best, iterations), placements: searched, sheets, placed: searched.length, areaUsed, ms: Date.now() - started };
+      o.onBest?.(result);
+      onProgress?.({ iteration: iterations, placed: result.placed, elapsedMs: result.ms, sheets, areaUsed: areaUsed[0] });
+      return result;
+    }
+  }
   onProgress?.({ iteration: iterations, placed: best.placements.length, elapsedMs: Date.now() - started, sheets: best.boards.length, areaUsed: best.boards[0].usedArea / (o.width * o.height), length: o.strip ? best.boards[0].bottom : undefined });
   return resultOf(best, iterations);
+
+  /** Fill: more copies on the sheet; quantities: the last sheet emptied into the others. Null when nothing changed. */
+  function searchSheets(layout: { placements: Placement[]; boards: unknown[] }, a: { fill: boolean; locked: LockedPiece[]; rotate: RotateMode; shapes: Map<string, Shape>; random: () => number; deadline: number; maxTries?: number; shouldStop?: () => boolean }): Placement[] | null {
+    const variants = new Map([...a.shapes].map(([key, shape]) => [key, variantsOf(shape.item.outline, rotationsOf(shape.item.rotate ?? a.rotate), o.gap / 2)]));
+    for (const l of a.locked) if (!variants.has(l.key)) variants.set(l.key, variantsOf(l.outline, [l.rotation], o.gap / 2));
+    const search = { variantsOf: (key: string) => variants.get(key)!, area: { x0: o.margin, y0: o.margin, x1: o.width - o.margin, y1: o.height - o.margin }, gap: o.gap, deadline: a.deadline, random: a.random, shouldStop: a.shouldStop, maxTries: a.maxTries };
+    const fixed = a.locked.map((l) => ({ key: l.key, x: l.x, y: l.y, rotation: l.rotation }));
+    if (a.fill) {
+      const filled = fillSheet(layout.placements, fixed, [...a.shapes.keys()], search);
+      return filled && filled.map((p) => ({ ...p, sheet: 0 }));
+    }
+    let sheets: Placed[][] = Array.from({ length: layout.boards.length }, (_, s) => layout.placements.filter((p) => p.sheet === s));
+    let changed = false;
+    while (sheets.length > 1) {
+      const fewer = emptyLastSheet(sheets, fixed, search);
+      if (!fewer) break;
+      sheets = fewer;
+      changed = true;
+    }
+    return changed ? sheets.flatMap((placed, s) => placed.map((p) => ({ ...p, sheet: s }))) : null;
+  }
 }
 
 /** Whether a ring's edges cross (other than neighbours sharing their end point). */

@@ -112,8 +112,8 @@ export class Layout {
   }
 
   /** The spot range for piece i as variant v, or null when it cannot fit the area at all. */
-  range(i: number, v: number) {
-    const s = this.pieces[i].variants[v], a = this.area;
+  range(i: number, v: number, variants = this.pieces[i].variants) {
+    const s = variants[v], a = this.area;
     const x0 = a.x0 - s.bx0, x1 = a.x1 - s.bx1, y0 = a.y0 - s.by0, y1 = a.y1 - s.by1;
     return x0 <= x1 && y0 <= y1 ? { x0, x1, y0, y1 } : null;
   }
@@ -156,7 +156,7 @@ export class Layout {
   }
 
   /** Piece i moved to its least weighted overlap among sampled spots, refined by coordinate descent. */
-  relocate(i: number, random: () => number) {
+  relocate(i: number, random: () => number, uniform = this.uniformSamples) {
     const p = this.pieces[i];
     let best = { v: p.v, x: p.x, y: p.y, c: this.cost(i, p.v, p.x, p.y) };
     const consider = (v: number, x: number, y: number) => {
@@ -164,7 +164,7 @@ export class Layout {
       if (c < best.c) best = { v, x, y, c };
     };
     const variants = p.variants.length;
-    for (let k = 0; k < this.uniformSamples && best.c > 0; k++) {
+    for (let k = 0; k < uniform && best.c > 0; k++) {
       const v = Math.floor(random() * variants), r = this.range(i, v);
       if (r) consider(v, r.x0 + random() * (r.x1 - r.x0), r.y0 + random() * (r.y1 - r.y0));
     }

@@ -31,14 +31,15 @@ export type Variant = {
   area: number;
 };
 
-/** Arc tolerance of the rounded corners; the growth is this much more than half the gap, so the
- * chords of a rounded corner never come closer than half the gap to the cut line. */
-const ARC_TOLERANCE = 0.002;
-
-/** The cut line grown by `grow` mm with round joins (Clipper2), clockwise with y down. */
+/**
+ * The cut line grown by `grow` mm with round joins (Clipper2), clockwise with y down. The rounded
+ * corners are chords within an arc tolerance of 2 % of the growth (a dozen points per half turn);
+ * the growth is that much more than asked, so no chord comes closer than `grow` to the cut line.
+ */
 export function growRing(ring: Ring, grow: number): Ring {
   if (grow <= 0) return ring;
-  const paths = inflatePathsD([ring.map((p) => ({ x: p.x, y: p.y }))], grow + ARC_TOLERANCE, JoinType.Round, EndType.Polygon, 2, 4, ARC_TOLERANCE);
+  const tolerance = Math.min(0.1, Math.max(0.002, grow * 0.02));
+  const paths = inflatePathsD([ring.map((p) => ({ x: p.x, y: p.y }))], grow + tolerance, JoinType.Round, EndType.Polygon, 2, 4, tolerance);
   // A simple ring grows into one ring; keep the largest should rounding ever split off a sliver.
   let best: Ring = ring, bestArea = -1;
   for (const path of paths) {

@@ -1,55 +1,10 @@
-import Flatten from '@flatten-js/core';
-import { readFileSync } from 'node:fs';
-import path from 'node:path';
-import { nestingDir } from '../../scripts/bench/nesting-dir';
 import { describe, expect, it } from 'vitest';
-import type { ArrangeItem, ArrangeResult, Outline } from '../../shared/arrange/nester';
+import type { ArrangeItem, Outline } from '../../shared/arrange/nester';
 import { ArrangeInputError, arrange } from '../../shared/arrange/nester';
 import { benchmarkSet, blob, disk, lShape, star } from '../../scripts/bench/arrange-shapes';
+import { checkLayout, esicupItems, SHEET_H, SHEET_W } from '../helpers/arrange-check';
 
-const SHEET_W = 171.45, SHEET_H = 234.95;
 const W = SHEET_W, H = SHEET_H;
-
-/**
- * An independent validity check: it places each cut line itself (rotation about the frame centre,
- * then the piece position) and measures with @flatten-js/core, a general geometry package from npm,
- * not with any of the packer's own geometry.
- */
-function checkLayout(items: Array<{ key: string; outline: Outline }>, result: ArrangeResult, opts: { gap: number; margin: number; width?: number; height?: number }) {
-  const W = opts.width ?? SHEET_W, H = opts.height ?? SHEET_H;
-  const outlines = new Map(items.map((i) => [i.key, i.outline]));
-  const bySheet = new Map<number, Flatten.Polygon[]>();
-  for (const p of result.placements) {
-    const o = outlines.get(p.key)!;
-    const a = (p.rotation * Math.PI) / 180;
-    const points = o.points.map((q) => {
-      const dx = q.x - o.widthMm / 2, dy = q.y - o.heightMm / 2;
-      return new Flatten.Point(p.x + dx * Math.cos(a) - dy * Math.sin(a), p.y + dx * Math.sin(a) + dy * Math.cos(a));
-    });
-    for (const q of points) {
-      expect(q.x).toBeGreaterThanOrEqual(opts.margin - 1e-6);
-      expect(q.y).toBeGreaterThanOrEqual(opts.margin - 1e-6);
-      expect(q.x).toBeLessThanOrEqual(W - opts.margin + 1e-6);
-      expect(q.y).toBeLessThanOrEqual(H - opts.margin + 1e-6);
-    }
-    const list = bySheet.get(p.sheet) ?? [];
-    list.push(new Flatten.Polygon(points));
-    bySheet.set(p.sheet, list);
-  }
-  let closest = Infinity;
-  for (const polygons of bySheet.values()) {
-    for (let i = 0; i < polygons.length; i++) {
-      for (let j = i + 1; j < polygons.length; j++) {
-        const [distance] = polygons[i].distanceTo(polygons[j]);
-        closest = Math.min(closest, distance);
-        expect(distance).toBeGreaterThanOrEqual(opts.gap - 1e-6);
-        // At a gap of 0 a distance cannot tell touching from crossing: the shared area must be nil.
-        if (opts.gap === 0 && distance === 0) expect(Flatten.BooleanOperations.intersect(polygons[i], polygons[j]).area()).toBeLessThan(1e-3);
-      }
-    }
-  }
-  return closest;
-}
 
 function seededRandom(seed: number) {
   let a = seed;
@@ -177,17 +132,8 @@ describe('arrange: the benchmark claim', () => {
 // is 200 mm high. At a gap of 0 every spot must still be collision-free (it once checked nothing).
 describe('arrange at a gap of 0 (ESICUP jakobs1)', () => {
   it('places no two pieces so that they cross, by @flatten-js/core boolean intersection', () => {
-    const instance = JSON.parse(readFileSync(path.join(nestingDir(), 'jakobs1.json'), 'utf8')) as { strip_height: number; items: Array<{ id: number; demand: number; shape: { data: number[][] } }> };
-    const k = 200 / instance.strip_height;
-    const items: ArrangeItem[] = instance.items.map((item) => {
-      const xs = item.shape.data.map((p) => p[0]), ys = item.shape.data.map((p) => p[1]);
-      const x0 = Math.min(...xs), y0 = Math.min(...ys);
-      let points = item.shape.data.map(([x, y]) => ({ x: (x - x0) * k, y: (y - y0) * k }));
-      if (points.length > 1 && points[0].x === points.at(-1)!.x && points[0].y === points.at(-1)!.y) points = points.slice(0, -1);
-      const signed = points.reduce((s, p, i) => s + p.x * points[(i + 1) % points.length].y - points[(i + 1) % points.length].x * p.y, 0);
-      if (signed < 0) points.reverse();
-      return { key: String(item.id), count: item.demand, outline: { points, widthMm: (Math.max(...xs) - x0) * k, heightMm: (Math.max(...ys) - y0) * k } };
-    });
+    // Quarter turns: the instance's own orientations.
+    const items = esicupItems('jakobs1', { stripHeight: 200 });
     const width = 1200, height = 200;
     const result = arrange(items, { width, height, gap: 0, margin: 0, rotate: '90', timeMs: 1500, seed: 1 });
     expect(result.placed).toBe(25);
@@ -198,23 +144,9 @@ describe('arrange at a gap of 0 (ESICUP jakobs1)', () => {
 // Strip packing goes on past the constructive layout with the overlap search (a sequence of
 // feasibility problems). ESICUP instances from ../shared/nesting/, read from there.
 describe('strip packing with the overlap search (ESICUP shapes0 and jakobs1)', () => {
-  const load = (name: string) => {
-    const instance = JSON.parse(readFileSync(path.join(nestingDir(), `${name}.json`), 'utf8')) as { strip_height: number; items: Array<{ id: number; demand: number; allowed_orientations?: number[]; shape: { data: number[][] } }> };
-    const k = 200 / instance.strip_height;
-    return instance.items.map((item): ArrangeItem => {
-      const xs = item.shape.data.map((p) => p[0] * k), ys = item.shape.data.map((p) => p[1] * k);
-      const x0 = Math.min(...xs), y0 = Math.min(...ys);
-      let points = item.shape.data.map(([x, y]) => ({ x: x * k - x0, y: y * k - y0 }));
-      if (points.length > 1 && points[0].x === points.at(-1)!.x && points[0].y === points.at(-1)!.y) points = points.slice(0, -1);
-      const signed = points.reduce((s, p, i) => s + p.x * points[(i + 1) % points.length].y - points[(i + 1) % points.length].x * p.y, 0);
-      if (signed < 0) points.reverse();
-      return { key: String(item.id), count: item.demand, rotate: { set: item.allowed_orientations ?? [0] }, outline: { points, widthMm: Math.max(...xs) - x0, heightMm: Math.max(...ys) - y0 } };
-    });
-  };
-
   for (const [name, gap] of [['shapes0', 0], ['jakobs1', 0.5]] as const) {
     it(`${name} at a gap of ${gap} mm: shorter than the constructive layout, valid by @flatten-js/core, the same for the same seed`, () => {
-      const items = load(name);
+      const items = esicupItems(name, { stripHeight: 200 });
       const options = { width: 200, height: 2000, gap, margin: 0, strip: true, timeMs: 60_000, seed: 4 };
       const start = arrange(items, { ...options, maxIterations: 1 });
       const searched = arrange(items, { ...options, maxIterations: 5 });
