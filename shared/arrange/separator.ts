@@ -246,10 +246,13 @@ export class Layout {
         total = this.totalOverlap();
         if (total === 0) return true;
         if (total < least) {
+          // Only a real gain (1 %) buys more rounds; crumbs of overlap shaved off do not.
+          if (total < least * 0.99) {
+            gainedThisStrike = true;
+            idle = 0;
+          } else idle++;
           least = total;
           best = this.snapshot();
-          gainedThisStrike = true;
-          idle = 0;
         } else idle++;
         this.reweigh();
       }

@@ -8,6 +8,8 @@ import type { SheetDocument } from '../../../../shared/sheet/document';
 import type { ArrangeChoice } from '../core/arrange-plan';
 import { arrangeCommand, arrangeGroups, defaultTurning, furtherSheets, MAX_QUANTITY, parseQuantity, planArrange } from '../core/arrange-plan';
 import type { EditorStore } from '../core/editor-store';
+import { ArrangeRunner } from '../core/arrange-runner';
+import { threadsFor } from '../../../../shared/arrange/portfolio';
 
 type Props = {
   store: EditorStore;
@@ -42,11 +44,11 @@ export function ArrangePanel({ store, outlines, nameOf, onPreview, onFurtherShee
   const [made, setMade] = useState<Array<{ id: string; name: string }> | null>(null);
   const [making, setMaking] = useState(false);
   const [kept, setKept] = useState(false);
-  const [progress, setProgress] = useState<ArrangeProgress | null>(null);
+  const [progress, setProgress] = useState<(ArrangeProgress & { threads: number }) | null>(null);
   const [result, setResult] = useState<{ command: Command; summary: ArrangeResult; further: SheetDocument[] } | null>(null);
   const [error, setError] = useState<string | null>(null);
-  const worker = useRef<Worker | null>(null);
-  const best = useRef<{ result: ArrangeResult; groups: ReturnType<typeof planArrange>['groups']; doc: SheetDocument } | null>(null);
+  const runner = useRef<ArrangeRunner | null>(null);
+  const best = useRef<{ groups: ReturnType<typeof planArrange>['groups']; doc: SheetDocument } | null>(null);
   const running = progress !== null && !result && !error;
 
   const state0 = store.getState();
@@ -63,27 +65,31 @@ export function ArrangePanel({ store, outlines, nameOf, onPreview, onFurtherShee
       setError('Nothing to arrange: choose pieces that are not locked, and wait for their outlines.');
       return;
     }
-    worker.current?.terminate();
-    const w = new Worker(new URL('../core/arrange.worker.ts', import.meta.url), { type: 'module' });
-    worker.current = w;
+    runner.current?.stop();
+    const threads = threadsFor(navigator.hardwareConcurrency || 2);
+    const r = new ArrangeRunner(() => new Worker(new URL('../core/arrange.worker.ts', import.meta.url), { type: 'module' }), threads);
+    runner.current = r;
     best.current = null;
-    w.onmessage = (event) => {
-      const message = event.data;
-      if (message.type === 'progress') setProgress(message.progress);
-      if (message.type === 'best') best.current = { result: message.result, groups: plan.groups, doc: state.doc };
-      if (message.type === 'error') setError(message.message);
-      if (message.type === 'done') finish(plan.groups, state.doc, message.result);
-    };
-    w.onerror = () => {
-      setError('Arranging stopped unexpectedly; nothing was changed. Try again, or with fewer pieces.');
-      setProgress(null);
-    };
-    w.postMessage({ items: plan.items, options: plan.options, locked: plan.locked });
+    setProgress({ iteration: 0, placed: 0, elapsedMs: 0, sheets: 1, areaUsed: 0, threads });
+    r.start(
+      { items: plan.items, options: plan.options, locked: plan.locked },
+      {
+        onProgress: (p) => {
+          setProgress(p);
+          best.current = { groups: plan.groups, doc: state.doc };
+        },
+        onDone: (summary) => finish(plan.groups, state.doc, summary),
+        onError: (message) => {
+          setError(message);
+          setProgress(null);
+        },
+      },
+    );
   };
 
   const finish = (groups: ReturnType<typeof planArrange>['groups'], doc: SheetDocument, summary: ArrangeResult) => {
-    worker.current?.terminate();
-    worker.current = null;
+    runner.current?.stop();
+    runner.current = null;
     const command = arrangeCommand(groups, summary);
     setProgress(null);
     setResult({ command, summary, further: furtherSheets(doc, groups, summary) });
@@ -111,16 +117,13 @@ export function ArrangePanel({ store, outlines, nameOf, onPreview, onFurtherShee
 
   /** Stops the search at once and previews the best layout found so far. */
   const stop = () => {
-    const b = best.current;
-    if (b) finish(b.groups, b.doc, b.result);
-    else {
-      worker.current?.terminate();
-      setProgress(null);
-    }
+    const b = best.current, summary = runner.current?.stop();
+    if (b && summary) finish(b.groups, b.doc, summary);
+    else setProgress(null);
   };
 
   const close = () => {
-    worker.current?.terminate();
+    runner.current?.stop();
     onPreview(null);
     onClose();
   };
@@ -184,7 +187,7 @@ export function ArrangePanel({ store, outlines, nameOf, onPreview, onFurtherShee
       )}
       {progress && !result && (
         <p role="status" className="mb-2" data-testid="arrange-progress">
-          Trying layouts… {progress.iteration} tried; the best places {progress.placed} on {progress.sheets} sheet{progress.sheets === 1 ? '' : 's'}, {Math.round(progress.areaUsed * 100)} % of the print area.
+          Trying layouts on {progress.threads} thread{progress.threads === 1 ? '' : 's'}… {progress.iteration} tried; the best places {progress.placed} on {progress.sheets} sheet{progress.sheets === 1 ? '' : 's'}, {Math.round(progress.areaUsed * 100)} % of the print area.
         </p>
       )}
       {error && <p role="alert" className="mb-2 font-semibold text-alarm">{error}</p>}
