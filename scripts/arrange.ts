@@ -1,8 +1,9 @@
 // npm run arrange -- <art>=<count>@<width>... --sheet 6.75x9.25in [--gap 0.125in] [--margin 0in]
-//   [--border 0.125in] [--rotate 90|none|15] [--fill] [--time 2s] [--seed 1] --out <dir>
+//   [--border 0.125in] [--rotate 90|none|15] [--fill] [--time 2s] [--seed 1] [--threads N] --out <dir>
 // Outlines each art file, arranges the pieces and writes sheet.json (the sheet document with the art
 // files), sheet.svg (every cut line, in mm) and sheet.png (the print image at 300 DPI); more sheets
-// when one is not enough (sheet-2.*). Prints one JSON line. No database needed.
+// when one is not enough (sheet-2.*). Prints one JSON line. No database needed. The search runs on
+// --threads worker threads at once (default: one per core but one), each with its own seed.
 import { DEFAULT_ART_BACKGROUND, pieceOutlineOptions } from '../shared/sheet/outline-request';
 import { DEFAULT_PREFLIGHT_LIMITS } from '../shared/sheet/preflight';
 import { mkdir, readFile, writeFile } from 'node:fs/promises';
@@ -10,7 +11,8 @@ import path from 'node:path';
 import { parseArgs } from 'node:util';
 import { fail } from './cli';
 import type { ArrangeItem, RotateMode } from '../shared/arrange/nester';
-import { ArrangeInputError, arrange } from '../shared/arrange/nester';
+import { ArrangeInputError } from '../shared/arrange/nester';
+import { arrangeInThreads, defaultThreads } from '../server/engine/arrange/parallel';
 import type { Piece, SheetDocument } from '../shared/sheet/document';
 import { SHEET_SCHEMA_VERSION } from '../shared/sheet/document';
 import { parseLength } from '../shared/units';
@@ -33,11 +35,12 @@ const { values, positionals } = parseArgs({
     fill: { type: 'boolean', default: false },
     time: { type: 'string', default: '2s' },
     seed: { type: 'string', default: '1' },
+    threads: { type: 'string' },
     dpi: { type: 'string', default: '300' },
     out: { type: 'string' },
   },
 });
-if (!values.out || positionals.length === 0) fail('usage: npm run arrange -- <art>=<count>@<width>... --sheet 6.75x9.25in [--gap 0.125in] [--margin 0in] [--border 0.125in] [--rotate 90] [--fill] [--time 2s] [--seed 1] --out <dir>');
+if (!values.out || positionals.length === 0) fail('usage: npm run arrange -- <art>=<count>@<width>... --sheet 6.75x9.25in [--gap 0.125in] [--margin 0in] [--border 0.125in] [--rotate 90] [--fill] [--time 2s] [--seed 1] [--threads N] --out <dir>');
 
 const sheetMatch = /^([\d.]+)x([\d.]+)(mm|in)$/i.exec(values.sheet!);
 if (!sheetMatch) fail(`--sheet: give the print area like 6.75x9.25in or 171x235mm (got "${values.sheet}")`);
@@ -48,6 +51,8 @@ const rotate: RotateMode = values.rotate === 'none' || values.rotate === '0' ? '
 if (typeof rotate === 'object' && !(rotate.step > 0)) fail(`--rotate: give none, 90 or a step in degrees such as 15`);
 const timeMs = /^([\d.]+)(ms|s)?$/.exec(values.time!) ? Number(/^([\d.]+)/.exec(values.time!)![1]) * (values.time!.endsWith('ms') ? 1 : 1000) : fail('--time: give a duration like 2s');
 const dpi = Number(values.dpi);
+const threads = values.threads === undefined ? defaultThreads() : Number(values.threads);
+if (!Number.isInteger(threads) || threads < 1 || threads > 64) fail(`--threads: give a whole number of threads from 1 to 64 (got "${values.threads}")`);
 
 const problems: string[] = [];
 const items: Array<ArrangeItem & { width: number }> = [];
@@ -78,7 +83,7 @@ for (const [index, spec] of positionals.entries()) {
 
 let result;
 try {
-  result = arrange(items, { width, height, gap, margin, rotate, fill: values.fill, timeMs, seed: Number(values.seed) });
+  result = await arrangeInThreads(items, { width, height, gap, margin, rotate, fill: values.fill, timeMs, seed: Number(values.seed) }, [], threads).done;
 } catch (error) {
   if (error instanceof ArrangeInputError) fail(error.message);
   throw error;
@@ -112,5 +117,5 @@ for (let s = 0; s < result.sheets; s++) {
 }
 
 for (const problem of problems) console.error(`problem: ${problem}`);
-console.log(JSON.stringify({ requested: result.requested, placed: result.placed, sheets: result.sheets, areaUsed: result.areaUsed.map((a) => Number(a.toFixed(4))), ms: result.ms, problems }));
+console.log(JSON.stringify({ requested: result.requested, placed: result.placed, sheets: result.sheets, areaUsed: result.areaUsed.map((a) => Number(a.toFixed(4))), ms: result.ms, threads, problems }));
 process.exit(problems.length > 0 ? 1 : 0);

@@ -1,10 +1,11 @@
-// npm run bench:nest -- <instance.json or folder>... [--time 60s] [--seed 1] [--out DIR] [--json] [--sticker]
+// npm run bench:nest -- <instance.json or folder>... [--time 60s] [--seed 1] [--out DIR] [--json] [--sticker] [--threads 1]
 //
 // Strip packing on instances in the JSON layout of ../shared/nesting/ (ESICUP, as published with the
 // open-source packer sparrow): a fixed strip height, every copy of every item placed at one of its
 // allowed orientations, the length as short as possible. Each instance is scaled so the strip is
 // 200 mm high (density does not change with scale) and packed by our nester at a 1 mm cell with a
-// gap of 0.01 mm. Density = total item area / (strip height × length).
+// gap of 0.01 mm. Density = total item area / (strip height × length). One thread unless --threads
+// asks for more (each its own seed, the best kept).
 //
 // --sticker runs the sticker protocol instead: the instance's shapes scaled so the median piece's
 // larger side is 44.45 mm (1.75 in), filling a 171.45 × 234.95 mm print area with a 3.175 mm gap and
@@ -15,6 +16,7 @@ import { parseArgs } from 'node:util';
 import { MaxRectsPacker } from 'maxrects-packer/dist/maxrects-packer.mjs';
 import type { ArrangeItem, RotateMode } from '../../shared/arrange/nester';
 import { arrange } from '../../shared/arrange/nester';
+import { arrangeInThreads } from '../../server/engine/arrange/parallel';
 import { rotateRing } from '../../shared/arrange/raster';
 import type { Ring } from '../../shared/geometry/polygon';
 import { area, signedArea } from '../../shared/geometry/polygon';
@@ -24,7 +26,7 @@ type Instance = { name: string; strip_height: number; items: Array<{ id: number;
 
 const { values, positionals } = parseArgs({
   allowPositionals: true,
-  options: { time: { type: 'string', default: '60s' }, seed: { type: 'string', default: '1' }, out: { type: 'string' }, json: { type: 'boolean', default: false }, sticker: { type: 'boolean', default: false } },
+  options: { time: { type: 'string', default: '60s' }, seed: { type: 'string', default: '1' }, out: { type: 'string' }, json: { type: 'boolean', default: false }, sticker: { type: 'boolean', default: false }, threads: { type: 'string', default: '1' } },
 });
 
 const seconds = (text: string) => {
@@ -87,7 +89,9 @@ async function strip(file: string, timeS: number, seed: number) {
   }
   const longest = items.reduce((s, i) => s + Math.max(i.outline.widthMm, i.outline.heightMm) * i.count, 0);
   const started = performance.now();
-  const result = arrange(items, { width: H, height: longest, gap: 0.01, margin: 0, strip: true, rotate: 'none', timeMs: timeS * 1000, seed, maxSheets: 1 });
+  const options = { width: H, height: longest, gap: 0.01, margin: 0, strip: true, rotate: 'none' as const, timeMs: timeS * 1000, seed, maxSheets: 1 };
+  const threads = Number(values.threads);
+  const result = threads > 1 ? await arrangeInThreads(items, options, [], threads).done : arrange(items, options);
   const ms = performance.now() - started;
   // Back to the strip's frame: a point p of the item's own polygon lands at X = R(θ)p + t.
   const placements = result.placements.map((pl) => {

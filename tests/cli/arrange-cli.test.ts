@@ -20,10 +20,10 @@ describe('npm run arrange (CLI, no database)', () => {
     await writeFile(leaf, await svgArt(600, 900, '<path d="M300 30 C560 300 560 600 300 870 C40 600 40 300 300 30 Z" fill="#229954"/>'));
     await writeFile(junk, 'not an image at all');
     const out = path.join(dir, 'out');
-    const result = await run('npx', ['--no-install', 'tsx', 'scripts/arrange.ts', `${fox}=5@1.5in`, `${leaf}=4@1in`, `${junk}=2@1in`, '--sheet', '6.75x9.25in', '--gap', '0.125in', '--margin', '0.1in', '--time', '1s', '--out', out]).catch((e) => e);
+    const result = await run('npx', ['--no-install', 'tsx', 'scripts/arrange.ts', `${fox}=5@1.5in`, `${leaf}=4@1in`, `${junk}=2@1in`, '--sheet', '6.75x9.25in', '--gap', '0.125in', '--margin', '0.1in', '--time', '1s', '--threads', '2', '--out', out]).catch((e) => e);
     expect(result.code).toBe(1);
     const summary = JSON.parse(String(result.stdout).trim());
-    expect(summary).toMatchObject({ requested: 9, placed: 9, sheets: 1 });
+    expect(summary).toMatchObject({ requested: 9, placed: 9, sheets: 1, threads: 2 });
     expect(summary.problems).toEqual([`${junk}: This file is not an image Sheetsmith can read. Use PNG, JPEG or WebP.`]);
 
     const saved = JSON.parse(await readFile(path.join(out, 'sheet.json'), 'utf8'));
