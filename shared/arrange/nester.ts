@@ -11,8 +11,12 @@
 // Improvement builds on the best layout so far: a local search over the sequence and each piece's
 // rotation (swap two pieces, move one earlier, turn one; Gomes & Oliveira 2002 use the same
 // neighbourhood), accepted by late-acceptance hill climbing (Burke & Bykov 2017), which takes a move
-// when it is no worse than the layout of some iterations ago. It is anytime: progress reports the
-// best so far, `shouldStop` ends it early, and a seed makes it repeatable.
+// when it is no worse than the layout of some iterations ago.
+// Then the overlap search takes over (separator.ts): in strip packing a sequence of feasibility
+// problems, each a shorter strip whose overlap a guided local search removes (strip.ts, after
+// Gardeyn, Vanden Berghe & Wauters 2025); on sheets, one more piece at a time while the separator
+// can make room for it, or the last sheet emptied into the others (sheet-search.ts). It is anytime:
+// progress reports the best so far, `shouldStop` ends it early, and a seed makes it repeatable.
 import type { Ring } from '../geometry/polygon';
 import { area, boundingBox } from '../geometry/polygon';
 import { overlaps } from '../geometry/overlap';
