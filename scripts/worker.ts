@@ -1,13 +1,14 @@
 // npm run worker: a job worker of its own, for this machine or another one that reaches the same
 // MariaDB, Redis and file storage. WORKER_CONCURRENCY jobs at once; CPU-heavy steps use an outline
-// thread pool sized to the cores (OUTLINE_THREADS). Stops cleanly on SIGTERM or Ctrl-C: the job in
+// thread pool sized to the cores (OUTLINE_THREADS); arrange runs use ARRANGE_THREADS threads. Stops cleanly on SIGTERM or Ctrl-C: the job in
 // hand is finished first (or, if the process is killed, taken up again by another worker).
 import { hostname } from 'node:os';
 import { env } from '../server/config/env';
 import { createDataSource } from '../server/db/data-source';
 import { OutlinePool } from '../server/engine/outline/pool';
 import { JobQueues } from '../server/jobs/queues';
-import { jobSettingsFrom, startExportWorker, startOutlineWorker } from '../server/jobs/workers';
+import { jobSettingsFrom, startArrangeWorker, startExportWorker, startOutlineWorker } from '../server/jobs/workers';
+import { defaultThreads } from '../server/engine/arrange/parallel';
 import { createLog } from '../server/lib/log';
 import { OutlineService } from '../server/modules/outlines/outline.service';
 import { ExportsService } from '../server/modules/sheets/exports.service';
@@ -26,7 +27,7 @@ const sheets = new SheetsService(dataSource, storage, new ProfilesService(dataSo
 const outlines = new OutlineService(dataSource, storage, pool);
 const exportsService = new ExportsService(dataSource, storage, pool, sheets, new SheetAnalysisService(dataSource, storage, outlines), log, queues);
 const name = `${hostname()}:${process.pid}`;
-const workers = [startExportWorker(exportsService, settings, env, log, name), startOutlineWorker(outlines, settings, log, name, Math.max(2, pool.size))];
+const workers = [startExportWorker(exportsService, settings, env, log, name), startOutlineWorker(outlines, settings, log, name, Math.max(2, pool.size)), startArrangeWorker(queues, settings, log, name, env.ARRANGE_THREADS || defaultThreads())];
 await Promise.all(workers.map((w) => w.waitUntilReady()));
 log.info({ name, concurrency: settings.concurrency, prefix: settings.prefix }, 'worker ready');
 console.log(`[sheetsmith] worker ${name} ready (${settings.concurrency} at once)`);

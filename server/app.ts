@@ -32,7 +32,10 @@ import { SheetsService } from './modules/sheets/sheets.service';
 import { sheetsRouter } from './modules/sheets/sheets.router';
 import { ExportsService } from './modules/sheets/exports.service';
 import { JobQueues } from './jobs/queues';
-import { jobSettingsFrom, startExportWorker, startOutlineWorker } from './jobs/workers';
+import { jobSettingsFrom, startArrangeWorker, startExportWorker, startOutlineWorker } from './jobs/workers';
+import { ArrangeRunsService } from './modules/arrange/arrange.service';
+import { arrangeRouter } from './modules/arrange/arrange.router';
+import { defaultThreads } from './engine/arrange/parallel';
 import { OutlineService } from './modules/outlines/outline.service';
 import { outlinesRouter } from './modules/outlines/outlines.router';
 import { OutlinePool } from './engine/outline/pool';
@@ -127,7 +130,10 @@ export function createApp({
   const outlines = new OutlineService(dataSource, storage, pool, queues);
   const analysis = new SheetAnalysisService(dataSource, storage, outlines);
   const exportsService = new ExportsService(dataSource, storage, pool, sheets, analysis, log, queues);
-  const workers = env.WORKERS_EMBEDDED ? [startExportWorker(exportsService, jobSettings, env, log, 'embedded'), startOutlineWorker(outlines, jobSettings, log, 'embedded', Math.max(2, pool.size))] : [];
+  const workers = env.WORKERS_EMBEDDED
+    ? [startExportWorker(exportsService, jobSettings, env, log, 'embedded'), startOutlineWorker(outlines, jobSettings, log, 'embedded', Math.max(2, pool.size)), startArrangeWorker(queues, jobSettings, log, 'embedded', env.ARRANGE_THREADS || defaultThreads())]
+    : [];
+  const arrangeRuns = new ArrangeRunsService(sheets, queues);
   // Running exports whose job the queue no longer runs end as failed, even if nobody looks at them.
   const reconciler = setInterval(() => void exportsService.reconcile().catch(() => undefined), 15_000);
   reconciler.unref();
@@ -160,6 +166,7 @@ export function createApp({
   api.use(teamsRouter({ dataSource, teams, auth, limits, csrfToken: generateToken }));
   api.use(artRouter({ dataSource, art, sheets, maxBytes: env.ART_MAX_BYTES }));
   api.use(sheetsRouter({ dataSource, sheets, profiles, exports: exportsService, costing }));
+  api.use(arrangeRouter({ dataSource, runs: arrangeRuns }));
   api.use(shopRouter({ dataSource, sheets, stock, machines, runs, costing, analysis }));
   api.use(collectionsRouter({ dataSource, collections }));
   api.use(outlinesRouter({ dataSource, art, outlines }));

@@ -59,6 +59,8 @@ const envSchema = z.object({
   OUTLINE_MAX_PIXELS: z.coerce.number().int().min(16).default(50_000_000),
   OUTLINE_MAX_OUTPUT_PIXELS: z.coerce.number().int().min(16).default(40_000_000),
   OUTLINE_THREADS: z.coerce.number().int().min(0).max(16).default(0),
+  /** Threads an arrange run uses on a worker (0: one per core but one, at most four). */
+  ARRANGE_THREADS: z.coerce.number().int().min(0).max(16).default(0),
   /** The job queues' Redis (scripts start a private one on 127.0.0.1:6390 unless this points elsewhere). */
   REDIS_URL: z.string().regex(/^rediss?:\/\//, 'REDIS_URL: give an address like redis://127.0.0.1:6390').default('redis://127.0.0.1:6390'),
   /** Key prefix in Redis, so several deployments can share one (default: one per database, `sheetsmith-<DB_NAME>`). */

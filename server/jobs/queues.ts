@@ -5,6 +5,7 @@
 import { Queue, QueueEvents, Worker } from 'bullmq';
 import type { ConnectionOptions, Job, Processor } from 'bullmq';
 import type { OutlineOptions } from '../../shared/schemas/outline';
+import type { ArrangeRunInput } from '../../shared/schemas/arrange';
 import { OutlineInputError } from '../engine/outline/errors';
 import { OutlinePoolBusyError } from '../engine/outline/pool';
 
@@ -21,10 +22,14 @@ export type JobSettings = {
   concurrency: number;
 };
 
-export const QUEUE_NAMES = { exports: 'exports', outlines: 'outlines' } as const;
+export const QUEUE_NAMES = { exports: 'exports', outlines: 'outlines', arranges: 'arranges' } as const;
 
 export type ExportJobData = { teamId: string; sheetId: string; exportId: string };
 export type OutlineJobData = { key: string; artSha256: string; storageKey: string; options: OutlineOptions };
+export type ArrangeJobData = { teamId: string; sheetId: string; userId: string; input: ArrangeRunInput };
+
+/** The Redis key that asks a running arrange job to stop (its worker looks for it). */
+export const arrangeStopKey = (prefix: string, jobId: string) => `${prefix}:arrange-stop:${jobId}`;
 
 /** An outline job's failure carries the engine's code, so the app answers as if it had run it itself. */
 export const OUTLINE_INPUT_PREFIX = 'outline-input:';
@@ -47,16 +52,19 @@ export function connection(url: string): ConnectionOptions {
 export class JobQueues {
   readonly exports: Queue<ExportJobData>;
   readonly outlines: Queue<OutlineJobData>;
+  readonly arranges: Queue<ArrangeJobData>;
   private outlineEvents: QueueEvents | null = null;
 
   constructor(readonly settings: JobSettings) {
     this.exports = new Queue<ExportJobData>(QUEUE_NAMES.exports, { connection: connection(settings.redisUrl), prefix: settings.prefix });
     this.outlines = new Queue<OutlineJobData>(QUEUE_NAMES.outlines, { connection: connection(settings.redisUrl), prefix: settings.prefix });
+    this.arranges = new Queue<ArrangeJobData>(QUEUE_NAMES.arranges, { connection: connection(settings.redisUrl), prefix: settings.prefix });
     // Every waiting request listens for its job: many at once is the normal case, not a leak.
     this.outlines.setMaxListeners(0);
     // Redis errors surface where a job is added or awaited; an idle queue's own errors are not news.
     this.exports.on('error', () => undefined);
     this.outlines.on('error', () => undefined);
+    this.arranges.on('error', () => undefined);
   }
 
   /**
@@ -100,9 +108,20 @@ export class JobQueues {
     await job?.remove().catch(() => undefined); // an active job is locked by its worker: it notices the cancel itself
   }
 
+  /** Queues an arrange run; kept an hour after it ends so the editor can read its result. */
+  async addArrange(jobId: string, data: ArrangeJobData) {
+    await this.arranges.add('arrange', data, { jobId, attempts: 1, removeOnComplete: { age: 3600 }, removeOnFail: { age: 3600 } });
+  }
+
+  async stopArrange(jobId: string) {
+    const client = await this.arranges.client;
+    await client.set(arrangeStopKey(this.settings.prefix, jobId), '1', { EX: 3600 });
+  }
+
   /** Closes the connections once they are up: closing one mid-handshake leaves ioredis a rejected command. */
   async close() {
-    await Promise.allSettled([this.exports.waitUntilReady(), this.outlines.waitUntilReady(), this.outlineEvents?.waitUntilReady()]);
+    await Promise.allSettled([this.exports.waitUntilReady(), this.outlines.waitUntilReady(), this.arranges.waitUntilReady(), this.outlineEvents?.waitUntilReady()]);
+    await this.arranges.close();
     await this.outlineEvents?.close();
     await this.outlines.close();
     await this.exports.close();

@@ -4,8 +4,12 @@ import type { ExportsService } from '../modules/sheets/exports.service';
 import { UnrecoverableError } from 'bullmq';
 import { OutlineInputError } from '../engine/outline/errors';
 import type { OutlineService } from '../modules/outlines/outline.service';
-import type { ExportJobData, JobSettings, OutlineJobData } from './queues';
-import { OUTLINE_INPUT_PREFIX, QUEUE_NAMES, startWorker } from './queues';
+import type { ArrangeJobData, ExportJobData, JobSettings, OutlineJobData } from './queues';
+import { arrangeStopKey, OUTLINE_INPUT_PREFIX, QUEUE_NAMES, startWorker } from './queues';
+import type { ArrangeResult } from '../../shared/arrange/nester';
+import { ArrangeInputError } from '../../shared/arrange/nester';
+import { arrangeInThreads } from '../engine/arrange/parallel';
+import type { JobQueues } from './queues';
 
 export const jobSettingsFrom = (env: Env, prefix = env.QUEUE_PREFIX): JobSettings => ({
   redisUrl: env.REDIS_URL,
@@ -48,6 +52,42 @@ export function startOutlineWorker(outlines: OutlineService, settings: JobSettin
     },
     (job, error) => {
       if (!(error.message ?? '').startsWith(OUTLINE_INPUT_PREFIX)) log.warn({ err: error, jobId: job?.id }, 'outline job failed');
+    },
+    name,
+  );
+}
+
+/**
+ * The arrange worker: runs the nester on `threads` worker threads (one seed each), reports each new
+ * best as the job's progress, and stops with the best so far when asked (a Redis key the app sets)
+ * or when the run has had its time and half a minute more.
+ */
+export function startArrangeWorker(queues: JobQueues, settings: JobSettings, log: Log, name: string, threads: number) {
+  return startWorker<ArrangeJobData>(
+    QUEUE_NAMES.arranges,
+    { ...settings, concurrency: 1 },
+    async (job): Promise<ArrangeResult> => {
+      const { items, options, locked } = job.data.input;
+      const started = Date.now();
+      const run = arrangeInThreads(items, options, locked, threads, (best) => {
+        void job.updateProgress({ placed: best.placed, sheets: best.sheets, areaUsed: best.areaUsed[0] ?? 0, elapsedMs: Date.now() - started }).catch(() => undefined);
+      });
+      const client = await queues.arranges.client;
+      const watch = setInterval(() => {
+        if (Date.now() - started > options.timeMs + 30_000) run.stop();
+        void client.get(arrangeStopKey(settings.prefix, job.id!)).then((flag) => flag && run.stop(), () => undefined);
+      }, 250);
+      try {
+        return await run.done;
+      } catch (error) {
+        if (error instanceof ArrangeInputError) throw new UnrecoverableError(error.message);
+        throw error;
+      } finally {
+        clearInterval(watch);
+      }
+    },
+    (job, error) => {
+      if (!(error instanceof UnrecoverableError)) log.warn({ err: error, jobId: job?.id }, 'arrange job failed');
     },
     name,
   );

@@ -145,6 +145,28 @@ describe('sheet editor in Chromium', { timeout: BROWSER_TEST_TIMEOUT }, () => {
     await page.close();
   });
 
+  it('auto-arrange runs on the shop’s server too: its best so far shows while it runs, and Stop ends it with that best', async () => {
+    const { team, users, client, art } = await teamWithArt();
+    const { body: sheet } = await client.post(`/api/teams/${team.id}/sheets`, { name: 'On the server' });
+    await placePieces(client, team.id, sheet, Array.from({ length: 10 }, (_, i) => testPiece(`v${i}`, art[i % 3].id, 80 + i, 110 + i)));
+    const page = await t.browser.newPage({ viewport: { width: 1280, height: 800 } });
+    await signIn(page, users.member.email);
+    await page.goto(`${t.served.url}/t/${team.id}/sheets/${sheet.id}`);
+    await expect.poll(() => page.getByTestId('area-used').textContent(), { timeout: 20_000 }).toMatch(/^10 pieces · [1-9]/);
+    await page.getByRole('button', { name: 'Auto-arrange…' }).click();
+    const dialog = page.getByRole('dialog', { name: 'Auto-arrange' });
+    await dialog.getByLabel('Run on').selectOption('server');
+    await dialog.getByLabel('Try for').selectOption('120');
+    await dialog.getByRole('button', { name: 'Arrange' }).click();
+    await expect.poll(() => page.getByTestId('arrange-progress').textContent(), { timeout: 30_000 }).toMatch(/^Arranging on the shop’s server… the best places 10 on 1 sheet/);
+    await screenshot(page, 'editor-arrange-on-server');
+    const stoppedAt = Date.now();
+    await dialog.getByRole('button', { name: 'Stop and keep the best so far' }).click();
+    await expect.poll(() => page.getByTestId('arrange-summary').textContent(), { timeout: 15_000 }).toMatch(/^Preview: 10 of 10 placed/);
+    expect(Date.now() - stoppedAt).toBeLessThan(15_000);
+    await page.close();
+  });
+
   it('auto-arranges the sheet in a Web Worker: preview, keep, and undo in one step', async () => {
     const { team, users, client, art } = await teamWithArt();
     const { body: sheet } = await client.post(`/api/teams/${team.id}/sheets`, { name: 'Pile' });

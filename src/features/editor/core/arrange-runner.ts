@@ -10,6 +10,7 @@ export type RunnerEvents = {
 };
 
 export class ArrangeRunner {
+  readonly remote = false;
   private workers: Worker[] = [];
   private best: ArrangeResult | null = null;
   private finished = 0;
@@ -51,6 +52,10 @@ export class ArrangeRunner {
   stop(): ArrangeResult | null {
     this.terminate();
     return this.best;
+  }
+
+  close() {
+    this.stop();
   }
 
   private terminate() {

@@ -9,6 +9,7 @@ import type { ArrangeChoice } from '../core/arrange-plan';
 import { arrangeCommand, arrangeGroups, defaultTurning, furtherSheets, MAX_QUANTITY, parseQuantity, planArrange } from '../core/arrange-plan';
 import type { EditorStore } from '../core/editor-store';
 import { ArrangeRunner } from '../core/arrange-runner';
+import { ServerArrangeRunner } from '../api/arrange-runs';
 import { threadsFor } from '../../../../shared/arrange/portfolio';
 
 type Props = {
@@ -19,15 +20,20 @@ type Props = {
   /** Saves the further sheets a quantity needs; answers their ids and names. */
   onFurtherSheets: (docs: SheetDocument[]) => Promise<Array<{ id: string; name: string }>>;
   sheetLink: (id: string) => string;
+  /** The sheet's arrange runs on the server (API path). */
+  serverRuns: string;
   onClose: () => void;
 };
+
+type Runner = ArrangeRunner | ServerArrangeRunner;
 
 /**
  * Arrange options (which pieces, how many of each, turning, time), a run in a Web Worker with
  * progress, then a preview on the canvas that the user keeps (one undo step, plus any further sheets
  * a quantity needs, made as new sheets) or throws away.
  */
-export function ArrangePanel({ store, outlines, nameOf, onPreview, onFurtherSheets, sheetLink, onClose }: Props) {
+export function ArrangePanel({ store, outlines, nameOf, onPreview, onFurtherSheets, sheetLink, serverRuns, onClose }: Props) {
+  const [where, setWhere] = useState<'here' | 'server'>('here');
   const [choice, setChoice] = useState<ArrangeChoice>(() => {
     const s = store.getState();
     const scope = s.selection.size > 1 ? 'selection' : 'sheet';
@@ -45,9 +51,10 @@ export function ArrangePanel({ store, outlines, nameOf, onPreview, onFurtherShee
   const [making, setMaking] = useState(false);
   const [kept, setKept] = useState(false);
   const [progress, setProgress] = useState<(ArrangeProgress & { threads: number }) | null>(null);
+  const [stopping, setStopping] = useState(false);
   const [result, setResult] = useState<{ command: Command; summary: ArrangeResult; further: SheetDocument[] } | null>(null);
   const [error, setError] = useState<string | null>(null);
-  const runner = useRef<ArrangeRunner | null>(null);
+  const runner = useRef<Runner | null>(null);
   const best = useRef<{ groups: ReturnType<typeof planArrange>['groups']; doc: SheetDocument } | null>(null);
   const running = progress !== null && !result && !error;
 
@@ -56,6 +63,7 @@ export function ArrangePanel({ store, outlines, nameOf, onPreview, onFurtherShee
 
   const start = () => {
     setError(null);
+    setStopping(false);
     setResult(null);
     const state = store.getState();
     if (quantityErrors.length) return;
@@ -65,9 +73,9 @@ export function ArrangePanel({ store, outlines, nameOf, onPreview, onFurtherShee
       setError('Nothing to arrange: choose pieces that are not locked, and wait for their outlines.');
       return;
     }
-    runner.current?.stop();
-    const threads = threadsFor(navigator.hardwareConcurrency || 2);
-    const r = new ArrangeRunner(() => new Worker(new URL('../core/arrange.worker.ts', import.meta.url), { type: 'module' }), threads);
+    runner.current?.close();
+    const threads = where === 'server' ? 0 : threadsFor(navigator.hardwareConcurrency || 2);
+    const r = where === 'server' ? new ServerArrangeRunner(serverRuns) : new ArrangeRunner(() => new Worker(new URL('../core/arrange.worker.ts', import.meta.url), { type: 'module' }), threads);
     runner.current = r;
     best.current = null;
     setProgress({ iteration: 0, placed: 0, elapsedMs: 0, sheets: 1, areaUsed: 0, threads });
@@ -88,7 +96,7 @@ export function ArrangePanel({ store, outlines, nameOf, onPreview, onFurtherShee
   };
 
   const finish = (groups: ReturnType<typeof planArrange>['groups'], doc: SheetDocument, summary: ArrangeResult) => {
-    runner.current?.stop();
+    runner.current?.close();
     runner.current = null;
     const command = arrangeCommand(groups, summary);
     setProgress(null);
@@ -117,13 +125,20 @@ export function ArrangePanel({ store, outlines, nameOf, onPreview, onFurtherShee
 
   /** Stops the search at once and previews the best layout found so far. */
   const stop = () => {
-    const b = best.current, summary = runner.current?.stop();
+    const r = runner.current;
+    if (r?.remote) {
+      // The server ends the run with its best so far; the panel hears of it on its next read.
+      r.stop();
+      setStopping(true);
+      return;
+    }
+    const b = best.current, summary = r?.stop();
     if (b && summary) finish(b.groups, b.doc, summary);
     else setProgress(null);
   };
 
   const close = () => {
-    runner.current?.stop();
+    runner.current?.close();
     onPreview(null);
     onClose();
   };
@@ -170,9 +185,16 @@ export function ArrangePanel({ store, outlines, nameOf, onPreview, onFurtherShee
           </div>
         )}
         <label className="flex items-center justify-between font-bold">
+          Run on
+          <select value={where} onChange={(e) => setWhere(e.target.value as 'here' | 'server')} className="rounded border-2 border-paper-edge px-1">
+            <option value="here">This computer</option>
+            <option value="server">The shop’s server</option>
+          </select>
+        </label>
+        <label className="flex items-center justify-between font-bold">
           Try for
           <select value={choice.seconds} onChange={(e) => setChoice({ ...choice, seconds: Number(e.target.value) })} className="rounded border-2 border-paper-edge px-1">
-            {[1, 2, 5, 10].map((s) => <option key={s} value={s}>{s} s</option>)}
+            {(where === 'server' ? [2, 10, 30, 60, 120] : [1, 2, 5, 10]).map((s) => <option key={s} value={s}>{s < 60 ? `${s} s` : `${s / 60} min`}</option>)}
           </select>
         </label>
       </fieldset>
@@ -187,7 +209,7 @@ export function ArrangePanel({ store, outlines, nameOf, onPreview, onFurtherShee
       )}
       {progress && !result && (
         <p role="status" className="mb-2" data-testid="arrange-progress">
-          Trying layouts on {progress.threads} thread{progress.threads === 1 ? '' : 's'}… {progress.iteration} tried; the best places {progress.placed} on {progress.sheets} sheet{progress.sheets === 1 ? '' : 's'}, {Math.round(progress.areaUsed * 100)} % of the print area.
+          {progress.threads === 0 ? (stopping ? 'Stopping on the server…' : 'Arranging on the shop’s server…') : `Trying layouts on ${progress.threads} thread${progress.threads === 1 ? '' : 's'}… ${progress.iteration} tried;`} the best places {progress.placed} on {progress.sheets} sheet{progress.sheets === 1 ? '' : 's'}, {Math.round(progress.areaUsed * 100)} % of the print area.
         </p>
       )}
       {error && <p role="alert" className="mb-2 font-semibold text-alarm">{error}</p>}

@@ -219,6 +219,7 @@ export function EditorPage({ teamId, sheet, canEdit }: { teamId: string; sheet: 
               return made;
             }}
             sheetLink={(id) => `/t/${teamId}/sheets/${id}`}
+            serverRuns={`/teams/${teamId}/sheets/${sheet.id}/arrange-runs`}
             onClose={() => setArranging(false)}
           />
         )}
