@@ -15,27 +15,6 @@ import { overlapArea, OVERLAP_EPSILON_MM2 } from '../geometry/overlap';
 import type { Variant } from './shapes';
 import { insideRing } from './shapes';
 
-/** Whether shapes a at (ax, ay) and b at (bx, by) share interior (touching does not count). */
-export function collide(a: Variant, ax: number, ay: number, b: Variant, bx: number, by: number): boolean {
-  const lx = Math.max(a.gx0 + ax, b.gx0 + bx), hx = Math.min(a.gx1 + ax, b.gx1 + bx);
-  if (lx >= hx) return false;
-  const ly = Math.max(a.gy0 + ay, b.gy0 + by), hy = Math.min(a.gy1 + ay, b.gy1 + by);
-  if (ly >= hy) return false;
-  // The largest circles overlapping is proof enough (they lie inside the shapes).
-  const ap = a.poles, bp = b.poles;
-  const ka = Math.min(ap.length, 9), kb = Math.min(bp.length, 9);
-  for (let i = 0; i < ka; i += 3) {
-    for (let j = 0; j < kb; j += 3) {
-      const dx = ap[i] + ax - bp[j] - bx, dy = ap[i + 1] + ay - bp[j + 1] - by, r = ap[i + 2] + bp[j + 2];
-      if (dx * dx + dy * dy < r * r * 0.999) return true;
-    }
-  }
-  const verdict = crossing(a, ax, ay, b, bx, by, lx, ly, hx, hy);
-  if (verdict === CROSS) return true;
-  if (verdict === TOUCH) return sharedArea(a, ax, ay, b, bx, by) > OVERLAP_EPSILON_MM2;
-  return insideRing(ap[0] + ax - bx, ap[1] + ay - by, b.xs, b.ys) || insideRing(bp[0] + bx - ax, bp[1] + by - ay, a.xs, a.ys);
-}
-
 const APART = 0, CROSS = 1, TOUCH = 2;
 /** A's edges that reach into the window, in world coordinates: x0, y0, x1, y1 each. */
 let edgesA = new Float64Array(256);
@@ -86,26 +65,41 @@ function sharedArea(a: Variant, ax: number, ay: number, b: Variant, bx: number, 
   return overlapArea(ra, rb);
 }
 
-/** How deep two colliding shapes overlap (mm², always above 0 for a collision). */
-export function depth(a: Variant, ax: number, ay: number, b: Variant, bx: number, by: number): number {
+/**
+ * How deep shapes a at (ax, ay) and b at (bx, by) overlap (mm²): 0 when they do not collide, else
+ * above 0. One pass over the pairs of inscribed circles gives the depth and, when two of them
+ * overlap, the proof of a collision; only otherwise are the edges tested.
+ */
+export function overlapDepth(a: Variant, ax: number, ay: number, b: Variant, bx: number, by: number): number {
+  const lx = Math.max(a.gx0 + ax, b.gx0 + bx), hx = Math.min(a.gx1 + ax, b.gx1 + bx);
+  if (lx >= hx) return 0;
+  const ly = Math.max(a.gy0 + ay, b.gy0 + by), hy = Math.min(a.gy1 + ay, b.gy1 + by);
+  if (ly >= hy) return 0;
   const ap = a.poles, bp = b.poles;
   const eps = a.eps > b.eps ? a.eps : b.eps;
   // Circles farther apart than this add almost nothing to the tail; skipping them saves the root.
   const reach = 16 * eps;
   const ox = ax - bx, oy = ay - by;
-  let sum = 0;
+  let sum = 0, proven = false;
   for (let i = 0; i < ap.length; i += 3) {
     const px = ap[i] + ox, py = ap[i + 1] + oy, pr = ap[i + 2];
     for (let j = 0; j < bp.length; j += 3) {
       const dx = px - bp[j], dy = py - bp[j + 1], r = bp[j + 2];
       const far = pr + r + reach, d2 = dx * dx + dy * dy;
       if (d2 > far * far) continue;
-      const pd = pr + r - Math.sqrt(d2);
+      const touch = pr + r;
+      if (d2 < touch * touch * 0.999) proven = true;
+      const pd = touch - Math.sqrt(d2);
       const weight = pr < r ? pr : r;
       sum += (pd >= eps ? pd : (eps * eps) / (2 * eps - pd)) * weight;
     }
   }
   // A collision in parts no circle covers still counts for something.
   const floor = eps * eps * 0.01;
-  return sum > floor ? sum : floor;
+  const deep = sum > floor ? sum : floor;
+  if (proven) return deep;
+  const verdict = crossing(a, ax, ay, b, bx, by, lx, ly, hx, hy);
+  if (verdict === CROSS) return deep;
+  if (verdict === TOUCH) return sharedArea(a, ax, ay, b, bx, by) > OVERLAP_EPSILON_MM2 ? deep : 0;
+  return insideRing(ap[0] + ax - bx, ap[1] + ay - by, b.xs, b.ys) || insideRing(bp[0] + bx - ax, bp[1] + by - ay, a.xs, a.ys) ? deep : 0;
 }

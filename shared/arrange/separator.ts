@@ -9,7 +9,7 @@
 // the local minima that plain overlap leaves it in (guided local search, Voudouris & Tsang 1999).
 // After rounds without a new least overlap it returns to the best state seen and counts a strike.
 import RBush from 'rbush';
-import { collide, depth } from './collide';
+import { overlapDepth } from './collide';
 import type { Variant } from './shapes';
 
 export type LayoutPiece = { variants: Variant[]; v: number; x: number; y: number; fixed?: boolean };
@@ -94,7 +94,8 @@ export class Layout {
       if (e.i === i) continue;
       const q = this.pieces[e.i], t = q.variants[q.v];
       if (p.fixed && q.fixed) continue; // locked pieces are the maker's to place
-      if (collide(s, p.x, p.y, t, q.x, q.y)) this.depths[i * size + e.i] = this.depths[e.i * size + i] = depth(s, p.x, p.y, t, q.x, q.y);
+      const d = overlapDepth(s, p.x, p.y, t, q.x, q.y);
+      if (d > 0) this.depths[i * size + e.i] = this.depths[e.i * size + i] = d;
     }
   }
 
@@ -109,8 +110,9 @@ export class Layout {
     for (const e of near) {
       if (e.i === i || e.minX > x1 || e.maxX < x0 || e.minY > y1 || e.maxY < y0) continue;
       const q = this.pieces[e.i], t = q.variants[q.v];
-      if (!collide(s, x, y, t, q.x, q.y)) continue;
-      sum += this.weights[i * size + e.i] * depth(s, x, y, t, q.x, q.y);
+      const d = overlapDepth(s, x, y, t, q.x, q.y);
+      if (d === 0) continue;
+      sum += this.weights[i * size + e.i] * d;
       if (sum >= bound) return sum;
     }
     return sum;
