@@ -46,7 +46,10 @@ export function shortenStrip(layout: Layout, o: StripOptions): { length: number;
     // and trying again costs less than starting over.
     for (let attempt = 0; attempt < 3 && !ok && Date.now() < o.deadline; attempt++) {
       if (attempt > 0) swapLarge(layout, o.random);
-      ok = layout.separate({ strikes: exploring ? 3 : 5, roundsWithoutGain: exploring ? 100 : 50, deadline: o.deadline, random: o.random, shouldStop: o.shouldStop });
+      // No one try may eat the budget: a hopeless length costs at most a twentieth of the time (not
+      // when the tries are counted, so that a seed gives the same layout on any machine).
+      const cap = o.maxTries === undefined ? Date.now() + Math.max(500, total / 20) : Infinity;
+      ok = layout.separate({ strikes: exploring ? 3 : 5, roundsWithoutGain: exploring ? 100 : 50, deadline: Math.min(o.deadline, cap), random: o.random, shouldStop: o.shouldStop });
     }
     if (ok) {
       best = layout.snapshot();
