@@ -1,6 +1,6 @@
 import { boundaryPixels, closestPair } from './bridge';
 import { labelComponents } from './components';
-import { distanceTransform } from '../../../shared/geometry/distance-transform';
+import { nearSet } from './morphology';
 
 /**
  * Finds parts of a filled shape narrower than `minWidth` px: what a morphological opening with a
@@ -21,17 +21,14 @@ export function findNarrowParts(filled: Uint8Array, width: number, height: numbe
 
 /** The pixels of a filled shape an opening by a disk of radius `r` px removes; null when none. */
 export function thinResidue(filled: Uint8Array, width: number, height: number, r: number): Uint8Array | null {
-  const outside = new Uint8Array(filled.length);
-  for (let i = 0; i < filled.length; i++) outside[i] = filled[i] ? 0 : 1;
-  // Distances run between pixel centres; the +0.5 puts them on the pixel edge the cut follows.
-  const inner = distanceTransform(outside, width, height);
-  const centres = new Uint8Array(filled.length);
-  for (let i = 0; i < filled.length; i++) centres[i] = filled[i] && inner[i] - 0.5 >= r ? 1 : 0;
-  const reach = distanceTransform(centres, width, height);
+  // The opening's centres: what an inward offset by r leaves; it covers whatever lies within
+  // r of them (distances between pixel centres; the +0.5 puts them on the pixel edge the cut follows).
+  const centres = erode(filled, width, height, r);
+  const covered = nearSet(centres, width, height, r + 0.5, true);
   const residue = new Uint8Array(filled.length);
   let any = false;
   for (let i = 0; i < filled.length; i++) {
-    if (filled[i] && reach[i] > r + 0.5) {
+    if (filled[i] && !covered[i]) {
       residue[i] = 1;
       any = true;
     }
@@ -43,9 +40,9 @@ export function thinResidue(filled: Uint8Array, width: number, height: number, r
 export function erode(filled: Uint8Array, width: number, height: number, r: number): Uint8Array {
   const outside = new Uint8Array(filled.length);
   for (let i = 0; i < filled.length; i++) outside[i] = filled[i] ? 0 : 1;
-  const inner = distanceTransform(outside, width, height);
+  const near = nearSet(outside, width, height, r + 0.5, false);
   const out = new Uint8Array(filled.length);
-  for (let i = 0; i < filled.length; i++) out[i] = filled[i] && inner[i] - 0.5 >= r ? 1 : 0;
+  for (let i = 0; i < filled.length; i++) out[i] = filled[i] && !near[i] ? 1 : 0;
   return out;
 }
 
