@@ -20,4 +20,9 @@ export LOG_LEVEL="${TEST_LOG_LEVEL:-silent}"
 export DB_NAME="$DB_TEST_NAME"
 export DATA_DIR="$DATA_DIR/test"
 rm -rf "$DATA_DIR"; mkdir -p "$DATA_DIR"
+# Lint first (import boundaries included): a violation fails the run before any test does.
+if [ "$#" -eq 0 ]; then
+  log "linting (npm run lint)"
+  npx --no-install eslint .
+fi
 npx --no-install vitest run "$@"

@@ -40,7 +40,7 @@ export const crescent = (d: number) => {
 /** Two disks joined by a bridge: what the outline engine makes of art with islands. */
 export const dumbbell = (d: number, length: number) => {
   const r = d / 2, h = d / 10;
-  const a = Math.asin(h / r), c = r * Math.cos(a);
+  const a = Math.asin(h / r);
   const ring: Ring = [];
   for (let i = 0; i <= 32; i++) {
     const t = a + ((2 * Math.PI - 2 * a) * i) / 32;

@@ -1,3 +1,4 @@
+import type { Log } from '../lib/log';
 import type { RequestHandler } from 'express';
 import type { DataSource } from 'typeorm';
 import type { Permission, Role } from '../../shared/permissions';
@@ -11,7 +12,7 @@ declare global {
   namespace Express {
     interface Request {
       /** This request's logger, carrying its id (set first thing by requestLog). */
-      log: import('../lib/log').Log;
+      log: Log;
     }
     interface User {
       id: string;

@@ -131,3 +131,6 @@ export function pieceOutlineQuery(p: Pick<Piece, 'width' | 'border' | 'borderCol
   const o = pieceSizeOptions(p, limits);
   return { width: `${o.width.toFixed(2)}mm`, border: `${o.border.toFixed(3)}mm`, borderColour: o.borderColour, dpi: String(o.dpi), minFeature: `${o.minFeature.toFixed(2)}mm`, bridgeWidth: `${o.bridgeWidth.toFixed(2)}mm` };
 }
+
+/** The outline a piece needs: same art, printed width, border and border colour share one request. */
+export const outlineKey = (p: Pick<Piece, 'artId' | 'width' | 'border' | 'borderColour'>, limits: CutLimits) => `${p.artId}?${new URLSearchParams(pieceOutlineQuery(p, limits))}`;

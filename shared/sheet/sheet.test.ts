@@ -72,7 +72,7 @@ describe('commands', () => {
     expect(d).toEqual(start);
     d = history.redo(d);
     expect(d.pieces.find((p) => p.id === 'a')?.x).toBe(40);
-    d = history.apply(d, commands.resizePieces(d, ['a'], 20));
+    history.apply(d, commands.resizePieces(d, ['a'], 20));
     expect(history.canRedo).toBe(false);
   });
 });

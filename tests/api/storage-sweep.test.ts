@@ -1,5 +1,5 @@
 import { createHash, randomBytes } from 'node:crypto';
-import { mkdtemp, readdir, utimes, writeFile } from 'node:fs/promises';
+import { readdir, utimes, writeFile } from 'node:fs/promises';
 import path from 'node:path';
 import { describe, expect, it } from 'vitest';
 import { env } from '../../server/config/env';
@@ -8,7 +8,7 @@ import { sweepStorage } from '../../server/storage/sweep';
 import { svgArt } from '../helpers/art';
 import { Client, makeTeamWithRoles, useTestApp } from '../helpers/app';
 import { uploadFile } from '../helpers/library';
-import { placePieces, testPiece } from '../helpers/sheets';
+import { testPiece } from '../helpers/sheets';
 
 const HOUR = 3_600_000;
 let root = '';

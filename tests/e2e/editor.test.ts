@@ -3,7 +3,6 @@ import path from 'node:path';
 import { describe, expect, it } from 'vitest';
 import type { Page } from 'playwright-core';
 import type { Piece } from '../../shared/sheet/document';
-import { Client } from '../helpers/app';
 import { BROWSER_TEST_TIMEOUT, screenshot, signInThroughForm, useBrowserApp } from '../helpers/browser';
 import { placePieces, testPiece } from '../helpers/sheets';
 import { screenOf, sheetOf, teamWithShapes } from '../helpers/editor';

@@ -1,3 +1,4 @@
+import type { Response } from 'superagent';
 import { randomBytes } from 'node:crypto';
 import bcrypt from 'bcryptjs';
 import request from 'supertest';
@@ -132,7 +133,7 @@ export class Client {
 }
 
 /** A supertest parser that keeps any response body as raw bytes (images, zips, PDFs). */
-export const binary = (res: import('superagent').Response, cb: (err: Error | null, body: Buffer) => void) => {
+export const binary = (res: Response, cb: (err: Error | null, body: Buffer) => void) => {
   const parts: Buffer[] = [];
   res.on('data', (c: Buffer) => parts.push(c));
   res.on('end', () => cb(null, Buffer.concat(parts)));

@@ -59,7 +59,7 @@ export async function readPack(buffer: Buffer, limits: PackLimits = DEFAULT_PACK
   let zip: ZipFile;
   try {
     zip = await open(buffer);
-  } catch (error) {
+  } catch {
     throw refused(DAMAGED);
   }
   if (zip.entryCount > limits.maxEntries) {

@@ -21,7 +21,6 @@ import { ArtItem } from '../art/art-item.entity';
 import type { SheetsService } from './sheets.service';
 import { SheetProfile } from './sheet-profile.entity';
 import type { SheetAnalysisService } from '../shop/sheet-analysis.service';
-import type { Finding } from '../../../shared/sheet/preflight';
 
 /** The row stopped being "running" under the job (the maker stopped it): the job ends quietly. */
 class ExportCancelled extends Error {}

@@ -67,12 +67,17 @@ export class RunsService {
   async list(teamId: string, q: z.infer<typeof runListQuerySchema>): Promise<PrintRunView[]> {
     const where = ['r.team_id = ?'];
     const args: unknown[] = [teamId];
-    if (q.from) (where.push('r.printed_on >= ?'), args.push(q.from));
-    if (q.to) (where.push('r.printed_on <= ?'), args.push(q.to));
-    if (q.result) (where.push('r.result = ?'), args.push(q.result));
-    if (q.stockId) (where.push('r.stock_id = ?'), args.push(q.stockId));
-    if (q.cutterId) (where.push('r.cutter_id = ?'), args.push(q.cutterId));
-    if (q.sheetId) (where.push('r.sheet_id = ?'), args.push(q.sheetId));
+    const filter = (value: unknown, sql: string) => {
+      if (!value) return;
+      where.push(sql);
+      args.push(value);
+    };
+    filter(q.from, 'r.printed_on >= ?');
+    filter(q.to, 'r.printed_on <= ?');
+    filter(q.result, 'r.result = ?');
+    filter(q.stockId, 'r.stock_id = ?');
+    filter(q.cutterId, 'r.cutter_id = ?');
+    filter(q.sheetId, 'r.sheet_id = ?');
     const rows = await this.dataSource.query(
       `SELECT r.*, DATE_FORMAT(r.printed_on, '%Y-%m-%d') AS day, s.name AS stock_name, p.name AS printer_name, c.name AS cutter_name, b.label AS blade_label, u.name AS by_name
        FROM print_runs r

@@ -7,7 +7,7 @@ import { Button, FormMessage, SelectField, TextField } from '../../../components
 import { PageTitle } from '../../../components/page-title';
 import { useZodForm } from '../../../hooks/use-zod-form';
 import { useChangePassword, useMe, useSignOut, useUpdateAccount } from '../../auth/api/me';
-import { useCreateTeam } from '../../team/api/team';
+import { useCreateTeam } from '../../auth/api/me';
 import { teamPath } from '../../../app/paths';
 
 const profileSchema = z.object({ name: nameSchema, unit: z.enum(['in', 'mm']) });

@@ -65,3 +65,12 @@ export function useSwitchTeam() {
     onSuccess: (me) => client.setQueryData(meQueryOptions().queryKey, me),
   });
 }
+
+/** A new team for the signed-in maker; the answer is their refreshed account (with the new membership). */
+export function useCreateTeam() {
+  const client = useQueryClient();
+  return useMutation({
+    mutationFn: async (name: string) => meSchema.parse(await api('POST', '/teams', { name })),
+    onSuccess: (me) => client.setQueryData(meQueryOptions().queryKey, me),
+  });
+}

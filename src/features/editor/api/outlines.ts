@@ -4,7 +4,7 @@ import { useEffect, useMemo, useRef, useState } from 'react';
 import type { Ring } from '../../../../shared/geometry/polygon';
 import type { Piece } from '../../../../shared/sheet/document';
 import { api } from '../../../lib/api-client';
-import { pieceOutlineQuery } from '../../../../shared/sheet/placement';
+import { outlineKey } from '../../../../shared/sheet/placement';
 import type { CutLimits } from '../../../../shared/sheet/outline-request';
 
 export type PieceOutline = {
@@ -24,8 +24,7 @@ type OutlineResponse = {
   pieces: Array<{ cutLine: { points: Ring; svgPath: string }; widthMm: number; heightMm: number; areaMm2: number; pngUrl: string }>;
 };
 
-/** The outline a piece needs: same art, printed width, border and border colour share one request. */
-export const outlineKey = (p: Pick<Piece, 'artId' | 'width' | 'border' | 'borderColour'>, limits: CutLimits) => `${p.artId}?${new URLSearchParams(pieceOutlineQuery(p, limits))}`;
+export { outlineKey };
 
 function fetchOutline(teamId: string, key: string): Promise<PieceOutline> {
   const [artId, search] = key.split('?');

@@ -2,13 +2,13 @@ import { describe, expect, it } from 'vitest';
 import { arrange } from '../../../../shared/arrange/nester';
 import { applyDiff } from '../../../../shared/sheet/commands';
 import type { Piece, SheetDocument } from '../../../../shared/sheet/document';
-import type { PieceOutline } from '../api/outlines';
+import type { PieceOutline } from '../../../../shared/sheet/placement';
 import { arrangeCommand, arrangeGroups, defaultTurning, furtherSheets, parseQuantity, planArrange } from './arrange-plan';
 
 // A 171.45 × 234.95 mm print area (common practice on Letter), 3.175 mm gap and margin.
 const doc = (pieces: Piece[]): SheetDocument => ({ schemaVersion: 1, printArea: { width: 171.45, height: 234.95 }, safeMargin: 3.175, minGap: 3.175, pieces });
 const piece = (id: string, artId: string, extra: Partial<Piece> = {}): Piece => ({ id, artId, x: 80, y: 100, rotation: 0, width: 40, border: 2, borderColour: '#ffffff', locked: false, ...extra });
-const square = (side: number): { outline: PieceOutline } => ({ outline: { points: [{ x: 0, y: 0 }, { x: side, y: 0 }, { x: side, y: side }, { x: 0, y: side }], widthMm: side, heightMm: side, svgPath: '', areaMm2: side * side, pngUrl: '', effectiveDpi: 300, narrowNecks: 0 } });
+const square = (side: number): { outline: PieceOutline } => ({ outline: { points: [{ x: 0, y: 0 }, { x: side, y: 0 }, { x: side, y: side }, { x: 0, y: side }], widthMm: side, heightMm: side } });
 
 describe('arrange plan: quantities per art over the fewest sheets', () => {
   const ghost = piece('g1', '1'), pumpkin = piece('p1', '2', { width: 30 });

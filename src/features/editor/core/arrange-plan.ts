@@ -4,8 +4,8 @@ import { arrange } from '../../../../shared/arrange/nester';
 import type { Command } from '../../../../shared/sheet/commands';
 import { newPieceId } from '../../../../shared/sheet/commands';
 import type { Piece, SheetDocument } from '../../../../shared/sheet/document';
-import type { PieceOutline } from '../api/outlines';
-import { outlineKey } from '../api/outlines';
+import type { PieceOutline } from '../../../../shared/sheet/placement';
+import { outlineKey } from '../../../../shared/sheet/placement';
 
 export type ArrangeChoice = {
   scope: 'sheet' | 'selection';

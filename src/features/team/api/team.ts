@@ -38,13 +38,6 @@ export const useChangeRole = (teamId: string) =>
 export const useRemoveMember = (teamId: string) =>
   useTeamMutation(teamId, (userId: string) => api('DELETE', `/teams/${teamId}/members/${userId}`));
 
-export function useCreateTeam() {
-  const client = useQueryClient();
-  return useMutation({
-    mutationFn: async (name: string) => meSchema.parse(await api('POST', '/teams', { name })),
-    onSuccess: (me) => client.setQueryData(meQueryOptions().queryKey, me),
-  });
-}
 
 export const invitePreviewQueryOptions = (token: string) =>
   queryOptions({
