@@ -1,13 +1,16 @@
 // Lint rules, and the import boundaries that keep the layers apart (README, "Architecture"):
 // shared/ depends on nothing of ours; the server never imports the client or scripts/; the client
-// never imports the server; the editor's core imports neither React, Konva nor the API layer; a
-// feature of the client imports no other feature but auth.
+// never imports the server; server modules depend one way (MODULES, bottom up); the editor's core
+// imports neither React, Konva nor the API layer; a feature of the client imports no other feature
+// but auth.
 import js from '@eslint/js';
 import importX from 'eslint-plugin-import-x';
 import reactHooks from 'eslint-plugin-react-hooks';
 import tseslint from 'typescript-eslint';
 
 const FEATURES = ['account', 'auth', 'dev', 'editor', 'library', 'sheets', 'shop', 'team'];
+/** Server modules from the bottom up: each may import those before it, never one after it. */
+const MODULES = ['accounts', 'auth', 'teams', 'collections', 'art', 'outlines', 'sheets', 'shop', 'exports', 'arrange', 'health', 'dev'];
 
 /** Zones for import-x/no-restricted-paths: files under `target` may not import from `from`. */
 const zones = [
@@ -15,6 +18,11 @@ const zones = [
   { target: './server', from: ['./src', './scripts'], message: 'The server imports neither the client nor scripts/: move what it needs into server/ or shared/.' },
   { target: './src', from: ['./server', './scripts'], message: 'The client never imports the server: share it through shared/.' },
   { target: './src/features/editor/core', from: ['./src/features/editor/api', './src/features/editor/ui', './src/features/editor/render', './src/lib'], message: 'The editor core imports neither the API layer nor the views.' },
+  ...MODULES.slice(0, -1).map((m, k) => ({
+    target: `./server/modules/${m}`,
+    from: MODULES.slice(k + 1).map((n) => `./server/modules/${n}`),
+    message: `Server modules depend one way (${MODULES.join(' → ')}): a module imports only those before it; hand it what it needs from a later one (see app.ts).`,
+  })),
   ...FEATURES.filter((f) => f !== 'auth').map((f) => ({
     target: `./src/features/${f}`,
     from: FEATURES.filter((g) => g !== f && g !== 'auth').map((g) => `./src/features/${g}`),

@@ -11,7 +11,7 @@ import { jobSettingsFrom, startArrangeWorker, startExportWorker, startOutlineWor
 import { defaultThreads } from '../server/engine/arrange/parallel';
 import { createLog } from '../server/lib/log';
 import { OutlineService } from '../server/modules/outlines/outline.service';
-import { ExportsService } from '../server/modules/sheets/exports.service';
+import { ExportsService } from '../server/modules/exports/exports.service';
 import { ProfilesService } from '../server/modules/sheets/profiles.service';
 import { SheetsService } from '../server/modules/sheets/sheets.service';
 import { SheetAnalysisService } from '../server/modules/shop/sheet-analysis.service';

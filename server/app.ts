@@ -1,3 +1,4 @@
+import { refreshTerms } from './modules/art/terms';
 import path from 'node:path';
 import { existsSync } from 'node:fs';
 import express from 'express';
@@ -30,7 +31,8 @@ import type { PackLimits } from './modules/art/zip-pack';
 import { ProfilesService } from './modules/sheets/profiles.service';
 import { SheetsService } from './modules/sheets/sheets.service';
 import { sheetsRouter } from './modules/sheets/sheets.router';
-import { ExportsService } from './modules/sheets/exports.service';
+import { ExportsService } from './modules/exports/exports.service';
+import { exportsRouter } from './modules/exports/exports.router';
 import { JobQueues } from './jobs/queues';
 import { jobSettingsFrom, startArrangeWorker, startExportWorker, startOutlineWorker } from './jobs/workers';
 import { ArrangeRunsService } from './modules/arrange/arrange.service';
@@ -122,7 +124,7 @@ export function createApp({
       env.OUTLINE_THREADS || undefined,
     );
   const art = new ArtService(dataSource, storage, env.OUTLINE_MAX_PIXELS, packLimits);
-  const collections = new CollectionsService(dataSource, storage);
+  const collections = new CollectionsService(dataSource, storage, refreshTerms);
   const profiles = new ProfilesService(dataSource);
   const sheets = new SheetsService(dataSource, storage, profiles);
   const jobSettings = jobSettingsFrom(env, queuePrefix);
@@ -164,8 +166,9 @@ export function createApp({
   api.use(csrfSynchronisedProtection);
   api.use(authRouter({ auth, passport, throttle, limits, csrfToken: generateToken }));
   api.use(teamsRouter({ dataSource, teams, auth, limits, csrfToken: generateToken }));
-  api.use(artRouter({ dataSource, art, sheets, maxBytes: env.ART_MAX_BYTES }));
-  api.use(sheetsRouter({ dataSource, sheets, profiles, exports: exportsService, costing }));
+  api.use(artRouter({ dataSource, art, sheetsUsing: (teamId, ids) => sheets.usingArt(teamId, ids), maxBytes: env.ART_MAX_BYTES }));
+  api.use(sheetsRouter({ dataSource, sheets, profiles, listExtras: (teamId, list) => costing.attach(teamId, list) }));
+  api.use(exportsRouter({ dataSource, exports: exportsService }));
   api.use(arrangeRouter({ dataSource, runs: arrangeRuns }));
   api.use(shopRouter({ dataSource, sheets, stock, machines, runs, costing, analysis }));
   api.use(collectionsRouter({ dataSource, collections }));

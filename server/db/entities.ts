@@ -5,9 +5,9 @@ import { Sheet } from '../modules/sheets/sheet.entity';
 import { SheetProfile } from '../modules/sheets/sheet-profile.entity';
 import { OutlineCacheEntry } from '../modules/outlines/outline-cache.entity';
 import { Invite } from '../modules/teams/invite.entity';
-import { Membership } from '../modules/teams/membership.entity';
-import { Team } from '../modules/teams/team.entity';
+import { Membership } from '../modules/accounts/membership.entity';
+import { Team } from '../modules/accounts/team.entity';
 import { PasswordReset } from '../modules/auth/password-reset.entity';
-import { User } from '../modules/auth/user.entity';
+import { User } from '../modules/accounts/user.entity';
 
 export const entities = [User, Team, Membership, Invite, PasswordReset, ArtItem, ArtCollection, Collection, OutlineCacheEntry, SheetProfile, Sheet];

@@ -1,6 +1,6 @@
 import type { Env } from '../config/env';
 import type { Log } from '../lib/log';
-import type { ExportsService } from '../modules/sheets/exports.service';
+import type { ExportsService } from '../modules/exports/exports.service';
 import { UnrecoverableError } from 'bullmq';
 import { OutlineInputError } from '../engine/outline/errors';
 import type { OutlineService } from '../modules/outlines/outline.service';

@@ -5,7 +5,7 @@ import type { Permission, Role } from '../../shared/permissions';
 import { can } from '../../shared/permissions';
 import { idSchema } from '../../shared/schemas/team';
 import { forbidden, notFound, unauthenticated } from '../lib/errors';
-import { Membership } from '../modules/teams/membership.entity';
+import { Membership } from '../modules/accounts/membership.entity';
 
 declare global {
   // eslint-disable-next-line @typescript-eslint/no-namespace

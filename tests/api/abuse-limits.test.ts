@@ -2,7 +2,7 @@ import bcrypt from 'bcryptjs';
 import { describe, expect, it } from 'vitest';
 import { listOutbox } from '../../server/mail/mailer';
 import { env } from '../../server/config/env';
-import { User } from '../../server/modules/auth/user.entity';
+import { User } from '../../server/modules/accounts/user.entity';
 import { hashPassword, passwordTasksCompleted, verifyPassword } from '../../server/modules/auth/passwords';
 import { Client, makeTeamWithRoles, makeUser, openDatabase, testApp, unique, uniqueEmail } from '../helpers/app';
 import { afterAll, beforeAll } from 'vitest';

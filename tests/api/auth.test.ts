@@ -1,8 +1,8 @@
 import request from 'supertest';
 import { describe, expect, it } from 'vitest';
-import { User } from '../../server/modules/auth/user.entity';
-import { Membership } from '../../server/modules/teams/membership.entity';
-import { Team } from '../../server/modules/teams/team.entity';
+import { User } from '../../server/modules/accounts/user.entity';
+import { Membership } from '../../server/modules/accounts/membership.entity';
+import { Team } from '../../server/modules/accounts/team.entity';
 import { Client, TEST_PASSWORD, makeUser, testApp, unique, uniqueEmail, useTestApp } from '../helpers/app';
 
 const t = useTestApp();

@@ -3,7 +3,7 @@ import { describe, expect, it } from 'vitest';
 import { svgArt } from '../helpers/art';
 import { In } from 'typeorm';
 import { inTransaction } from '../../server/db/transaction';
-import { Team } from '../../server/modules/teams/team.entity';
+import { Team } from '../../server/modules/accounts/team.entity';
 import { Client, makeTeam, makeTeamWithRoles, useTestApp } from '../helpers/app';
 import { uploadFile } from '../helpers/library';
 import { testPiece } from '../helpers/sheets';

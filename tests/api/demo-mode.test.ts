@@ -4,9 +4,9 @@ import { describe, expect, it } from 'vitest';
 import { LOCAL_SESSION_SECRET, loadEnv } from '../../server/config/env';
 import { DEMO_ACCOUNTS, DEMO_PASSWORD, DEMO_SHOP, DEMO_TEAM_KEY } from '../../server/db/demo/accounts';
 import { seedDemo } from '../../server/db/demo/seed';
-import { Membership } from '../../server/modules/teams/membership.entity';
-import { Team } from '../../server/modules/teams/team.entity';
-import { User } from '../../server/modules/auth/user.entity';
+import { Membership } from '../../server/modules/accounts/membership.entity';
+import { Team } from '../../server/modules/accounts/team.entity';
+import { User } from '../../server/modules/accounts/user.entity';
 import { Client, makeTeam, makeUser, scratchDatabase, testApp, useTestApp } from '../helpers/app';
 
 const run = promisify(execFile);

@@ -1,8 +1,8 @@
 import { describe, expect, it } from 'vitest';
 import { Invite } from '../../server/modules/teams/invite.entity';
-import { Membership } from '../../server/modules/teams/membership.entity';
+import { Membership } from '../../server/modules/accounts/membership.entity';
 import { PasswordReset } from '../../server/modules/auth/password-reset.entity';
-import { User } from '../../server/modules/auth/user.entity';
+import { User } from '../../server/modules/accounts/user.entity';
 import { Client, makeTeamWithRoles, makeUser, uniqueEmail, useTestApp } from '../helpers/app';
 import { lastMailTo, tokenFrom } from '../helpers/outbox';
 

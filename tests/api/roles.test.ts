@@ -2,7 +2,7 @@ import { describe, expect, it } from 'vitest';
 import type { Permission, Role } from '../../shared/permissions';
 import { PERMISSIONS } from '../../shared/permissions';
 import { requirePermission, teamScope } from '../../server/middleware/auth';
-import { Team } from '../../server/modules/teams/team.entity';
+import { Team } from '../../server/modules/accounts/team.entity';
 import { Client, makeTeamWithRoles, makeUser, useTestApp, uniqueEmail } from '../helpers/app';
 
 // The role table written out by hand, independently of shared/permissions.ts: if someone edits

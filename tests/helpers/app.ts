@@ -13,9 +13,9 @@ import { env as baseEnv } from '../../server/config/env';
 import { createApp } from '../../server/app';
 import type { AppOptions } from '../../server/app';
 import { createDataSource } from '../../server/db/data-source';
-import { User } from '../../server/modules/auth/user.entity';
-import { Team } from '../../server/modules/teams/team.entity';
-import { Membership } from '../../server/modules/teams/membership.entity';
+import { User } from '../../server/modules/accounts/user.entity';
+import { Team } from '../../server/modules/accounts/team.entity';
+import { Membership } from '../../server/modules/accounts/membership.entity';
 
 export const TEST_PASSWORD = 'correct-horse-battery';
 // Hashed once per test file at the production cost, so fixtures do not pay it per user.

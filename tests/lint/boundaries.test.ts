@@ -20,6 +20,8 @@ describe('import boundaries (ESLint)', () => {
     ['the server does not import scripts/', 'server/modules/planted.ts', "import { nestingDir } from '../../scripts/bench/nesting-dir';\nexport const x = nestingDir;\n", /neither the client nor scripts/],
     ['shared/ does not import the server', 'shared/planted.ts', "import { AppError } from '../server/lib/errors';\nexport const x = AppError;\n", /shared\/ depends on nothing/],
     ['shared/ does not import the client', 'shared/planted.ts', "import { api } from '../src/lib/api-client';\nexport const x = api;\n", /shared\/ depends on nothing/],
+    ['a server module does not import one above it (art → sheets)', 'server/modules/art/planted.ts', "import { SheetsService } from '../sheets/sheets.service';\nexport const x = SheetsService;\n", /Server modules depend one way/],
+    ['a server module does not import one above it (accounts → auth)', 'server/modules/accounts/planted.ts', "import { AuthService } from '../auth/auth.service';\nexport const x = AuthService;\n", /Server modules depend one way/],
     ['the client does not import the server', 'src/lib/planted.ts', "import { AppError } from '../../server/lib/errors';\nexport const x = AppError;\n", /never imports the server/],
   ];
   for (const [name, file, code, message] of cases) {
@@ -34,5 +36,6 @@ describe('import boundaries (ESLint)', () => {
     expect(await problems('src/features/library/components/planted.ts', "import { useMe } from '../../auth/api/me';\nexport const x = useMe;\n")).toEqual([]);
     expect(await problems('src/features/editor/core/planted.ts', "import { outlineKey } from '../../../../shared/sheet/placement';\nexport const x = outlineKey;\n")).toEqual([]);
     expect(await problems('server/modules/planted.ts', "import { outlineKey } from '../../shared/sheet/placement';\nexport const x = outlineKey;\n")).toEqual([]);
+    expect(await problems('server/modules/shop/planted.ts', "import { SheetsService } from '../sheets/sheets.service';\nexport const x = SheetsService;\n")).toEqual([]);
   });
 });

@@ -1,6 +1,6 @@
 import type { DataSource } from 'typeorm';
 import type { Role } from '../../../shared/permissions';
-import { Team } from '../../modules/teams/team.entity';
+import { Team } from '../../modules/accounts/team.entity';
 
 // The invented demo shop: a two-table studio that sells watercolour critter stickers at weekend
 // markets. Names, shop and art are made up for Sheetsmith's demo.

@@ -1,3 +1,4 @@
+import { refreshTerms } from '../../modules/art/terms';
 import type { DataSource } from 'typeorm';
 import { DEMO_ACCOUNTS, DEMO_PASSWORD, DEMO_SHOP, DEMO_TEAM_KEY, demoTeam, demoUserKey } from './accounts';
 import { DEMO_PACKS, renderDemoArt } from './art';
@@ -7,10 +8,10 @@ import { ArtItem } from '../../modules/art/art-item.entity';
 import { Collection } from '../../modules/collections/collection.entity';
 import { CollectionsService } from '../../modules/collections/collections.service';
 import { hashPassword } from '../../modules/auth/passwords';
-import { User } from '../../modules/auth/user.entity';
-import { Membership } from '../../modules/teams/membership.entity';
-import { Team } from '../../modules/teams/team.entity';
-import { createUserWithTeam } from '../../modules/auth/auth.service';
+import { User } from '../../modules/accounts/user.entity';
+import { Membership } from '../../modules/accounts/membership.entity';
+import { Team } from '../../modules/accounts/team.entity';
+import { createUserWithTeam } from '../../modules/accounts/create-account';
 import { stockInputSchema } from '../../../shared/schemas/shop';
 import { saveShopSettings } from '../../modules/shop/costing.service';
 import { MachinesService } from '../../modules/shop/machines.service';
@@ -50,7 +51,7 @@ async function seedArt(dataSource: DataSource, storage: Storage): Promise<number
   const team = await demoTeam(dataSource);
   const admin = await dataSource.getRepository(User).findOneByOrFail({ seedKey: demoUserKey('admin@demo.test') });
   const art = new ArtService(dataSource, storage, 50_000_000);
-  const collections = new CollectionsService(dataSource, storage);
+  const collections = new CollectionsService(dataSource, storage, refreshTerms);
   let added = 0;
   for (const pack of DEMO_PACKS) {
     let collection = await dataSource.getRepository(Collection).findOneBy({ teamId: team.id, name: pack.collection });

@@ -15,7 +15,7 @@ import { env } from '../../config/env';
 import { renderPrintImage } from '../../engine/export/print-image';
 import { OutlinePool } from '../../engine/outline/pool';
 import { ArtItem } from '../../modules/art/art-item.entity';
-import { User } from '../../modules/auth/user.entity';
+import { User } from '../../modules/accounts/user.entity';
 import type { StoredOutline } from '../../modules/outlines/outline.service';
 import { OutlineService } from '../../modules/outlines/outline.service';
 import { CostingService } from '../../modules/shop/costing.service';

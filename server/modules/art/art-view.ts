@@ -2,25 +2,14 @@ import { MM_PER_INCH } from '../../../shared/units';
 import type { EntityManager } from 'typeorm';
 import { In } from 'typeorm';
 import type { ArtView, LicenceView } from '../../../shared/schemas/library';
-import { User } from '../auth/user.entity';
+import { User } from '../accounts/user.entity';
 import { Collection } from '../collections/collection.entity';
-import type { LicenceColumns } from '../collections/licence.columns';
+import { licenceView } from '../collections/licence.columns';
 import type { ArtItem } from './art-item.entity';
 import { keywordsOf } from './terms';
 import { collectionsOf } from './memberships';
 
 
-export function licenceView(licence: LicenceColumns, proofUrl: string | null): Omit<LicenceView, 'inheritedFrom'> | null {
-  if (!licence.kind) return null;
-  return {
-    kind: licence.kind,
-    source: licence.source ?? '',
-    notes: licence.notes ?? '',
-    unitLimit: licence.unitLimit ?? null,
-    proofName: licence.proofName ?? null,
-    proofUrl: licence.proofKey ? proofUrl : null,
-  };
-}
 
 /** API views of art items, with keywords, collection, effective licence and uploader in few queries. */
 export async function artViews(manager: EntityManager, items: ArtItem[]): Promise<ArtView[]> {

@@ -9,12 +9,14 @@ import { requirePermission, teamScope } from '../../middleware/auth';
 import { route } from '../../middleware/validate';
 import type { ArtService } from './art.service';
 import { searchArt } from './art-search';
-import type { SheetsService } from '../sheets/sheets.service';
 import { z } from 'zod';
 
 const actorOf = (req: Request) => ({ userId: req.user!.id, teamId: req.membership!.teamId, role: req.membership!.role });
 
-export function artRouter({ dataSource, art, sheets, maxBytes }: { dataSource: DataSource; art: ArtService; sheets: SheetsService; maxBytes: number }): Router {
+/** Names of the team's sheets that use any of the art (sheets sit above art and are asked through this). */
+export type SheetsUsingArt = (teamId: string, artIds: string[]) => Promise<string[]>;
+
+export function artRouter({ dataSource, art, sheetsUsing, maxBytes }: { dataSource: DataSource; art: ArtService; sheetsUsing: SheetsUsingArt; maxBytes: number }): Router {
   const router = Router();
   const scoped = teamScope(dataSource);
   const upload = singleUpload('file', { maxBytes, fields: 20, fieldBytes: 16 * 1024 });
@@ -44,7 +46,7 @@ export function artRouter({ dataSource, art, sheets, maxBytes }: { dataSource: D
     contribute,
     route({ params: teamParamsSchema, body: bulkActionSchema }, async ({ body }, req) => {
       if (body.action === 'delete' && !body.confirm) {
-        const usedBy = await sheets.usingArt(req.membership!.teamId, body.ids);
+        const usedBy = await sheetsUsing(req.membership!.teamId, body.ids);
         if (usedBy.length) throw new AppError(409, 'art_in_use', `Some of this art is on ${usedBy.length} sheet${usedBy.length === 1 ? '' : 's'} (${usedBy.slice(0, 3).join(', ')}${usedBy.length > 3 ? ', …' : ''}). Delete it anyway? Those sheets keep their copy.`);
       }
       return art.bulk(actorOf(req), body);
@@ -62,7 +64,7 @@ export function artRouter({ dataSource, art, sheets, maxBytes }: { dataSource: D
     route({ params: artParamsSchema, query: z.object({ confirm: z.enum(['1']).optional() }) }, async ({ params, query }, req, res) => {
       const item = await art.find(req.membership!.teamId, params.artId);
       // Art on sheets is asked about first; deleting it then keeps those sheets printable.
-      const usedBy = await sheets.usingArt(req.membership!.teamId, [item.id]);
+      const usedBy = await sheetsUsing(req.membership!.teamId, [item.id]);
       if (usedBy.length > 0 && !query.confirm) {
         throw new AppError(409, 'art_in_use', `“${item.name}” is on ${usedBy.length} sheet${usedBy.length === 1 ? '' : 's'} (${usedBy.slice(0, 3).join(', ')}${usedBy.length > 3 ? ', …' : ''}). Delete it anyway? Those sheets keep their copy.`, { sheets: usedBy.join(', ') });
       }

@@ -7,11 +7,11 @@ import { hashToken, newToken } from '../../lib/tokens';
 import type { Mailer } from '../../mail/mailer';
 import { passwordResetMail } from '../../mail/templates';
 import { ERROR_CODES } from '../../../shared/schemas/api-error';
-import { Membership } from '../teams/membership.entity';
-import { Team } from '../teams/team.entity';
+import { Membership } from '../accounts/membership.entity';
 import { burnPasswordCheck, hashPassword, verifyPassword } from './passwords';
 import { PasswordReset } from './password-reset.entity';
-import { User } from './user.entity';
+import { User } from '../accounts/user.entity';
+import { createUserWithTeam } from '../accounts/create-account';
 import { inTransaction } from '../../db/transaction';
 
 export const RESET_LIFETIME_MS = 60 * 60 * 1000;
@@ -31,18 +31,6 @@ const isDemoAccount = (user: User) => user.seedKey?.startsWith('demo:') === true
 
 export const tokenInvalid = (what: string) =>
   new AppError(410, ERROR_CODES.tokenInvalid, `This ${what} link has expired or was already used. Ask for a new one.`);
-
-/** A new account always comes with a personal studio it owns. */
-export async function createUserWithTeam(
-  manager: EntityManager,
-  input: { name: string; email: string },
-  passwordHash: string,
-): Promise<User> {
-  const user = await manager.save(manager.create(User, { name: input.name, email: input.email, passwordHash }));
-  const team = await manager.save(manager.create(Team, { name: `${input.name}'s studio`.slice(0, 80), personal: true }));
-  await manager.save(manager.create(Membership, { teamId: team.id, userId: user.id, role: 'owner' }));
-  return user;
-}
 
 export class AuthService {
   constructor(

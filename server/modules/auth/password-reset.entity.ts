@@ -1,5 +1,5 @@
 import { Column, CreateDateColumn, Entity, Index, JoinColumn, ManyToOne, PrimaryGeneratedColumn } from 'typeorm';
-import { User } from './user.entity';
+import { User } from '../accounts/user.entity';
 
 /** A single-use password reset. Only the SHA-256 of the e-mailed token is stored. */
 @Entity({ name: 'password_resets' })

@@ -4,10 +4,10 @@ import type { DataSource } from 'typeorm';
 import type { CollectionView, LicenceInput } from '../../../shared/schemas/library';
 import { AppError, conflict, notFound } from '../../lib/errors';
 import type { Storage } from '../../storage/storage';
-import { licenceView } from '../art/art-view';
-import { refreshTerms } from '../art/terms';
 import { Collection } from './collection.entity';
 import type { LicenceColumns } from './licence.columns';
+import { licenceView } from './licence.columns';
+import type { EntityManager } from 'typeorm';
 import { inTransaction } from '../../db/transaction';
 
 const licenceColumns = (l: LicenceInput | null, keep: LicenceColumns): LicenceColumns => ({
@@ -24,6 +24,9 @@ export class CollectionsService {
   constructor(
     private readonly dataSource: DataSource,
     private readonly storage: Storage,
+    /** Told, inside the renaming transaction, which art carries a renamed collection's name (the
+     * art module refreshes their search terms: it sits above this one and is handed in). */
+    private readonly onRenamed: (manager: EntityManager, artIds: string[]) => Promise<void>,
   ) {}
 
   async list(teamId: string, includeArchived = true): Promise<CollectionView[]> {
@@ -85,7 +88,7 @@ export class CollectionsService {
       if (input.name !== undefined && input.name !== collection.name) {
         // The collection's name is searchable through its art.
         const ids: Array<{ id: string }> = await manager.query('SELECT art_id AS id FROM art_collections WHERE collection_id = ?', [id]);
-        await refreshTerms(manager, ids.map((r) => String(r.id)));
+        await this.onRenamed(manager, ids.map((r) => String(r.id)));
       }
     });
     return (await this.list(teamId)).find((c) => c.id === id)!;

@@ -1,4 +1,5 @@
 import { Column } from 'typeorm';
+import type { LicenceView } from '../../../shared/schemas/library';
 
 export const LICENCE_KINDS = ['personal', 'commercial', 'commercial_limited'] as const;
 export type LicenceKind = (typeof LICENCE_KINDS)[number];
@@ -22,4 +23,16 @@ export class LicenceColumns {
 
   @Column({ name: 'licence_proof_name', type: 'varchar', length: 200, nullable: true })
   proofName!: string | null;
+}
+
+export function licenceView(licence: LicenceColumns, proofUrl: string | null): Omit<LicenceView, 'inheritedFrom'> | null {
+  if (!licence.kind) return null;
+  return {
+    kind: licence.kind,
+    source: licence.source ?? '',
+    notes: licence.notes ?? '',
+    unitLimit: licence.unitLimit ?? null,
+    proofName: licence.proofName ?? null,
+    proofUrl: licence.proofKey ? proofUrl : null,
+  };
 }

@@ -7,15 +7,14 @@ import { requirePermission, teamScope } from '../../middleware/auth';
 import { route } from '../../middleware/validate';
 import type { ProfilesService } from './profiles.service';
 import type { SheetsService } from './sheets.service';
-import type { ExportsService } from './exports.service';
-import type { CostingService } from '../shop/costing.service';
-import { exportRequestSchema } from '../../../shared/schemas/exports';
-import { idSchema } from '../../../shared/schemas/team';
-import { z } from 'zod';
+import type { SheetSummary } from '../../../shared/schemas/sheets';
 
 const actorOf = (req: Request) => ({ userId: req.user!.id, teamId: req.membership!.teamId, role: req.membership!.role });
 
-export function sheetsRouter({ dataSource, sheets, profiles, exports, costing }: { dataSource: DataSource; sheets: SheetsService; profiles: ProfilesService; exports: ExportsService; costing: CostingService }): Router {
+/** Adds what modules above this one know of each listed sheet (its cost, from the print shop). */
+export type SheetListExtras = (teamId: string, list: SheetSummary[]) => Promise<SheetSummary[]>;
+
+export function sheetsRouter({ dataSource, sheets, profiles, listExtras }: { dataSource: DataSource; sheets: SheetsService; profiles: ProfilesService; listExtras: SheetListExtras }): Router {
   const router = Router();
   const scoped = teamScope(dataSource);
   const view = requirePermission('team.view');
@@ -48,7 +47,7 @@ export function sheetsRouter({ dataSource, sheets, profiles, exports, costing }:
     }),
   );
 
-  router.get('/teams/:teamId/sheets', scoped, view, route({ params: teamParamsSchema, query: sheetListQuerySchema }, async ({ query }, req) => ({ sheets: await costing.attach(teamId(req), await sheets.list(teamId(req), query)) })));
+  router.get('/teams/:teamId/sheets', scoped, view, route({ params: teamParamsSchema, query: sheetListQuerySchema }, async ({ query }, req) => ({ sheets: await listExtras(teamId(req), await sheets.list(teamId(req), query)) })));
   router.post(
     '/teams/:teamId/sheets',
     scoped,
@@ -84,43 +83,6 @@ export function sheetsRouter({ dataSource, sheets, profiles, exports, costing }:
     view,
     route({ params: sheetParamsSchema }, async ({ params }, req, res) => {
       res.type('png').set('Cache-Control', 'private, max-age=86400').send(await sheets.thumbnail(teamId(req), params.sheetId));
-    }),
-  );
-  const exportParams = z.object({ teamId: idSchema, sheetId: idSchema, exportId: idSchema });
-  router.post(
-    '/teams/:teamId/sheets/:sheetId/exports',
-    scoped,
-    edit,
-    route({ params: sheetParamsSchema, body: exportRequestSchema }, async ({ params, body }, req, res) => {
-      res.status(202);
-      return exports.start(teamId(req), req.user!.id, params.sheetId, body);
-    }),
-  );
-  router.post(
-    '/teams/:teamId/sheets/:sheetId/exports/:exportId/cancel',
-    scoped,
-    edit,
-    route({ params: exportParams }, ({ params }, req) => exports.cancel(teamId(req), params.sheetId, params.exportId)),
-  );
-  router.get('/teams/:teamId/sheets/:sheetId/exports/latest', scoped, view, route({ params: sheetParamsSchema }, async ({ params }, req) => ({ export: await exports.latest(teamId(req), params.sheetId) })));
-  router.get('/teams/:teamId/sheets/:sheetId/exports/:exportId', scoped, view, route({ params: exportParams }, ({ params }, req) => exports.get(teamId(req), params.sheetId, params.exportId)));
-  router.get(
-    '/teams/:teamId/sheets/:sheetId/exports/:exportId/download',
-    scoped,
-    view,
-    route({ params: exportParams }, async ({ params }, req, res) => {
-      const file = await exports.download(teamId(req), params.sheetId, params.exportId);
-      res.attachment(file.name).type('zip').send(file.data);
-    }),
-  );
-  router.get(
-    '/teams/:teamId/sheets/:sheetId/exports/:exportId/files/:file',
-    scoped,
-    view,
-    route({ params: exportParams.extend({ file: z.string().regex(/^[a-z0-9-]{1,80}\.(png|svg|pdf|dxf|txt)$/, 'Not a file of this export') }) }, async ({ params }, req, res) => {
-      const file = await exports.downloadFile(teamId(req), params.sheetId, params.exportId, params.file);
-      // Always a download (never shown inline), so an SVG cannot run in the app's origin.
-      res.attachment(file.name).type(file.type).send(file.data);
     }),
   );
   return router;

@@ -11,7 +11,7 @@ import type { Metadata } from 'sharp';
 import type { SheetDetail, SheetSaveInput, SheetSummary } from '../../../shared/schemas/sheets';
 import { AppError, notFound, validationError } from '../../lib/errors';
 import type { Storage } from '../../storage/storage';
-import { User } from '../auth/user.entity';
+import { User } from '../accounts/user.entity';
 import { ArtItem } from '../art/art-item.entity';
 import { effectiveLicenceKinds } from '../art/art-view';
 import type { ProfilesService } from './profiles.service';

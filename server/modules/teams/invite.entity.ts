@@ -1,8 +1,8 @@
 import { Column, CreateDateColumn, Entity, Index, JoinColumn, ManyToOne, PrimaryGeneratedColumn } from 'typeorm';
 import type { Role } from '../../../shared/permissions';
 import { ROLES } from '../../../shared/permissions';
-import { User } from '../auth/user.entity';
-import { Team } from './team.entity';
+import { User } from '../accounts/user.entity';
+import { Team } from '../accounts/team.entity';
 
 /** A single-use invitation to a team. Only the SHA-256 of the e-mailed token is stored. */
 @Entity({ name: 'invites' })

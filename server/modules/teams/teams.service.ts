@@ -9,12 +9,13 @@ import { hashToken, newToken } from '../../lib/tokens';
 import type { Mailer } from '../../mail/mailer';
 import { inviteMail } from '../../mail/templates';
 import { ERROR_CODES } from '../../../shared/schemas/api-error';
-import { createUserWithTeam, tokenInvalid } from '../auth/auth.service';
+import { createUserWithTeam } from '../accounts/create-account';
+import { tokenInvalid } from '../auth/auth.service';
 import { hashPassword } from '../auth/passwords';
-import { User } from '../auth/user.entity';
+import { User } from '../accounts/user.entity';
 import { Invite } from './invite.entity';
-import { Membership } from './membership.entity';
-import { Team } from './team.entity';
+import { Membership } from '../accounts/membership.entity';
+import { Team } from '../accounts/team.entity';
 import { inTransaction } from '../../db/transaction';
 
 export const INVITE_LIFETIME_MS = 7 * 24 * 60 * 60 * 1000;

@@ -1,7 +1,7 @@
 import { Column, CreateDateColumn, Entity, JoinColumn, ManyToOne, PrimaryColumn } from 'typeorm';
 import type { Role } from '../../../shared/permissions';
 import { ROLES } from '../../../shared/permissions';
-import { User } from '../auth/user.entity';
+import { User } from './user.entity';
 import { Team } from './team.entity';
 
 @Entity({ name: 'memberships' })

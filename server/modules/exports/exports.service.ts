@@ -18,8 +18,8 @@ import type { ExportJobData, JobQueues } from '../../jobs/queues';
 import { AppError, notFound } from '../../lib/errors';
 import type { Storage } from '../../storage/storage';
 import { ArtItem } from '../art/art-item.entity';
-import type { SheetsService } from './sheets.service';
-import { SheetProfile } from './sheet-profile.entity';
+import type { SheetsService } from '../sheets/sheets.service';
+import { SheetProfile } from '../sheets/sheet-profile.entity';
 import type { SheetAnalysisService } from '../shop/sheet-analysis.service';
 
 /** The row stopped being "running" under the job (the maker stopped it): the job ends quietly. */
