@@ -41,3 +41,6 @@ export function assignableRoles(actor: Role): Role[] {
   if (actor === 'admin') return ['admin', 'member', 'viewer'];
   return [];
 }
+
+/** Who acts, in which team, with which role: what services check permissions against. */
+export type Actor = { userId: string; teamId: string; role: Role };

@@ -10,6 +10,7 @@
 // --sticker runs the sticker protocol instead: the instance's shapes scaled so the median piece's
 // larger side is 44.45 mm (1.75 in), filling a 171.45 × 234.95 mm print area with a 3.175 mm gap and
 // margin, quarter turns, 2 s; beside it, in the same run, a bounding-box packer (maxrects-packer).
+import { normaliseDegrees } from '../../shared/units';
 import { mkdir, readFile, readdir, stat, writeFile } from 'node:fs/promises';
 import path from 'node:path';
 import { parseArgs } from 'node:util';
@@ -59,7 +60,7 @@ const boxOf = (ring: Ring) => {
 
 /** The instance's orientations as a rotate mode of our nester (degrees, the strip's frame). */
 function rotateMode(orientations: number[] | undefined): RotateMode {
-  const set = [...new Set((orientations ?? [0]).map((r) => ((r % 360) + 360) % 360))].sort((a, b) => a - b);
+  const set = [...new Set((orientations ?? [0]).map(normaliseDegrees))].sort((a, b) => a - b);
   if (set.length === 1 && set[0] === 0) return 'none';
   if (set.length === 4 && set.join() === '0,90,180,270') return '90';
   return { set };

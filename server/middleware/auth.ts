@@ -1,7 +1,8 @@
 import type { Log } from '../lib/log';
 import type { RequestHandler } from 'express';
 import type { DataSource } from 'typeorm';
-import type { Permission, Role } from '../../shared/permissions';
+import type { Actor, Permission, Role } from '../../shared/permissions';
+import type { Request } from 'express';
 import { can } from '../../shared/permissions';
 import { idSchema } from '../../shared/schemas/team';
 import { forbidden, notFound, unauthenticated } from '../lib/errors';
@@ -58,3 +59,6 @@ export function requirePermission(permission: Permission): RequestHandler {
     next(can(req.membership.role, permission) ? undefined : forbidden());
   };
 }
+
+/** The signed-in member acting in the request's team (after teamScope). */
+export const actorOf = (req: Request): Actor => ({ userId: req.user!.id, teamId: req.membership!.teamId, role: req.membership!.role });

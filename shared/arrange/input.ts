@@ -1,5 +1,6 @@
 // What the nester refuses before it starts: an area, margin or gap that leaves no room (thrown, in
 // the maker's words), and single pieces it cannot use (reported by name, the rest still arranged).
+import { normaliseDegrees } from '../units';
 import { area } from '../geometry/polygon';
 import type { Ring } from '../geometry/polygon';
 import type { ArrangeItem, ArrangeResult, RotateMode } from './nester';
@@ -11,7 +12,7 @@ export class ArrangeInputError extends Error {}
 export function rotationsOf(mode: RotateMode): number[] {
   if (mode === 'none') return [0];
   if (mode === '90') return [0, 90, 180, 270];
-  if ('set' in mode) return mode.set.length ? [...new Set(mode.set.map((r) => ((r % 360) + 360) % 360))] : [0];
+  if ('set' in mode) return mode.set.length ? [...new Set(mode.set.map(normaliseDegrees))] : [0];
   const step = Math.max(1, mode.step);
   return Array.from({ length: Math.max(1, Math.floor(360 / step)) }, (_, i) => i * step);
 }

@@ -1,6 +1,7 @@
 import { z } from 'zod';
 import './messages';
 import { parseLength, inchToMm } from '../units';
+import type { Box, Point } from '../geometry/polygon';
 
 /** A length given as "2in", "3mm", "0.5\"" or a bare number of millimetres. */
 export const lengthSchema = (label: string) =>
@@ -91,6 +92,48 @@ export type OutlineWarning = {
   /** Where on the finished sticker (mm from its top-left corner), for warnings about a place. */
   at?: { xMm: number; yMm: number };
 };
+
+/**
+ * One finished sticker. Its frame is the sticker's bounding box (art plus border on every side):
+ * millimetres, origin at the frame's top-left, x to the right, y down. The cut line is one simple
+ * closed polygon in that frame, running clockwise on screen (positive shoelace area with y down),
+ * first point not repeated. The piece's PNG covers exactly the frame.
+ */
+export type OutlinePieceData = {
+  cutLine: { points: Point[]; svgPath: string };
+  areaMm2: number;
+  perimeterMm: number;
+  /** Bounds of the cut line in the frame (mm). */
+  bbox: Box;
+  /** Frame size (mm) and its place in the whole art's frame (the join frame), in mm. */
+  widthMm: number;
+  heightMm: number;
+  offsetMm: Point;
+  pixelWidth: number;
+  pixelHeight: number;
+};
+
+export type OutlineData<P extends OutlinePieceData = OutlinePieceData> = {
+  pieces: P[];
+  art: {
+    format: string;
+    sourceWidthPx: number;
+    sourceHeightPx: number;
+    /** The visible part of the source (transparent margins and specks trimmed), in source pixels. */
+    visible: Box;
+    printedWidthMm: number;
+    printedHeightMm: number;
+    hadTransparency: boolean;
+  };
+  /** Source pixels per inch of the art at its printed size. */
+  effectiveDpi: number;
+  dpi: number;
+  borderMm: number;
+  warnings: OutlineWarning[];
+};
+
+/** What `GET /api/teams/:team/art/:art/outline` answers: the outline, and where each piece's PNG is. */
+export type OutlineResponse = OutlineData<OutlinePieceData & { index: number; pngUrl: string }> & { key: string; cached: boolean; artId: string };
 
 const HEX = /^#?[0-9a-fA-F]{6}$/;
 

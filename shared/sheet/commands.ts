@@ -1,3 +1,4 @@
+import { normaliseDegrees } from '../units';
 import type { Piece, SheetDocument } from './document';
 
 /**
@@ -86,10 +87,10 @@ export const commands = {
     update(doc, 'Move', positions.keys(), (p) => positions.get(p.id)!),
 
   rotatePieces: (doc: SheetDocument, ids: Iterable<string>, by: number): Command =>
-    update(doc, 'Rotate', ids, (p) => ({ rotation: (((p.rotation + by) % 360) + 360) % 360 })),
+    update(doc, 'Rotate', ids, (p) => ({ rotation: normaliseDegrees(p.rotation + by) })),
 
   setRotation: (doc: SheetDocument, ids: Iterable<string>, rotation: number): Command =>
-    withMerge(update(doc, 'Rotate', ids, () => ({ rotation: ((rotation % 360) + 360) % 360 })), 'rotation', ids),
+    withMerge(update(doc, 'Rotate', ids, () => ({ rotation: normaliseDegrees(rotation) })), 'rotation', ids),
 
   resizePieces: (doc: SheetDocument, ids: Iterable<string>, width: number): Command =>
     update(doc, 'Resize', ids, () => ({ width })),

@@ -14,6 +14,9 @@ export type LengthUnit = 'mm' | 'in';
 export const LENGTH_UNITS: readonly LengthUnit[] = ['in', 'mm'];
 
 export const MM_PER_INCH = 25.4;
+
+/** An angle in degrees brought into [0, 360): -90 → 270, 450 → 90. */
+export const normaliseDegrees = (degrees: number) => ((degrees % 360) + 360) % 360;
 export const CSS_PX_PER_INCH = 96;
 export const PT_PER_INCH = 72;
 

@@ -1,4 +1,4 @@
-import type { Ring } from '../../../shared/geometry/polygon';
+import type { PieceOutline } from '../../../shared/sheet/placement';
 import type { Piece, SheetDocument } from '../../../shared/sheet/document';
 import type { RegMarks } from './marks';
 
@@ -9,7 +9,7 @@ export const EXPORT_FORMATS: ExportFormat[] = ['png', 'svg', 'combined', 'pdf', 
 export type ExportPiece = {
   piece: Piece;
   name: string;
-  cutLine: { points: Ring; widthMm: number; heightMm: number };
+  cutLine: PieceOutline;
   /** The bordered raster at the export DPI (grown by the bleed, if any), centred on the piece. */
   raster: { png: Buffer; widthMm: number; heightMm: number };
 };

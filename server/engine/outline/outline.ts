@@ -1,7 +1,7 @@
 import sharp from 'sharp';
-import type { Box, Point } from '../../../shared/geometry/polygon';
+import type { Box } from '../../../shared/geometry/polygon';
 import { area, boundingBox, perimeter, ringToSvgPath, scale, translate } from '../../../shared/geometry/polygon';
-import type { OutlineOptions, OutlineOptionsInput, OutlineWarning } from '../../../shared/schemas/outline';
+import type { OutlineData, OutlineOptions, OutlineOptionsInput, OutlinePieceData, OutlineWarning } from '../../../shared/schemas/outline';
 import { outlineOptionsSchema } from '../../../shared/schemas/outline';
 import { MM_PER_INCH, formatLength } from '../../../shared/units';
 import type { RemovalPlan } from './background';
@@ -20,45 +20,9 @@ import { simplifyRing, traceOuterRings } from './trace';
 export type OutlineLimits = { maxInputPixels: number; maxOutputPixels: number };
 export const DEFAULT_LIMITS: OutlineLimits = { maxInputPixels: 50_000_000, maxOutputPixels: 40_000_000 };
 
-/**
- * One finished sticker. Its frame is the sticker's bounding box (art plus border on every side):
- * millimetres, origin at the frame's top-left, x to the right, y down. The cut line is one simple
- * closed polygon in that frame, running clockwise on screen (positive shoelace area with y down),
- * first point not repeated. The PNG covers exactly the frame.
- */
-export type OutlinePiece = {
-  cutLine: { points: Point[]; svgPath: string };
-  areaMm2: number;
-  perimeterMm: number;
-  /** Bounds of the cut line in the frame (mm). */
-  bbox: Box;
-  /** Frame size (mm) and its place in the whole art's frame (the join frame), in mm. */
-  widthMm: number;
-  heightMm: number;
-  offsetMm: Point;
-  png: Buffer;
-  pixelWidth: number;
-  pixelHeight: number;
-};
-
-export type OutlineResult = {
-  pieces: OutlinePiece[];
-  art: {
-    format: string;
-    sourceWidthPx: number;
-    sourceHeightPx: number;
-    /** The visible part of the source (transparent margins and specks trimmed), in source pixels. */
-    visible: Box;
-    printedWidthMm: number;
-    printedHeightMm: number;
-    hadTransparency: boolean;
-  };
-  /** Source pixels per inch of the art at its printed size. */
-  effectiveDpi: number;
-  dpi: number;
-  borderMm: number;
-  warnings: OutlineWarning[];
-};
+/** One finished sticker with its PNG (see OutlinePieceData for the frame and the cut line). */
+export type OutlinePiece = OutlinePieceData & { png: Buffer };
+export type OutlineResult = OutlineData<OutlinePiece>;
 
 const PAD = 2;
 

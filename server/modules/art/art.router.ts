@@ -1,17 +1,15 @@
 import { Router } from 'express';
-import type { Request } from 'express';
 import { PROOF_LIMITS, singleUpload } from '../../middleware/uploads';
 import type { DataSource } from 'typeorm';
 import { artListQuerySchema, artParamsSchema, artUpdateSchema, bulkActionSchema, uploadFieldsSchema } from '../../../shared/schemas/library';
 import { teamParamsSchema } from '../../../shared/schemas/team';
 import { AppError, notFound } from '../../lib/errors';
-import { requirePermission, teamScope } from '../../middleware/auth';
+import { actorOf, requirePermission, teamScope } from '../../middleware/auth';
 import { route } from '../../middleware/validate';
 import type { ArtService } from './art.service';
 import { searchArt } from './art-search';
 import { z } from 'zod';
 
-const actorOf = (req: Request) => ({ userId: req.user!.id, teamId: req.membership!.teamId, role: req.membership!.role });
 
 /** Names of the team's sheets that use any of the art (sheets sit above art and are asked through this). */
 export type SheetsUsingArt = (teamId: string, artIds: string[]) => Promise<string[]>;

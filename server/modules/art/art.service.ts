@@ -5,7 +5,6 @@ import sharp from 'sharp';
 import type { Metadata } from 'sharp';
 import type { DataSource, EntityManager } from 'typeorm';
 import { In, IsNull } from 'typeorm';
-import type { Role } from '../../../shared/permissions';
 import { can } from '../../../shared/permissions';
 import type { ArtUpdateInput, ArtView, BulkAction, UploadResult } from '../../../shared/schemas/library';
 import { suggestKeywords } from '../../../shared/search';
@@ -22,7 +21,7 @@ import type { PackLimits } from './zip-pack';
 import { DEFAULT_PACK_LIMITS, readPack } from './zip-pack';
 
 const ACCEPTED = new Set(['png', 'jpeg', 'webp']);
-export type Actor = { userId: string; teamId: string; role: Role };
+import type { Actor } from '../../../shared/permissions';
 
 /** Reads the real type from the bytes (never the file name) and refuses what the engine cannot use. */
 export async function sniffArt(data: Buffer, maxPixels: number) {

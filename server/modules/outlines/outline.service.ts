@@ -1,12 +1,11 @@
 import { createHash } from 'node:crypto';
 import type { DataSource } from 'typeorm';
-import type { OutlineOptions } from '../../../shared/schemas/outline';
+import type { OutlineOptions, OutlineData, OutlinePieceData } from '../../../shared/schemas/outline';
 import type { RemovalPreviewQuery } from '../../../shared/schemas/outline';
 import { DEFAULT_TOLERANCE, outlineOptionsSchema } from '../../../shared/schemas/outline';
 import type { Piece } from '../../../shared/sheet/document';
 import type { CutLimits } from '../../../shared/sheet/outline-request';
 import { artBackgroundOptions, pieceOutlineOptions } from '../../../shared/sheet/outline-request';
-import type { OutlineResult } from '../../engine/outline/outline';
 import type { OutlinePool } from '../../engine/outline/pool';
 import type { JobQueues, OutlineJobData } from '../../jobs/queues';
 import { AppError, forbidden, notFound } from '../../lib/errors';
@@ -19,8 +18,8 @@ import { OutlineCacheEntry } from './outline-cache.entity';
 /** Bump when the engine's output changes, so old cache entries are not served. */
 export const OUTLINE_ENGINE_VERSION = 'outline-2';
 
-export type StoredPiece = Omit<OutlineResult['pieces'][number], 'png'> & { pngKey: string };
-export type StoredOutline = Omit<OutlineResult, 'pieces'> & { pieces: StoredPiece[] };
+export type StoredPiece = OutlinePieceData & { pngKey: string };
+export type StoredOutline = OutlineData<StoredPiece>;
 
 /** JSON with sorted keys, so equal options always hash the same. */
 function canonical(value: unknown): string {

@@ -1,3 +1,4 @@
+import type { OutlineResponse } from '../../../shared/schemas/outline';
 import { Router } from 'express';
 import type { DataSource } from 'typeorm';
 import { z } from 'zod';
@@ -28,7 +29,7 @@ export function outlinesRouter({ dataSource, art, outlines }: { dataSource: Data
     '/teams/:teamId/art/:artId/outline',
     scoped,
     requirePermission('team.view'),
-    route({ params: artParams, query: outlineQuerySchema }, async ({ params, query }, req) => {
+    route({ params: artParams, query: outlineQuerySchema }, async ({ params, query }, req): Promise<OutlineResponse> => {
       const teamId = req.membership!.teamId;
       const item = await art.find(teamId, params.artId);
       const options = withArtSetting(item, query, { background: req.query.background !== undefined, widenNecks: req.query.widenNecks !== undefined });

@@ -3,13 +3,12 @@ import type { Request } from 'express';
 import type { DataSource } from 'typeorm';
 import { profileInputSchema, profileParamsSchema, sheetCreateSchema, sheetDuplicateSchema, sheetListQuerySchema, sheetParamsSchema, sheetSaveSchema } from '../../../shared/schemas/sheets';
 import { teamParamsSchema } from '../../../shared/schemas/team';
-import { requirePermission, teamScope } from '../../middleware/auth';
+import { actorOf, requirePermission, teamScope } from '../../middleware/auth';
 import { route } from '../../middleware/validate';
 import type { ProfilesService } from './profiles.service';
 import type { SheetsService } from './sheets.service';
 import type { SheetSummary } from '../../../shared/schemas/sheets';
 
-const actorOf = (req: Request) => ({ userId: req.user!.id, teamId: req.membership!.teamId, role: req.membership!.role });
 
 /** Adds what modules above this one know of each listed sheet (its cost, from the print shop). */
 export type SheetListExtras = (teamId: string, list: SheetSummary[]) => Promise<SheetSummary[]>;

@@ -1,7 +1,6 @@
 import { releaseKey } from '../../storage/sweep';
 import type { DataSource, EntityManager } from 'typeorm';
 import { In } from 'typeorm';
-import type { Role } from '../../../shared/permissions';
 import type { SheetDocument } from '../../../shared/sheet/document';
 import { emptyDocument, migrateDocument } from '../../../shared/sheet/document';
 import { documentProblems, problemField } from '../../../shared/sheet/bounds';
@@ -20,7 +19,7 @@ import { Sheet } from './sheet.entity';
 import { inTransaction } from '../../db/transaction';
 import { profileLimits } from '../../../shared/sheet/preflight';
 
-type Actor = { userId: string; teamId: string; role: Role };
+import type { Actor } from '../../../shared/permissions';
 
 export class SheetsService {
   constructor(

@@ -11,7 +11,7 @@ import {
   updateMemberSchema,
   updateTeamSchema,
 } from '../../../shared/schemas/team';
-import { requirePermission, requireUser, teamScope } from '../../middleware/auth';
+import { actorOf, requirePermission, requireUser, teamScope } from '../../middleware/auth';
 import { route } from '../../middleware/validate';
 import type { AuthService } from '../auth/auth.service';
 import { toSessionUser } from '../auth/auth.service';
@@ -27,7 +27,6 @@ type Deps = {
   csrfToken: (req: Request, overwrite?: boolean) => string;
 };
 
-const actorOf = (req: Request) => ({ userId: req.user!.id, teamId: req.membership!.teamId, role: req.membership!.role });
 
 export function teamsRouter({ dataSource, teams, auth, limits, csrfToken }: Deps): Router {
   const router = Router();

@@ -20,7 +20,7 @@ import { inTransaction } from '../../db/transaction';
 
 export const INVITE_LIFETIME_MS = 7 * 24 * 60 * 60 * 1000;
 
-type Actor = { userId: string; teamId: string; role: Role };
+import type { Actor } from '../../../shared/permissions';
 
 export class TeamsService {
   constructor(

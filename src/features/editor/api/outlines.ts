@@ -1,27 +1,20 @@
 import { countTearRisks } from '../../../../shared/sheet/preflight';
 import { useQueries } from '@tanstack/react-query';
 import { useEffect, useMemo, useRef, useState } from 'react';
-import type { Ring } from '../../../../shared/geometry/polygon';
+import type { OutlineResponse } from '../../../../shared/schemas/outline';
 import type { Piece } from '../../../../shared/sheet/document';
 import { api } from '../../../lib/api-client';
+import type { PieceOutline as SharedPieceOutline } from '../../../../shared/sheet/placement';
 import { outlineKey } from '../../../../shared/sheet/placement';
 import type { CutLimits } from '../../../../shared/sheet/outline-request';
 
-export type PieceOutline = {
-  points: Ring;
+/** A piece's outline as the editor holds it: the cut line (shared/'s PieceOutline) and what it shows. */
+export type PieceOutline = SharedPieceOutline & {
   svgPath: string;
-  widthMm: number;
-  heightMm: number;
   areaMm2: number;
   pngUrl: string;
   effectiveDpi: number;
   narrowNecks: number;
-};
-
-type OutlineResponse = {
-  effectiveDpi: number;
-  warnings: Array<{ code: string }>;
-  pieces: Array<{ cutLine: { points: Ring; svgPath: string }; widthMm: number; heightMm: number; areaMm2: number; pngUrl: string }>;
 };
 
 export { outlineKey };

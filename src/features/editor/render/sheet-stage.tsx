@@ -3,7 +3,7 @@ import { useEffect, useRef, useState } from 'react';
 import type { DragEvent } from 'react';
 import { Group, Layer, Rect, Stage, Transformer } from 'react-konva';
 import { commands } from '../../../../shared/sheet/commands';
-import { formatLength, mmToCssPx } from '../../../../shared/units';
+import { formatLength, mmToCssPx, normaliseDegrees } from '../../../../shared/units';
 import type { PieceOutline } from '../api/outlines';
 import { setDrawnZoom } from '../core/actions';
 import type { EditorState, EditorStore } from '../core/editor-store';
@@ -117,7 +117,7 @@ export function SheetStage({ store, state, canEdit, outlines, warnIds, onDropArt
       if (!piece) continue;
       const scale = Math.abs(node.scaleX());
       node.scale({ x: 1, y: 1 });
-      patches.set(piece.id, { x: node.x(), y: node.y(), rotation: ((node.rotation() % 360) + 360) % 360, width: Math.max(2, Math.round(piece.width * scale * 100) / 100) });
+      patches.set(piece.id, { x: node.x(), y: node.y(), rotation: normaliseDegrees(node.rotation()), width: Math.max(2, Math.round(piece.width * scale * 100) / 100) });
     }
     store.dispatch(commands.patchPieces(doc, 'Transform', patches));
   };

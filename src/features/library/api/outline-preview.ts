@@ -1,14 +1,8 @@
 import { keepPreviousData, queryOptions, useQuery } from '@tanstack/react-query';
-import type { OutlineWarning } from '../../../../shared/schemas/outline';
+import type { OutlineResponse } from '../../../../shared/schemas/outline';
 import { api } from '../../../lib/api-client';
 
-export type OutlinePreview = {
-  key: string;
-  cached: boolean;
-  effectiveDpi: number;
-  warnings: OutlineWarning[];
-  pieces: Array<{ pngUrl: string; widthMm: number; heightMm: number; cutLine: { svgPath: string } }>;
-};
+export type OutlinePreview = OutlineResponse;
 
 export type PreviewParams = { background: string; backgroundTolerance: number; widenNecks: boolean };
 
