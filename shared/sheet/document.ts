@@ -47,3 +47,15 @@ export function emptyDocument(profile: { areaWidthMm: number; areaHeightMm: numb
 export function migrateDocument(raw: unknown): SheetDocument {
   return sheetDocumentSchema.parse(raw);
 }
+
+/**
+ * What preflight, the editor and the sheet analysis call a piece: its art's name, numbered in sheet
+ * order when the art is on the sheet more than once ("Ghost 2").
+ */
+export function pieceName(doc: Pick<SheetDocument, 'pieces'>, pieceId: string, artName: (artId: string) => string | undefined): string {
+  const piece = doc.pieces.find((p) => p.id === pieceId);
+  if (!piece) return 'A piece';
+  const art = artName(piece.artId) ?? 'Piece';
+  const same = doc.pieces.filter((p) => p.artId === piece.artId);
+  return same.length > 1 ? `${art} ${same.indexOf(piece) + 1}` : art;
+}

@@ -94,3 +94,15 @@ describe('gap between cut lines', () => {
     expect(cutLineDistance(a, touching)).toBe(0);
   });
 });
+
+describe('piece names', () => {
+  it('are the art name, numbered in sheet order when the art is on the sheet more than once', async () => {
+    const { pieceName } = await import('./document');
+    const p = (id: string, artId: string) => ({ id, artId, x: 0, y: 0, rotation: 0, width: 10, border: 1, borderColour: '#ffffff', locked: false });
+    const sheet = { pieces: [p('a', 'ghost'), p('b', 'moon'), p('c', 'ghost')] };
+    const names = (artId: string) => ({ ghost: 'Ghost', moon: 'Moon' })[artId];
+    expect(['a', 'b', 'c'].map((id) => pieceName(sheet, id, names))).toEqual(['Ghost 1', 'Moon', 'Ghost 2']);
+    expect(pieceName(sheet, 'gone', names)).toBe('A piece');
+    expect(pieceName({ pieces: [p('x', 'unknown')] }, 'x', names)).toBe('Piece');
+  });
+});

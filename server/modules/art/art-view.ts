@@ -5,7 +5,7 @@ import type { ArtView, LicenceView } from '../../../shared/schemas/library';
 import { User } from '../accounts/user.entity';
 import { Collection } from '../collections/collection.entity';
 import { licenceView } from '../collections/licence.columns';
-import type { ArtItem } from './art-item.entity';
+import { ArtItem } from './art-item.entity';
 import { keywordsOf } from './terms';
 import { collectionsOf } from './memberships';
 
@@ -23,12 +23,9 @@ export async function artViews(manager: EntityManager, items: ArtItem[]): Promis
     const base = `/api/teams/${item.teamId}/art/${item.id}`;
     const pack = item.packId ? packs.get(item.packId) ?? null : null;
     let licence: LicenceView | null = null;
-    const own = licenceView(item.licence, `${base}/licence-proof`);
-    if (own) licence = { ...own, inheritedFrom: null };
-    else if (pack) {
-      const inherited = licenceView(pack.licence, `/api/teams/${item.teamId}/collections/${pack.id}/licence-proof`);
-      if (inherited) licence = { ...inherited, inheritedFrom: { collectionId: pack.id, name: pack.name } };
-    }
+    const source = licenceSource(item, pack);
+    if (source === 'own') licence = { ...licenceView(item.licence, `${base}/licence-proof`)!, inheritedFrom: null };
+    else if (source === 'pack' && pack) licence = { ...licenceView(pack.licence, `/api/teams/${item.teamId}/collections/${pack.id}/licence-proof`)!, inheritedFrom: { collectionId: pack.id, name: pack.name } };
     const at = (dpi: number) => ({ widthMm: (item.widthPx / dpi) * MM_PER_INCH, heightMm: (item.heightPx / dpi) * MM_PER_INCH });
     return {
       id: item.id,
@@ -54,11 +51,26 @@ export async function artViews(manager: EntityManager, items: ArtItem[]): Promis
 }
 
 /** Each art item's effective licence kind: its own, else its pack's, else null. */
-export async function effectiveLicenceKinds(dataSource: { query: (sql: string, args: unknown[]) => Promise<unknown> }, teamId: string, ids: string[]): Promise<Map<string, string | null>> {
+/**
+ * Which licence holds for an art item: its own when it has one, else that of the pack it came in
+ * (the collection it was uploaded with). The one rule, for the art's page and the sheet checks.
+ */
+export function licenceSource(item: Pick<ArtItem, 'licence'>, pack: Pick<Collection, 'licence'> | null): 'own' | 'pack' | null {
+  if (item.licence.kind) return 'own';
+  return pack?.licence.kind ? 'pack' : null;
+}
+
+/** The licence kind that holds for each of a team's art items (see licenceSource). */
+export async function effectiveLicenceKinds(manager: EntityManager, teamId: string, ids: string[]): Promise<Map<string, string | null>> {
   if (ids.length === 0) return new Map();
-  const rows = (await dataSource.query(
-    `SELECT a.id, COALESCE(a.licence_kind, c.licence_kind) AS kind FROM art_items a LEFT JOIN collections c ON c.id = a.pack_id WHERE a.team_id = ? AND a.id IN (${ids.map(() => '?').join(',')})`,
-    [teamId, ...ids],
-  )) as Array<{ id: string; kind: string | null }>;
-  return new Map(rows.map((r) => [String(r.id), r.kind]));
+  const items = await manager.findBy(ArtItem, { teamId, id: In(ids) });
+  const packIds = [...new Set(items.map((i) => i.packId).filter((id): id is string => id !== null))];
+  const packs = new Map((packIds.length ? await manager.findBy(Collection, { id: In(packIds) }) : []).map((c) => [c.id, c]));
+  return new Map(
+    items.map((item) => {
+      const pack = item.packId ? packs.get(item.packId) ?? null : null;
+      const source = licenceSource(item, pack);
+      return [item.id, source === 'own' ? item.licence.kind : source === 'pack' ? pack!.licence.kind : null];
+    }),
+  );
 }

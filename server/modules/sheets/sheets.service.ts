@@ -81,7 +81,7 @@ export class SheetsService {
     const document = migrateDocument(JSON.parse(sheet.document));
     const ids = [...new Set(document.pieces.map((p) => p.artId))];
     const art = ids.length ? await this.dataSource.getRepository(ArtItem).findBy({ id: In(ids), teamId }) : [];
-    const licences = await effectiveLicenceKinds(this.dataSource, teamId, ids);
+    const licences = await effectiveLicenceKinds(this.dataSource.manager, teamId, ids);
     const profile = sheet.profileId ? await this.dataSource.getRepository(SheetProfile).findOneBy({ id: sheet.profileId }) : null;
     return {
       ...summary,

@@ -6,7 +6,7 @@ import type { SheetAnalysis } from '../../../shared/schemas/shop';
 import { cutLength } from '../../../shared/production/cost';
 import { inkCoverage } from '../../../shared/production/coverage';
 import type { SheetDocument } from '../../../shared/sheet/document';
-import { migrateDocument } from '../../../shared/sheet/document';
+import { migrateDocument, pieceName } from '../../../shared/sheet/document';
 import { pieceOutlineQuery, placeCutLine } from '../../../shared/sheet/placement';
 import { pieceProblems } from '../../../shared/sheet/bounds';
 import type { Finding, PreflightLimits, PreflightOutline } from '../../../shared/sheet/preflight';
@@ -74,13 +74,9 @@ export class SheetAnalysisService {
         narrowNecks: countTearRisks(outline.warnings),
       });
     }
-    const names = new Map(doc.pieces.map((p) => {
-      const same = doc.pieces.filter((x) => x.artId === p.artId);
-      const art = arts.get(p.artId)?.name ?? 'Piece';
-      return [p.id, same.length > 1 ? `${art} ${same.indexOf(p) + 1}` : art];
-    }));
+    const names = new Map(doc.pieces.map((p) => [p.id, pieceName(doc, p.id, (artId) => arts.get(artId)?.name)]));
     const paperArea = profile ? profile.paperWidthMm * profile.paperHeightMm : PAPER_SIZES.letter.width * PAPER_SIZES.letter.height;
-    return { doc, outlines, stored, names, licences: await effectiveLicenceKinds(this.dataSource, teamId, ids), paperArea, limits };
+    return { doc, outlines, stored, names, licences: await effectiveLicenceKinds(this.dataSource.manager, teamId, ids), paperArea, limits };
   }
 
   private findings(g: Gathered, sheet: Sheet, bleedMm?: number): Finding[] {

@@ -24,6 +24,7 @@ import { useAutosave } from './use-autosave';
 import { ArrangePanel } from './arrange-panel';
 import { ExportPanel } from './export-panel';
 import type { SheetDocument } from '../../../../shared/sheet/document';
+import { pieceName } from '../../../../shared/sheet/document';
 import { formatLength } from '../../../../shared/units';
 
 const SAVE_TEXT = { saved: 'All changes saved', unsaved: 'Unsaved changes…', saving: 'Saving…', offline: 'Offline: will retry', conflict: 'Not saved: conflict', refused: 'Not saved: see why' } as const;
@@ -127,13 +128,7 @@ export function EditorPage({ teamId, sheet, canEdit }: { teamId: string; sheet: 
   };
 
   const selectedPieces = state.doc.pieces.filter((p) => state.selection.has(p.id));
-  function name(id: string) {
-    const p = shown.pieces.find((x) => x.id === id);
-    if (!p) return 'A piece';
-    const art = artNames.get(p.artId) ?? 'Piece';
-    const same = shown.pieces.filter((x) => x.artId === p.artId);
-    return same.length > 1 ? `${art} ${same.indexOf(p) + 1}` : art;
-  }
+  const name = (id: string) => pieceName(shown, id, (artId) => artNames.get(artId));
 
   return (
     <div className="flex h-[calc(100vh-7.5rem)] min-h-[560px] flex-col gap-3">
