@@ -5,7 +5,6 @@ import { Group, Layer, Rect, Stage, Transformer } from 'react-konva';
 import { commands } from '../../../../shared/sheet/commands';
 import { formatLength, mmToCssPx, normaliseDegrees } from '../../../../shared/units';
 import type { PieceOutline } from '../api/outlines';
-import { setDrawnZoom } from '../core/actions';
 import type { EditorState, EditorStore } from '../core/editor-store';
 import { PieceNode } from './piece-node';
 import { clampToZone } from '../../../../shared/sheet/bounds';
@@ -20,10 +19,12 @@ type Props = {
   onDropArt: (data: string, at: { x: number; y: number }) => void;
   stageRef: React.MutableRefObject<Konva.Stage | null>;
   sheetRef: React.MutableRefObject<Konva.Group | null>;
+  /** Told the zoom it draws at (a number even when the view is "fit"). */
+  onZoom?: (zoom: number) => void;
 };
 
 /** The sheet at physical scale (zoom 1 = real size on a 96 DPI screen), with rulers, pieces and selection. */
-export function SheetStage({ store, state, canEdit, outlines, warnIds, onDropArt, stageRef, sheetRef }: Props) {
+export function SheetStage({ store, state, canEdit, outlines, warnIds, onDropArt, stageRef, sheetRef, onZoom }: Props) {
   const box = useRef<HTMLDivElement>(null);
   const transformer = useRef<Konva.Transformer>(null);
   const [size, setSize] = useState({ width: 800, height: 600 });
@@ -41,7 +42,7 @@ export function SheetStage({ store, state, canEdit, outlines, warnIds, onDropArt
 
   const fitZoom = Math.min((size.width - RULER - 40) / mmToCssPx(doc.printArea.width), (size.height - RULER - 40) / mmToCssPx(doc.printArea.height));
   const zoom = state.zoom === 'fit' ? Math.max(0.05, fitZoom) : state.zoom;
-  useEffect(() => setDrawnZoom(zoom), [zoom]);
+  useEffect(() => onZoom?.(zoom), [zoom, onZoom]);
   const pxPerMm = mmToCssPx(1, zoom);
   const origin = {
     x: RULER + 20 + state.pan.x + (state.zoom === 'fit' ? Math.max(0, (size.width - RULER - 40 - doc.printArea.width * pxPerMm) / 2) : 0),

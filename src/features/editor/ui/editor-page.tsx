@@ -11,7 +11,8 @@ import { rotatedHalfSize } from '../../../../shared/sheet/placement';
 import { usePieceOutlines } from '../api/outlines';
 import { saveAsCopy, sheetQueryOptions } from '../api/sheet';
 import type { ActionContext } from '../core/actions';
-import { handleKey, newPiece, runAction } from '../core/actions';
+import { handleKey, newPiece } from '../core/actions';
+import { Toolbar } from './toolbar';
 import { firstFreeSpot } from '../core/arrange-plan';
 import { EditorStore } from '../core/editor-store';
 import { SheetStage } from '../render/sheet-stage';
@@ -55,8 +56,19 @@ export function EditorPage({ teamId, sheet, canEdit }: { teamId: string; sheet: 
     return map;
   }, [shown.pieces, outlines]);
 
+  const drawnZoom = useRef(1);
+  const onZoom = useCallback((zoom: number) => {
+    drawnZoom.current = zoom;
+  }, []);
   const ctx: ActionContext = useMemo(
-    () => ({ store, canEdit, unit, halfSize: (p) => rotatedHalfSize(sizes.get(p.id)?.widthMm ?? p.width, sizes.get(p.id)?.heightMm ?? p.width, p.rotation) }),
+    () => ({
+      store,
+      canEdit,
+      unit,
+      halfSize: (p) => rotatedHalfSize(sizes.get(p.id)?.widthMm ?? p.width, sizes.get(p.id)?.heightMm ?? p.width, p.rotation),
+      drawnZoom: () => drawnZoom.current,
+      open: (panel) => (panel === 'arrange' ? setArranging(true) : setExporting(true)),
+    }),
     [store, canEdit, unit, sizes],
   );
 
@@ -128,7 +140,10 @@ export function EditorPage({ teamId, sheet, canEdit }: { teamId: string; sheet: 
   };
 
   const selectedPieces = state.doc.pieces.filter((p) => state.selection.has(p.id));
-  const name = (id: string) => pieceName(shown, id, (artId) => artNames.get(artId));
+  // A declaration (hoisted): the preflight above names pieces through it during the same render.
+  function name(id: string) {
+    return pieceName(shown, id, (artId) => artNames.get(artId));
+  }
 
   return (
     <div className="flex h-[calc(100vh-7.5rem)] min-h-[560px] flex-col gap-3">
@@ -155,31 +170,12 @@ export function EditorPage({ teamId, sheet, canEdit }: { teamId: string; sheet: 
           <button type="button" className="font-bold underline" onClick={() => store.dismissRefusal()}>Dismiss</button>
         </div>
       )}
-      <div className="flex flex-wrap items-center gap-1 text-sm" role="toolbar" aria-label="Sheet tools">
-        {canEdit && (
-          <>
-            <button type="button" className="rounded border-2 border-paper-edge bg-white px-2 py-1 font-bold disabled:opacity-40" disabled={!store.history.canUndo} onClick={() => runAction('undo', ctx)} title="Ctrl/⌘ Z">Undo</button>
-            <button type="button" className="rounded border-2 border-paper-edge bg-white px-2 py-1 font-bold disabled:opacity-40" disabled={!store.history.canRedo} onClick={() => runAction('redo', ctx)} title="Shift Ctrl/⌘ Z">Redo</button>
-          </>
-        )}
-        <button type="button" className="rounded border-2 border-paper-edge bg-white px-2 py-1 font-bold" onClick={() => runAction('zoom-fit', ctx)}>Fit</button>
-        <button type="button" className="rounded border-2 border-paper-edge bg-white px-2 py-1 font-bold" onClick={() => runAction('zoom-real', ctx)}>100 %</button>
-        <button type="button" className="rounded border-2 border-paper-edge bg-white px-2 py-1 font-bold" onClick={() => runAction('zoom-out', ctx)} aria-label="Zoom out">−</button>
-        <button type="button" className="rounded border-2 border-paper-edge bg-white px-2 py-1 font-bold" onClick={() => runAction('zoom-in', ctx)} aria-label="Zoom in">+</button>
-        <label className="ml-2 flex items-center gap-1 font-bold"><input type="checkbox" checked={state.showCutLines} onChange={() => runAction('cut-lines', ctx)} />Cut lines</label>
-        {canEdit && (
-          <button type="button" className="ml-2 rounded-full bg-peel px-3 py-1 font-bold text-ink" onClick={() => setArranging(true)} disabled={arranging}>
-            Auto-arrange…
-          </button>
-        )}
-        {canEdit && (
-          <button type="button" className="rounded-full bg-sage-deep px-3 py-1 font-bold text-white" onClick={() => setExporting(true)} disabled={exporting}>
-            Export…
-          </button>
-        )}
-        <span className="ml-auto text-xs text-ink-soft" data-testid="area-used">{shown.pieces.length} piece{shown.pieces.length === 1 ? '' : 's'} · {Math.round(areaUsed() * 100)} % of the print area{preview ? ' (preview)' : ''}</span>
-        <button type="button" className="rounded border-2 border-paper-edge bg-white px-2 py-1 font-bold" onClick={() => runAction('help', ctx)}>Shortcuts (?)</button>
-      </div>
+      <Toolbar
+        ctx={ctx}
+        names={['undo', 'redo', 'zoom-fit', 'zoom-real', 'zoom-out', 'zoom-in', 'cut-lines', 'arrange', 'export', 'help']}
+        open={[...(arranging ? ['arrange'] : []), ...(exporting ? ['export'] : [])]}
+        after={{ name: 'export', node: <span className="ml-auto text-xs text-ink-soft" data-testid="area-used">{shown.pieces.length} piece{shown.pieces.length === 1 ? '' : 's'} · {Math.round(areaUsed() * 100)} % of the print area{preview ? ' (preview)' : ''}</span> }}
+      />
       <div className="grid min-h-0 flex-1 gap-3 lg:grid-cols-[13rem_1fr_17rem]">
         <LibraryPanel teamId={teamId} canEdit={canEdit} onAdd={onAddFromPanel} />
         <div className="relative min-h-0 min-w-0">
@@ -191,6 +187,7 @@ export function EditorPage({ teamId, sheet, canEdit }: { teamId: string; sheet: 
           warnIds={warnIds}
           stageRef={stageRef}
           sheetRef={sheetRef}
+          onZoom={onZoom}
           onDropArt={(data, at) => {
             const art = JSON.parse(data) as { artId: string; widthPx: number; name?: string };
             if (art.name) artNames.set(art.artId, art.name);
