@@ -14,10 +14,22 @@ const MODULES = ['accounts', 'auth', 'teams', 'collections', 'art', 'outlines', 
 
 /** Zones for import-x/no-restricted-paths: files under `target` may not import from `from`. */
 const zones = [
-  { target: './shared', from: ['./server', './src', './scripts', './tests'], message: 'shared/ depends on nothing of ours: move what both sides need into shared/.' },
-  { target: './server', from: ['./src', './scripts'], message: 'The server imports neither the client nor scripts/: move what it needs into server/ or shared/.' },
+  {
+    target: './shared',
+    from: ['./server', './src', './scripts', './tests'],
+    message: 'shared/ depends on nothing of ours: move what both sides need into shared/.',
+  },
+  {
+    target: './server',
+    from: ['./src', './scripts'],
+    message: 'The server imports neither the client nor scripts/: move what it needs into server/ or shared/.',
+  },
   { target: './src', from: ['./server', './scripts'], message: 'The client never imports the server: share it through shared/.' },
-  { target: './src/features/editor/core', from: ['./src/features/editor/api', './src/features/editor/ui', './src/features/editor/render', './src/lib'], message: 'The editor core imports neither the API layer nor the views.' },
+  {
+    target: './src/features/editor/core',
+    from: ['./src/features/editor/api', './src/features/editor/ui', './src/features/editor/render', './src/lib'],
+    message: 'The editor core imports neither the API layer nor the views.',
+  },
   ...MODULES.slice(0, -1).map((m, k) => ({
     target: `./server/modules/${m}`,
     from: MODULES.slice(k + 1).map((n) => `./server/modules/${n}`),
@@ -36,11 +48,28 @@ export default tseslint.config(
   ...tseslint.configs.recommended,
   {
     files: ['**/*.{ts,tsx,js,mjs}'],
-    languageOptions: { ecmaVersion: 2023, sourceType: 'module', globals: { console: 'readonly', process: 'readonly', URL: 'readonly', setTimeout: 'readonly', clearTimeout: 'readonly', setInterval: 'readonly', clearInterval: 'readonly', performance: 'readonly', Buffer: 'readonly' } },
+    languageOptions: {
+      ecmaVersion: 2023,
+      sourceType: 'module',
+      globals: {
+        console: 'readonly',
+        process: 'readonly',
+        URL: 'readonly',
+        setTimeout: 'readonly',
+        clearTimeout: 'readonly',
+        setInterval: 'readonly',
+        clearInterval: 'readonly',
+        performance: 'readonly',
+        Buffer: 'readonly',
+      },
+    },
     plugins: { 'import-x': importX },
     rules: {
       'import-x/no-restricted-paths': ['error', { zones }],
-      '@typescript-eslint/no-unused-vars': ['error', { argsIgnorePattern: '^_', varsIgnorePattern: '^_', destructuredArrayIgnorePattern: '^_' }],
+      '@typescript-eslint/no-unused-vars': [
+        'error',
+        { argsIgnorePattern: '^_', varsIgnorePattern: '^_', destructuredArrayIgnorePattern: '^_' },
+      ],
       '@typescript-eslint/consistent-type-imports': ['error', { prefer: 'type-imports', fixStyle: 'separate-type-imports' }],
     },
     settings: { 'import-x/resolver': { node: { extensions: ['.ts', '.tsx', '.js', '.mjs'] } } },
@@ -54,7 +83,17 @@ export default tseslint.config(
   {
     files: ['src/features/editor/core/**/*.ts'],
     rules: {
-      'no-restricted-imports': ['error', { patterns: [{ group: ['react', 'react-dom', 'react-dom/*', 'konva', 'konva/*', 'react-konva', '@tanstack/*'], message: 'The editor core is plain TypeScript: no React, Konva or TanStack Query here.' }] }],
+      'no-restricted-imports': [
+        'error',
+        {
+          patterns: [
+            {
+              group: ['react', 'react-dom', 'react-dom/*', 'konva', 'konva/*', 'react-konva', '@tanstack/*'],
+              message: 'The editor core is plain TypeScript: no React, Konva or TanStack Query here.',
+            },
+          ],
+        },
+      ],
     },
   },
 );

@@ -23,7 +23,6 @@ import { renderPrintImage } from '../server/engine/export/print-image';
 import { cutSvg } from '../server/engine/export/svg';
 import type { ExportSheet } from '../server/engine/export/types';
 
-
 const { values, positionals } = parseArgs({
   allowPositionals: true,
   options: {
@@ -40,19 +39,30 @@ const { values, positionals } = parseArgs({
     out: { type: 'string' },
   },
 });
-if (!values.out || positionals.length === 0) fail('usage: npm run arrange -- <art>=<count>@<width>... --sheet 6.75x9.25in [--gap 0.125in] [--margin 0in] [--border 0.125in] [--rotate 90] [--fill] [--time 2s] [--seed 1] [--threads N] --out <dir>');
+if (!values.out || positionals.length === 0)
+  fail(
+    'usage: npm run arrange -- <art>=<count>@<width>... --sheet 6.75x9.25in [--gap 0.125in] [--margin 0in] [--border 0.125in] [--rotate 90] [--fill] [--time 2s] [--seed 1] [--threads N] --out <dir>',
+  );
 
 const sheetMatch = /^([\d.]+)x([\d.]+)(mm|in)$/i.exec(values.sheet!);
 if (!sheetMatch) fail(`--sheet: give the print area like 6.75x9.25in or 171x235mm (got "${values.sheet}")`);
-const width = parseLength(`${sheetMatch![1]}${sheetMatch![3]}`)!, height = parseLength(`${sheetMatch![2]}${sheetMatch![3]}`)!;
-const length = (flag: string, text: string) => parseLength(text, 'mm') ?? fail(`--${flag}: give a length like 0.125in or 3mm (got "${text}")`);
-const gap = length('gap', values.gap!), margin = length('margin', values.margin!), border = length('border', values.border!);
-const rotate: RotateMode = values.rotate === 'none' || values.rotate === '0' ? 'none' : values.rotate === '90' ? '90' : { step: Number(values.rotate) };
+const width = parseLength(`${sheetMatch![1]}${sheetMatch![3]}`)!,
+  height = parseLength(`${sheetMatch![2]}${sheetMatch![3]}`)!;
+const length = (flag: string, text: string) =>
+  parseLength(text, 'mm') ?? fail(`--${flag}: give a length like 0.125in or 3mm (got "${text}")`);
+const gap = length('gap', values.gap!),
+  margin = length('margin', values.margin!),
+  border = length('border', values.border!);
+const rotate: RotateMode =
+  values.rotate === 'none' || values.rotate === '0' ? 'none' : values.rotate === '90' ? '90' : { step: Number(values.rotate) };
 if (typeof rotate === 'object' && !(rotate.step > 0)) fail(`--rotate: give none, 90 or a step in degrees such as 15`);
-const timeMs = /^([\d.]+)(ms|s)?$/.exec(values.time!) ? Number(/^([\d.]+)/.exec(values.time!)![1]) * (values.time!.endsWith('ms') ? 1 : 1000) : fail('--time: give a duration like 2s');
+const timeMs = /^([\d.]+)(ms|s)?$/.exec(values.time!)
+  ? Number(/^([\d.]+)/.exec(values.time!)![1]) * (values.time!.endsWith('ms') ? 1 : 1000)
+  : fail('--time: give a duration like 2s');
 const dpi = Number(values.dpi);
 const threads = values.threads === undefined ? defaultThreads() : Number(values.threads);
-if (!Number.isInteger(threads) || threads < 1 || threads > 64) fail(`--threads: give a whole number of threads from 1 to 64 (got "${values.threads}")`);
+if (!Number.isInteger(threads) || threads < 1 || threads > 64)
+  fail(`--threads: give a whole number of threads from 1 to 64 (got "${values.threads}")`);
 
 const problems: string[] = [];
 const items: Array<ArrangeItem & { width: number }> = [];
@@ -71,19 +81,39 @@ for (const [index, spec] of positionals.entries()) {
   }
   try {
     // The same request a sheet piece makes (white border, default background), at the CLI's resolution.
-    const result = await outline(await readFile(file), pieceOutlineOptions(DEFAULT_ART_BACKGROUND, { width: artWidth, border, borderColour: '#ffffff' }, { ...DEFAULT_PREFLIGHT_LIMITS, dpi }));
+    const result = await outline(
+      await readFile(file),
+      pieceOutlineOptions(
+        DEFAULT_ART_BACKGROUND,
+        { width: artWidth, border, borderColour: '#ffffff' },
+        { ...DEFAULT_PREFLIGHT_LIMITS, dpi },
+      ),
+    );
     const piece = result.pieces[0];
     const key = String(index + 1);
     files.set(key, { file: path.resolve(file), png: piece.png, widthMm: piece.widthMm, heightMm: piece.heightMm });
-    items.push({ key, name: path.basename(file), count: Number(countText), outline: { points: piece.cutLine.points, widthMm: piece.widthMm, heightMm: piece.heightMm }, width: artWidth });
+    items.push({
+      key,
+      name: path.basename(file),
+      count: Number(countText),
+      outline: { points: piece.cutLine.points, widthMm: piece.widthMm, heightMm: piece.heightMm },
+      width: artWidth,
+    });
   } catch (error) {
-    problems.push(`${file}: ${error instanceof OutlineInputError ? error.message : (error as NodeJS.ErrnoException).code === 'ENOENT' ? 'no such file' : (error as Error).message}`);
+    problems.push(
+      `${file}: ${error instanceof OutlineInputError ? error.message : (error as NodeJS.ErrnoException).code === 'ENOENT' ? 'no such file' : (error as Error).message}`,
+    );
   }
 }
 
 let result;
 try {
-  result = await arrangeInThreads(items, { width, height, gap, margin, rotate, fill: values.fill, timeMs, seed: Number(values.seed) }, [], threads).done;
+  result = await arrangeInThreads(
+    items,
+    { width, height, gap, margin, rotate, fill: values.fill, timeMs, seed: Number(values.seed) },
+    [],
+    threads,
+  ).done;
 } catch (error) {
   if (error instanceof ArrangeInputError) fail(error.message);
   throw error;
@@ -95,8 +125,24 @@ const widthOf = new Map(items.map((i) => [i.key, i.width]));
 for (let s = 0; s < result.sheets; s++) {
   const suffix = s === 0 ? '' : `-${s + 1}`;
   const placements = result.placements.filter((p) => p.sheet === s);
-  const pieces: Piece[] = placements.map((p, i) => ({ id: `p${i + 1}`, artId: p.key, x: p.x, y: p.y, rotation: p.rotation, width: widthOf.get(p.key)!, border, borderColour: '#ffffff', locked: false }));
-  const document: SheetDocument = { schemaVersion: SHEET_SCHEMA_VERSION, printArea: { width, height }, safeMargin: margin, minGap: gap, pieces };
+  const pieces: Piece[] = placements.map((p, i) => ({
+    id: `p${i + 1}`,
+    artId: p.key,
+    x: p.x,
+    y: p.y,
+    rotation: p.rotation,
+    width: widthOf.get(p.key)!,
+    border,
+    borderColour: '#ffffff',
+    locked: false,
+  }));
+  const document: SheetDocument = {
+    schemaVersion: SHEET_SCHEMA_VERSION,
+    printArea: { width, height },
+    safeMargin: margin,
+    minGap: gap,
+    pieces,
+  };
   const art = Object.fromEntries([...new Set(pieces.map((p) => p.artId))].map((key) => [key, files.get(key)!.file]));
   await writeFile(path.join(values.out!, `sheet${suffix}.json`), `${JSON.stringify({ document, art }, null, 2)}\n`);
 
@@ -117,5 +163,15 @@ for (let s = 0; s < result.sheets; s++) {
 }
 
 for (const problem of problems) console.error(`problem: ${problem}`);
-console.log(JSON.stringify({ requested: result.requested, placed: result.placed, sheets: result.sheets, areaUsed: result.areaUsed.map((a) => Number(a.toFixed(4))), ms: result.ms, threads, problems }));
+console.log(
+  JSON.stringify({
+    requested: result.requested,
+    placed: result.placed,
+    sheets: result.sheets,
+    areaUsed: result.areaUsed.map((a) => Number(a.toFixed(4))),
+    ms: result.ms,
+    threads,
+    problems,
+  }),
+);
 process.exit(problems.length > 0 ? 1 : 0);

@@ -31,13 +31,16 @@ const { values, positionals } = parseArgs({
 });
 
 if (values.help || positionals.length === 0 || !values.out) {
-  console.error('usage: npm run outline -- <file-or-folder>... --width 2in --border 3mm [--dpi 300] [--background auto|keep|#ffffff] [--islands join|split] --out <dir> [--json]');
+  console.error(
+    'usage: npm run outline -- <file-or-folder>... --width 2in --border 3mm [--dpi 300] [--background auto|keep|#ffffff] [--islands join|split] --out <dir> [--json]',
+  );
   process.exit(values.help ? 0 : 2);
 }
 
-const background = values.background && /^#?[0-9a-f]{6}$/i.test(values.background)
-  ? { colour: values.background, tolerance: Number(values.tolerance ?? 32) }
-  : values.background;
+const background =
+  values.background && /^#?[0-9a-f]{6}$/i.test(values.background)
+    ? { colour: values.background, tolerance: Number(values.tolerance ?? 32) }
+    : values.background;
 const parsed = outlineOptionsSchema.safeParse({
   width: values.width,
   height: values.height,
@@ -77,7 +80,14 @@ for (const file of await collect(positionals)) {
       const base = result.pieces.length === 1 ? name : `${name}-${i + 1}`;
       await writeFile(path.join(values.out, `${base}.png`), piece.png);
       await writeFile(path.join(values.out, `${base}.svg`), cutLineSvg(piece, `${base}: cut line`));
-      written.push({ png: `${base}.png`, svg: `${base}.svg`, widthMm: piece.widthMm, heightMm: piece.heightMm, areaMm2: piece.areaMm2, perimeterMm: piece.perimeterMm });
+      written.push({
+        png: `${base}.png`,
+        svg: `${base}.svg`,
+        widthMm: piece.widthMm,
+        heightMm: piece.heightMm,
+        areaMm2: piece.areaMm2,
+        perimeterMm: piece.perimeterMm,
+      });
     }
     const summary = {
       file,
@@ -90,12 +100,19 @@ for (const file of await collect(positionals)) {
     };
     if (values.json) console.log(JSON.stringify(summary));
     else {
-      console.log(`${file}: ${written.length} piece${written.length === 1 ? '' : 's'}, ${summary.areaMm2.toFixed(1)} mm², cut ${summary.perimeterMm.toFixed(1)} mm, ${summary.effectiveDpi} DPI`);
+      console.log(
+        `${file}: ${written.length} piece${written.length === 1 ? '' : 's'}, ${summary.areaMm2.toFixed(1)} mm², cut ${summary.perimeterMm.toFixed(1)} mm, ${summary.effectiveDpi} DPI`,
+      );
       for (const w of result.warnings) console.log(`  ${w.severity}: ${w.message}`);
     }
   } catch (error) {
     failed++;
-    const reason = error instanceof OutlineInputError ? error.message : (error as NodeJS.ErrnoException).code === 'ENOENT' ? 'No such file.' : `Unexpected error: ${(error as Error).message}`;
+    const reason =
+      error instanceof OutlineInputError
+        ? error.message
+        : (error as NodeJS.ErrnoException).code === 'ENOENT'
+          ? 'No such file.'
+          : `Unexpected error: ${(error as Error).message}`;
     if (values.json) console.log(JSON.stringify({ file, ok: false, error: reason }));
     else console.error(`${file}: FAILED: ${reason}`);
   }

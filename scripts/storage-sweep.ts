@@ -8,7 +8,9 @@ import { sweepStorage } from '../server/storage/sweep';
 const dataSource = await createDataSource().initialize();
 try {
   const report = await sweepStorage(dataSource, createStorage(env), env.STORAGE_GRACE_HOURS * 3_600_000);
-  console.log(`[sheetsmith] storage sweep: ${report.scanned} files looked at, ${report.deleted} removed, ${report.keptYoung} kept as too recent to judge`);
+  console.log(
+    `[sheetsmith] storage sweep: ${report.scanned} files looked at, ${report.deleted} removed, ${report.keptYoung} kept as too recent to judge`,
+  );
 } finally {
   await dataSource.destroy();
 }

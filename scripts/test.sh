@@ -22,7 +22,8 @@ export DATA_DIR="$DATA_DIR/test"
 rm -rf "$DATA_DIR"; mkdir -p "$DATA_DIR"
 # Lint first (import boundaries included): a violation fails the run before any test does.
 if [ "$#" -eq 0 ]; then
-  log "linting (npm run lint)"
+  log "linting (npm run lint) and checking the format (npm run format:check)"
   npx --no-install eslint .
+  npx --no-install prettier --check . --log-level warn
 fi
 npx --no-install vitest run "$@"

@@ -20,14 +20,29 @@ import { createStorage } from '../server/storage/create';
 const log = createLog(env);
 const dataSource = await createDataSource(env.DB_NAME, env, log).initialize();
 const storage = createStorage(env);
-const pool = new OutlinePool({ maxInputPixels: env.OUTLINE_MAX_PIXELS, maxOutputPixels: env.OUTLINE_MAX_OUTPUT_PIXELS }, env.OUTLINE_THREADS || undefined);
+const pool = new OutlinePool(
+  { maxInputPixels: env.OUTLINE_MAX_PIXELS, maxOutputPixels: env.OUTLINE_MAX_OUTPUT_PIXELS },
+  env.OUTLINE_THREADS || undefined,
+);
 const settings = jobSettingsFrom(env);
 const queues = new JobQueues(settings);
 const sheets = new SheetsService(dataSource, storage, new ProfilesService(dataSource));
 const outlines = new OutlineService(dataSource, storage, pool);
-const exportsService = new ExportsService(dataSource, storage, pool, sheets, new SheetAnalysisService(dataSource, storage, outlines), log, queues);
+const exportsService = new ExportsService(
+  dataSource,
+  storage,
+  pool,
+  sheets,
+  new SheetAnalysisService(dataSource, storage, outlines),
+  log,
+  queues,
+);
 const name = `${hostname()}:${process.pid}`;
-const workers = [startExportWorker(exportsService, settings, env, log, name), startOutlineWorker(outlines, settings, log, name, Math.max(2, pool.size)), startArrangeWorker(queues, settings, log, name, env.ARRANGE_THREADS || defaultThreads())];
+const workers = [
+  startExportWorker(exportsService, settings, env, log, name),
+  startOutlineWorker(outlines, settings, log, name, Math.max(2, pool.size)),
+  startArrangeWorker(queues, settings, log, name, env.ARRANGE_THREADS || defaultThreads()),
+];
 await Promise.all(workers.map((w) => w.waitUntilReady()));
 log.info({ name, concurrency: settings.concurrency, prefix: settings.prefix }, 'worker ready');
 console.log(`[sheetsmith] worker ${name} ready (${settings.concurrency} at once)`);

@@ -50,7 +50,6 @@ import { StockService } from './modules/shop/stock.service';
 import { createStorage } from './storage/create';
 import type { Storage } from './storage/storage';
 
-
 export type AppOptions = {
   env: Env;
   dataSource: DataSource;
@@ -133,7 +132,11 @@ export function createApp({
   const analysis = new SheetAnalysisService(dataSource, storage, outlines);
   const exportsService = new ExportsService(dataSource, storage, pool, sheets, analysis, log, queues);
   const workers = env.WORKERS_EMBEDDED
-    ? [startExportWorker(exportsService, jobSettings, env, log, 'embedded'), startOutlineWorker(outlines, jobSettings, log, 'embedded', Math.max(2, pool.size)), startArrangeWorker(queues, jobSettings, log, 'embedded', env.ARRANGE_THREADS || defaultThreads())]
+    ? [
+        startExportWorker(exportsService, jobSettings, env, log, 'embedded'),
+        startOutlineWorker(outlines, jobSettings, log, 'embedded', Math.max(2, pool.size)),
+        startArrangeWorker(queues, jobSettings, log, 'embedded', env.ARRANGE_THREADS || defaultThreads()),
+      ]
     : [];
   const arrangeRuns = new ArrangeRunsService(sheets, queues);
   // Running exports whose job the queue no longer runs end as failed, even if nobody looks at them.

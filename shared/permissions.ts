@@ -18,8 +18,27 @@ export const PERMISSIONS = {
 export type Permission = keyof typeof PERMISSIONS;
 
 export const ROLE_PERMISSIONS: Record<Role, readonly Permission[]> = {
-  owner: ['team.view', 'team.settings', 'team.members', 'team.delete', 'library.manage', 'library.contribute', 'sheets.edit', 'shop.record', 'shop.manage'],
-  admin: ['team.view', 'team.settings', 'team.members', 'library.manage', 'library.contribute', 'sheets.edit', 'shop.record', 'shop.manage'],
+  owner: [
+    'team.view',
+    'team.settings',
+    'team.members',
+    'team.delete',
+    'library.manage',
+    'library.contribute',
+    'sheets.edit',
+    'shop.record',
+    'shop.manage',
+  ],
+  admin: [
+    'team.view',
+    'team.settings',
+    'team.members',
+    'library.manage',
+    'library.contribute',
+    'sheets.edit',
+    'shop.record',
+    'shop.manage',
+  ],
   member: ['team.view', 'library.contribute', 'sheets.edit', 'shop.record'],
   viewer: ['team.view'],
 };

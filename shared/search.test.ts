@@ -4,7 +4,14 @@ import { queryChunks, searchTerms, singular, suggestKeywords } from './search';
 describe('search terms', () => {
   it('folds common English plurals to a singular', () => {
     expect(['berries', 'boxes', 'peaches', 'cats', 'glass', 'cactus', 'iris', 'sun'].map(singular)).toEqual([
-      'berry', 'box', 'peach', 'cat', 'glass', 'cactus', 'iris', 'sun',
+      'berry',
+      'box',
+      'peach',
+      'cat',
+      'glass',
+      'cactus',
+      'iris',
+      'sun',
     ]);
   });
 

@@ -4,7 +4,10 @@
 const MAX_TERM = 60;
 
 function fold(text: string): string {
-  return text.normalize('NFKD').replace(/[\u0300-\u036f]/g, '').toLowerCase();
+  return text
+    .normalize('NFKD')
+    .replace(/[\u0300-\u036f]/g, '')
+    .toLowerCase();
 }
 
 /** English plural → singular by a few spelling rules (no dictionary, no stemming). */
@@ -20,7 +23,12 @@ export function singular(word: string): string {
 export function chunks(text: string): string[][] {
   return fold(text)
     .split(/[\s,;/.()[\]{}'"!?&+:|]+/)
-    .map((chunk) => chunk.split(/[-_]+/).filter((part) => /[a-z0-9]/.test(part)).map((part) => part.replace(/[^a-z0-9]/g, '')))
+    .map((chunk) =>
+      chunk
+        .split(/[-_]+/)
+        .filter((part) => /[a-z0-9]/.test(part))
+        .map((part) => part.replace(/[^a-z0-9]/g, '')),
+    )
     .filter((parts) => parts.length > 0 && parts.some(Boolean))
     .map((parts) => parts.filter(Boolean));
 }
@@ -60,6 +68,10 @@ export function suggestKeywords(path: string): string[] {
   const words = [...segments, file]
     .flatMap((segment) => fold(segment).split(/[\s_\-.]+/))
     .map((w) => w.replace(/[^a-z]/g, ''))
-    .filter((w) => w.length >= 3 && !['png', 'jpg', 'jpeg', 'webp', 'clipart', 'clip', 'art', 'the', 'and', 'pack', 'set', 'copy', 'final'].includes(w));
+    .filter(
+      (w) =>
+        w.length >= 3 &&
+        !['png', 'jpg', 'jpeg', 'webp', 'clipart', 'clip', 'art', 'the', 'and', 'pack', 'set', 'copy', 'final'].includes(w),
+    );
   return [...new Set(words.map(singular))].slice(0, 12);
 }

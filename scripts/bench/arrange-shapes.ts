@@ -4,7 +4,8 @@ import type { Ring } from '../../shared/geometry/polygon';
 import type { Outline } from '../../shared/arrange/nester';
 
 const frame = (ring: Ring): Outline => {
-  const minX = Math.min(...ring.map((p) => p.x)), minY = Math.min(...ring.map((p) => p.y));
+  const minX = Math.min(...ring.map((p) => p.x)),
+    minY = Math.min(...ring.map((p) => p.y));
   const points = ring.map((p) => ({ x: p.x - minX, y: p.y - minY }));
   return { points, widthMm: Math.max(...points.map((p) => p.x)), heightMm: Math.max(...points.map((p) => p.y)) };
 };
@@ -16,16 +17,40 @@ const polar = (n: number, r: (t: number) => number): Ring =>
   });
 
 export const disk = (d: number) => frame(polar(96, () => d / 2));
-export const blob = (d: number, seed: number) => frame(polar(96, (t) => (d / 2) * (1 + 0.18 * Math.sin(3 * t + seed) + 0.1 * Math.cos(5 * t + 2 * seed))));
-export const star = (d: number, spikes = 5) => frame(polar(spikes * 2 * 8, (t) => (d / 2) * (0.55 + 0.45 * Math.abs(Math.cos((spikes * t) / 2)) ** 1.5)));
-export const lShape = (s: number, t: number) => frame([{ x: 0, y: 0 }, { x: t, y: 0 }, { x: t, y: s - t }, { x: s, y: s - t }, { x: s, y: s }, { x: 0, y: s }]);
-export const tShape = (s: number, t: number) => frame([{ x: 0, y: 0 }, { x: s, y: 0 }, { x: s, y: t }, { x: (s + t) / 2, y: t }, { x: (s + t) / 2, y: s }, { x: (s - t) / 2, y: s }, { x: (s - t) / 2, y: t }, { x: 0, y: t }]);
+export const blob = (d: number, seed: number) =>
+  frame(polar(96, (t) => (d / 2) * (1 + 0.18 * Math.sin(3 * t + seed) + 0.1 * Math.cos(5 * t + 2 * seed))));
+export const star = (d: number, spikes = 5) =>
+  frame(polar(spikes * 2 * 8, (t) => (d / 2) * (0.55 + 0.45 * Math.abs(Math.cos((spikes * t) / 2)) ** 1.5)));
+export const lShape = (s: number, t: number) =>
+  frame([
+    { x: 0, y: 0 },
+    { x: t, y: 0 },
+    { x: t, y: s - t },
+    { x: s, y: s - t },
+    { x: s, y: s },
+    { x: 0, y: s },
+  ]);
+export const tShape = (s: number, t: number) =>
+  frame([
+    { x: 0, y: 0 },
+    { x: s, y: 0 },
+    { x: s, y: t },
+    { x: (s + t) / 2, y: t },
+    { x: (s + t) / 2, y: s },
+    { x: (s - t) / 2, y: s },
+    { x: (s - t) / 2, y: t },
+    { x: 0, y: t },
+  ]);
 export const crescent = (d: number) => {
   // The outer circle less an inner circle shifted right: walk the outer arc round the left, then
   // the inner arc back (circle–circle intersection, any geometry handbook).
-  const R = d / 2, c = 0.35 * R, r = 0.8 * R;
-  const x = (R * R - r * r + c * c) / (2 * c), y = Math.sqrt(R * R - x * x);
-  const t1 = Math.atan2(y, x), p1 = Math.atan2(y, x - c);
+  const R = d / 2,
+    c = 0.35 * R,
+    r = 0.8 * R;
+  const x = (R * R - r * r + c * c) / (2 * c),
+    y = Math.sqrt(R * R - x * x);
+  const t1 = Math.atan2(y, x),
+    p1 = Math.atan2(y, x - c);
   const ring: Ring = [];
   for (let i = 0; i <= 40; i++) {
     const t = t1 + ((2 * Math.PI - 2 * t1) * i) / 40;
@@ -39,7 +64,8 @@ export const crescent = (d: number) => {
 };
 /** Two disks joined by a bridge: what the outline engine makes of art with islands. */
 export const dumbbell = (d: number, length: number) => {
-  const r = d / 2, h = d / 10;
+  const r = d / 2,
+    h = d / 10;
   const a = Math.asin(h / r);
   const ring: Ring = [];
   for (let i = 0; i <= 32; i++) {

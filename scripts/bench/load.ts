@@ -86,7 +86,16 @@ function healthSampler() {
   return { stop: async () => ((running = false), await loop, { times, errors }) };
 }
 
-type Phase = { name: string; p50: number; p99: number; requests: number; errors: number; healthP50: number; healthP95: number; healthP99: number };
+type Phase = {
+  name: string;
+  p50: number;
+  p99: number;
+  requests: number;
+  errors: number;
+  healthP50: number;
+  healthP95: number;
+  healthP99: number;
+};
 const phases: Phase[] = [];
 type Measured = { times: number[]; errors: number } | { p50: number; p99: number; requests: number; errors: number };
 async function phase(name: string, work: () => Promise<Measured>) {
@@ -94,7 +103,14 @@ async function phase(name: string, work: () => Promise<Measured>) {
   const m = await work();
   const h = await health.stop();
   const own = 'times' in m ? { p50: quantile(m.times, 0.5), p99: quantile(m.times, 0.99), requests: m.times.length } : m;
-  phases.push({ name, ...own, errors: m.errors + h.errors, healthP50: quantile(h.times, 0.5), healthP95: quantile(h.times, 0.95), healthP99: quantile(h.times, 0.99) });
+  phases.push({
+    name,
+    ...own,
+    errors: m.errors + h.errors,
+    healthP50: quantile(h.times, 0.5),
+    healthP95: quantile(h.times, 0.95),
+    healthP99: quantile(h.times, 0.99),
+  });
   console.log(`  ${name}: done`);
 }
 
@@ -102,10 +118,18 @@ console.log(`[bench:load] app on ${base}, pid ${app.pid}`);
 // --- set-up: a maker with art and 20 sheets ---
 const owner = new Session();
 await owner.start();
-const signedUp = await owner.call('POST', '/api/auth/sign-up', { name: 'Bench Owner', email: `owner-${Date.now()}@bench.test`, password: 'bench-password-1' });
+const signedUp = await owner.call('POST', '/api/auth/sign-up', {
+  name: 'Bench Owner',
+  email: `owner-${Date.now()}@bench.test`,
+  password: 'bench-password-1',
+});
 if (signedUp.status !== 200) throw new Error(`sign-up failed: ${JSON.stringify(signedUp.data)}`);
 const teamId: string = signedUp.data.activeTeamId;
-const disc = await sharp(Buffer.from('<svg xmlns="http://www.w3.org/2000/svg" width="600" height="600"><circle cx="300" cy="300" r="280" fill="#2e86c1"/></svg>')).png().toBuffer();
+const disc = await sharp(
+  Buffer.from('<svg xmlns="http://www.w3.org/2000/svg" width="600" height="600"><circle cx="300" cy="300" r="280" fill="#2e86c1"/></svg>'),
+)
+  .png()
+  .toBuffer();
 const upload = async (session: Session, png: Buffer, name: string) => {
   const form = new FormData();
   form.append('file', new Blob([new Uint8Array(png)], { type: 'image/png' }), name);
@@ -130,7 +154,11 @@ await phase('sign-up storm (4 loops)', async () => {
       for (let n = 0; performance.now() < until; n++) {
         const s = new Session();
         await s.start();
-        const res = await s.call('POST', '/api/auth/sign-up', { name: 'Storm', email: `storm-${loop}-${n}-${Date.now()}@bench.test`, password: 'storm-password-1' });
+        const res = await s.call('POST', '/api/auth/sign-up', {
+          name: 'Storm',
+          email: `storm-${loop}-${n}-${Date.now()}@bench.test`,
+          password: 'storm-password-1',
+        });
         times.push(res.ms);
         if (res.status !== 200) errors += 1;
       }
@@ -145,8 +173,21 @@ await phase('20 parallel saves × 10 rounds', async () => {
   for (let round = 0; round < 10; round++) {
     await Promise.all(
       sheets.map(async (sheet, i) => {
-        const pieces = Array.from({ length: 6 }, (_, k) => ({ id: `p${k}`, artId: art.id, x: 25 + k * 22 + round, y: 30 + i * 2, rotation: (round * 15) % 360, width: 20, border: 3, borderColour: '#ffffff', locked: false }));
-        const res = await owner.call('PUT', `/api/teams/${teamId}/sheets/${sheet.id}`, { version: sheet.version, document: { ...sheet.document, pieces } });
+        const pieces = Array.from({ length: 6 }, (_, k) => ({
+          id: `p${k}`,
+          artId: art.id,
+          x: 25 + k * 22 + round,
+          y: 30 + i * 2,
+          rotation: (round * 15) % 360,
+          width: 20,
+          border: 3,
+          borderColour: '#ffffff',
+          locked: false,
+        }));
+        const res = await owner.call('PUT', `/api/teams/${teamId}/sheets/${sheet.id}`, {
+          version: sheet.version,
+          document: { ...sheet.document, pieces },
+        });
         times.push(res.ms);
         if (res.status !== 200) errors += 1;
         else sheet.version = res.data.version;
@@ -158,7 +199,13 @@ await phase('20 parallel saves × 10 rounds', async () => {
 
 const bigArt = await Promise.all(
   Array.from({ length: 20 }, (_, i) =>
-    sharp(Buffer.from(`<svg xmlns="http://www.w3.org/2000/svg" width="2000" height="2000"><defs><filter id="f"><feGaussianBlur stdDeviation="12"/></filter></defs><g filter="url(#f)"><ellipse cx="1000" cy="1000" rx="${700 + i * 10}" ry="800" fill="hsl(${i * 18}, 60%, 50%)"/></g><circle cx="${800 + i * 7}" cy="900" r="200" fill="#fff" opacity="0.6"/></svg>`)).png().toBuffer(),
+    sharp(
+      Buffer.from(
+        `<svg xmlns="http://www.w3.org/2000/svg" width="2000" height="2000"><defs><filter id="f"><feGaussianBlur stdDeviation="12"/></filter></defs><g filter="url(#f)"><ellipse cx="1000" cy="1000" rx="${700 + i * 10}" ry="800" fill="hsl(${i * 18}, 60%, 50%)"/></g><circle cx="${800 + i * 7}" cy="900" r="200" fill="#fff" opacity="0.6"/></svg>`,
+      ),
+    )
+      .png()
+      .toBuffer(),
   ),
 );
 await phase('20 parallel 4 MP uploads + outlines', async () => {
@@ -191,7 +238,12 @@ await phase(`50 clients on the list endpoints, ${LIST_SECONDS} s`, async () => {
     ],
   });
   // autocannon's own latency histogram (per request, over all connections).
-  return { p50: result.latency.p50, p99: result.latency.p99, requests: result.requests.total, errors: result.errors + result.timeouts + result.non2xx };
+  return {
+    p50: result.latency.p50,
+    p99: result.latency.p99,
+    requests: result.requests.total,
+    errors: result.errors + result.timeouts + result.non2xx,
+  };
 });
 
 const rss = peakRssMb();
@@ -202,7 +254,9 @@ console.log(`\n[bench:load] ${env.DB_NAME}, 2 cores; latencies from the client s
 console.log('| phase | requests | errors | p50 | p99 | /api/health p50 | p95 | p99 | health p95 ÷ at rest |');
 console.log('|---|---|---|---|---|---|---|---|---|');
 for (const p of phases) {
-  console.log(`| ${p.name} | ${p.requests || '-'} | ${p.errors} | ${p.requests ? fmt(p.p50) : '-'} | ${p.requests ? fmt(p.p99) : '-'} | ${fmt(p.healthP50)} | ${fmt(p.healthP95)} | ${fmt(p.healthP99)} | ${(p.healthP95 / idle.healthP95).toFixed(2)} |`);
+  console.log(
+    `| ${p.name} | ${p.requests || '-'} | ${p.errors} | ${p.requests ? fmt(p.p50) : '-'} | ${p.requests ? fmt(p.p99) : '-'} | ${fmt(p.healthP50)} | ${fmt(p.healthP95)} | ${fmt(p.healthP99)} | ${(p.healthP95 / idle.healthP95).toFixed(2)} |`,
+  );
 }
 console.log(`\nApp peak RSS (VmHWM): ${rss.toFixed(0)} MB`);
 const errors = phases.reduce((n, p) => n + p.errors, 0);

@@ -18,7 +18,13 @@ const JOBS = Number(process.env.BENCH_JOBS ?? 200);
 const prefix = `bench-${randomBytes(3).toString('hex')}`;
 const dataSource = await createDataSource(env.DB_NAME, env).initialize();
 const storage = createStorage(env);
-const art = await sharp(Buffer.from('<svg xmlns="http://www.w3.org/2000/svg" width="1000" height="1000"><circle cx="500" cy="500" r="420" fill="#5b8c5a"/><rect x="380" y="80" width="240" height="200" fill="#e07a5f"/></svg>')).png().toBuffer();
+const art = await sharp(
+  Buffer.from(
+    '<svg xmlns="http://www.w3.org/2000/svg" width="1000" height="1000"><circle cx="500" cy="500" r="420" fill="#5b8c5a"/><rect x="380" y="80" width="240" height="200" fill="#e07a5f"/></svg>',
+  ),
+)
+  .png()
+  .toBuffer();
 const { key: storageKey } = await storage.put(art);
 const sha = (await import('node:crypto')).createHash('sha256').update(art).digest('hex');
 // 200 distinct requests (widths 30.0–49.9 mm), so nothing is answered from the cache.
@@ -27,9 +33,11 @@ const requests = Array.from({ length: JOBS }, (_, i) => outlineOptionsSchema.par
 async function limited<T>(items: T[], limit: number, fn: (item: T) => Promise<number>): Promise<number[]> {
   const out: number[] = [];
   let next = 0;
-  await Promise.all(Array.from({ length: limit }, async () => {
-    while (next < items.length) out.push(await fn(items[next++]));
-  }));
+  await Promise.all(
+    Array.from({ length: limit }, async () => {
+      while (next < items.length) out.push(await fn(items[next++]));
+    }),
+  );
   return out;
 }
 const pct = (xs: number[], p: number) => [...xs].sort((a, b) => a - b)[Math.min(xs.length - 1, Math.floor(p * xs.length))];
@@ -47,8 +55,12 @@ await pool.close();
 
 // Two worker processes on the queue.
 const workerEnv = { ...process.env, QUEUE_PREFIX: prefix, LOG_LEVEL: 'silent', OUTLINE_THREADS: '1' };
-const workers = [0, 1].map(() => spawn(process.execPath, ['--import', 'tsx', 'scripts/worker.ts'], { env: workerEnv, stdio: ['ignore', 'pipe', 'inherit'] }));
-await Promise.all(workers.map((w) => new Promise<void>((resolve) => w.stdout!.on('data', (c) => String(c).includes('ready') && resolve()))));
+const workers = [0, 1].map(() =>
+  spawn(process.execPath, ['--import', 'tsx', 'scripts/worker.ts'], { env: workerEnv, stdio: ['ignore', 'pipe', 'inherit'] }),
+);
+await Promise.all(
+  workers.map((w) => new Promise<void>((resolve) => w.stdout!.on('data', (c) => String(c).includes('ready') && resolve()))),
+);
 const queues = new JobQueues(jobSettingsFrom(env, prefix));
 t0 = performance.now();
 const queued = await limited(requests, 48, async (o) => {
@@ -63,7 +75,11 @@ await dataSource.query('DELETE FROM outline_cache WHERE art_sha256 = ?', [sha]);
 await dataSource.destroy();
 
 console.log(`queue benchmark: ${JOBS} outline jobs (1 MP art, 150 DPI), 48 in flight, same machine`);
-console.log(`in-process pool (floor):      ${(JOBS / (localMs / 1000)).toFixed(1)} jobs/s, p50 ${pct(local, 0.5).toFixed(0)} ms, p95 ${pct(local, 0.95).toFixed(0)} ms`);
-console.log(`queue, 2 worker processes:     ${(JOBS / (queuedMs / 1000)).toFixed(1)} jobs/s, p50 ${pct(queued, 0.5).toFixed(0)} ms, p95 ${pct(queued, 0.95).toFixed(0)} ms`);
+console.log(
+  `in-process pool (floor):      ${(JOBS / (localMs / 1000)).toFixed(1)} jobs/s, p50 ${pct(local, 0.5).toFixed(0)} ms, p95 ${pct(local, 0.95).toFixed(0)} ms`,
+);
+console.log(
+  `queue, 2 worker processes:     ${(JOBS / (queuedMs / 1000)).toFixed(1)} jobs/s, p50 ${pct(queued, 0.5).toFixed(0)} ms, p95 ${pct(queued, 0.95).toFixed(0)} ms`,
+);
 console.log(`ratio (queue / floor) in throughput: ${(localMs / queuedMs).toFixed(2)}`);
 process.exit(0);

@@ -24,15 +24,26 @@ const envSchema = z.object({
   APP_URL: z.string().url().optional(),
   SESSION_SECRET: z.string().min(16).default(LOCAL_SESSION_SECRET),
   /** Idle timeout: a session unused this long ends (renewed on every request). */
-  SESSION_IDLE_SECONDS: z.coerce.number().int().min(60).default(7 * 24 * 60 * 60),
+  SESSION_IDLE_SECONDS: z.coerce
+    .number()
+    .int()
+    .min(60)
+    .default(7 * 24 * 60 * 60),
   /** Absolute lifetime: a session ends this long after sign-in, however busy. */
-  SESSION_ABSOLUTE_SECONDS: z.coerce.number().int().min(60).default(30 * 24 * 60 * 60),
+  SESSION_ABSOLUTE_SECONDS: z.coerce
+    .number()
+    .int()
+    .min(60)
+    .default(30 * 24 * 60 * 60),
   /** The invented demo shop: auto = only on a laptop (loopback HOST and the local secret). */
   DEMO: z.enum(['auto', 'on', 'off']).default('auto'),
   COOKIE_SECURE: bool,
   DB_HOST: z.string().default('127.0.0.1'),
   DB_PORT: z.coerce.number().int().default(3307),
-  DB_NAME: z.string().regex(/^[A-Za-z0-9_]+$/).default('sheetsmith'),
+  DB_NAME: z
+    .string()
+    .regex(/^[A-Za-z0-9_]+$/)
+    .default('sheetsmith'),
   DB_USER: z.string().default('sheetsmith'),
   DB_PASSWORD: z.string().default('sheetsmith-local-db'),
   DATA_DIR: z.string().default('.data'),
@@ -55,18 +66,31 @@ const envSchema = z.object({
   LOG_LEVEL: z.enum(['fatal', 'error', 'warn', 'info', 'debug', 'trace', 'silent']).optional(),
   /** Files no row refers to are removed once this old (an upload writes its files before its rows). */
   STORAGE_GRACE_HOURS: z.coerce.number().min(1).default(24),
-  ART_MAX_BYTES: z.coerce.number().int().min(1024).default(50 * 1024 * 1024),
+  ART_MAX_BYTES: z.coerce
+    .number()
+    .int()
+    .min(1024)
+    .default(50 * 1024 * 1024),
   OUTLINE_MAX_PIXELS: z.coerce.number().int().min(16).default(50_000_000),
   OUTLINE_MAX_OUTPUT_PIXELS: z.coerce.number().int().min(16).default(40_000_000),
   OUTLINE_THREADS: z.coerce.number().int().min(0).max(16).default(0),
   /** Threads an arrange run uses on a worker (0: one per core but one, at most four). */
   ARRANGE_THREADS: z.coerce.number().int().min(0).max(16).default(0),
   /** The job queues' Redis (scripts start a private one on 127.0.0.1:6390 unless this points elsewhere). */
-  REDIS_URL: z.string().regex(/^rediss?:\/\//, 'REDIS_URL: give an address like redis://127.0.0.1:6390').default('redis://127.0.0.1:6390'),
+  REDIS_URL: z
+    .string()
+    .regex(/^rediss?:\/\//, 'REDIS_URL: give an address like redis://127.0.0.1:6390')
+    .default('redis://127.0.0.1:6390'),
   /** Key prefix in Redis, so several deployments can share one (default: one per database, `sheetsmith-<DB_NAME>`). */
-  QUEUE_PREFIX: z.string().regex(/^[A-Za-z0-9_:-]+$/).optional(),
+  QUEUE_PREFIX: z
+    .string()
+    .regex(/^[A-Za-z0-9_:-]+$/)
+    .optional(),
   /** Run a job worker inside each app process (a laptop needs nothing else); off when workers run on their own. */
-  WORKERS_EMBEDDED: z.enum(['true', 'false', '1', '0']).default('true').transform((v) => v === 'true' || v === '1'),
+  WORKERS_EMBEDDED: z
+    .enum(['true', 'false', '1', '0'])
+    .default('true')
+    .transform((v) => v === 'true' || v === '1'),
   /** Jobs one worker process runs at once. */
   WORKER_CONCURRENCY: z.coerce.number().int().min(1).max(32).default(1),
   /** A worker's lock on its job; a dead worker's job is taken up again after it runs out. */
@@ -79,7 +103,10 @@ const envSchema = z.object({
   STORAGE_DRIVER: z.enum(['local', 's3']).default('local'),
   S3_ENDPOINT: z.string().default(''),
   S3_REGION: z.string().default('us-east-1'),
-  S3_BUCKET: z.string().regex(/^[a-z0-9][a-z0-9.-]{1,61}[a-z0-9]$/, 'S3_BUCKET: 3 to 63 lower-case letters, digits, dots or dashes').optional(),
+  S3_BUCKET: z
+    .string()
+    .regex(/^[a-z0-9][a-z0-9.-]{1,61}[a-z0-9]$/, 'S3_BUCKET: 3 to 63 lower-case letters, digits, dots or dashes')
+    .optional(),
   S3_ACCESS_KEY_ID: z.string().default(''),
   S3_SECRET_ACCESS_KEY: z.string().default(''),
   /** Path-style addresses (http://host/bucket/key), which most self-hosted S3 services need. */
@@ -110,7 +137,8 @@ export function loadEnv(source: NodeJS.ProcessEnv = process.env): Env {
     throw new Error(`Bad configuration in .env or the environment:\n${lines.join('\n')}`);
   }
   const env = parsed.data;
-  if (env.STORAGE_DRIVER === 's3' && !env.S3_BUCKET) throw new Error('Bad configuration in .env or the environment:\n  S3_BUCKET: STORAGE_DRIVER=s3 needs the bucket name');
+  if (env.STORAGE_DRIVER === 's3' && !env.S3_BUCKET)
+    throw new Error('Bad configuration in .env or the environment:\n  S3_BUCKET: STORAGE_DRIVER=s3 needs the bucket name');
   const loopback = isLoopbackHost(env.HOST);
   if (!loopback && PUBLISHED_SECRETS.has(env.SESSION_SECRET)) {
     throw new Error(

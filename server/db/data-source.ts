@@ -8,7 +8,11 @@ import type { Log } from '../lib/log';
 import { QueryLog } from '../lib/log';
 
 /** `log` given: failed and slow queries are logged through it, SQL text only (never parameters). */
-export function createDataSource(database = env.DB_NAME, db: Pick<Env, 'DB_HOST' | 'DB_PORT' | 'DB_USER' | 'DB_PASSWORD'> = env, log?: Log): DataSource {
+export function createDataSource(
+  database = env.DB_NAME,
+  db: Pick<Env, 'DB_HOST' | 'DB_PORT' | 'DB_USER' | 'DB_PASSWORD'> = env,
+  log?: Log,
+): DataSource {
   return new DataSource({
     type: 'mysql',
     host: db.DB_HOST,

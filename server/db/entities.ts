@@ -10,4 +10,16 @@ import { Team } from '../modules/accounts/team.entity';
 import { PasswordReset } from '../modules/auth/password-reset.entity';
 import { User } from '../modules/accounts/user.entity';
 
-export const entities = [User, Team, Membership, Invite, PasswordReset, ArtItem, ArtCollection, Collection, OutlineCacheEntry, SheetProfile, Sheet];
+export const entities = [
+  User,
+  Team,
+  Membership,
+  Invite,
+  PasswordReset,
+  ArtItem,
+  ArtCollection,
+  Collection,
+  OutlineCacheEntry,
+  SheetProfile,
+  Sheet,
+];

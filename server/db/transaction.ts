@@ -31,7 +31,11 @@ export type TransactionOptions = {
  * server rolled everything back, so a clean retry is safe. `work` must only write through
  * `manager`; anything else it does (content-addressed storage puts) must be safe to repeat.
  */
-export async function inTransaction<T>(dataSource: DataSource, work: (manager: EntityManager) => Promise<T>, options: TransactionOptions = {}): Promise<T> {
+export async function inTransaction<T>(
+  dataSource: DataSource,
+  work: (manager: EntityManager) => Promise<T>,
+  options: TransactionOptions = {},
+): Promise<T> {
   const attempts = options.attempts ?? 6;
   const base = options.baseDelayMs ?? 15;
   for (let attempt = 1; ; attempt++) {

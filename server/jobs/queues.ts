@@ -73,11 +73,18 @@ export class JobQueues {
    */
   async runOutline(data: OutlineJobData, timeoutMs = 120_000): Promise<void> {
     if (!this.outlineEvents) {
-      this.outlineEvents = new QueueEvents(QUEUE_NAMES.outlines, { connection: connection(this.settings.redisUrl), prefix: this.settings.prefix });
+      this.outlineEvents = new QueueEvents(QUEUE_NAMES.outlines, {
+        connection: connection(this.settings.redisUrl),
+        prefix: this.settings.prefix,
+      });
       this.outlineEvents.setMaxListeners(0);
     }
     await this.outlineEvents.waitUntilReady();
-    const job = await this.outlines.add('outline', data, { jobId: `outline-${data.key}`, removeOnComplete: true, removeOnFail: { age: 60 } });
+    const job = await this.outlines.add('outline', data, {
+      jobId: `outline-${data.key}`,
+      removeOnComplete: true,
+      removeOnFail: { age: 60 },
+    });
     try {
       await job.waitUntilFinished(this.outlineEvents, timeoutMs);
     } catch (error) {
@@ -93,7 +100,12 @@ export class JobQueues {
 
   async addExport(data: ExportJobData) {
     // The job id is the export's id: one job per export, found again by it.
-    await this.exports.add('export', data, { jobId: `export-${data.exportId}`, attempts: 1, removeOnComplete: { age: 24 * 3600, count: 1000 }, removeOnFail: { age: 7 * 24 * 3600 } });
+    await this.exports.add('export', data, {
+      jobId: `export-${data.exportId}`,
+      attempts: 1,
+      removeOnComplete: { age: 24 * 3600, count: 1000 },
+      removeOnFail: { age: 7 * 24 * 3600 },
+    });
   }
 
   /** The export job's state ('active', 'waiting', 'failed', …), or null when the queue has no such job. */
@@ -120,7 +132,12 @@ export class JobQueues {
 
   /** Closes the connections once they are up: closing one mid-handshake leaves ioredis a rejected command. */
   async close() {
-    await Promise.allSettled([this.exports.waitUntilReady(), this.outlines.waitUntilReady(), this.arranges.waitUntilReady(), this.outlineEvents?.waitUntilReady()]);
+    await Promise.allSettled([
+      this.exports.waitUntilReady(),
+      this.outlines.waitUntilReady(),
+      this.arranges.waitUntilReady(),
+      this.outlineEvents?.waitUntilReady(),
+    ]);
     await this.arranges.close();
     await this.outlineEvents?.close();
     await this.outlines.close();
@@ -129,7 +146,13 @@ export class JobQueues {
 }
 
 /** A worker for one queue with the deployment's lock, stall and concurrency settings. */
-export function startWorker<T>(name: string, settings: JobSettings, processor: Processor<T>, onFailed: (job: Job<T> | undefined, error: Error) => void, workerName?: string) {
+export function startWorker<T>(
+  name: string,
+  settings: JobSettings,
+  processor: Processor<T>,
+  onFailed: (job: Job<T> | undefined, error: Error) => void,
+  workerName?: string,
+) {
   const worker = new Worker<T>(name, processor, {
     connection: connection(settings.redisUrl),
     prefix: settings.prefix,

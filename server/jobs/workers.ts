@@ -46,7 +46,8 @@ export function startOutlineWorker(outlines: OutlineService, settings: JobSettin
       try {
         await outlines.make(job.data);
       } catch (error) {
-        if (error instanceof OutlineInputError) throw new UnrecoverableError(`${OUTLINE_INPUT_PREFIX}${JSON.stringify({ code: error.code, text: error.message })}`);
+        if (error instanceof OutlineInputError)
+          throw new UnrecoverableError(`${OUTLINE_INPUT_PREFIX}${JSON.stringify({ code: error.code, text: error.message })}`);
         throw error;
       }
     },
@@ -70,12 +71,17 @@ export function startArrangeWorker(queues: JobQueues, settings: JobSettings, log
       const { items, options, locked } = job.data.input;
       const started = Date.now();
       const run = arrangeInThreads(items, options, locked, threads, (best) => {
-        void job.updateProgress({ placed: best.placed, sheets: best.sheets, areaUsed: best.areaUsed[0] ?? 0, elapsedMs: Date.now() - started }).catch(() => undefined);
+        void job
+          .updateProgress({ placed: best.placed, sheets: best.sheets, areaUsed: best.areaUsed[0] ?? 0, elapsedMs: Date.now() - started })
+          .catch(() => undefined);
       });
       const client = await queues.arranges.client;
       const watch = setInterval(() => {
         if (Date.now() - started > options.timeMs + 30_000) run.stop();
-        void client.get(arrangeStopKey(settings.prefix, job.id!)).then((flag) => flag && run.stop(), () => undefined);
+        void client.get(arrangeStopKey(settings.prefix, job.id!)).then(
+          (flag) => flag && run.stop(),
+          () => undefined,
+        );
       }, 250);
       try {
         return await run.done;

@@ -15,17 +15,13 @@ export class AppError extends Error {
   }
 }
 
-export const notFound = (what = 'That item') =>
-  new AppError(404, ERROR_CODES.notFound, `${what} was not found.`);
+export const notFound = (what = 'That item') => new AppError(404, ERROR_CODES.notFound, `${what} was not found.`);
 
-export const forbidden = (message = 'Your role in this team does not allow that.') =>
-  new AppError(403, ERROR_CODES.forbidden, message);
+export const forbidden = (message = 'Your role in this team does not allow that.') => new AppError(403, ERROR_CODES.forbidden, message);
 
-export const unauthenticated = () =>
-  new AppError(401, ERROR_CODES.unauthenticated, 'Please sign in to continue.');
+export const unauthenticated = () => new AppError(401, ERROR_CODES.unauthenticated, 'Please sign in to continue.');
 
 export const validationError = (fields: Record<string, string>, message = 'Some fields need attention.') =>
   new AppError(400, ERROR_CODES.validation, message, fields);
 
-export const conflict = (message: string, fields?: Record<string, string>) =>
-  new AppError(409, ERROR_CODES.conflict, message, fields);
+export const conflict = (message: string, fields?: Record<string, string>) => new AppError(409, ERROR_CODES.conflict, message, fields);

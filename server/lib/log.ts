@@ -18,7 +18,21 @@ export function createLog(env: Pick<Env, 'LOG_LEVEL'>, destination?: pino.Destin
       base: { app: 'sheetsmith' },
       timestamp: pino.stdTimeFunctions.isoTime,
       serializers: { err: safeError },
-      redact: { paths: ['password', '*.password', 'passwordHash', '*.passwordHash', 'token', '*.token', 'cookie', '*.cookie', 'headers', '*.headers'], censor: '[removed]' },
+      redact: {
+        paths: [
+          'password',
+          '*.password',
+          'passwordHash',
+          '*.passwordHash',
+          'token',
+          '*.token',
+          'cookie',
+          '*.cookie',
+          'headers',
+          '*.headers',
+        ],
+        censor: '[removed]',
+      },
     },
     destination,
   );
@@ -53,7 +67,13 @@ export function requestLog(log: Log): RequestHandler {
     res.set('X-Request-Id', id);
     res.on('finish', () => {
       const ms = Number(process.hrtime.bigint() - started) / 1e6;
-      const entry = { method: req.method, path: req.originalUrl.split('?')[0].replace(TOKEN_SEGMENT, '/:secret'), status: res.statusCode, ms: Math.round(ms * 10) / 10, user: req.user?.id };
+      const entry = {
+        method: req.method,
+        path: req.originalUrl.split('?')[0].replace(TOKEN_SEGMENT, '/:secret'),
+        status: res.statusCode,
+        ms: Math.round(ms * 10) / 10,
+        user: req.user?.id,
+      };
       if (res.statusCode >= 500) req.log.error(entry, 'request failed');
       else req.log.info(entry, 'request');
     });

@@ -15,17 +15,14 @@ import { AppError } from './errors';
 export type LimitRule = { points: number; seconds: number; message: string };
 
 export type LimitName =
-  | 'signUpPerAddress'
-  | 'resetPerEmail'
-  | 'resetPerAddress'
-  | 'invitePerAccount'
-  | 'invitePerTeam'
-  | 'invitePerRecipient';
+  'signUpPerAddress' | 'resetPerEmail' | 'resetPerAddress' | 'invitePerAccount' | 'invitePerTeam' | 'invitePerRecipient';
 
 const HOUR = 60 * 60;
 const DAY = 24 * HOUR;
 
-export function limitRules(env: Pick<Env, 'LIMIT_SIGNUPS_PER_HOUR' | 'LIMIT_RESETS_PER_HOUR' | 'LIMIT_INVITES_PER_HOUR'>): Record<LimitName, LimitRule> {
+export function limitRules(
+  env: Pick<Env, 'LIMIT_SIGNUPS_PER_HOUR' | 'LIMIT_RESETS_PER_HOUR' | 'LIMIT_INVITES_PER_HOUR'>,
+): Record<LimitName, LimitRule> {
   return {
     signUpPerAddress: { points: env.LIMIT_SIGNUPS_PER_HOUR, seconds: HOUR, message: 'Too many new accounts from your network' },
     resetPerEmail: { points: env.LIMIT_RESETS_PER_HOUR, seconds: HOUR, message: 'Too many reset e-mails for that address' },

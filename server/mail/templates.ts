@@ -2,13 +2,7 @@ import type { Role } from '../../shared/permissions';
 import { ROLE_LABELS } from '../../shared/permissions';
 import type { OutgoingMail } from './mailer';
 
-export function inviteMail(input: {
-  to: string;
-  teamName: string;
-  invitedBy: string;
-  role: Role;
-  link: string;
-}): OutgoingMail {
+export function inviteMail(input: { to: string; teamName: string; invitedBy: string; role: Role; link: string }): OutgoingMail {
   return {
     to: input.to,
     subject: `${input.invitedBy} invited you to ${input.teamName} on Sheetsmith`,

@@ -42,9 +42,7 @@ export function teamScope(dataSource: DataSource): RequestHandler {
     if (!req.user) return next(unauthenticated());
     const teamId = idSchema.safeParse(req.params.teamId);
     if (!teamId.success) return next(notFound('That team'));
-    const membership = await dataSource
-      .getRepository(Membership)
-      .findOneBy({ teamId: teamId.data, userId: req.user.id });
+    const membership = await dataSource.getRepository(Membership).findOneBy({ teamId: teamId.data, userId: req.user.id });
     if (!membership) return next(notFound('That team'));
     req.membership = { teamId: membership.teamId, role: membership.role };
     next();

@@ -7,7 +7,19 @@ import { OutlinePoolBusyError } from '../engine/outline/pool';
 
 // mysql2 and Node socket codes (and MariaDB error numbers) that mean "the database is not there",
 // not "the query was wrong": server gone, refused, reset, shutting down, out of connections.
-const UNREACHABLE_CODES = new Set(['ECONNREFUSED', 'ECONNRESET', 'ETIMEDOUT', 'EHOSTUNREACH', 'ENOTFOUND', 'EPIPE', 'PROTOCOL_CONNECTION_LOST', 'PROTOCOL_ENQUEUE_AFTER_FATAL_ERROR', 'ER_SERVER_SHUTDOWN', 'ER_CON_COUNT_ERROR', 'POOL_CLOSED']);
+const UNREACHABLE_CODES = new Set([
+  'ECONNREFUSED',
+  'ECONNRESET',
+  'ETIMEDOUT',
+  'EHOSTUNREACH',
+  'ENOTFOUND',
+  'EPIPE',
+  'PROTOCOL_CONNECTION_LOST',
+  'PROTOCOL_ENQUEUE_AFTER_FATAL_ERROR',
+  'ER_SERVER_SHUTDOWN',
+  'ER_CON_COUNT_ERROR',
+  'POOL_CLOSED',
+]);
 const UNREACHABLE_ERRNOS = new Set([1040, 1053, 2002, 2003, 2006, 2013]);
 
 /** Whether an error (or the driver error or cause inside it) says the database cannot be reached. */
@@ -23,7 +35,9 @@ export function isDatabaseUnreachable(error: unknown, depth = 0): boolean {
 export const DATABASE_RETRY_SECONDS = 5;
 
 export const apiNotFound: RequestHandler = (req, res) => {
-  res.status(404).json({ error: { code: ERROR_CODES.notFound, message: 'Sheetsmith has no such page or action. Check the address, or go back and try again.' } });
+  res.status(404).json({
+    error: { code: ERROR_CODES.notFound, message: 'Sheetsmith has no such page or action. Check the address, or go back and try again.' },
+  });
 };
 
 /** One error shape for every failure: `{ error: { code, message, fields? } }`. */
@@ -39,7 +53,10 @@ export const errorHandler: ErrorRequestHandler = (err, req, res, _next) => {
     return;
   }
   if (err instanceof OutlinePoolBusyError) {
-    res.set('Retry-After', '5').status(503).json({ error: { code: 'busy', message: err.message } });
+    res
+      .set('Retry-After', '5')
+      .status(503)
+      .json({ error: { code: 'busy', message: err.message } });
     return;
   }
   if (err?.name === 'MulterError' && err.code !== 'LIMIT_FILE_SIZE') {
@@ -47,9 +64,15 @@ export const errorHandler: ErrorRequestHandler = (err, req, res, _next) => {
     return;
   }
   if (isDatabaseUnreachable(err)) {
-    res.set('Retry-After', String(DATABASE_RETRY_SECONDS)).status(503).json({
-      error: { code: ERROR_CODES.unavailable, message: 'Sheetsmith cannot reach its database right now. Nothing was changed; try again in a moment.' },
-    });
+    res
+      .set('Retry-After', String(DATABASE_RETRY_SECONDS))
+      .status(503)
+      .json({
+        error: {
+          code: ERROR_CODES.unavailable,
+          message: 'Sheetsmith cannot reach its database right now. Nothing was changed; try again in a moment.',
+        },
+      });
     return;
   }
   // csrf-sync's error
@@ -66,14 +89,21 @@ export const errorHandler: ErrorRequestHandler = (err, req, res, _next) => {
   }
   if (err?.type === 'entity.too.large' || err?.code === 'LIMIT_FILE_SIZE') {
     const limit = typeof err.limit === 'number' ? `the ${sizeText(err.limit)}` : 'what';
-    res.status(413).json({ error: { code: ERROR_CODES.payloadTooLarge, message: `That is more than ${limit} one change may carry. Nothing was saved; make the change in smaller steps.` } });
+    res.status(413).json({
+      error: {
+        code: ERROR_CODES.payloadTooLarge,
+        message: `That is more than ${limit} one change may carry. Nothing was saved; make the change in smaller steps.`,
+      },
+    });
     return;
   }
   if (typeof err?.status === 'number' && err.status >= 400 && err.status < 500) {
     // Other client mistakes from body parsing (an aborted body, an unknown charset): logged as they
     // are, answered in words; the library's own text is for us, not the maker.
     (req.log ?? console).warn({ err }, 'request refused before routing');
-    res.status(err.status).json({ error: { code: 'bad_request', message: 'The request could not be read. Reload the page and try again; nothing was changed.' } });
+    res.status(err.status).json({
+      error: { code: 'bad_request', message: 'The request could not be read. Reload the page and try again; nothing was changed.' },
+    });
     return;
   }
   (req.log ?? console).error({ err }, 'unexpected error');

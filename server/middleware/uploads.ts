@@ -8,7 +8,8 @@ export type UploadLimits = { maxBytes: number; fields: number; fieldBytes: numbe
 /** A licence proof: one file of up to 10 MB and nothing much besides. */
 export const PROOF_LIMITS: UploadLimits = { maxBytes: 10 * 1024 * 1024, fields: 4, fieldBytes: 1024 };
 
-export const sizeText = (bytes: number) => (bytes >= 1024 * 1024 ? `${Math.round(bytes / (1024 * 1024))} MB` : `${Math.max(1, Math.round(bytes / 1024))} KB`);
+export const sizeText = (bytes: number) =>
+  bytes >= 1024 * 1024 ? `${Math.round(bytes / (1024 * 1024))} MB` : `${Math.max(1, Math.round(bytes / 1024))} KB`;
 
 /**
  * One file in `field`, held in memory, with every multer limit set: file size, number of files,
@@ -18,7 +19,15 @@ export const sizeText = (bytes: number) => (bytes >= 1024 * 1024 ? `${Math.round
 export function singleUpload(field: string, limits: UploadLimits): RequestHandler {
   const handler = multer({
     storage: multer.memoryStorage(),
-    limits: { fileSize: limits.maxBytes, files: 1, fields: limits.fields, fieldSize: limits.fieldBytes, fieldNameSize: 100, parts: limits.fields + 1, headerPairs: 100 },
+    limits: {
+      fileSize: limits.maxBytes,
+      files: 1,
+      fields: limits.fields,
+      fieldSize: limits.fieldBytes,
+      fieldNameSize: 100,
+      parts: limits.fields + 1,
+      headerPairs: 100,
+    },
   }).single(field);
   return (req, res, next) => {
     handler(req, res, (error?: unknown) => {
@@ -30,7 +39,8 @@ export function singleUpload(field: string, limits: UploadLimits): RequestHandle
 
 function uploadError(error: unknown, field: string, limits: UploadLimits): AppError {
   const code = (error as { code?: string }).code;
-  const refused = (message: string, status = 400) => new AppError(status, status === 413 ? ERROR_CODES.payloadTooLarge : ERROR_CODES.validation, message);
+  const refused = (message: string, status = 400) =>
+    new AppError(status, status === 413 ? ERROR_CODES.payloadTooLarge : ERROR_CODES.validation, message);
   switch (code) {
     case 'LIMIT_FILE_SIZE':
       return refused(`That file is larger than the ${sizeText(limits.maxBytes)} limit for this upload.`, 413);

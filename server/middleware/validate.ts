@@ -24,10 +24,7 @@ export function fieldMessages(error: z.ZodError, prefix = ''): Record<string, st
  * Validates params, query and body with shared zod schemas and hands the *parsed* values to the
  * handler, so no handler reads raw input. A returned value is sent as JSON.
  */
-export function route<S extends Schemas>(
-  schemas: S,
-  handler: (input: Parsed<S>, req: Request, res: Response) => unknown,
-): RequestHandler {
+export function route<S extends Schemas>(schemas: S, handler: (input: Parsed<S>, req: Request, res: Response) => unknown): RequestHandler {
   return async (req: Request, res: Response, next: NextFunction) => {
     const input: Record<string, unknown> = {};
     let fields: Record<string, string> = {};

@@ -57,7 +57,10 @@ export class LocalDiskStorage implements Storage {
 
   /** Walks root/ab/cd/; half-written `.tmp` files are listed under their own name for the sweep to clear. */
   async *list(): AsyncIterable<{ key: string; modifiedAt: Date }> {
-    const dirs = async (dir: string) => (await readdir(dir, { withFileTypes: true }).catch(() => [])).filter((d) => d.isDirectory() && /^[0-9a-f]{2}$/.test(d.name)).map((d) => d.name);
+    const dirs = async (dir: string) =>
+      (await readdir(dir, { withFileTypes: true }).catch(() => []))
+        .filter((d) => d.isDirectory() && /^[0-9a-f]{2}$/.test(d.name))
+        .map((d) => d.name);
     for (const a of await dirs(this.root)) {
       for (const b of await dirs(path.join(this.root, a))) {
         const folder = path.join(this.root, a, b);

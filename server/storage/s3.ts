@@ -1,5 +1,12 @@
 import { createHash } from 'node:crypto';
-import { DeleteObjectCommand, GetObjectCommand, HeadObjectCommand, ListObjectsV2Command, PutObjectCommand, S3Client } from '@aws-sdk/client-s3';
+import {
+  DeleteObjectCommand,
+  GetObjectCommand,
+  HeadObjectCommand,
+  ListObjectsV2Command,
+  PutObjectCommand,
+  S3Client,
+} from '@aws-sdk/client-s3';
 import type { Storage } from './storage';
 import { KEY_PATTERN, StorageKeyError } from './storage';
 
@@ -7,7 +14,15 @@ import { KEY_PATTERN, StorageKeyError } from './storage';
 // project runs on Node 20 by requirement, so the warning says nothing a maker or operator can act on.
 process.env.AWS_SDK_JS_NODE_VERSION_SUPPORT_WARNING_DISABLED ??= 'true';
 
-export type S3Settings = { endpoint?: string; region: string; bucket: string; accessKeyId?: string; secretAccessKey?: string; forcePathStyle: boolean; prefix?: string };
+export type S3Settings = {
+  endpoint?: string;
+  region: string;
+  bucket: string;
+  accessKeyId?: string;
+  secretAccessKey?: string;
+  forcePathStyle: boolean;
+  prefix?: string;
+};
 
 /** A missing object, as the local driver reports it (code ENOENT), so callers treat both alike. */
 const missing = (key: string) => Object.assign(new Error(`No stored object ${key}`), { code: 'ENOENT' });
@@ -42,7 +57,9 @@ export class S3Storage implements Storage {
     const key = createHash('sha256').update(data).digest('hex');
     // Writing the same bytes again (rather than a metadata copy, which not every S3 service dates
     // anew) renews the object's last-modified time everywhere; objects are immutable, so it is safe.
-    await this.client.send(new PutObjectCommand({ Bucket: this.s.bucket, Key: this.objectKey(key), Body: data, ContentLength: data.length }));
+    await this.client.send(
+      new PutObjectCommand({ Bucket: this.s.bucket, Key: this.objectKey(key), Body: data, ContentLength: data.length }),
+    );
     return { key, size: data.length };
   }
 
@@ -77,7 +94,9 @@ export class S3Storage implements Storage {
   async *list(): AsyncIterable<{ key: string; modifiedAt: Date }> {
     let ContinuationToken: string | undefined;
     do {
-      const page = await this.client.send(new ListObjectsV2Command({ Bucket: this.s.bucket, Prefix: this.s.prefix ? `${this.s.prefix}/` : undefined, ContinuationToken }));
+      const page = await this.client.send(
+        new ListObjectsV2Command({ Bucket: this.s.bucket, Prefix: this.s.prefix ? `${this.s.prefix}/` : undefined, ContinuationToken }),
+      );
       for (const object of page.Contents ?? []) {
         const name = object.Key!.split('/').pop()!;
         if (KEY_PATTERN.test(name)) yield { key: name, modifiedAt: object.LastModified ?? new Date(0) };

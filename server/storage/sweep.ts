@@ -26,7 +26,10 @@ export async function referencedKeys(dataSource: DataSource): Promise<Set<string
   }
   let after = '0';
   for (;;) {
-    const rows: Array<{ id: string; result_json: string }> = await dataSource.query('SELECT id, result_json FROM outline_cache WHERE id > ? ORDER BY id LIMIT 500', [after]);
+    const rows: Array<{ id: string; result_json: string }> = await dataSource.query(
+      'SELECT id, result_json FROM outline_cache WHERE id > ? ORDER BY id LIMIT 500',
+      [after],
+    );
     if (rows.length === 0) break;
     for (const row of rows) for (const match of row.result_json.matchAll(PNG_KEY)) keys.add(match[1]);
     after = rows[rows.length - 1].id;

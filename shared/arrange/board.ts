@@ -45,12 +45,15 @@ export class Board {
   /** The last blocked cell of row y in [a, b], or -1 (cells off the board count as free). */
   private lastBlocked(y: number, a: number, b: number): number {
     if (y < 0 || y >= this.h) return -1;
-    const lo = Math.max(0, a), hi = Math.min(this.w - 1, b);
+    const lo = Math.max(0, a),
+      hi = Math.min(this.w - 1, b);
     if (lo > hi) return -1;
-    const base = y * (this.w + 1), top = this.prefix[base + hi + 1];
+    const base = y * (this.w + 1),
+      top = this.prefix[base + hi + 1];
     if (top - this.prefix[base + lo] === 0) return -1;
     // The smallest t with prefix[t] = top: every cell from t on is free, so t - 1 is blocked.
-    let l = lo, r = hi + 1;
+    let l = lo,
+      r = hi + 1;
     while (l < r) {
       const m = (l + r) >> 1;
       if (this.prefix[base + m] === top) r = m;
@@ -75,30 +78,35 @@ export class Board {
     const gap = this.opts.gap;
     for (const placed of this.rings) {
       const b = placed.box;
-      if (box.x > b.x + b.width + gap || b.x > box.x + box.width + gap || box.y > b.y + b.height + gap || b.y > box.y + box.height + gap) continue;
+      if (box.x > b.x + b.width + gap || b.x > box.x + box.width + gap || box.y > b.y + b.height + gap || b.y > box.y + box.height + gap)
+        continue;
       if (gap > 0 ? closerThan(ring, placed.ring, gap - 1e-6, box, b) : overlaps(ring, placed.ring)) return false;
     }
     return true;
   }
 
   place(mask: ShapeMask, x: number, y: number, ring: Ring, areaMm2: number) {
-    const cx = Math.round(x / this.opts.cell), cy = Math.round(y / this.opts.cell);
+    const cx = Math.round(x / this.opts.cell),
+      cy = Math.round(y / this.opts.cell);
     for (let j = 0; j < mask.rows.length; j++) {
       const row = cy + mask.offsetY + j;
       if (row < 0 || row >= this.h || mask.rows[j].length === 0) continue;
       for (const [a, b] of mask.rows[j]) {
-        const lo = Math.max(0, cx + mask.offsetX + a), hi = Math.min(this.w - 1, cx + mask.offsetX + b);
+        const lo = Math.max(0, cx + mask.offsetX + a),
+          hi = Math.min(this.w - 1, cx + mask.offsetX + b);
         if (lo <= hi) this.grid.fill(1, row * this.w + lo, row * this.w + hi + 1);
       }
       const base = row * (this.w + 1);
       for (let i = 0; i < this.w; i++) this.prefix[base + i + 1] = this.prefix[base + i] + this.grid[row * this.w + i];
-      let longest = 0, run = 0;
+      let longest = 0,
+        run = 0;
       for (let i = 0; i < this.w; i++) {
         run = this.grid[row * this.w + i] ? 0 : run + 1;
         if (run > longest) longest = run;
       }
       // Runs at either edge go on past it for a mask allowed to hang off.
-      let lead = 0, tail = 0;
+      let lead = 0,
+        tail = 0;
       while (lead < this.w && !this.grid[row * this.w + lead]) lead++;
       while (tail < this.w && !this.grid[row * this.w + this.w - 1 - tail]) tail++;
       this.freeRun[row] = Math.max(longest, lead + this.hang, tail + this.hang);
@@ -114,20 +122,27 @@ export class Board {
    * null; `limit` is a score it must beat. Scoring by the shape's lowest point, not its centre, picks
    * among rotations the one that lengthens the layout least.
    */
-  private findFor(mask: ShapeMask, limit: number, from = -Infinity): { spot: { cx: number; cy: number; ring: Ring; score: number } | null; scanned: number } {
+  private findFor(
+    mask: ShapeMask,
+    limit: number,
+    from = -Infinity,
+  ): { spot: { cx: number; cy: number; ring: Ring; score: number } | null; scanned: number } {
     const { cell, margin, width, height } = this.opts;
-    const xMin = Math.ceil((margin - mask.minX) / cell), xMax = Math.floor((width - margin - mask.maxX) / cell);
-    const yMin = Math.ceil((margin - mask.minY) / cell), yMax = Math.floor((height - margin - mask.maxY) / cell);
+    const xMin = Math.ceil((margin - mask.minX) / cell),
+      xMax = Math.floor((width - margin - mask.maxX) / cell);
+    const yMin = Math.ceil((margin - mask.minY) / cell),
+      yMax = Math.floor((height - margin - mask.maxY) / cell);
     const scoreOf = (cx: number, cy: number) => (cy * cell + mask.maxY) * 1e6 + cx * cell + mask.minX;
     // The mask's widest row needs that many free cells in the board row it lands on, less what may hang off the board.
-    const widest = mask.order[0], need = mask.rows[widest].reduce((s, [a, b]) => s + b - a + 1, 0) - 2 * mask.pad;
+    const widest = mask.order[0],
+      need = mask.rows[widest].reduce((s, [a, b]) => s + b - a + 1, 0) - 2 * mask.pad;
     // `scanned`: the first row not yet known to be full for this mask.
     for (let cy = Math.max(yMin, from); cy <= yMax; cy++) {
       if (scoreOf(xMin, cy) >= limit) return { spot: null, scanned: cy };
       const row = cy + mask.offsetY + widest;
       if (row >= 0 && row < this.h && this.w - this.prefix[row * (this.w + 1) + this.w] < need) continue;
       if (!this.rowsCanTake(mask, cy)) continue;
-      for (let cx = xMin; cx <= xMax; ) {
+      for (let cx = xMin; cx <= xMax;) {
         const skip = this.rasterSkip(mask, cx, cy);
         if (skip > 0) {
           cx += skip;
@@ -164,13 +179,22 @@ export class Board {
    */
   private compact(spot: { mask: ShapeMask; cx: number; cy: number; ring: Ring }) {
     const { cell, margin, width, height } = this.opts;
-    let x = spot.cx * cell, y = spot.cy * cell;
+    let x = spot.cx * cell,
+      y = spot.cy * cell;
     const fits = (nx: number, ny: number) =>
-      nx + spot.mask.minX >= margin - 1e-9 && ny + spot.mask.minY >= margin - 1e-9 && nx + spot.mask.maxX <= width - margin + 1e-9 && ny + spot.mask.maxY <= height - margin + 1e-9 &&
+      nx + spot.mask.minX >= margin - 1e-9 &&
+      ny + spot.mask.minY >= margin - 1e-9 &&
+      nx + spot.mask.maxX <= width - margin + 1e-9 &&
+      ny + spot.mask.maxY <= height - margin + 1e-9 &&
       this.exactFree(spot.mask.ring.map((p) => ({ x: p.x + nx, y: p.y + ny })));
     for (const step of [cell / 2, cell / 4, cell / 8]) {
       // Up first, then up along either slope (settling into a notch), then left.
-      const moves = [[0, -step], [-step, -step], [step, -step], [-step, 0]];
+      const moves = [
+        [0, -step],
+        [-step, -step],
+        [step, -step],
+        [-step, 0],
+      ];
       for (let moved = true, guard = 0; moved && guard < 96; guard++) {
         moved = false;
         for (const [dx, dy] of moves) {

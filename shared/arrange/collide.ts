@@ -15,19 +15,39 @@ import { overlapArea, OVERLAP_EPSILON_MM2 } from '../geometry/overlap';
 import type { Variant } from './shapes';
 import { insideRing } from './shapes';
 
-const APART = 0, CROSS = 1, TOUCH = 2;
+const APART = 0,
+  CROSS = 1,
+  TOUCH = 2;
 /** A's edges that reach into the window, in world coordinates: x0, y0, x1, y1 each. */
 let edgesA = new Float64Array(256);
 
 /** Whether any edge of a properly crosses an edge of b inside the window, or only touches one. */
-function crossing(a: Variant, ax: number, ay: number, b: Variant, bx: number, by: number, lx: number, ly: number, hx: number, hy: number): number {
-  const axs = a.xs, ays = a.ys, bxs = b.xs, bys = b.ys;
-  const na = axs.length, nb = bxs.length;
+function crossing(
+  a: Variant,
+  ax: number,
+  ay: number,
+  b: Variant,
+  bx: number,
+  by: number,
+  lx: number,
+  ly: number,
+  hx: number,
+  hy: number,
+): number {
+  const axs = a.xs,
+    ays = a.ys,
+    bxs = b.xs,
+    bys = b.ys;
+  const na = axs.length,
+    nb = bxs.length;
   if (edgesA.length < na * 4) edgesA = new Float64Array(na * 8);
   const e = edgesA;
   let m = 0;
   for (let i = 0, j = na - 1; i < na; j = i++) {
-    const x0 = axs[j] + ax, y0 = ays[j] + ay, x1 = axs[i] + ax, y1 = ays[i] + ay;
+    const x0 = axs[j] + ax,
+      y0 = ays[j] + ay,
+      x1 = axs[i] + ax,
+      y1 = ays[i] + ay;
     if ((x0 < lx && x1 < lx) || (x0 > hx && x1 > hx) || (y0 < ly && y1 < ly) || (y0 > hy && y1 > hy)) continue;
     e[m] = x0;
     e[m + 1] = y0;
@@ -38,17 +58,28 @@ function crossing(a: Variant, ax: number, ay: number, b: Variant, bx: number, by
   if (m === 0) return APART;
   let touch = false;
   for (let q = 0, p = nb - 1; q < nb; p = q++) {
-    const x2 = bxs[p] + bx, y2 = bys[p] + by, x3 = bxs[q] + bx, y3 = bys[q] + by;
+    const x2 = bxs[p] + bx,
+      y2 = bys[p] + by,
+      x3 = bxs[q] + bx,
+      y3 = bys[q] + by;
     if ((x2 < lx && x3 < lx) || (x2 > hx && x3 > hx) || (y2 < ly && y3 < ly) || (y2 > hy && y3 > hy)) continue;
-    const minX = x2 < x3 ? x2 : x3, maxX = x2 < x3 ? x3 : x2, minY = y2 < y3 ? y2 : y3, maxY = y2 < y3 ? y3 : y2;
-    const ux = x3 - x2, uy = y3 - y2;
+    const minX = x2 < x3 ? x2 : x3,
+      maxX = x2 < x3 ? x3 : x2,
+      minY = y2 < y3 ? y2 : y3,
+      maxY = y2 < y3 ? y3 : y2;
+    const ux = x3 - x2,
+      uy = y3 - y2;
     for (let k = 0; k < m; k += 4) {
-      const x0 = e[k], y0 = e[k + 1], x1 = e[k + 2], y1 = e[k + 3];
+      const x0 = e[k],
+        y0 = e[k + 1],
+        x1 = e[k + 2],
+        y1 = e[k + 3];
       if ((x0 < minX && x1 < minX) || (x0 > maxX && x1 > maxX) || (y0 < minY && y1 < minY) || (y0 > maxY && y1 > maxY)) continue;
       const d1 = ux * (y0 - y2) - uy * (x0 - x2);
       const d2 = ux * (y1 - y2) - uy * (x1 - x2);
       if ((d1 > 0 && d2 > 0) || (d1 < 0 && d2 < 0)) continue;
-      const vx = x1 - x0, vy = y1 - y0;
+      const vx = x1 - x0,
+        vy = y1 - y0;
       const d3 = vx * (y2 - y0) - vy * (x2 - x0);
       const d4 = vx * (y3 - y0) - vy * (x3 - x0);
       if ((d3 > 0 && d4 > 0) || (d3 < 0 && d4 < 0)) continue;
@@ -71,21 +102,31 @@ function sharedArea(a: Variant, ax: number, ay: number, b: Variant, bx: number, 
  * overlap, the proof of a collision; only otherwise are the edges tested.
  */
 export function overlapDepth(a: Variant, ax: number, ay: number, b: Variant, bx: number, by: number): number {
-  const lx = Math.max(a.gx0 + ax, b.gx0 + bx), hx = Math.min(a.gx1 + ax, b.gx1 + bx);
+  const lx = Math.max(a.gx0 + ax, b.gx0 + bx),
+    hx = Math.min(a.gx1 + ax, b.gx1 + bx);
   if (lx >= hx) return 0;
-  const ly = Math.max(a.gy0 + ay, b.gy0 + by), hy = Math.min(a.gy1 + ay, b.gy1 + by);
+  const ly = Math.max(a.gy0 + ay, b.gy0 + by),
+    hy = Math.min(a.gy1 + ay, b.gy1 + by);
   if (ly >= hy) return 0;
-  const ap = a.poles, bp = b.poles;
+  const ap = a.poles,
+    bp = b.poles;
   const eps = a.eps > b.eps ? a.eps : b.eps;
   // Circles farther apart than this add almost nothing to the tail; skipping them saves the root.
   const reach = 16 * eps;
-  const ox = ax - bx, oy = ay - by;
-  let sum = 0, proven = false;
+  const ox = ax - bx,
+    oy = ay - by;
+  let sum = 0,
+    proven = false;
   for (let i = 0; i < ap.length; i += 3) {
-    const px = ap[i] + ox, py = ap[i + 1] + oy, pr = ap[i + 2];
+    const px = ap[i] + ox,
+      py = ap[i + 1] + oy,
+      pr = ap[i + 2];
     for (let j = 0; j < bp.length; j += 3) {
-      const dx = px - bp[j], dy = py - bp[j + 1], r = bp[j + 2];
-      const far = pr + r + reach, d2 = dx * dx + dy * dy;
+      const dx = px - bp[j],
+        dy = py - bp[j + 1],
+        r = bp[j + 2];
+      const far = pr + r + reach,
+        d2 = dx * dx + dy * dy;
       if (d2 > far * far) continue;
       const touch = pr + r;
       if (d2 < touch * touch * 0.999) proven = true;

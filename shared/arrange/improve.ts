@@ -11,7 +11,12 @@ import type { Variant } from './shapes';
 export type Placed = { key: string; x: number; y: number; rotation: number };
 
 /** A layout over the given area from placements, each piece with every rotation it may take. */
-export function layoutOf(placed: Placed[], variantsOf: (key: string) => Variant[], area: Area, fixed: Placed[] = []): { layout: Layout; keys: string[] } {
+export function layoutOf(
+  placed: Placed[],
+  variantsOf: (key: string) => Variant[],
+  area: Area,
+  fixed: Placed[] = [],
+): { layout: Layout; keys: string[] } {
   const layout = new Layout(area);
   const keys: string[] = [];
   const add = (p: Placed, isFixed: boolean) => {
@@ -44,13 +49,22 @@ export function exactlyValid(layout: Layout, gap: number): boolean {
   const a = layout.area;
   const rings: Array<{ ring: Ring; x0: number; y0: number; x1: number; y1: number; fixed: boolean }> = layout.pieces.map((p) => {
     const s = p.variants[p.v];
-    return { ring: s.ring.map((q) => ({ x: q.x + p.x, y: q.y + p.y })), x0: s.bx0 + p.x, y0: s.by0 + p.y, x1: s.bx1 + p.x, y1: s.by1 + p.y, fixed: !!p.fixed };
+    return {
+      ring: s.ring.map((q) => ({ x: q.x + p.x, y: q.y + p.y })),
+      x0: s.bx0 + p.x,
+      y0: s.by0 + p.y,
+      x1: s.bx1 + p.x,
+      y1: s.by1 + p.y,
+      fixed: !!p.fixed,
+    };
   });
   const slack = 1e-7;
-  for (const r of rings) if (!r.fixed && (r.x0 < a.x0 - slack || r.y0 < a.y0 - slack || r.x1 > a.x1 + slack || r.y1 > a.y1 + slack)) return false;
+  for (const r of rings)
+    if (!r.fixed && (r.x0 < a.x0 - slack || r.y0 < a.y0 - slack || r.x1 > a.x1 + slack || r.y1 > a.y1 + slack)) return false;
   for (let i = 0; i < rings.length; i++) {
     for (let j = i + 1; j < rings.length; j++) {
-      const p = rings[i], q = rings[j];
+      const p = rings[i],
+        q = rings[j];
       if (p.fixed && q.fixed) continue;
       if (p.x0 > q.x1 + gap || q.x0 > p.x1 + gap || p.y0 > q.y1 + gap || q.y0 > p.y1 + gap) continue;
       if (gap > 0 ? closerThan(p.ring, q.ring, gap - 1e-6) : overlaps(p.ring, q.ring)) return false;

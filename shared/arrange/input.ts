@@ -17,11 +17,16 @@ export function rotationsOf(mode: RotateMode): number[] {
   return Array.from({ length: Math.max(1, Math.floor(360 / step)) }, (_, i) => i * step);
 }
 
-export function checkInput(items: ArrangeItem[], o: { width: number; height: number; margin: number; gap: number }): { usable: ArrangeItem[]; unplaced: ArrangeResult['unplaced'] } {
+export function checkInput(
+  items: ArrangeItem[],
+  o: { width: number; height: number; margin: number; gap: number },
+): { usable: ArrangeItem[]; unplaced: ArrangeResult['unplaced'] } {
   if (!(o.width > 0 && o.height > 0)) throw new ArrangeInputError('The print area needs a width and a height.');
-  if (2 * o.margin >= Math.min(o.width, o.height)) throw new ArrangeInputError(`A margin of ${o.margin} mm leaves no room on a ${o.width} × ${o.height} mm print area.`);
+  if (2 * o.margin >= Math.min(o.width, o.height))
+    throw new ArrangeInputError(`A margin of ${o.margin} mm leaves no room on a ${o.width} × ${o.height} mm print area.`);
   if (!(o.gap >= 0)) throw new ArrangeInputError('The gap between cut lines cannot be negative.');
-  if (o.gap >= Math.min(o.width, o.height) - 2 * o.margin) throw new ArrangeInputError(`A gap of ${o.gap} mm leaves no room on a ${o.width} × ${o.height} mm print area.`);
+  if (o.gap >= Math.min(o.width, o.height) - 2 * o.margin)
+    throw new ArrangeInputError(`A gap of ${o.gap} mm leaves no room on a ${o.width} × ${o.height} mm print area.`);
   const unplaced: ArrangeResult['unplaced'] = [];
   const usable = items.filter((item) => {
     const name = item.name ?? item.key;
@@ -53,11 +58,16 @@ function selfIntersects(ring: Ring): boolean {
   if (n > 2000) return false; // checked by the outline engine already; not worth O(n²) here
   const cross = (a: Ring[number], b: Ring[number], c: Ring[number]) => (b.x - a.x) * (c.y - a.y) - (b.y - a.y) * (c.x - a.x);
   for (let i = 0; i < n; i++) {
-    const a = ring[i], b = ring[(i + 1) % n];
+    const a = ring[i],
+      b = ring[(i + 1) % n];
     for (let j = i + 2; j < n; j++) {
       if (i === 0 && j === n - 1) continue;
-      const c = ring[j], d = ring[(j + 1) % n];
-      const d1 = cross(a, b, c), d2 = cross(a, b, d), d3 = cross(c, d, a), d4 = cross(c, d, b);
+      const c = ring[j],
+        d = ring[(j + 1) % n];
+      const d1 = cross(a, b, c),
+        d2 = cross(a, b, d),
+        d3 = cross(c, d, a),
+        d4 = cross(c, d, b);
       if (((d1 > 0 && d2 < 0) || (d1 < 0 && d2 > 0)) && ((d3 > 0 && d4 < 0) || (d3 < 0 && d4 > 0))) return true;
     }
   }

@@ -78,7 +78,6 @@ export { rotationsOf } from './input';
 
 type Shape = { item: ArrangeItem; masks: ShapeMask[]; areaMm2: number };
 
-
 function prepare(items: ArrangeItem[], opts: { gap: number; cell: number; rotate: RotateMode }): Map<string, Shape> {
   const shapes = new Map<string, Shape>();
   for (const item of items) {
@@ -96,9 +95,26 @@ function prepare(items: ArrangeItem[], opts: { gap: number; cell: number; rotate
 type Gene = { key: string; turn: number };
 
 /** Arranges the pieces; problems with single pieces are reported in `unplaced`, naming the piece. */
-export function arrange(items: ArrangeItem[], options: ArrangeOptions, locked: LockedPiece[] = [], onProgress?: (p: ArrangeProgress) => void): ArrangeResult {
+export function arrange(
+  items: ArrangeItem[],
+  options: ArrangeOptions,
+  locked: LockedPiece[] = [],
+  onProgress?: (p: ArrangeProgress) => void,
+): ArrangeResult {
   const started = Date.now();
-  const o = { gap: 3.175, margin: 0, rotate: '90' as RotateMode, fill: false, strip: false, overlap: true, timeMs: 2000, seed: 1, maxSheets: 10, cell: 1, ...options };
+  const o = {
+    gap: 3.175,
+    margin: 0,
+    rotate: '90' as RotateMode,
+    fill: false,
+    strip: false,
+    overlap: true,
+    timeMs: 2000,
+    seed: 1,
+    maxSheets: 10,
+    cell: 1,
+    ...options,
+  };
   const { usable, unplaced } = checkInput(items, o);
   const shapes = prepare(usable, o);
   for (const [key, shape] of shapes) {
@@ -106,7 +122,12 @@ export function arrange(items: ArrangeItem[], options: ArrangeOptions, locked: L
     const fits = shape.masks.some((m) => m.maxX - m.minX <= o.width - 2 * o.margin && m.maxY - m.minY <= o.height - 2 * o.margin);
     if (!fits) {
       const name = shape.item.name ?? key;
-      unplaced.push({ key, name, count: shape.item.count, reason: `${name} (${shape.item.outline.widthMm.toFixed(1)} × ${shape.item.outline.heightMm.toFixed(1)} mm with its border) is larger than the print area less the margin.` });
+      unplaced.push({
+        key,
+        name,
+        count: shape.item.count,
+        reason: `${name} (${shape.item.outline.widthMm.toFixed(1)} × ${shape.item.outline.heightMm.toFixed(1)} mm with its border) is larger than the print area less the margin.`,
+      });
       shapes.delete(key);
     }
   }
@@ -115,7 +136,11 @@ export function arrange(items: ArrangeItem[], options: ArrangeOptions, locked: L
   // The constructive start: priority first, then the largest pieces, each at its best rotation.
   const base: Gene[] = [];
   for (const [key, shape] of shapes) for (let i = 0; i < shape.item.count; i++) base.push({ key, turn: -1 });
-  base.sort((a, b) => (shapes.get(b.key)!.item.priority ?? 0) - (shapes.get(a.key)!.item.priority ?? 0) || shapes.get(b.key)!.areaMm2 - shapes.get(a.key)!.areaMm2);
+  base.sort(
+    (a, b) =>
+      (shapes.get(b.key)!.item.priority ?? 0) - (shapes.get(a.key)!.item.priority ?? 0) ||
+      shapes.get(b.key)!.areaMm2 - shapes.get(a.key)!.areaMm2,
+  );
 
   const lockedBoard = (board: Board) => {
     for (const l of locked) {
@@ -191,7 +216,12 @@ export function arrange(items: ArrangeItem[], options: ArrangeOptions, locked: L
     for (const key of layout.left) counts.set(key, (counts.get(key) ?? 0) + 1);
     const left = [...counts].map(([key, count]) => {
       const name = shapes.get(key)!.item.name ?? key;
-      return { key, name, count, reason: `${count} × ${name} did not fit on ${o.fill ? 'the sheet' : o.strip ? 'the strip' : `${o.maxSheets} sheets`}.` };
+      return {
+        key,
+        name,
+        count,
+        reason: `${count} × ${name} did not fit on ${o.fill ? 'the sheet' : o.strip ? 'the strip' : `${o.maxSheets} sheets`}.`,
+      };
     });
     return {
       placements: layout.placements,
@@ -207,21 +237,43 @@ export function arrange(items: ArrangeItem[], options: ArrangeOptions, locked: L
   };
   const report = (layout: Layout, iteration: number) => {
     o.onBest?.(resultOf(layout, iteration));
-    onProgress?.({ iteration, placed: layout.placements.length, elapsedMs: Date.now() - started, sheets: layout.boards.length, areaUsed: layout.boards[0].usedArea / (o.width * o.height), length: o.strip ? layout.boards[0].bottom : undefined });
+    onProgress?.({
+      iteration,
+      placed: layout.placements.length,
+      elapsedMs: Date.now() - started,
+      sheets: layout.boards.length,
+      areaUsed: layout.boards[0].usedArea / (o.width * o.height),
+      length: o.strip ? layout.boards[0].bottom : undefined,
+    });
   };
 
   let current = run(base);
   let best = current;
   let iterations = 1;
   report(best, iterations);
-  if (o.overlap && o.strip && best.left.length === 0 && base.length > 1 && o.timeMs > Date.now() - started && (o.maxIterations ?? Infinity) > 1) {
+  if (
+    o.overlap &&
+    o.strip &&
+    best.left.length === 0 &&
+    base.length > 1 &&
+    o.timeMs > Date.now() - started &&
+    (o.maxIterations ?? Infinity) > 1
+  ) {
     // Strip packing goes on from the constructive layout as a sequence of overlap searches.
     const strip = stripPhase(best.placements, phaseInput(shapes), {
       deadline: started + o.timeMs,
       random,
       shouldStop: o.shouldStop,
       maxTries: o.maxIterations === undefined ? undefined : o.maxIterations - 1,
-      onBest: (bottom) => onProgress?.({ iteration: iterations, placed: best.placements.length, elapsedMs: Date.now() - started, sheets: 1, areaUsed: best.boards[0].usedArea / (o.width * o.height), length: bottom }),
+      onBest: (bottom) =>
+        onProgress?.({
+          iteration: iterations,
+          placed: best.placements.length,
+          elapsedMs: Date.now() - started,
+          sheets: 1,
+          areaUsed: best.boards[0].usedArea / (o.width * o.height),
+          length: bottom,
+        }),
     });
     if (strip) return { ...resultOf(best, 1 + strip.tries), placements: strip.placements, length: strip.length, ms: Date.now() - started };
   }
@@ -243,7 +295,10 @@ export function arrange(items: ArrangeItem[], options: ArrangeOptions, locked: L
       [genes[i], genes[j]] = [genes[j], genes[i]];
     } else if (move < 0.7) {
       // Move one piece earlier: what did not fit, or fits badly, gets an earlier turn.
-      const i = current.left.length && random() < 0.5 ? genes.findIndex((g) => g.key === current.left[Math.floor(random() * current.left.length)]) : Math.floor(random() * n);
+      const i =
+        current.left.length && random() < 0.5
+          ? genes.findIndex((g) => g.key === current.left[Math.floor(random() * current.left.length)])
+          : Math.floor(random() * n);
       const j = Math.floor(random() * (i + 1));
       const [g] = genes.splice(i, 1);
       genes.splice(j, 0, g);
@@ -270,22 +325,52 @@ export function arrange(items: ArrangeItem[], options: ArrangeOptions, locked: L
   }
   if (o.overlap && !o.strip && (o.fill || best.boards.length > 1) && maxIterations > 1 && !o.shouldStop?.()) {
     const maxTries = o.maxIterations === undefined ? undefined : o.maxIterations - 1;
-    const searched = sheetPhase(best.placements, best.boards.length, o.fill, phaseInput(shapes), { deadline: started + o.timeMs, random, maxTries, shouldStop: o.shouldStop });
+    const searched = sheetPhase(best.placements, best.boards.length, o.fill, phaseInput(shapes), {
+      deadline: started + o.timeMs,
+      random,
+      maxTries,
+      shouldStop: o.shouldStop,
+    });
     if (searched) {
       const areaOf = new Map([...shapes].map(([key, s]) => [key, s.areaMm2]));
       const sheets = Math.max(...searched.map((p) => p.sheet)) + 1;
-      const areaUsed = Array.from({ length: sheets }, (_, s) => searched.filter((p) => p.sheet === s).reduce((sum, p) => sum + areaOf.get(p.key)!, 0) / (o.width * o.height));
-      const result = { ...resultOf(best, iterations), placements: searched, sheets, placed: searched.length, areaUsed, ms: Date.now() - started };
+      const areaUsed = Array.from(
+        { length: sheets },
+        (_, s) => searched.filter((p) => p.sheet === s).reduce((sum, p) => sum + areaOf.get(p.key)!, 0) / (o.width * o.height),
+      );
+      const result = {
+        ...resultOf(best, iterations),
+        placements: searched,
+        sheets,
+        placed: searched.length,
+        areaUsed,
+        ms: Date.now() - started,
+      };
       o.onBest?.(result);
       onProgress?.({ iteration: iterations, placed: result.placed, elapsedMs: result.ms, sheets, areaUsed: areaUsed[0] });
       return result;
     }
   }
-  onProgress?.({ iteration: iterations, placed: best.placements.length, elapsedMs: Date.now() - started, sheets: best.boards.length, areaUsed: best.boards[0].usedArea / (o.width * o.height), length: o.strip ? best.boards[0].bottom : undefined });
+  onProgress?.({
+    iteration: iterations,
+    placed: best.placements.length,
+    elapsedMs: Date.now() - started,
+    sheets: best.boards.length,
+    areaUsed: best.boards[0].usedArea / (o.width * o.height),
+    length: o.strip ? best.boards[0].bottom : undefined,
+  });
   return resultOf(best, iterations);
 
   /** What the overlap search needs of this run: every shape's grown turns, the area, the locked pieces. */
   function phaseInput(shapes: Map<string, Shape>) {
-    return { items: [...shapes.values()].map((s) => s.item), locked, rotate: o.rotate, gap: o.gap, margin: o.margin, width: o.width, height: o.height };
+    return {
+      items: [...shapes.values()].map((s) => s.item),
+      locked,
+      rotate: o.rotate,
+      gap: o.gap,
+      margin: o.margin,
+      width: o.width,
+      height: o.height,
+    };
   }
 }

@@ -11,11 +11,21 @@ import { variantsOf } from './shapes';
 import type { StripOptions } from './strip';
 import { shortenStrip } from './strip';
 
-export type PhaseInput = { items: ArrangeItem[]; locked: LockedPiece[]; rotate: RotateMode; gap: number; margin: number; width: number; height: number };
+export type PhaseInput = {
+  items: ArrangeItem[];
+  locked: LockedPiece[];
+  rotate: RotateMode;
+  gap: number;
+  margin: number;
+  width: number;
+  height: number;
+};
 type Budget = { deadline: number; random: () => number; maxTries?: number; shouldStop?: () => boolean };
 
 function prepare(input: PhaseInput) {
-  const variants = new Map<string, Variant[]>(input.items.map((item) => [item.key, variantsOf(item.outline, rotationsOf(item.rotate ?? input.rotate), input.gap / 2)]));
+  const variants = new Map<string, Variant[]>(
+    input.items.map((item) => [item.key, variantsOf(item.outline, rotationsOf(item.rotate ?? input.rotate), input.gap / 2)]),
+  );
   for (const l of input.locked) if (!variants.has(l.key)) variants.set(l.key, variantsOf(l.outline, [l.rotation], input.gap / 2));
   return {
     variantsOf: (key: string) => variants.get(key)!,
@@ -25,7 +35,11 @@ function prepare(input: PhaseInput) {
 }
 
 /** A shorter strip from a layout without overlap, or null when the exact check refuses the result. */
-export function stripPhase(placements: Placement[], input: PhaseInput, budget: StripOptions): { placements: Placement[]; length: number; tries: number } | null {
+export function stripPhase(
+  placements: Placement[],
+  input: PhaseInput,
+  budget: StripOptions,
+): { placements: Placement[]; length: number; tries: number } | null {
   const { variantsOf, area, fixed } = prepare(input);
   const { layout, keys } = layoutOf(placements, variantsOf, area, fixed);
   const { length, tries } = shortenStrip(layout, budget);
@@ -34,11 +48,22 @@ export function stripPhase(placements: Placement[], input: PhaseInput, budget: S
 }
 
 /** Fill: more copies on the sheet; quantities: the last sheet emptied into the others. Null when nothing changed. */
-export function sheetPhase(placements: Placement[], sheetCount: number, fill: boolean, input: PhaseInput, budget: Budget): Placement[] | null {
+export function sheetPhase(
+  placements: Placement[],
+  sheetCount: number,
+  fill: boolean,
+  input: PhaseInput,
+  budget: Budget,
+): Placement[] | null {
   const { variantsOf, area, fixed } = prepare(input);
   const search = { variantsOf, area, gap: input.gap, ...budget };
   if (fill) {
-    const filled = fillSheet(placements, fixed, input.items.map((i) => i.key), search);
+    const filled = fillSheet(
+      placements,
+      fixed,
+      input.items.map((i) => i.key),
+      search,
+    );
     return filled && filled.map((p) => ({ ...p, sheet: 0 }));
   }
   let sheets: Placed[][] = Array.from({ length: sheetCount }, (_, s) => placements.filter((p) => p.sheet === s));

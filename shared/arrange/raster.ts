@@ -29,9 +29,12 @@ export type ShapeMask = {
 };
 
 export function rotateRing(ring: Ring, centre: { x: number; y: number }, degrees: number): Ring {
-  const a = (degrees * Math.PI) / 180, c = Math.cos(a), s = Math.sin(a);
+  const a = (degrees * Math.PI) / 180,
+    c = Math.cos(a),
+    s = Math.sin(a);
   return ring.map((p) => {
-    const dx = p.x - centre.x, dy = p.y - centre.y;
+    const dx = p.x - centre.x,
+      dy = p.y - centre.y;
     return { x: dx * c - dy * s, y: dx * s + dy * c };
   });
 }
@@ -44,12 +47,14 @@ function fillCentres(ring: Ring, cell: number, x0: number, y0: number, w: number
     const y = (y0 + j + 0.5) * cell;
     xs.length = 0;
     for (let i = 0, k = ring.length - 1; i < ring.length; k = i++) {
-      const a = ring[i], b = ring[k];
+      const a = ring[i],
+        b = ring[k];
       if (a.y > y !== b.y > y) xs.push(a.x + ((y - a.y) * (b.x - a.x)) / (b.y - a.y));
     }
     xs.sort((p, q) => p - q);
     for (let t = 0; t + 1 < xs.length; t += 2) {
-      const from = Math.max(0, Math.ceil(xs[t] / cell - 0.5) - x0), to = Math.min(w - 1, Math.floor(xs[t + 1] / cell - 0.5) - x0);
+      const from = Math.max(0, Math.ceil(xs[t] / cell - 0.5) - x0),
+        to = Math.min(w - 1, Math.floor(xs[t + 1] / cell - 0.5) - x0);
       for (let i = from; i <= to; i++) filled[j * w + i] = 1;
     }
   }
@@ -61,9 +66,17 @@ function fillCentres(ring: Ring, cell: number, x0: number, y0: number, w: number
  * `grow` mm with an exact Euclidean distance transform. The raster is a quick filter: it may miss a
  * sliver narrower than a cell, never a whole cell of the shape; the exact geometry has the last word.
  */
-export function shapeMask(outline: { points: Ring; widthMm: number; heightMm: number }, rotation: number, cell: number, grow: number): ShapeMask {
+export function shapeMask(
+  outline: { points: Ring; widthMm: number; heightMm: number },
+  rotation: number,
+  cell: number,
+  grow: number,
+): ShapeMask {
   const ring = rotateRing(outline.points, { x: outline.widthMm / 2, y: outline.heightMm / 2 }, rotation);
-  let minX = Infinity, minY = Infinity, maxX = -Infinity, maxY = -Infinity;
+  let minX = Infinity,
+    minY = Infinity,
+    maxX = -Infinity,
+    maxY = -Infinity;
   for (const p of ring) {
     minX = Math.min(minX, p.x);
     minY = Math.min(minY, p.y);
@@ -71,8 +84,10 @@ export function shapeMask(outline: { points: Ring; widthMm: number; heightMm: nu
     maxY = Math.max(maxY, p.y);
   }
   const pad = Math.ceil(grow / cell) + 1;
-  const x0 = Math.floor(minX / cell) - pad, y0 = Math.floor(minY / cell) - pad;
-  const w = Math.ceil(maxX / cell) + pad - x0 + 1, h = Math.ceil(maxY / cell) + pad - y0 + 1;
+  const x0 = Math.floor(minX / cell) - pad,
+    y0 = Math.floor(minY / cell) - pad;
+  const w = Math.ceil(maxX / cell) + pad - x0 + 1,
+    h = Math.ceil(maxY / cell) + pad - y0 + 1;
   const filled = fillCentres(ring, cell, x0, y0, w, h);
   let blocked = filled;
   if (grow > 0) {
@@ -96,6 +111,9 @@ export function shapeMask(outline: { points: Ring; widthMm: number; heightMm: nu
   }
   const widths = rows.map((r) => r.reduce((s, [a, b]) => s + b - a + 1, 0));
   const longest = Int32Array.from(rows, (r) => r.reduce((m, [a, b]) => Math.max(m, b - a + 1), 0));
-  const order = rows.map((_, j) => j).filter((j) => rows[j].length > 0).sort((a, b) => widths[b] - widths[a]);
+  const order = rows
+    .map((_, j) => j)
+    .filter((j) => rows[j].length > 0)
+    .sort((a, b) => widths[b] - widths[a]);
   return { rotation, ring, minX, minY, maxX, maxY, offsetX: x0, offsetY: y0, rows, order, longest, cells, pad };
 }

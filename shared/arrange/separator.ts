@@ -17,7 +17,13 @@ export type LayoutPiece = { variants: Variant[]; v: number; x: number; y: number
 export type Area = { x0: number; y0: number; x1: number; y1: number };
 type Entry = { minX: number; minY: number; maxX: number; maxY: number; i: number };
 
-export type SeparateOptions = { strikes: number; roundsWithoutGain: number; deadline: number; random: () => number; shouldStop?: () => boolean };
+export type SeparateOptions = {
+  strikes: number;
+  roundsWithoutGain: number;
+  deadline: number;
+  random: () => number;
+  shouldStop?: () => boolean;
+};
 
 const SCAN_LIMIT = 64;
 
@@ -61,7 +67,8 @@ export class Layout {
   }
 
   private grow(size: number) {
-    const depths = new Float64Array(size * size), weights = new Float64Array(size * size).fill(1);
+    const depths = new Float64Array(size * size),
+      weights = new Float64Array(size * size).fill(1);
     for (let i = 0; i < this.size; i++) {
       depths.set(this.depths.subarray(i * this.size, (i + 1) * this.size), i * size);
       weights.set(this.weights.subarray(i * this.size, (i + 1) * this.size), i * size);
@@ -72,7 +79,9 @@ export class Layout {
   }
 
   private index(i: number, fresh = false) {
-    const p = this.pieces[i], s = p.variants[p.v], e = this.entries[i];
+    const p = this.pieces[i],
+      s = p.variants[p.v],
+      e = this.entries[i];
     if (!fresh) this.tree.remove(e);
     e.minX = s.gx0 + p.x;
     e.minY = s.gy0 + p.y;
@@ -82,17 +91,21 @@ export class Layout {
   }
 
   private clearDepths(i: number) {
-    const n = this.pieces.length, size = this.size;
+    const n = this.pieces.length,
+      size = this.size;
     for (let j = 0; j < n; j++) this.depths[i * size + j] = this.depths[j * size + i] = 0;
   }
 
   /** Recomputes piece i's overlap with every other piece. */
   private measure(i: number) {
     this.clearDepths(i);
-    const p = this.pieces[i], s = p.variants[p.v], size = this.size;
+    const p = this.pieces[i],
+      s = p.variants[p.v],
+      size = this.size;
     for (const e of this.tree.search(this.entries[i])) {
       if (e.i === i) continue;
-      const q = this.pieces[e.i], t = q.variants[q.v];
+      const q = this.pieces[e.i],
+        t = q.variants[q.v];
       if (p.fixed && q.fixed) continue; // locked pieces are the maker's to place
       const d = overlapDepth(s, p.x, p.y, t, q.x, q.y);
       if (d > 0) this.depths[i * size + e.i] = this.depths[e.i * size + i] = d;
@@ -101,15 +114,20 @@ export class Layout {
 
   /** Weighted overlap piece i would have as variant v at (x, y); stops counting once past `bound`. */
   cost(i: number, v: number, x: number, y: number, bound = Infinity): number {
-    const s = this.pieces[i].variants[v], size = this.size;
+    const s = this.pieces[i].variants[v],
+      size = this.size;
     let sum = 0;
-    const x0 = s.gx0 + x, y0 = s.gy0 + y, x1 = s.gx1 + x, y1 = s.gy1 + y;
+    const x0 = s.gx0 + x,
+      y0 = s.gy0 + y,
+      x1 = s.gx1 + x,
+      y1 = s.gy1 + y;
     // Up to a few dozen pieces a plain scan of the boxes beats the tree's search (measured: a
     // quarter less time a move on 25 pieces); beyond that the tree wins.
     const near = this.entries.length <= SCAN_LIMIT ? this.entries : this.tree.search({ minX: x0, minY: y0, maxX: x1, maxY: y1 });
     for (const e of near) {
       if (e.i === i || e.minX > x1 || e.maxX < x0 || e.minY > y1 || e.maxY < y0) continue;
-      const q = this.pieces[e.i], t = q.variants[q.v];
+      const q = this.pieces[e.i],
+        t = q.variants[q.v];
       const d = overlapDepth(s, x, y, t, q.x, q.y);
       if (d === 0) continue;
       sum += this.weights[i * size + e.i] * d;
@@ -120,8 +138,12 @@ export class Layout {
 
   /** The spot range for piece i as variant v, or null when it cannot fit the area at all. */
   range(i: number, v: number, variants = this.pieces[i].variants) {
-    const s = variants[v], a = this.area;
-    const x0 = a.x0 - s.bx0, x1 = a.x1 - s.bx1, y0 = a.y0 - s.by0, y1 = a.y1 - s.by1;
+    const s = variants[v],
+      a = this.area;
+    const x0 = a.x0 - s.bx0,
+      x1 = a.x1 - s.bx1,
+      y0 = a.y0 - s.by0,
+      y1 = a.y1 - s.by1;
     return x0 <= x1 && y0 <= y1 ? { x0, x1, y0, y1 } : null;
   }
 
@@ -172,14 +194,19 @@ export class Layout {
     };
     const variants = p.variants.length;
     for (let k = 0; k < uniform && best.c > 0; k++) {
-      const v = Math.floor(random() * variants), r = this.range(i, v);
+      const v = Math.floor(random() * variants),
+        r = this.range(i, v);
       if (r) consider(v, r.x0 + random() * (r.x1 - r.x0), r.y0 + random() * (r.y1 - r.y0));
     }
-    const s = p.variants[p.v], w = s.bx1 - s.bx0, h = s.by1 - s.by0;
+    const s = p.variants[p.v],
+      w = s.bx1 - s.bx0,
+      h = s.by1 - s.by0;
     for (let k = 0; k < this.nearSamples && best.c > 0; k++) {
-      const v = random() < 0.8 ? p.v : Math.floor(random() * variants), r = this.range(i, v);
+      const v = random() < 0.8 ? p.v : Math.floor(random() * variants),
+        r = this.range(i, v);
       if (!r) continue;
-      const x = Math.min(r.x1, Math.max(r.x0, p.x + (random() - 0.5) * w)), y = Math.min(r.y1, Math.max(r.y0, p.y + (random() - 0.5) * h));
+      const x = Math.min(r.x1, Math.max(r.x0, p.x + (random() - 0.5) * w)),
+        y = Math.min(r.y1, Math.max(r.y0, p.y + (random() - 0.5) * h));
       consider(v, x, y);
     }
     if (best.c > 0) best = this.descend(i, best, Math.max(w, h));
@@ -195,8 +222,14 @@ export class Layout {
     let guard = 0;
     while (step > floor && c > 0 && guard++ < 200) {
       let gained = false;
-      for (const [dx, dy] of [[step, 0], [-step, 0], [0, step], [0, -step]]) {
-        const nx = Math.min(r.x1, Math.max(r.x0, x + dx)), ny = Math.min(r.y1, Math.max(r.y0, y + dy));
+      for (const [dx, dy] of [
+        [step, 0],
+        [-step, 0],
+        [0, step],
+        [0, -step],
+      ]) {
+        const nx = Math.min(r.x1, Math.max(r.x0, x + dx)),
+          ny = Math.min(r.y1, Math.max(r.y0, y + dy));
         const nc = this.cost(i, start.v, nx, ny, c);
         if (nc < c) {
           x = nx;
@@ -213,7 +246,8 @@ export class Layout {
 
   /** Guided local search weights: overlapping pairs grow (deeper ones more), the rest decay to 1. */
   private reweigh() {
-    const n = this.pieces.length, size = this.size;
+    const n = this.pieces.length,
+      size = this.size;
     let deepest = 0;
     for (let i = 0; i < n; i++) for (let j = i + 1; j < n; j++) deepest = Math.max(deepest, this.depths[i * size + j]);
     for (let i = 0; i < n; i++) {
@@ -234,11 +268,12 @@ export class Layout {
   separate(o: SeparateOptions): boolean {
     let total = this.totalOverlap();
     if (total === 0) return true;
-    let least = total, best = this.snapshot();
+    let least = total,
+      best = this.snapshot();
     const order: number[] = [];
-    for (let strike = 0; strike < o.strikes; ) {
+    for (let strike = 0; strike < o.strikes;) {
       let gainedThisStrike = false;
-      for (let idle = 0; idle < o.roundsWithoutGain; ) {
+      for (let idle = 0; idle < o.roundsWithoutGain;) {
         if (Date.now() > o.deadline || o.shouldStop?.()) {
           this.restore(best);
           return false;

@@ -41,7 +41,8 @@ export function growRing(ring: Ring, grow: number): Ring {
   const tolerance = Math.min(0.1, Math.max(0.002, grow * 0.02));
   const paths = inflatePathsD([ring.map((p) => ({ x: p.x, y: p.y }))], grow + tolerance, JoinType.Round, EndType.Polygon, 2, 4, tolerance);
   // A simple ring grows into one ring; keep the largest should rounding ever split off a sliver.
-  let best: Ring = ring, bestArea = -1;
+  let best: Ring = ring,
+    bestArea = -1;
   for (const path of paths) {
     const r = path.map((p) => ({ x: p.x, y: p.y }));
     const a = area(r);
@@ -57,11 +58,15 @@ function distanceToEdges(px: number, py: number, xs: Float64Array, ys: Float64Ar
   let best = Infinity;
   const n = xs.length;
   for (let i = 0, j = n - 1; i < n; j = i++) {
-    const ax = xs[j], ay = ys[j], vx = xs[i] - ax, vy = ys[i] - ay;
+    const ax = xs[j],
+      ay = ys[j],
+      vx = xs[i] - ax,
+      vy = ys[i] - ay;
     const len2 = vx * vx + vy * vy;
     let t = len2 === 0 ? 0 : ((px - ax) * vx + (py - ay) * vy) / len2;
     t = t < 0 ? 0 : t > 1 ? 1 : t;
-    const dx = px - ax - t * vx, dy = py - ay - t * vy;
+    const dx = px - ax - t * vx,
+      dy = py - ay - t * vy;
     const d = dx * dx + dy * dy;
     if (d < best) best = d;
   }
@@ -82,7 +87,10 @@ export function insideRing(px: number, py: number, xs: Float64Array, ys: Float64
  * earlier ones left: sampled on a grid, then each centre refined by a shrinking pattern search.
  */
 export function polesOf(xs: Float64Array, ys: Float64Array, maxPoles = 8): Float64Array {
-  let x0 = Infinity, y0 = Infinity, x1 = -Infinity, y1 = -Infinity;
+  let x0 = Infinity,
+    y0 = Infinity,
+    x1 = -Infinity,
+    y1 = -Infinity;
   for (let i = 0; i < xs.length; i++) {
     x0 = Math.min(x0, xs[i]);
     x1 = Math.max(x1, xs[i]);
@@ -90,7 +98,9 @@ export function polesOf(xs: Float64Array, ys: Float64Array, maxPoles = 8): Float
     y1 = Math.max(y1, ys[i]);
   }
   const step = Math.max(x1 - x0, y1 - y0) / 40;
-  const sx: number[] = [], sy: number[] = [], sd: number[] = [];
+  const sx: number[] = [],
+    sy: number[] = [],
+    sd: number[] = [];
   for (let y = y0 + step / 2; y < y1; y += step) {
     for (let x = x0 + step / 2; x < x1; x += step) {
       if (!insideRing(x, y, xs, ys)) continue;
@@ -112,11 +122,18 @@ export function polesOf(xs: Float64Array, ys: Float64Array, maxPoles = 8): Float
     let at = -1;
     for (let i = 0; i < free.length; i++) if (at < 0 || free[i] > free[at]) at = i;
     if (at < 0 || free[at] <= 0) break;
-    let x = sx[at], y = sy[at], r = room(x, y);
+    let x = sx[at],
+      y = sy[at],
+      r = room(x, y);
     for (let s = step / 2; s > step / 64; s /= 2) {
-      for (let moved = true; moved; ) {
+      for (let moved = true; moved;) {
         moved = false;
-        for (const [dx, dy] of [[s, 0], [-s, 0], [0, s], [0, -s]]) {
+        for (const [dx, dy] of [
+          [s, 0],
+          [-s, 0],
+          [0, s],
+          [0, -s],
+        ]) {
           const v = room(x + dx, y + dy);
           if (v > r) {
             x += dx;
@@ -135,7 +152,8 @@ export function polesOf(xs: Float64Array, ys: Float64Array, maxPoles = 8): Float
   }
   if (poles.length === 0) {
     // A sliver thinner than the sampling grid: its centroid of vertices with a tiny radius.
-    let cx = 0, cy = 0;
+    let cx = 0,
+      cy = 0;
     for (let i = 0; i < xs.length; i++) {
       cx += xs[i] / xs.length;
       cy += ys[i] / ys.length;
@@ -149,34 +167,60 @@ export function polesOf(xs: Float64Array, ys: Float64Array, maxPoles = 8): Float
 export function variantsOf(outline: { points: Ring; widthMm: number; heightMm: number }, rotations: number[], grow: number): Variant[] {
   const centre = { x: outline.widthMm / 2, y: outline.heightMm / 2 };
   const grown = growRing(outline.points, grow).map((p) => ({ x: p.x - centre.x, y: p.y - centre.y }));
-  const baseXs = Float64Array.from(grown, (p) => p.x), baseYs = Float64Array.from(grown, (p) => p.y);
+  const baseXs = Float64Array.from(grown, (p) => p.x),
+    baseYs = Float64Array.from(grown, (p) => p.y);
   const basePoles = polesOf(baseXs, baseYs);
   const itemArea = area(outline.points);
   return rotations.map((rotation) => {
     const ring = rotateRing(outline.points, centre, rotation);
     const g = rotateRing(grown, { x: 0, y: 0 }, rotation);
-    const xs = Float64Array.from(g, (p) => p.x), ys = Float64Array.from(g, (p) => p.y);
-    const a = (rotation * Math.PI) / 180, c = Math.cos(a), s = Math.sin(a);
+    const xs = Float64Array.from(g, (p) => p.x),
+      ys = Float64Array.from(g, (p) => p.y);
+    const a = (rotation * Math.PI) / 180,
+      c = Math.cos(a),
+      s = Math.sin(a);
     const poles = new Float64Array(basePoles.length);
     for (let k = 0; k < basePoles.length; k += 3) {
       poles[k] = basePoles[k] * c - basePoles[k + 1] * s;
       poles[k + 1] = basePoles[k] * s + basePoles[k + 1] * c;
       poles[k + 2] = basePoles[k + 2];
     }
-    let gx0 = Infinity, gy0 = Infinity, gx1 = -Infinity, gy1 = -Infinity;
+    let gx0 = Infinity,
+      gy0 = Infinity,
+      gx1 = -Infinity,
+      gy1 = -Infinity;
     for (let i = 0; i < xs.length; i++) {
       gx0 = Math.min(gx0, xs[i]);
       gx1 = Math.max(gx1, xs[i]);
       gy0 = Math.min(gy0, ys[i]);
       gy1 = Math.max(gy1, ys[i]);
     }
-    let bx0 = Infinity, by0 = Infinity, bx1 = -Infinity, by1 = -Infinity;
+    let bx0 = Infinity,
+      by0 = Infinity,
+      bx1 = -Infinity,
+      by1 = -Infinity;
     for (const p of ring) {
       bx0 = Math.min(bx0, p.x);
       bx1 = Math.max(bx1, p.x);
       by0 = Math.min(by0, p.y);
       by1 = Math.max(by1, p.y);
     }
-    return { rotation, ring, xs, ys, gx0, gy0, gx1, gy1, bx0, by0, bx1, by1, poles, eps: Math.max(basePoles[2] * 0.05, 1e-3), area: itemArea };
+    return {
+      rotation,
+      ring,
+      xs,
+      ys,
+      gx0,
+      gy0,
+      gx1,
+      gy1,
+      bx0,
+      by0,
+      bx1,
+      by1,
+      poles,
+      eps: Math.max(basePoles[2] * 0.05, 1e-3),
+      area: itemArea,
+    };
   });
 }

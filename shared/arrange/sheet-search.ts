@@ -21,7 +21,13 @@ export type SheetSearch = {
 const running = (o: SheetSearch, tries: number) => tries < (o.maxTries ?? Infinity) && Date.now() < o.deadline && !o.shouldStop?.();
 
 /** More copies on one sheet; returns the placements when it added any (checked exactly), else null. */
-export function fillSheet(placed: Placed[], fixed: Placed[], itemKeys: string[], o: SheetSearch, onBest?: (placements: Placed[]) => void): Placed[] | null {
+export function fillSheet(
+  placed: Placed[],
+  fixed: Placed[],
+  itemKeys: string[],
+  o: SheetSearch,
+  onBest?: (placements: Placed[]) => void,
+): Placed[] | null {
   const { layout, keys } = layoutOf(placed, o.variantsOf, o.area, fixed);
   const counts = new Map(itemKeys.map((k) => [k, 0]));
   for (const p of placed) counts.set(p.key, (counts.get(p.key) ?? 0) + 1);
@@ -32,7 +38,9 @@ export function fillSheet(placed: Placed[], fixed: Placed[], itemKeys: string[],
     if (open.length === 0) break;
     // The mix stays even within two copies; among those, the smallest art goes first (it fits most often).
     const fewest = Math.min(...open.map((k) => counts.get(k)!));
-    const key = open.filter((k) => counts.get(k)! <= fewest + 4).reduce((a, b) => (o.variantsOf(b)[0].area < o.variantsOf(a)[0].area ? b : a));
+    const key = open
+      .filter((k) => counts.get(k)! <= fewest + 4)
+      .reduce((a, b) => (o.variantsOf(b)[0].area < o.variantsOf(a)[0].area ? b : a));
     if (add(layout, keys, key, o)) {
       counts.set(key, counts.get(key)! + 1);
       best = placementsOf(layout, keys);

@@ -25,10 +25,13 @@ export function usedLength(layout: Layout): number {
 
 /** Shortens the strip of a layout without overlap for as long as time allows; ends at the best. */
 export function shortenStrip(layout: Layout, o: StripOptions): { length: number; tries: number } {
-  const started = Date.now(), total = Math.max(1, o.deadline - started);
-  let best = layout.snapshot(), bestLength = usedLength(layout);
+  const started = Date.now(),
+    total = Math.max(1, o.deadline - started);
+  let best = layout.snapshot(),
+    bestLength = usedLength(layout);
   layout.area = { ...layout.area, y1: bestLength };
-  let ratio = 0.01, tries = 0;
+  let ratio = 0.01,
+    tries = 0;
   for (; tries < (o.maxTries ?? Infinity) && Date.now() < o.deadline && !o.shouldStop?.(); tries++) {
     const exploring = o.maxTries === undefined ? Date.now() - started < total * 0.75 : tries < o.maxTries * 0.75;
     const cut = exploring ? ratio * (0.5 + o.random()) : 0.001 + o.random() * 0.004;
@@ -37,7 +40,8 @@ export function shortenStrip(layout: Layout, o: StripOptions): { length: number;
     layout.area = { ...layout.area, y1: target };
     // Pieces past the new end slide back inside; the overlap this makes is the separator's to remove.
     for (let i = 0; i < layout.length; i++) {
-      const p = layout.pieces[i], s = p.variants[p.v];
+      const p = layout.pieces[i],
+        s = p.variants[p.v];
       if (!p.fixed && p.y + s.by1 > target) layout.moveTo(i, p.v, p.x, Math.max(layout.area.y0 - s.by0, target - s.by1));
     }
     layout.resetWeights();
@@ -49,7 +53,13 @@ export function shortenStrip(layout: Layout, o: StripOptions): { length: number;
       // No one try may eat the budget: a hopeless length costs at most a twentieth of the time (not
       // when the tries are counted, so that a seed gives the same layout on any machine).
       const cap = o.maxTries === undefined ? Date.now() + Math.max(500, total / 20) : Infinity;
-      ok = layout.separate({ strikes: exploring ? 3 : 5, roundsWithoutGain: exploring ? 100 : 50, deadline: Math.min(o.deadline, cap), random: o.random, shouldStop: o.shouldStop });
+      ok = layout.separate({
+        strikes: exploring ? 3 : 5,
+        roundsWithoutGain: exploring ? 100 : 50,
+        deadline: Math.min(o.deadline, cap),
+        random: o.random,
+        shouldStop: o.shouldStop,
+      });
     }
     if (ok) {
       best = layout.snapshot();
@@ -71,9 +81,11 @@ function swapLarge(layout: Layout, random: () => number) {
   const median = areas[areas.length >> 1];
   const large = movable.filter(({ p }) => p.variants[p.v].area >= median);
   for (let tries = 0; tries < 10; tries++) {
-    const a = large[Math.floor(random() * large.length)], b = large[Math.floor(random() * large.length)];
+    const a = large[Math.floor(random() * large.length)],
+      b = large[Math.floor(random() * large.length)];
     if (a.i === b.i || a.p.variants === b.p.variants) continue;
-    const ra = layout.range(a.i, a.p.v), rb = layout.range(b.i, b.p.v);
+    const ra = layout.range(a.i, a.p.v),
+      rb = layout.range(b.i, b.p.v);
     if (!ra || !rb) continue;
     const clamp = (v: number, lo: number, hi: number) => Math.min(hi, Math.max(lo, v));
     const [ax, ay, bx, by] = [a.p.x, a.p.y, b.p.x, b.p.y];

@@ -3,16 +3,18 @@ import { squaredDistanceTransform } from './distance-transform';
 
 describe('Euclidean distance transform (Felzenszwalb & Huttenlocher 2012)', () => {
   it('matches brute force on random sparse features', () => {
-    const width = 37, height = 23;
+    const width = 37,
+      height = 23;
     let seed = 7;
-    const random = () => ((seed = (seed * 1103515245 + 12345) % 2 ** 31) / 2 ** 31);
+    const random = () => (seed = (seed * 1103515245 + 12345) % 2 ** 31) / 2 ** 31;
     const feature = new Uint8Array(width * height).map(() => (random() < 0.03 ? 1 : 0));
     feature[5] = 1;
     const fast = squaredDistanceTransform(feature, width, height);
     for (let y = 0; y < height; y++) {
       for (let x = 0; x < width; x++) {
         let best = Infinity;
-        for (let j = 0; j < height; j++) for (let i = 0; i < width; i++) if (feature[j * width + i]) best = Math.min(best, (i - x) ** 2 + (j - y) ** 2);
+        for (let j = 0; j < height; j++)
+          for (let i = 0; i < width; i++) if (feature[j * width + i]) best = Math.min(best, (i - x) ** 2 + (j - y) ** 2);
         expect(fast[y * width + x]).toBe(best);
       }
     }

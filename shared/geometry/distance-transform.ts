@@ -38,16 +38,20 @@ export function squaredDistanceTransform(feature: Uint8Array, width: number, hei
   const far = width + height;
   for (let x = 0; x < width; x++) out[x] = feature[x] ? 0 : far;
   for (let y = 1; y < height; y++) {
-    const row = y * width, prev = row - width;
+    const row = y * width,
+      prev = row - width;
     for (let x = 0; x < width; x++) out[row + x] = feature[row + x] ? 0 : out[prev + x] + 1;
   }
   for (let y = height - 2; y >= 0; y--) {
-    const row = y * width, next = row + width;
+    const row = y * width,
+      next = row + width;
     for (let x = 0; x < width; x++) if (out[next + x] + 1 < out[row + x]) out[row + x] = out[next + x] + 1;
   }
   for (let i = 0; i < out.length; i++) out[i] = out[i] >= far ? INF : out[i] * out[i];
   // Row phase: lower envelope of parabolas.
-  const f = new Float64Array(width), d = new Float64Array(width), z = new Float64Array(width + 1);
+  const f = new Float64Array(width),
+    d = new Float64Array(width),
+    z = new Float64Array(width + 1);
   const v = new Int32Array(width);
   for (let y = 0; y < height; y++) {
     const row = y * width;

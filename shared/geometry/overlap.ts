@@ -12,7 +12,8 @@ const toPath = (ring: Ring): Paths64 => [ring.map((p) => ({ x: Math.round(p.x * 
 
 /** Shared area (mm²) of two simple rings; 0 when their boxes are apart. */
 export function overlapArea(a: Ring, b: Ring): number {
-  const ba = boundingBox(a), bb = boundingBox(b);
+  const ba = boundingBox(a),
+    bb = boundingBox(b);
   if (ba.x >= bb.x + bb.width || bb.x >= ba.x + ba.width || ba.y >= bb.y + bb.height || bb.y >= ba.y + ba.height) return 0;
   const shared = Clipper.intersect(toPath(a), toPath(b), FillRule.NonZero);
   return shared.reduce((sum, path) => sum + Math.abs(Clipper.area(path)), 0) / (SCALE * SCALE);

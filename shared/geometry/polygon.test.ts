@@ -1,7 +1,12 @@
 import { describe, expect, it } from 'vitest';
 import { area, clockwise, isSimple, perimeter, ringToSvgPath, signedArea } from './polygon';
 
-const square = [{ x: 0, y: 0 }, { x: 10, y: 0 }, { x: 10, y: 10 }, { x: 0, y: 10 }];
+const square = [
+  { x: 0, y: 0 },
+  { x: 10, y: 0 },
+  { x: 10, y: 10 },
+  { x: 0, y: 10 },
+];
 
 describe('polygon helpers', () => {
   it('measures a 10 × 10 square: area 100, perimeter 40 (handbook formulas)', () => {
@@ -16,10 +21,22 @@ describe('polygon helpers', () => {
 
   it('tells a simple ring from a bow-tie', () => {
     expect(isSimple(square)).toBe(true);
-    const bowTie = [{ x: 0, y: 0 }, { x: 10, y: 10 }, { x: 10, y: 0 }, { x: 0, y: 10 }];
+    const bowTie = [
+      { x: 0, y: 0 },
+      { x: 10, y: 10 },
+      { x: 10, y: 0 },
+      { x: 0, y: 10 },
+    ];
     expect(isSimple(bowTie)).toBe(false);
     // A ring that touches itself at one vertex is not simple either.
-    const touching = [{ x: 0, y: 0 }, { x: 4, y: 0 }, { x: 2, y: 2 }, { x: 4, y: 4 }, { x: 0, y: 4 }, { x: 2, y: 2 }];
+    const touching = [
+      { x: 0, y: 0 },
+      { x: 4, y: 0 },
+      { x: 2, y: 2 },
+      { x: 4, y: 4 },
+      { x: 0, y: 4 },
+      { x: 2, y: 2 },
+    ];
     expect(isSimple(touching)).toBe(false);
   });
 

@@ -25,7 +25,10 @@ export function perimeter(ring: Ring): number {
 }
 
 export function boundingBox(ring: Ring): Box {
-  let minX = Infinity, minY = Infinity, maxX = -Infinity, maxY = -Infinity;
+  let minX = Infinity,
+    minY = Infinity,
+    maxX = -Infinity,
+    maxY = -Infinity;
   for (const p of ring) {
     if (p.x < minX) minX = p.x;
     if (p.y < minY) minY = p.y;
@@ -47,8 +50,10 @@ function orientation(a: Point, b: Point, c: Point): number {
 
 function onSegment(a: Point, b: Point, p: Point): boolean {
   return (
-    Math.min(a.x, b.x) - 1e-12 <= p.x && p.x <= Math.max(a.x, b.x) + 1e-12 &&
-    Math.min(a.y, b.y) - 1e-12 <= p.y && p.y <= Math.max(a.y, b.y) + 1e-12
+    Math.min(a.x, b.x) - 1e-12 <= p.x &&
+    p.x <= Math.max(a.x, b.x) + 1e-12 &&
+    Math.min(a.y, b.y) - 1e-12 <= p.y &&
+    p.y <= Math.max(a.y, b.y) + 1e-12
   );
 }
 
@@ -56,16 +61,23 @@ export function segmentsIntersect(a: Point, b: Point, c: Point, d: Point): boole
   // Disjoint boxes never meet; this also keeps nearly collinear, far-apart edges from being
   // misjudged by rounding in the orientation tests.
   if (
-    Math.max(a.x, b.x) < Math.min(c.x, d.x) - 1e-12 || Math.max(c.x, d.x) < Math.min(a.x, b.x) - 1e-12 ||
-    Math.max(a.y, b.y) < Math.min(c.y, d.y) - 1e-12 || Math.max(c.y, d.y) < Math.min(a.y, b.y) - 1e-12
+    Math.max(a.x, b.x) < Math.min(c.x, d.x) - 1e-12 ||
+    Math.max(c.x, d.x) < Math.min(a.x, b.x) - 1e-12 ||
+    Math.max(a.y, b.y) < Math.min(c.y, d.y) - 1e-12 ||
+    Math.max(c.y, d.y) < Math.min(a.y, b.y) - 1e-12
   ) {
     return false;
   }
-  const o1 = orientation(a, b, c), o2 = orientation(a, b, d), o3 = orientation(c, d, a), o4 = orientation(c, d, b);
+  const o1 = orientation(a, b, c),
+    o2 = orientation(a, b, d),
+    o3 = orientation(c, d, a),
+    o4 = orientation(c, d, b);
   if (o1 !== o2 && o3 !== o4) return true;
   return (
-    (o1 === 0 && onSegment(a, b, c)) || (o2 === 0 && onSegment(a, b, d)) ||
-    (o3 === 0 && onSegment(c, d, a)) || (o4 === 0 && onSegment(c, d, b))
+    (o1 === 0 && onSegment(a, b, c)) ||
+    (o2 === 0 && onSegment(a, b, d)) ||
+    (o3 === 0 && onSegment(c, d, a)) ||
+    (o4 === 0 && onSegment(c, d, b))
   );
 }
 
@@ -78,13 +90,17 @@ export function isSimple(ring: Ring): boolean {
   if (n < 3) return false;
   const box = boundingBox(ring);
   const cells = Math.max(1, Math.ceil(Math.sqrt(n)));
-  const cw = box.width / cells || 1, ch = box.height / cells || 1;
+  const cw = box.width / cells || 1,
+    ch = box.height / cells || 1;
   const grid = new Map<number, number[]>();
   const cell = (v: number, min: number, size: number) => Math.min(cells - 1, Math.max(0, Math.floor((v - min) / size)));
   for (let i = 0; i < n; i++) {
-    const a = ring[i], b = ring[(i + 1) % n];
-    const x0 = cell(Math.min(a.x, b.x), box.x, cw), x1 = cell(Math.max(a.x, b.x), box.x, cw);
-    const y0 = cell(Math.min(a.y, b.y), box.y, ch), y1 = cell(Math.max(a.y, b.y), box.y, ch);
+    const a = ring[i],
+      b = ring[(i + 1) % n];
+    const x0 = cell(Math.min(a.x, b.x), box.x, cw),
+      x1 = cell(Math.max(a.x, b.x), box.x, cw);
+    const y0 = cell(Math.min(a.y, b.y), box.y, ch),
+      y1 = cell(Math.max(a.y, b.y), box.y, ch);
     for (let gx = x0; gx <= x1; gx++) {
       for (let gy = y0; gy <= y1; gy++) {
         const key = gy * cells + gx;
@@ -98,7 +114,8 @@ export function isSimple(ring: Ring): boolean {
   for (const list of grid.values()) {
     for (let s = 0; s < list.length; s++) {
       for (let t = s + 1; t < list.length; t++) {
-        const i = Math.min(list[s], list[t]), j = Math.max(list[s], list[t]);
+        const i = Math.min(list[s], list[t]),
+          j = Math.max(list[s], list[t]);
         if (j - i <= 1 || (i === 0 && j === n - 1)) continue; // neighbours share a vertex
         const key = i * n + j;
         if (checked.has(key)) continue;

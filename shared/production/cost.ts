@@ -40,7 +40,16 @@ export type CostInputs = {
   markupPercent: number;
 };
 
-export type CostBreakdown = { stock: number; ink: number; blade: number; labour: number; sheet: number; perSticker: number | null; suggestedSheet: number; suggestedSticker: number | null };
+export type CostBreakdown = {
+  stock: number;
+  ink: number;
+  blade: number;
+  labour: number;
+  sheet: number;
+  perSticker: number | null;
+  suggestedSheet: number;
+  suggestedSticker: number | null;
+};
 
 /** Cost of one printed and cut sheet, per sticker, and a price at the maker's markup. */
 export function sheetCost(i: CostInputs): CostBreakdown {
@@ -51,7 +60,16 @@ export function sheetCost(i: CostInputs): CostBreakdown {
   const sheet = stock + ink + blade + labour;
   const factor = 1 + i.markupPercent / 100;
   const perSticker = i.pieces > 0 ? sheet / i.pieces : null;
-  return { stock, ink, blade, labour, sheet, perSticker, suggestedSheet: sheet * factor, suggestedSticker: perSticker === null ? null : perSticker * factor };
+  return {
+    stock,
+    ink,
+    blade,
+    labour,
+    sheet,
+    perSticker,
+    suggestedSheet: sheet * factor,
+    suggestedSticker: perSticker === null ? null : perSticker * factor,
+  };
 }
 
 export const formatMoney = (value: number, currency: string) => `${currency}${value.toFixed(2)}`;

@@ -8,11 +8,16 @@
 export type Coverage = { c: number; m: number; y: number; k: number; total: number };
 
 export function inkCoverage(rgba: Uint8Array | Buffer, pixels: number): Coverage {
-  let c = 0, m = 0, y = 0, k = 0;
+  let c = 0,
+    m = 0,
+    y = 0,
+    k = 0;
   for (let i = 0; i < pixels; i++) {
     const a = rgba[i * 4 + 3] / 255;
     if (a === 0) continue;
-    const pc = (a * (255 - rgba[i * 4])) / 255, pm = (a * (255 - rgba[i * 4 + 1])) / 255, py = (a * (255 - rgba[i * 4 + 2])) / 255;
+    const pc = (a * (255 - rgba[i * 4])) / 255,
+      pm = (a * (255 - rgba[i * 4 + 1])) / 255,
+      py = (a * (255 - rgba[i * 4 + 2])) / 255;
     const pk = Math.min(pc, pm, py);
     c += pc - pk;
     m += pm - pk;

@@ -10,7 +10,12 @@ const outline = z.object({
   widthMm: z.number().positive().max(2000),
   heightMm: z.number().positive().max(2000),
 });
-const rotate = z.union([z.literal('none'), z.literal('90'), z.object({ step: z.number().min(1).max(180) }), z.object({ set: z.array(z.number().min(-360).max(360)).max(72) })]);
+const rotate = z.union([
+  z.literal('none'),
+  z.literal('90'),
+  z.object({ step: z.number().min(1).max(180) }),
+  z.object({ set: z.array(z.number().min(-360).max(360)).max(72) }),
+]);
 const key = z.string().min(1).max(400);
 
 export const MAX_ARRANGE_SECONDS = 300;
@@ -36,11 +41,23 @@ export const arrangeRunSchema = z.object({
     margin: z.number().min(0).max(200),
     rotate: rotate.default('90'),
     fill: z.boolean().default(false),
-    timeMs: z.number().int().min(100).max(MAX_ARRANGE_SECONDS * 1000, `At most ${MAX_ARRANGE_SECONDS} s on the server`),
-    seed: z.number().int().min(0).max(2 ** 31).default(1),
+    timeMs: z
+      .number()
+      .int()
+      .min(100)
+      .max(MAX_ARRANGE_SECONDS * 1000, `At most ${MAX_ARRANGE_SECONDS} s on the server`),
+    seed: z
+      .number()
+      .int()
+      .min(0)
+      .max(2 ** 31)
+      .default(1),
     maxSheets: z.number().int().min(1).max(50).default(20),
   }),
-  locked: z.array(z.object({ key, x: z.number().finite(), y: z.number().finite(), rotation: z.number().min(-360).max(360), outline })).max(500).default([]),
+  locked: z
+    .array(z.object({ key, x: z.number().finite(), y: z.number().finite(), rotation: z.number().min(-360).max(360), outline }))
+    .max(500)
+    .default([]),
 });
 export type ArrangeRunInput = z.infer<typeof arrangeRunSchema>;
 

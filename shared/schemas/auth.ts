@@ -17,11 +17,7 @@ export const passwordSchema = z
   .min(10, 'Use at least 10 characters')
   .refine((value) => new TextEncoder().encode(value).length <= 72, 'Use at most 72 bytes (bcrypt ignores the rest)');
 
-export const nameSchema = z
-  .string({ error: 'Enter your name' })
-  .trim()
-  .min(1, 'Enter your name')
-  .max(80, 'Use at most 80 characters');
+export const nameSchema = z.string({ error: 'Enter your name' }).trim().min(1, 'Enter your name').max(80, 'Use at most 80 characters');
 
 export const signInSchema = z.object({
   email: emailSchema,

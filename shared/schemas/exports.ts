@@ -5,11 +5,20 @@ export const exportRequestSchema = z.object({
   dpi: z.coerce.number({ error: 'Choose a resolution' }).int().min(150, 'At least 150 DPI').max(600, 'At most 600 DPI').default(300),
   background: z.enum(['transparent', 'white']).default('transparent'),
   bleedMm: z.coerce.number().min(0).max(5, 'At most 5 mm of bleed').default(0),
-  formats: z.array(z.enum(['png', 'svg', 'combined', 'pdf', 'dxf'])).min(1, 'Pick at least one format').default(['png', 'svg', 'combined', 'pdf', 'dxf']),
+  formats: z
+    .array(z.enum(['png', 'svg', 'combined', 'pdf', 'dxf']))
+    .min(1, 'Pick at least one format')
+    .default(['png', 'svg', 'combined', 'pdf', 'dxf']),
   dxfUnit: z.enum(['mm', 'in']).default('mm'),
-  sheetCut: z.object({ marginMm: z.number().min(0).max(50), radiusMm: z.number().min(0).max(50) }).nullable().default(null),
+  sheetCut: z
+    .object({ marginMm: z.number().min(0).max(50), radiusMm: z.number().min(0).max(50) })
+    .nullable()
+    .default(null),
   /** The PDF cut layer's spot colour; without it the sheet profile's. */
-  spotColour: z.string().regex(/^[A-Za-z0-9_-]{1,40}$/, 'Cut layer colour name: letters, digits, - and _ only').optional(),
+  spotColour: z
+    .string()
+    .regex(/^[A-Za-z0-9_-]{1,40}$/, 'Cut layer colour name: letters, digits, - and _ only')
+    .optional(),
   /** Put the profile's registration marks in the cut files too (they always print when the profile has them). */
   marksInCutFile: z.boolean().default(false),
   /** The summary as extra PDF pages; off by default (it is always a file of its own). */

@@ -16,7 +16,13 @@ export const licenceSchema = z
     kind: z.enum(LICENCE_KINDS, { error: 'Pick a licence kind' }),
     source: z.string().trim().max(300, 'Use at most 300 characters').optional().default(''),
     notes: z.string().trim().max(4000, 'Use at most 4000 characters').optional().default(''),
-    unitLimit: z.coerce.number({ error: 'Units allowed: give a whole number, like 500' }).int('Units allowed: a whole number, like 500').min(1, 'Units allowed: at least 1').max(10_000_000, 'Units allowed: at most 10,000,000').nullable().optional(),
+    unitLimit: z.coerce
+      .number({ error: 'Units allowed: give a whole number, like 500' })
+      .int('Units allowed: a whole number, like 500')
+      .min(1, 'Units allowed: at least 1')
+      .max(10_000_000, 'Units allowed: at most 10,000,000')
+      .nullable()
+      .optional(),
   })
   .refine((l) => l.kind !== 'commercial_limited' || (l.unitLimit ?? null) !== null, {
     message: 'Give the number of units the licence allows',
@@ -53,8 +59,17 @@ export type ArtListQuery = z.infer<typeof artListQuerySchema>;
 export const backgroundSettingSchema = z
   .object({
     mode: z.enum(['auto', 'keep', 'colour']),
-    colour: z.string().regex(/^#[0-9a-f]{6}$/i, 'Give a colour like #ffffff').nullable().optional(),
-    tolerance: z.coerce.number({ error: 'Give the tolerance as a number from 0 to 255' }).int().min(0, 'The tolerance is at least 0').max(255, 'The tolerance is at most 255').optional(),
+    colour: z
+      .string()
+      .regex(/^#[0-9a-f]{6}$/i, 'Give a colour like #ffffff')
+      .nullable()
+      .optional(),
+    tolerance: z.coerce
+      .number({ error: 'Give the tolerance as a number from 0 to 255' })
+      .int()
+      .min(0, 'The tolerance is at least 0')
+      .max(255, 'The tolerance is at most 255')
+      .optional(),
   })
   .refine((b) => b.mode !== 'colour' || Boolean(b.colour), { message: 'Pick the colour to remove', path: ['colour'] })
   .transform((b) => ({ ...b, tolerance: b.tolerance ?? (b.mode === 'colour' ? DEFAULT_TOLERANCE.colour : DEFAULT_TOLERANCE.auto) }));
@@ -72,8 +87,16 @@ export const artUpdateSchema = z.object({
 export type ArtUpdateInput = z.infer<typeof artUpdateSchema>;
 
 export const bulkActionSchema = z.discriminatedUnion('action', [
-  z.object({ action: z.literal('addKeyword'), ids: z.array(idSchema).min(1).max(500), keyword: z.string().trim().min(1, 'Type a keyword').max(60) }),
-  z.object({ action: z.literal('removeKeyword'), ids: z.array(idSchema).min(1).max(500), keyword: z.string().trim().min(1, 'Type a keyword').max(60) }),
+  z.object({
+    action: z.literal('addKeyword'),
+    ids: z.array(idSchema).min(1).max(500),
+    keyword: z.string().trim().min(1, 'Type a keyword').max(60),
+  }),
+  z.object({
+    action: z.literal('removeKeyword'),
+    ids: z.array(idSchema).min(1).max(500),
+    keyword: z.string().trim().min(1, 'Type a keyword').max(60),
+  }),
   z.object({ action: z.literal('move'), ids: z.array(idSchema).min(1).max(500), collectionId: idSchema.nullable() }),
   z.object({ action: z.literal('delete'), ids: z.array(idSchema).min(1).max(500), confirm: z.boolean().optional() }),
 ]);

@@ -14,7 +14,9 @@ import * as team from './team';
 const RAW = /invalid input|expected|received|nan\b|too (big|small)|invalid option|invalid string|<=|>=/i;
 const WRONG = ['abc', '', '12abc', -1e12, 1e12, 1.5, {}, []];
 
-const objects = Object.entries({ ...auth, ...exportsSchemas, ...library, ...outline, ...sheets, ...shop, ...team }).filter(([, value]) => value instanceof z.ZodObject) as Array<[string, z.ZodObject]>;
+const objects = Object.entries({ ...auth, ...exportsSchemas, ...library, ...outline, ...sheets, ...shop, ...team }).filter(
+  ([, value]) => value instanceof z.ZodObject,
+) as Array<[string, z.ZodObject]>;
 
 describe('form schemas refuse in a maker’s words', () => {
   it('finds the schemas to check', () => {
@@ -28,7 +30,8 @@ describe('form schemas refuse in a maker’s words', () => {
         for (const value of WRONG) {
           const parsed = (field as z.ZodType).safeParse(value);
           if (parsed.success) continue;
-          for (const issue of parsed.error.issues) if (RAW.test(issue.message)) raw.push(`${key} = ${JSON.stringify(value)}: ${issue.message}`);
+          for (const issue of parsed.error.issues)
+            if (RAW.test(issue.message)) raw.push(`${key} = ${JSON.stringify(value)}: ${issue.message}`);
         }
       }
       expect([...new Set(raw)]).toEqual([]);

@@ -133,7 +133,11 @@ export type OutlineData<P extends OutlinePieceData = OutlinePieceData> = {
 };
 
 /** What `GET /api/teams/:team/art/:art/outline` answers: the outline, and where each piece's PNG is. */
-export type OutlineResponse = OutlineData<OutlinePieceData & { index: number; pngUrl: string }> & { key: string; cached: boolean; artId: string };
+export type OutlineResponse = OutlineData<OutlinePieceData & { index: number; pngUrl: string }> & {
+  key: string;
+  cached: boolean;
+  artId: string;
+};
 
 const HEX = /^#?[0-9a-fA-F]{6}$/;
 
@@ -152,6 +156,10 @@ export const outlineQuerySchema = z.preprocess((raw) => {
 /** The removal preview's query: the background as the outline query gives it (auto, keep or a colour) and its tolerance. */
 export const removalPreviewQuerySchema = z.object({
   background: z.union([z.enum(['auto', 'keep']), z.string().regex(HEX, 'Give a colour like #ffffff')]).default('auto'),
-  backgroundTolerance: z.coerce.number({ error: 'Give the tolerance as a number from 0 to 255' }).min(0, 'The tolerance is at least 0').max(255, 'The tolerance is at most 255').optional(),
+  backgroundTolerance: z.coerce
+    .number({ error: 'Give the tolerance as a number from 0 to 255' })
+    .min(0, 'The tolerance is at least 0')
+    .max(255, 'The tolerance is at most 255')
+    .optional(),
 });
 export type RemovalPreviewQuery = z.output<typeof removalPreviewQuerySchema>;

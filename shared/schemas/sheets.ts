@@ -3,15 +3,27 @@ import './messages';
 import { sheetDocumentSchema } from '../sheet/document';
 import { idSchema } from './team';
 
-export const PAPER_SIZES = { letter: { width: 215.9, height: 279.4, label: 'US Letter (8.5 × 11 in)' }, a4: { width: 210, height: 297, label: 'A4 (210 × 297 mm)' } } as const;
+export const PAPER_SIZES = {
+  letter: { width: 215.9, height: 279.4, label: 'US Letter (8.5 × 11 in)' },
+  a4: { width: 210, height: 297, label: 'A4 (210 × 297 mm)' },
+} as const;
 export type PaperKind = keyof typeof PAPER_SIZES | 'custom';
 
-const mm = (label: string, min = 0, max = 2000) => z.coerce.number({ error: `${label}: give a number of millimetres` }).min(min, `${label}: at least ${min} mm`).max(max, `${label}: at most ${max} mm`);
+const mm = (label: string, min = 0, max = 2000) =>
+  z.coerce
+    .number({ error: `${label}: give a number of millimetres` })
+    .min(min, `${label}: at least ${min} mm`)
+    .max(max, `${label}: at most ${max} mm`);
 
 /** Registration mark shapes: three corners of the print area get one each (the fourth stays empty, so the sheet's turn can be read). */
 export const REG_MARK_SHAPES = ['none', 'square', 'dot', 'bracket'] as const;
 export type RegMarkShape = (typeof REG_MARK_SHAPES)[number];
-export const REG_MARK_LABELS: Record<RegMarkShape, string> = { none: 'None (the cutter software adds its own)', square: 'Filled squares', dot: 'Filled dots', bracket: 'Corner brackets' };
+export const REG_MARK_LABELS: Record<RegMarkShape, string> = {
+  none: 'None (the cutter software adds its own)',
+  square: 'Filled squares',
+  dot: 'Filled dots',
+  bracket: 'Corner brackets',
+};
 
 /** A sheet profile: paper, the cutter's print area placed on it, safe margin and minimum gap (mm). */
 export const profileInputSchema = z
@@ -29,7 +41,12 @@ export const profileInputSchema = z
     smallestStickerMm: mm('Smallest sticker', 1, 200).optional().default(12.7),
     minFeatureMm: mm('Smallest cuttable feature', 0.1, 20).optional().default(1),
     bridgeWidthMm: mm('Bridge width', 0.5, 20).optional().default(3),
-    spotColour: z.string().trim().regex(/^[A-Za-z0-9_-]{1,40}$/, 'Cut layer colour name: letters, digits, - and _ only').optional().default('CutContour'),
+    spotColour: z
+      .string()
+      .trim()
+      .regex(/^[A-Za-z0-9_-]{1,40}$/, 'Cut layer colour name: letters, digits, - and _ only')
+      .optional()
+      .default('CutContour'),
     regMarkShape: z.enum(REG_MARK_SHAPES, { error: 'Choose a registration mark shape' }).optional().default('none'),
     regMarkSizeMm: mm('Registration mark size', 1, 25).optional().default(5),
     regMarkOffsetMm: mm('Registration mark offset', 0, 25).optional().default(5),
@@ -42,27 +59,54 @@ export const profileInputSchema = z
     }
     const x = p.areaXMm ?? (paper.width - p.areaWidthMm) / 2;
     const y = p.areaYMm ?? (paper.height - p.areaHeightMm) / 2;
-    if (x < 0 || x + p.areaWidthMm > paper.width + 1e-6) ctx.addIssue({ code: 'custom', message: 'The print area does not fit across the paper', path: ['areaWidthMm'] });
-    if (y < 0 || y + p.areaHeightMm > paper.height + 1e-6) ctx.addIssue({ code: 'custom', message: 'The print area does not fit down the paper', path: ['areaHeightMm'] });
-    if (2 * p.safeMarginMm >= Math.min(p.areaWidthMm, p.areaHeightMm)) ctx.addIssue({ code: 'custom', message: 'The safe margin leaves no room on the print area', path: ['safeMarginMm'] });
-    if (p.bridgeWidthMm < p.minFeatureMm) ctx.addIssue({ code: 'custom', message: 'The bridge width cannot be below the smallest cuttable feature', path: ['bridgeWidthMm'] });
+    if (x < 0 || x + p.areaWidthMm > paper.width + 1e-6)
+      ctx.addIssue({ code: 'custom', message: 'The print area does not fit across the paper', path: ['areaWidthMm'] });
+    if (y < 0 || y + p.areaHeightMm > paper.height + 1e-6)
+      ctx.addIssue({ code: 'custom', message: 'The print area does not fit down the paper', path: ['areaHeightMm'] });
+    if (2 * p.safeMarginMm >= Math.min(p.areaWidthMm, p.areaHeightMm))
+      ctx.addIssue({ code: 'custom', message: 'The safe margin leaves no room on the print area', path: ['safeMarginMm'] });
+    if (p.bridgeWidthMm < p.minFeatureMm)
+      ctx.addIssue({ code: 'custom', message: 'The bridge width cannot be below the smallest cuttable feature', path: ['bridgeWidthMm'] });
     if (p.regMarkShape !== 'none') {
       // Marks sit outside the print area's corners and must land on the paper.
       const reach = p.regMarkOffsetMm + p.regMarkSizeMm;
       const room = Math.min(x, y, paper.width - x - p.areaWidthMm, paper.height - y - p.areaHeightMm);
-      if (reach > room + 1e-6) ctx.addIssue({ code: 'custom', message: `The registration marks need ${Number(reach.toFixed(2))} mm of paper around the print area; there is ${Number(Math.max(0, room).toFixed(2))} mm. Use smaller marks, a smaller offset or a smaller print area.`, path: ['regMarkOffsetMm'] });
+      if (reach > room + 1e-6)
+        ctx.addIssue({
+          code: 'custom',
+          message: `The registration marks need ${Number(reach.toFixed(2))} mm of paper around the print area; there is ${Number(Math.max(0, room).toFixed(2))} mm. Use smaller marks, a smaller offset or a smaller print area.`,
+          path: ['regMarkOffsetMm'],
+        });
     }
     return {
-      name: p.name, paper: p.paper, paperWidthMm: paper.width, paperHeightMm: paper.height, areaWidthMm: p.areaWidthMm, areaHeightMm: p.areaHeightMm, areaXMm: x, areaYMm: y,
-      safeMarginMm: p.safeMarginMm, minGapMm: p.minGapMm, smallestStickerMm: p.smallestStickerMm, minFeatureMm: p.minFeatureMm,
-      bridgeWidthMm: p.bridgeWidthMm, spotColour: p.spotColour, regMarkShape: p.regMarkShape, regMarkSizeMm: p.regMarkSizeMm, regMarkOffsetMm: p.regMarkOffsetMm,
+      name: p.name,
+      paper: p.paper,
+      paperWidthMm: paper.width,
+      paperHeightMm: paper.height,
+      areaWidthMm: p.areaWidthMm,
+      areaHeightMm: p.areaHeightMm,
+      areaXMm: x,
+      areaYMm: y,
+      safeMarginMm: p.safeMarginMm,
+      minGapMm: p.minGapMm,
+      smallestStickerMm: p.smallestStickerMm,
+      minFeatureMm: p.minFeatureMm,
+      bridgeWidthMm: p.bridgeWidthMm,
+      spotColour: p.spotColour,
+      regMarkShape: p.regMarkShape,
+      regMarkSizeMm: p.regMarkSizeMm,
+      regMarkOffsetMm: p.regMarkOffsetMm,
     };
   });
 export type ProfileInput = z.output<typeof profileInputSchema>;
 export type ProfileView = ProfileInput & { id: string; isDefault: boolean };
 
 export const SHEET_STATUSES = ['draft', 'ready', 'printed'] as const;
-export const SHEET_STATUS_LABELS: Record<(typeof SHEET_STATUSES)[number], string> = { draft: 'Draft', ready: 'Ready to print', printed: 'Printed' };
+export const SHEET_STATUS_LABELS: Record<(typeof SHEET_STATUSES)[number], string> = {
+  draft: 'Draft',
+  ready: 'Ready to print',
+  printed: 'Printed',
+};
 
 export const sheetCreateSchema = z.object({
   name: z.string().trim().min(1, 'Name the sheet').max(120, 'Use at most 120 characters'),
@@ -81,11 +125,18 @@ export const sheetSaveSchema = z.object({
   notes: z.string().max(4000).optional(),
   document: sheetDocumentSchema.optional(),
   areaUsed: z.number().min(0).max(1).optional(),
-  thumbnail: z.string().regex(/^data:image\/png;base64,[A-Za-z0-9+/=]+$/, 'Not a PNG data URL').max(400_000).optional(),
+  thumbnail: z
+    .string()
+    .regex(/^data:image\/png;base64,[A-Za-z0-9+/=]+$/, 'Not a PNG data URL')
+    .max(400_000)
+    .optional(),
 });
 export type SheetSaveInput = z.infer<typeof sheetSaveSchema>;
 
-export const sheetDuplicateSchema = z.object({ name: z.string().trim().min(1).max(120).optional(), asTemplate: z.boolean().optional().default(false) });
+export const sheetDuplicateSchema = z.object({
+  name: z.string().trim().min(1).max(120).optional(),
+  asTemplate: z.boolean().optional().default(false),
+});
 
 export const sheetListQuerySchema = z.object({
   q: z.string().trim().max(120).optional().default(''),

@@ -6,7 +6,11 @@ import type { Finding } from '../sheet/preflight';
 import { PAPER_SIZES } from './sheets';
 import { idSchema } from './team';
 
-const money = (label: string, max = 100_000) => z.coerce.number({ error: `${label}: give an amount` }).min(0, `${label}: not below 0`).max(max, `${label}: at most ${max}`);
+const money = (label: string, max = 100_000) =>
+  z.coerce
+    .number({ error: `${label}: give an amount` })
+    .min(0, `${label}: not below 0`)
+    .max(max, `${label}: at most ${max}`);
 const text = (max: number) => z.string().trim().max(max, `Use at most ${max} characters`);
 const day = z.string().regex(/^\d{4}-\d{2}-\d{2}$/, 'Give a date like 2026-03-14');
 
@@ -18,7 +22,13 @@ export const shopSettingsSchema = z.object({
 export type ShopSettings = z.infer<typeof shopSettingsSchema>;
 
 export const STOCK_FINISHES = ['glossy', 'matte', 'clear', 'vinyl', 'other'] as const;
-export const FINISH_LABELS: Record<(typeof STOCK_FINISHES)[number], string> = { glossy: 'Glossy', matte: 'Matte', clear: 'Clear', vinyl: 'Vinyl', other: 'Other' };
+export const FINISH_LABELS: Record<(typeof STOCK_FINISHES)[number], string> = {
+  glossy: 'Glossy',
+  matte: 'Matte',
+  clear: 'Clear',
+  vinyl: 'Vinyl',
+  other: 'Other',
+};
 
 /** What the printer was set to when the stock printed well; free text, in the maker's words. */
 export const printerSettingsSchema = z.object({
@@ -43,9 +53,17 @@ export const stockInputSchema = z
     finish: z.enum(STOCK_FINISHES, { error: 'Pick a finish' }),
     paper: z.enum(['letter', 'a4', 'custom']),
     paperWidthMm: z.coerce.number().min(20, 'Paper width: at least 20 mm (0.79 in)').max(2000, 'Paper width: at most 2000 mm').optional(),
-    paperHeightMm: z.coerce.number().min(20, 'Paper height: at least 20 mm (0.79 in)').max(2000, 'Paper height: at most 2000 mm').optional(),
+    paperHeightMm: z.coerce
+      .number()
+      .min(20, 'Paper height: at least 20 mm (0.79 in)')
+      .max(2000, 'Paper height: at most 2000 mm')
+      .optional(),
     packPrice: money('Pack price'),
-    sheetsPerPack: z.coerce.number({ error: 'Sheets per pack: give a number' }).int('Sheets per pack: a whole number').min(1, 'At least 1 sheet per pack').max(100_000),
+    sheetsPerPack: z.coerce
+      .number({ error: 'Sheets per pack: give a number' })
+      .int('Sheets per pack: a whole number')
+      .min(1, 'At least 1 sheet per pack')
+      .max(100_000),
     onHand: z.coerce.number().int('Sheets on hand: a whole number').min(0, 'Sheets on hand: not below 0').max(1_000_000).default(0),
     printerSettings: printerSettingsSchema.default({ paperSetting: '', quality: '', colour: '', other: '' }),
     cutterSettings: cutterSettingsSchema.default({ material: '', pressure: '', passes: 1, blade: '' }),
@@ -66,11 +84,22 @@ export type StockInput = z.output<typeof stockInputSchema>;
 
 /** A count of sheets on hand: a delivery (+), a count correction or sheets used outside a run. */
 export const stockAdjustSchema = z.object({
-  change: z.coerce.number().int('A whole number of sheets').min(-100_000).max(100_000).refine((n) => n !== 0, 'Give a change other than 0'),
+  change: z.coerce
+    .number()
+    .int('A whole number of sheets')
+    .min(-100_000)
+    .max(100_000)
+    .refine((n) => n !== 0, 'Give a change other than 0'),
   confirmNegative: z.boolean().default(false),
 });
 
-export type StockView = Omit<StockInput, 'paperWidthMm' | 'paperHeightMm'> & { id: string; paperWidthMm: number; paperHeightMm: number; costPerSheet: number; archived: boolean };
+export type StockView = Omit<StockInput, 'paperWidthMm' | 'paperHeightMm'> & {
+  id: string;
+  paperWidthMm: number;
+  paperHeightMm: number;
+  costPerSheet: number;
+  archived: boolean;
+};
 
 export const machineInputSchema = z
   .object({
@@ -80,7 +109,10 @@ export const machineInputSchema = z
     /** Printers: ink for one fully covered page, from the cartridge price and rated yield. */
     inkFullPage: money('Ink for a fully covered page', 1000).nullable().default(null),
   })
-  .refine((m) => m.kind === 'cutter' || m.inkFullPage !== null, { message: 'Give what ink for a fully covered page costs', path: ['inkFullPage'] });
+  .refine((m) => m.kind === 'cutter' || m.inkFullPage !== null, {
+    message: 'Give what ink for a fully covered page costs',
+    path: ['inkFullPage'],
+  });
 
 export const bladeFitSchema = z.object({
   label: text(120).min(1, 'Name the blade (type, holder, where it was bought)'),
@@ -93,17 +125,49 @@ export type BladeFit = z.infer<typeof bladeFitSchema>;
 
 /** Near its replacement length at 90 % (a margin of our own choosing), due at 100 %. */
 export const BLADE_NEAR_SHARE = 0.9;
-export type BladeView = { id: string; label: string; fittedOn: string; removedOn: string | null; cutLengthM: number; lifeM: number; price: number; note: string; wear: 'ok' | 'near' | 'due' };
-export type MachineView = { id: string; kind: 'printer' | 'cutter'; name: string; notes: string; inkFullPage: number | null; blade: BladeView | null; blades: BladeView[] };
+export type BladeView = {
+  id: string;
+  label: string;
+  fittedOn: string;
+  removedOn: string | null;
+  cutLengthM: number;
+  lifeM: number;
+  price: number;
+  note: string;
+  wear: 'ok' | 'near' | 'due';
+};
+export type MachineView = {
+  id: string;
+  kind: 'printer' | 'cutter';
+  name: string;
+  notes: string;
+  inkFullPage: number | null;
+  blade: BladeView | null;
+  blades: BladeView[];
+};
 
 export const RUN_RESULTS = ['good', 'misaligned', 'tore', 'other'] as const;
-export const RUN_RESULT_LABELS: Record<(typeof RUN_RESULTS)[number], string> = { good: 'Good', misaligned: 'Misaligned', tore: 'Tore', other: 'Other problem' };
+export const RUN_RESULT_LABELS: Record<(typeof RUN_RESULTS)[number], string> = {
+  good: 'Good',
+  misaligned: 'Misaligned',
+  tore: 'Tore',
+  other: 'Other problem',
+};
 
 export const printRunInputSchema = z
   .object({
     sheetId: z.string({ error: 'Choose the sheet you printed' }).regex(/^\d{1,18}$/, 'Choose the sheet you printed'),
-    copies: z.coerce.number({ error: 'Copies: give a number' }).int('Copies: a whole number').min(1, 'At least 1 copy').max(1000, 'At most 1000 copies'),
-    wasted: z.coerce.number({ error: 'Wasted: give a number of sheets' }).int('Wasted: a whole number of sheets').min(0, 'Wasted: not below 0').max(1000, 'Wasted: at most 1000 sheets').optional(),
+    copies: z.coerce
+      .number({ error: 'Copies: give a number' })
+      .int('Copies: a whole number')
+      .min(1, 'At least 1 copy')
+      .max(1000, 'At most 1000 copies'),
+    wasted: z.coerce
+      .number({ error: 'Wasted: give a number of sheets' })
+      .int('Wasted: a whole number of sheets')
+      .min(0, 'Wasted: not below 0')
+      .max(1000, 'Wasted: at most 1000 sheets')
+      .optional(),
     stockId: z.string({ error: 'Choose the stock you printed on' }).regex(/^\d{1,18}$/, 'Choose the stock you printed on'),
     printerId: idSchema.nullable().default(null),
     cutterId: idSchema.nullable().default(null),
@@ -154,12 +218,26 @@ export const costingInputSchema = z.object({
 });
 
 /** What the server found on a sheet version: preflight findings and the figures cost is built from. */
-export type SheetAnalysis = { version: number; pieces: number; cutLengthMm: number; coverage: Coverage; printAreaShare: number; findings: Finding[] };
+export type SheetAnalysis = {
+  version: number;
+  pieces: number;
+  cutLengthMm: number;
+  coverage: Coverage;
+  printAreaShare: number;
+  findings: Finding[];
+};
 
 export type SheetCostView = {
   analysis: SheetAnalysis;
   costing: z.infer<typeof costingInputSchema>;
-  inputs: { stock: { name: string; packPrice: number; sheetsPerPack: number; perSheet: number } | null; printer: { name: string; inkFullPage: number } | null; blade: { label: string; price: number; lifeM: number } | null; labourRatePerHour: number; markupPercent: number; currency: string };
+  inputs: {
+    stock: { name: string; packPrice: number; sheetsPerPack: number; perSheet: number } | null;
+    printer: { name: string; inkFullPage: number } | null;
+    blade: { label: string; price: number; lifeM: number } | null;
+    labourRatePerHour: number;
+    markupPercent: number;
+    currency: string;
+  };
   cost: CostBreakdown;
   missing: string[];
 };

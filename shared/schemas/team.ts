@@ -33,12 +33,8 @@ export const teamDetailSchema = z.object({
   name: z.string(),
   personal: z.boolean(),
   role: roleSchema,
-  members: z.array(
-    z.object({ userId: z.string(), name: z.string(), email: z.string(), role: roleSchema, joinedAt: z.string() }),
-  ),
-  invites: z.array(
-    z.object({ id: z.string(), email: z.string(), role: roleSchema, expiresAt: z.string(), createdAt: z.string() }),
-  ),
+  members: z.array(z.object({ userId: z.string(), name: z.string(), email: z.string(), role: roleSchema, joinedAt: z.string() })),
+  invites: z.array(z.object({ id: z.string(), email: z.string(), role: roleSchema, expiresAt: z.string(), createdAt: z.string() })),
 });
 export type TeamDetail = z.infer<typeof teamDetailSchema>;
 

@@ -15,7 +15,8 @@ export type BoundsField = 'x' | 'y' | 'width' | 'rotation';
 export type BoundsProblem = { index: number; pieceId: string; field: BoundsField; message: (unit: LengthUnit, name?: string) => string };
 
 /** The largest art width a piece with this border may have on this sheet. */
-export const maxArtWidthMm = (doc: Pick<SheetDocument, 'printArea'>, border: number) => Math.max(doc.printArea.width, doc.printArea.height) - 2 * border;
+export const maxArtWidthMm = (doc: Pick<SheetDocument, 'printArea'>, border: number) =>
+  Math.max(doc.printArea.width, doc.printArea.height) - 2 * border;
 
 /** Clamps a centre to the zone pieces may occupy (the area and one area-size beside it). */
 export function clampToZone(doc: Pick<SheetDocument, 'printArea'>, x: number, y: number) {
@@ -29,13 +30,32 @@ export function pieceProblems(doc: Pick<SheetDocument, 'printArea'>, piece: Piec
   const add = (field: BoundsField, message: BoundsProblem['message']) => problems.push({ index, pieceId: piece.id, field, message });
   const { width, height } = doc.printArea;
   const zone = clampToZone(doc, piece.x, piece.y);
-  if (zone.x !== piece.x) add('x', (unit, name) => `${label(name)} is far outside the print area: keep it within ${formatLength(width, unit)} of the area's left and right edges.`);
-  if (zone.y !== piece.y) add('y', (unit, name) => `${label(name)} is far outside the print area: keep it within ${formatLength(height, unit)} of the area's top and bottom edges.`);
+  if (zone.x !== piece.x)
+    add(
+      'x',
+      (unit, name) =>
+        `${label(name)} is far outside the print area: keep it within ${formatLength(width, unit)} of the area's left and right edges.`,
+    );
+  if (zone.y !== piece.y)
+    add(
+      'y',
+      (unit, name) =>
+        `${label(name)} is far outside the print area: keep it within ${formatLength(height, unit)} of the area's top and bottom edges.`,
+    );
   const longest = Math.max(width, height);
   if (piece.width > maxArtWidthMm(doc, piece.border) + 1e-6) {
-    add('width', (unit, name) => `${label(name)} is ${formatLength(piece.width, unit)} wide; with its border it must fit the print area, which is at most ${formatLength(longest, unit)} across.`);
+    add(
+      'width',
+      (unit, name) =>
+        `${label(name)} is ${formatLength(piece.width, unit)} wide; with its border it must fit the print area, which is at most ${formatLength(longest, unit)} across.`,
+    );
   }
-  if (Math.abs(piece.rotation) > MAX_ROTATION_DEG) add('rotation', (_unit, name) => `${label(name)} has a rotation of ${Math.round(piece.rotation)}°; use ${-MAX_ROTATION_DEG}° to ${MAX_ROTATION_DEG}°.`);
+  if (Math.abs(piece.rotation) > MAX_ROTATION_DEG)
+    add(
+      'rotation',
+      (_unit, name) =>
+        `${label(name)} has a rotation of ${Math.round(piece.rotation)}°; use ${-MAX_ROTATION_DEG}° to ${MAX_ROTATION_DEG}°.`,
+    );
   return problems;
 }
 

@@ -34,7 +34,10 @@ export function invertDiff(diff: Diff): Diff {
   };
 }
 
-const withMerge = (command: Command, field: string, ids: Iterable<string>): Command => ({ ...command, merge: `${field}:${[...ids].sort().join(',')}` });
+const withMerge = (command: Command, field: string, ids: Iterable<string>): Command => ({
+  ...command,
+  merge: `${field}:${[...ids].sort().join(',')}`,
+});
 
 /** Two update-only diffs as one: each piece from its first state to its last. */
 export function composeDiffs(first: Diff, second: Diff): Diff | null {
@@ -52,7 +55,13 @@ const byId = (doc: SheetDocument, ids: Iterable<string>) => {
   return doc.pieces.filter((p) => wanted.has(p.id));
 };
 
-function update(doc: SheetDocument, name: string, ids: Iterable<string>, change: (p: Piece) => Partial<Piece>, includeLocked = false): Command {
+function update(
+  doc: SheetDocument,
+  name: string,
+  ids: Iterable<string>,
+  change: (p: Piece) => Partial<Piece>,
+  includeLocked = false,
+): Command {
   const updates = byId(doc, ids)
     .filter((p) => includeLocked || !p.locked)
     .map((from) => ({ from, to: { ...from, ...change(from) } }))
@@ -73,14 +82,19 @@ export const commands = {
 
   duplicatePieces: (doc: SheetDocument, ids: Iterable<string>, offset: number): Command => ({
     name: 'Duplicate',
-    diff: { added: byId(doc, ids).map((p) => ({ ...p, id: newPieceId(), x: p.x + offset, y: p.y + offset, locked: false })), updated: [], removed: [] },
+    diff: {
+      added: byId(doc, ids).map((p) => ({ ...p, id: newPieceId(), x: p.x + offset, y: p.y + offset, locked: false })),
+      updated: [],
+      removed: [],
+    },
   }),
 
   movePieces: (doc: SheetDocument, ids: Iterable<string>, dx: number, dy: number): Command =>
     update(doc, 'Move', ids, (p) => ({ x: p.x + dx, y: p.y + dy })),
 
   /** Any per-piece changes as one named step (e.g. a transform that rotates and resizes). */
-  patchPieces: (doc: SheetDocument, name: string, patches: Map<string, Partial<Omit<Piece, 'id'>>>): Command => update(doc, name, patches.keys(), (p) => patches.get(p.id)!),
+  patchPieces: (doc: SheetDocument, name: string, patches: Map<string, Partial<Omit<Piece, 'id'>>>): Command =>
+    update(doc, name, patches.keys(), (p) => patches.get(p.id)!),
 
   /** Sets absolute positions (after a drag), one per piece. */
   placePieces: (doc: SheetDocument, positions: Map<string, { x: number; y: number; rotation?: number }>): Command =>
@@ -90,27 +104,41 @@ export const commands = {
     update(doc, 'Rotate', ids, (p) => ({ rotation: normaliseDegrees(p.rotation + by) })),
 
   setRotation: (doc: SheetDocument, ids: Iterable<string>, rotation: number): Command =>
-    withMerge(update(doc, 'Rotate', ids, () => ({ rotation: normaliseDegrees(rotation) })), 'rotation', ids),
+    withMerge(
+      update(doc, 'Rotate', ids, () => ({ rotation: normaliseDegrees(rotation) })),
+      'rotation',
+      ids,
+    ),
 
-  resizePieces: (doc: SheetDocument, ids: Iterable<string>, width: number): Command =>
-    update(doc, 'Resize', ids, () => ({ width })),
+  resizePieces: (doc: SheetDocument, ids: Iterable<string>, width: number): Command => update(doc, 'Resize', ids, () => ({ width })),
 
   /** The border's width only: each piece keeps its own colour. */
   setBorder: (doc: SheetDocument, ids: Iterable<string>, border: number): Command => update(doc, 'Border', ids, () => ({ border })),
 
   /** The border's colour only: each piece keeps its own width. */
   setBorderColour: (doc: SheetDocument, ids: Iterable<string>, borderColour: string): Command =>
-    withMerge(update(doc, 'Border colour', ids, () => ({ borderColour })), 'border-colour', ids),
+    withMerge(
+      update(doc, 'Border colour', ids, () => ({ borderColour })),
+      'border-colour',
+      ids,
+    ),
 
   setLocked: (doc: SheetDocument, ids: Iterable<string>, locked: boolean): Command =>
     update(doc, locked ? 'Lock' : 'Unlock', ids, () => ({ locked }), true),
 
   /** Align selected pieces' frames (given their current half sizes) to a common edge or centre. */
-  align: (doc: SheetDocument, ids: string[], edge: 'left' | 'centre' | 'right' | 'top' | 'middle' | 'bottom', halfSize: (p: Piece) => { w: number; h: number }): Command => {
+  align: (
+    doc: SheetDocument,
+    ids: string[],
+    edge: 'left' | 'centre' | 'right' | 'top' | 'middle' | 'bottom',
+    halfSize: (p: Piece) => { w: number; h: number },
+  ): Command => {
     const pieces = byId(doc, ids).filter((p) => !p.locked);
     if (pieces.length < 2) return { name: 'Align', diff: emptyDiff() };
-    const lefts = pieces.map((p) => p.x - halfSize(p).w), rights = pieces.map((p) => p.x + halfSize(p).w);
-    const tops = pieces.map((p) => p.y - halfSize(p).h), bottoms = pieces.map((p) => p.y + halfSize(p).h);
+    const lefts = pieces.map((p) => p.x - halfSize(p).w),
+      rights = pieces.map((p) => p.x + halfSize(p).w);
+    const tops = pieces.map((p) => p.y - halfSize(p).h),
+      bottoms = pieces.map((p) => p.y + halfSize(p).h);
     const target = {
       left: Math.min(...lefts),
       right: Math.max(...rights),
@@ -132,7 +160,9 @@ export const commands = {
 
   /** Equal gaps between selected pieces along one axis, keeping the outermost two in place. */
   distribute: (doc: SheetDocument, ids: string[], axis: 'x' | 'y', halfSize: (p: Piece) => { w: number; h: number }): Command => {
-    const pieces = byId(doc, ids).filter((p) => !p.locked).sort((a, b) => a[axis] - b[axis]);
+    const pieces = byId(doc, ids)
+      .filter((p) => !p.locked)
+      .sort((a, b) => a[axis] - b[axis]);
     if (pieces.length < 3) return { name: 'Distribute', diff: emptyDiff() };
     const half = (p: Piece) => (axis === 'x' ? halfSize(p).w : halfSize(p).h);
     const start = pieces[0][axis] - half(pieces[0]);

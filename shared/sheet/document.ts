@@ -33,7 +33,12 @@ export const sheetDocumentSchema = z.object({
 });
 export type SheetDocument = z.infer<typeof sheetDocumentSchema>;
 
-export function emptyDocument(profile: { areaWidthMm: number; areaHeightMm: number; safeMarginMm: number; minGapMm: number }): SheetDocument {
+export function emptyDocument(profile: {
+  areaWidthMm: number;
+  areaHeightMm: number;
+  safeMarginMm: number;
+  minGapMm: number;
+}): SheetDocument {
   return {
     schemaVersion: SHEET_SCHEMA_VERSION,
     printArea: { width: profile.areaWidthMm, height: profile.areaHeightMm },

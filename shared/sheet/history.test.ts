@@ -4,8 +4,22 @@ import type { Piece, SheetDocument } from './document';
 import { emptyDocument } from './document';
 import { History } from './history';
 
-const piece = (id: string, extra: Partial<Piece> = {}): Piece => ({ id, artId: id, x: 40, y: 40, rotation: 0, width: 30, border: 3, borderColour: '#ffffff', locked: false, ...extra });
-const sheet = (...pieces: Piece[]): SheetDocument => ({ ...emptyDocument({ areaWidthMm: 171.45, areaHeightMm: 234.95, safeMarginMm: 3.175, minGapMm: 3.175 }), pieces });
+const piece = (id: string, extra: Partial<Piece> = {}): Piece => ({
+  id,
+  artId: id,
+  x: 40,
+  y: 40,
+  rotation: 0,
+  width: 30,
+  border: 3,
+  borderColour: '#ffffff',
+  locked: false,
+  ...extra,
+});
+const sheet = (...pieces: Piece[]): SheetDocument => ({
+  ...emptyDocument({ areaWidthMm: 171.45, areaHeightMm: 234.95, safeMarginMm: 3.175, minGapMm: 3.175 }),
+  pieces,
+});
 const get = (doc: SheetDocument, id: string) => doc.pieces.find((p) => p.id === id)!;
 
 describe('undo steps a person expects', () => {
@@ -39,7 +53,8 @@ describe('undo steps a person expects', () => {
   it('a colour change on a two-piece selection keeps each piece’s own border width; dragging the picker is one step', () => {
     const history = new History();
     let doc = sheet(piece('a', { border: 3, borderColour: '#ffffff' }), piece('b', { border: 5, borderColour: '#fdebd0' }));
-    for (let i = 0; i < 20; i++) doc = history.apply(doc, commands.setBorderColour(doc, ['a', 'b'], `#00${(i * 12).toString(16).padStart(2, '0')}00`));
+    for (let i = 0; i < 20; i++)
+      doc = history.apply(doc, commands.setBorderColour(doc, ['a', 'b'], `#00${(i * 12).toString(16).padStart(2, '0')}00`));
     expect(get(doc, 'a')).toMatchObject({ border: 3, borderColour: '#00e400' });
     expect(get(doc, 'b')).toMatchObject({ border: 5, borderColour: '#00e400' });
     doc = history.undo(doc);

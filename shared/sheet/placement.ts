@@ -10,10 +10,13 @@ export type PieceOutline = { points: Ring; widthMm: number; heightMm: number };
 /** The cut line in sheet coordinates: the frame centred on (x, y), rotated clockwise by `rotation`. */
 export function placeCutLine(piece: Pick<Piece, 'x' | 'y' | 'rotation'>, outline: PieceOutline): Ring {
   const a = (piece.rotation * Math.PI) / 180;
-  const cos = Math.cos(a), sin = Math.sin(a);
-  const cx = outline.widthMm / 2, cy = outline.heightMm / 2;
+  const cos = Math.cos(a),
+    sin = Math.sin(a);
+  const cx = outline.widthMm / 2,
+    cy = outline.heightMm / 2;
   return outline.points.map((p) => {
-    const dx = p.x - cx, dy = p.y - cy;
+    const dx = p.x - cx,
+      dy = p.y - cy;
     return { x: piece.x + dx * cos - dy * sin, y: piece.y + dx * sin + dy * cos };
   });
 }
@@ -21,17 +24,20 @@ export function placeCutLine(piece: Pick<Piece, 'x' | 'y' | 'rotation'>, outline
 /** Half-size of the rotated frame's bounding box. */
 export function rotatedHalfSize(widthMm: number, heightMm: number, rotation: number) {
   const a = (rotation * Math.PI) / 180;
-  const c = Math.abs(Math.cos(a)), s = Math.abs(Math.sin(a));
+  const c = Math.abs(Math.cos(a)),
+    s = Math.abs(Math.sin(a));
   return { w: (widthMm * c + heightMm * s) / 2, h: (widthMm * s + heightMm * c) / 2 };
 }
 
 // Module-level helpers (not closures): this runs millions of times while arranging.
 function pointSegment(px: number, py: number, ax: number, ay: number, bx: number, by: number): number {
-  const vx = bx - ax, vy = by - ay;
+  const vx = bx - ax,
+    vy = by - ay;
   const len2 = vx * vx + vy * vy;
   let t = len2 === 0 ? 0 : ((px - ax) * vx + (py - ay) * vy) / len2;
   t = t < 0 ? 0 : t > 1 ? 1 : t;
-  const dx = px - ax - t * vx, dy = py - ay - t * vy;
+  const dx = px - ax - t * vx,
+    dy = py - ay - t * vy;
   return Math.sqrt(dx * dx + dy * dy);
 }
 
@@ -40,8 +46,10 @@ function cross(ox: number, oy: number, px: number, py: number, qx: number, qy: n
 }
 
 function segmentDistance(a: Point, b: Point, c: Point, d: Point): number {
-  const d1 = cross(a.x, a.y, b.x, b.y, c.x, c.y), d2 = cross(a.x, a.y, b.x, b.y, d.x, d.y);
-  const d3 = cross(c.x, c.y, d.x, d.y, a.x, a.y), d4 = cross(c.x, c.y, d.x, d.y, b.x, b.y);
+  const d1 = cross(a.x, a.y, b.x, b.y, c.x, c.y),
+    d2 = cross(a.x, a.y, b.x, b.y, d.x, d.y);
+  const d3 = cross(c.x, c.y, d.x, d.y, a.x, a.y),
+    d4 = cross(c.x, c.y, d.x, d.y, b.x, b.y);
   if (((d1 > 0 && d2 < 0) || (d1 < 0 && d2 > 0)) && ((d3 > 0 && d4 < 0) || (d3 < 0 && d4 > 0))) return 0;
   return Math.min(
     pointSegment(a.x, a.y, c.x, c.y, d.x, d.y),
@@ -54,7 +62,8 @@ function segmentDistance(a: Point, b: Point, c: Point, d: Point): number {
 export function pointInRing(p: Point, ring: Ring): boolean {
   let inside = false;
   for (let i = 0, j = ring.length - 1; i < ring.length; j = i++) {
-    const a = ring[i], b = ring[j];
+    const a = ring[i],
+      b = ring[j];
     if (a.y > p.y !== b.y > p.y && p.x < ((b.x - a.x) * (p.y - a.y)) / (b.y - a.y) + a.x) inside = !inside;
   }
   return inside;
@@ -68,16 +77,22 @@ const boxGap = (a: Box, b: Box) =>
  * Measured on the real polygons, edge against edge; `stopBelow` lets a caller skip far pairs early.
  */
 export function cutLineDistance(a: Ring, b: Ring, stopBelow = Infinity): number {
-  const boxA = boundingBox(a), boxB = boundingBox(b);
+  const boxA = boundingBox(a),
+    boxB = boundingBox(b);
   const far = boxGap(boxA, boxB);
   if (far >= stopBelow) return far;
   if (pointInRing(a[0], b) || pointInRing(b[0], a)) return 0;
   let best = Infinity;
   for (let i = 0; i < a.length; i++) {
-    const a0 = a[i], a1 = a[(i + 1) % a.length];
+    const a0 = a[i],
+      a1 = a[(i + 1) % a.length];
     // Segments of `a` farther than the best so far from b's box cannot improve it.
-    const sx0 = Math.min(a0.x, a1.x), sx1 = Math.max(a0.x, a1.x), sy0 = Math.min(a0.y, a1.y), sy1 = Math.max(a0.y, a1.y);
-    const gx = Math.max(0, boxB.x - sx1, sx0 - (boxB.x + boxB.width)), gy = Math.max(0, boxB.y - sy1, sy0 - (boxB.y + boxB.height));
+    const sx0 = Math.min(a0.x, a1.x),
+      sx1 = Math.max(a0.x, a1.x),
+      sy0 = Math.min(a0.y, a1.y),
+      sy1 = Math.max(a0.y, a1.y);
+    const gx = Math.max(0, boxB.x - sx1, sx0 - (boxB.x + boxB.width)),
+      gy = Math.max(0, boxB.y - sy1, sy0 - (boxB.y + boxB.height));
     if (gx * gx + gy * gy >= best * best || Math.max(gx, gy) >= stopBelow) continue;
     for (let j = 0; j < b.length; j++) {
       const d = segmentDistance(a0, a1, b[j], b[(j + 1) % b.length]);
@@ -101,19 +116,26 @@ export function closerThan(a: Ring, b: Ring, gap: number, boxA = boundingBox(a),
   const near = (ring: Ring, box: Box) => {
     const out: number[] = [];
     for (let i = 0; i < ring.length; i++) {
-      const p = ring[i], q = ring[(i + 1) % ring.length];
+      const p = ring[i],
+        q = ring[(i + 1) % ring.length];
       const gx = Math.max(0, box.x - Math.max(p.x, q.x), Math.min(p.x, q.x) - (box.x + box.width));
       const gy = Math.max(0, box.y - Math.max(p.y, q.y), Math.min(p.y, q.y) - (box.y + box.height));
       if (gx < gap && gy < gap) out.push(i);
     }
     return out;
   };
-  const ea = near(a, boxB), eb = near(b, boxA);
+  const ea = near(a, boxB),
+    eb = near(b, boxA);
   for (const i of ea) {
-    const a0 = a[i], a1 = a[(i + 1) % a.length];
-    const ax0 = Math.min(a0.x, a1.x) - gap, ax1 = Math.max(a0.x, a1.x) + gap, ay0 = Math.min(a0.y, a1.y) - gap, ay1 = Math.max(a0.y, a1.y) + gap;
+    const a0 = a[i],
+      a1 = a[(i + 1) % a.length];
+    const ax0 = Math.min(a0.x, a1.x) - gap,
+      ax1 = Math.max(a0.x, a1.x) + gap,
+      ay0 = Math.min(a0.y, a1.y) - gap,
+      ay1 = Math.max(a0.y, a1.y) + gap;
     for (const j of eb) {
-      const b0 = b[j], b1 = b[(j + 1) % b.length];
+      const b0 = b[j],
+        b1 = b[(j + 1) % b.length];
       if (Math.max(b0.x, b1.x) < ax0 || Math.min(b0.x, b1.x) > ax1 || Math.max(b0.y, b1.y) < ay0 || Math.min(b0.y, b1.y) > ay1) continue;
       if (segmentDistance(a0, a1, b0, b1) < gap) return true;
     }
@@ -129,8 +151,16 @@ export function closerThan(a: Ring, b: Ring, gap: number, boxA = boundingBox(a),
 export function pieceOutlineQuery(p: Pick<Piece, 'width' | 'border' | 'borderColour'>, limits: CutLimits): Record<string, string> {
   // The editor's URL form of pieceOutlineOptions() (the server adds the art's saved setting).
   const o = pieceSizeOptions(p, limits);
-  return { width: `${o.width.toFixed(2)}mm`, border: `${o.border.toFixed(3)}mm`, borderColour: o.borderColour, dpi: String(o.dpi), minFeature: `${o.minFeature.toFixed(2)}mm`, bridgeWidth: `${o.bridgeWidth.toFixed(2)}mm` };
+  return {
+    width: `${o.width.toFixed(2)}mm`,
+    border: `${o.border.toFixed(3)}mm`,
+    borderColour: o.borderColour,
+    dpi: String(o.dpi),
+    minFeature: `${o.minFeature.toFixed(2)}mm`,
+    bridgeWidth: `${o.bridgeWidth.toFixed(2)}mm`,
+  };
 }
 
 /** The outline a piece needs: same art, printed width, border and border colour share one request. */
-export const outlineKey = (p: Pick<Piece, 'artId' | 'width' | 'border' | 'borderColour'>, limits: CutLimits) => `${p.artId}?${new URLSearchParams(pieceOutlineQuery(p, limits))}`;
+export const outlineKey = (p: Pick<Piece, 'artId' | 'width' | 'border' | 'borderColour'>, limits: CutLimits) =>
+  `${p.artId}?${new URLSearchParams(pieceOutlineQuery(p, limits))}`;

@@ -9,7 +9,17 @@ import { overlaps } from '../geometry/overlap';
 import { pieceProblems } from './bounds';
 
 export type Severity = 'error' | 'warning' | 'notice';
-export type FindingCode = 'out-of-bounds' | 'outside-print-area' | 'overlap' | 'too-close' | 'outside-safe-margin' | 'too-small' | 'low-resolution' | 'narrow-neck' | 'personal-licence' | 'border-without-bleed';
+export type FindingCode =
+  | 'out-of-bounds'
+  | 'outside-print-area'
+  | 'overlap'
+  | 'too-close'
+  | 'outside-safe-margin'
+  | 'too-small'
+  | 'low-resolution'
+  | 'narrow-neck'
+  | 'personal-licence'
+  | 'border-without-bleed';
 
 /** One preflight finding: how bad, the pieces it concerns and a plain explanation. */
 export type Finding = { code: FindingCode; severity: Severity; pieceIds: string[]; message: string; distanceMm?: number; dpi?: number };
@@ -23,7 +33,9 @@ export const DEFAULT_PREFLIGHT_LIMITS: PreflightLimits = { smallestStickerMm: in
 
 /** A profile's limits (the defaults where a sheet has no profile). */
 export const profileLimits = (profile: PreflightLimits | null | undefined): PreflightLimits =>
-  profile ? { smallestStickerMm: profile.smallestStickerMm, minFeatureMm: profile.minFeatureMm, bridgeWidthMm: profile.bridgeWidthMm } : DEFAULT_PREFLIGHT_LIMITS;
+  profile
+    ? { smallestStickerMm: profile.smallestStickerMm, minFeatureMm: profile.minFeatureMm, bridgeWidthMm: profile.bridgeWidthMm }
+    : DEFAULT_PREFLIGHT_LIMITS;
 /** Common practice: 1/16 in between cut lines is the hard floor; under it the blade catches the neighbour. */
 export const HARD_GAP_FLOOR_MM = inchToMm(1 / 16);
 
@@ -41,7 +53,8 @@ export type PreflightInput = {
 };
 
 /** The outline warnings that say a blade may tear the sticker: one rule for the editor and the server. */
-export const countTearRisks = (warnings: Array<{ code: string }>) => warnings.filter((w) => w.code === 'narrow-neck' || w.code === 'narrow-slot').length;
+export const countTearRisks = (warnings: Array<{ code: string }>) =>
+  warnings.filter((w) => w.code === 'narrow-neck' || w.code === 'narrow-slot').length;
 
 export const SEVERITY_ORDER: Record<Severity, number> = { error: 0, warning: 1, notice: 2 };
 
@@ -62,21 +75,28 @@ export function preflight(input: PreflightInput): Finding[] {
     // left out of every other check: no geometry is computed for it.
     const problems = pieceProblems(doc, piece, index);
     if (problems.length > 0) {
-      for (const problem of problems) findings.push({ code: 'out-of-bounds', severity: 'error', pieceIds: [piece.id], message: problem.message(unit, name) });
+      for (const problem of problems)
+        findings.push({ code: 'out-of-bounds', severity: 'error', pieceIds: [piece.id], message: problem.message(unit, name) });
       continue;
     }
     const outline = outlines.get(piece.id);
     if (input.forSale && input.licenceOf(piece) === 'personal') {
-      findings.push({ code: 'personal-licence', severity: 'error', pieceIds: [piece.id], message: `${name} is licensed for personal use only, and this sheet is marked for sale. Use art with a commercial licence or unmark the sheet.` });
+      findings.push({
+        code: 'personal-licence',
+        severity: 'error',
+        pieceIds: [piece.id],
+        message: `${name} is licensed for personal use only, and this sheet is marked for sale. Use art with a commercial licence or unmark the sheet.`,
+      });
     }
     if (piece.border > 0 && piece.borderColour !== '#ffffff' && !(input.bleedMm && input.bleedMm > 0)) {
       findings.push({
         code: 'border-without-bleed',
         severity: 'warning',
         pieceIds: [piece.id],
-        message: input.bleedMm === undefined
-          ? `${name} has a coloured border: export with a bleed (0.5 to 1.5 mm) so a small misalignment shows no white paper edge.`
-          : `${name} has a coloured border but the export has no bleed: a small misalignment will show a white paper edge. Add 0.5 to 1.5 mm of bleed.`,
+        message:
+          input.bleedMm === undefined
+            ? `${name} has a coloured border: export with a bleed (0.5 to 1.5 mm) so a small misalignment shows no white paper edge.`
+            : `${name} has a coloured border but the export has no bleed: a small misalignment will show a white paper edge. Add 0.5 to 1.5 mm of bleed.`,
       });
     }
     if (!outline) continue;
@@ -84,22 +104,56 @@ export function preflight(input: PreflightInput): Finding[] {
     placed.push({ piece, ring });
     const box = boundingBox(ring);
     if (box.x < 0 || box.y < 0 || box.x + box.width > width || box.y + box.height > height) {
-      findings.push({ code: 'outside-print-area', severity: 'error', pieceIds: [piece.id], message: `${name} goes past the print area: the printer may clip it and the cutter cannot reach it.` });
+      findings.push({
+        code: 'outside-print-area',
+        severity: 'error',
+        pieceIds: [piece.id],
+        message: `${name} goes past the print area: the printer may clip it and the cutter cannot reach it.`,
+      });
     } else {
       const m = doc.safeMargin;
       if (box.x < m || box.y < m || box.x + box.width > width - m || box.y + box.height > height - m) {
-        findings.push({ code: 'outside-safe-margin', severity: 'warning', pieceIds: [piece.id], message: `${name} is inside the ${len(m)} safe margin, where the cut can drift off the print.` });
+        findings.push({
+          code: 'outside-safe-margin',
+          severity: 'warning',
+          pieceIds: [piece.id],
+          message: `${name} is inside the ${len(m)} safe margin, where the cut can drift off the print.`,
+        });
       }
     }
     const across = Math.min(outline.widthMm, outline.heightMm);
     if (across < limits.smallestStickerMm) {
-      findings.push({ code: 'too-small', severity: 'warning', pieceIds: [piece.id], message: `${name} is ${len(across)} across, under the ${len(limits.smallestStickerMm)} smallest practical sticker: it may lift off the liner.` });
+      findings.push({
+        code: 'too-small',
+        severity: 'warning',
+        pieceIds: [piece.id],
+        message: `${name} is ${len(across)} across, under the ${len(limits.smallestStickerMm)} smallest practical sticker: it may lift off the liner.`,
+      });
     }
     const dpi = outline.effectiveDpi;
-    if (dpi < 150) findings.push({ code: 'low-resolution', severity: 'warning', pieceIds: [piece.id], dpi, message: `${name} prints at ${Math.round(dpi)} DPI: under 150 looks soft. Print it smaller or use a larger file.` });
-    else if (dpi < 300) findings.push({ code: 'low-resolution', severity: 'notice', pieceIds: [piece.id], dpi, message: `${name} prints at ${Math.round(dpi)} DPI (300 is ideal for stickers).` });
+    if (dpi < 150)
+      findings.push({
+        code: 'low-resolution',
+        severity: 'warning',
+        pieceIds: [piece.id],
+        dpi,
+        message: `${name} prints at ${Math.round(dpi)} DPI: under 150 looks soft. Print it smaller or use a larger file.`,
+      });
+    else if (dpi < 300)
+      findings.push({
+        code: 'low-resolution',
+        severity: 'notice',
+        pieceIds: [piece.id],
+        dpi,
+        message: `${name} prints at ${Math.round(dpi)} DPI (300 is ideal for stickers).`,
+      });
     if (outline.narrowNecks > 0) {
-      findings.push({ code: 'narrow-neck', severity: 'warning', pieceIds: [piece.id], message: `${name}'s cut line narrows below ${len(limits.minFeatureMm)} (or has a slot that narrow) in ${outline.narrowNecks === 1 ? 'one place' : `${outline.narrowNecks} places`}: the blade may tear it. Widen the border, or let Sheetsmith widen narrow parts on the art's page.` });
+      findings.push({
+        code: 'narrow-neck',
+        severity: 'warning',
+        pieceIds: [piece.id],
+        message: `${name}'s cut line narrows below ${len(limits.minFeatureMm)} (or has a slot that narrow) in ${outline.narrowNecks === 1 ? 'one place' : `${outline.narrowNecks} places`}: the blade may tear it. Widen the border, or let Sheetsmith widen narrow parts on the art's page.`,
+      });
     }
   }
 
@@ -111,8 +165,22 @@ export function preflight(input: PreflightInput): Finding[] {
       if (!crossing && d >= doc.minGap - 1e-6) continue;
       const pieceIds = [placed[i].piece.id, placed[j].piece.id];
       const pair = `${input.name(placed[i].piece)} and ${input.name(placed[j].piece)}`;
-      if (d === 0) findings.push({ code: 'overlap', severity: 'error', pieceIds, distanceMm: 0, message: `${pair} overlap: their cut lines touch or cross.` });
-      else findings.push({ code: 'too-close', severity: d < HARD_GAP_FLOOR_MM ? 'error' : 'warning', pieceIds, distanceMm: d, message: `${pair} are ${len(d)} apart; the cutter needs ${len(doc.minGap)}.` });
+      if (d === 0)
+        findings.push({
+          code: 'overlap',
+          severity: 'error',
+          pieceIds,
+          distanceMm: 0,
+          message: `${pair} overlap: their cut lines touch or cross.`,
+        });
+      else
+        findings.push({
+          code: 'too-close',
+          severity: d < HARD_GAP_FLOOR_MM ? 'error' : 'warning',
+          pieceIds,
+          distanceMm: d,
+          message: `${pair} are ${len(d)} apart; the cutter needs ${len(doc.minGap)}.`,
+        });
     }
   }
   return findings.sort((a, b) => SEVERITY_ORDER[a.severity] - SEVERITY_ORDER[b.severity]);

@@ -8,7 +8,16 @@ import { History } from './history';
 import { cutLineDistance, placeCutLine } from './placement';
 
 const piece = (id: string, x: number, y: number, extra: Partial<Piece> = {}): Piece => ({
-  id, artId: '1', x, y, rotation: 0, width: 40, border: 3, borderColour: '#ffffff', locked: false, ...extra,
+  id,
+  artId: '1',
+  x,
+  y,
+  rotation: 0,
+  width: 40,
+  border: 3,
+  borderColour: '#ffffff',
+  locked: false,
+  ...extra,
 });
 const doc = (): SheetDocument => ({
   ...emptyDocument({ areaWidthMm: inchToMm(6.75), areaHeightMm: inchToMm(9.25), safeMarginMm: 3, minGapMm: 3.175 }),
@@ -31,7 +40,18 @@ describe('commands', () => {
     ['move', (d) => commands.movePieces(d, ['a', 'b'], 1.5, -2)],
     ['place', (d) => commands.placePieces(d, new Map([['a', { x: 5, y: 6, rotation: 45 }]]))],
     ['rotate', (d) => commands.rotatePieces(d, ['a', 'b'], 90)],
-    ['patch', (d) => commands.patchPieces(d, 'Transform', new Map([['a', { width: 61, rotation: 12 }], ['b', { x: 1 }]]))],
+    [
+      'patch',
+      (d) =>
+        commands.patchPieces(
+          d,
+          'Transform',
+          new Map([
+            ['a', { width: 61, rotation: 12 }],
+            ['b', { x: 1 }],
+          ]),
+        ),
+    ],
     ['set rotation', (d) => commands.setRotation(d, ['b'], -30)],
     ['resize', (d) => commands.resizePieces(d, ['a'], 55)],
     ['border', (d) => commands.setBorder(d, ['a'], 1.5)],
@@ -79,7 +99,10 @@ describe('commands', () => {
 
 describe('gap between cut lines', () => {
   const circle = (r: number, n = 720) => ({
-    points: Array.from({ length: n }, (_, i) => ({ x: r + r * Math.cos((2 * Math.PI * i) / n), y: r + r * Math.sin((2 * Math.PI * i) / n) })) as Ring,
+    points: Array.from({ length: n }, (_, i) => ({
+      x: r + r * Math.cos((2 * Math.PI * i) / n),
+      y: r + r * Math.sin((2 * Math.PI * i) / n),
+    })) as Ring,
     widthMm: 2 * r,
     heightMm: 2 * r,
   });
@@ -98,7 +121,17 @@ describe('gap between cut lines', () => {
 describe('piece names', () => {
   it('are the art name, numbered in sheet order when the art is on the sheet more than once', async () => {
     const { pieceName } = await import('./document');
-    const p = (id: string, artId: string) => ({ id, artId, x: 0, y: 0, rotation: 0, width: 10, border: 1, borderColour: '#ffffff', locked: false });
+    const p = (id: string, artId: string) => ({
+      id,
+      artId,
+      x: 0,
+      y: 0,
+      rotation: 0,
+      width: 10,
+      border: 1,
+      borderColour: '#ffffff',
+      locked: false,
+    });
     const sheet = { pieces: [p('a', 'ghost'), p('b', 'moon'), p('c', 'ghost')] };
     const names = (artId: string) => ({ ghost: 'Ghost', moon: 'Moon' })[artId];
     expect(['a', 'b', 'c'].map((id) => pieceName(sheet, id, names))).toEqual(['Ghost 1', 'Moon', 'Ghost 2']);

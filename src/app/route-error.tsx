@@ -10,7 +10,9 @@ export function RouteError({ notFound = false }: { notFound?: boolean }) {
       <p className="max-w-md text-ink-soft">
         {notFound ? 'The address may be mistyped or the page moved.' : (error?.message ?? 'Reload to try again. Saved work is safe.')}
       </p>
-      <Link to="/" className="font-bold text-peel-deep underline">Back to Sheetsmith</Link>
+      <Link to="/" className="font-bold text-peel-deep underline">
+        Back to Sheetsmith
+      </Link>
     </main>
   );
 }

@@ -59,7 +59,10 @@ export const router = createBrowserRouter([
           { path: '/t/:teamId/library/:artId', element: <ArtDetailRoute /> },
           { path: '/t/:teamId/sheets', element: <SheetsRoute /> },
           // The editor brings the canvas library: its own chunk, fetched when a sheet is first opened.
-          { path: '/t/:teamId/sheets/:sheetId', lazy: () => import('../features/editor/routes/editor').then((m) => ({ Component: m.EditorRoute })) },
+          {
+            path: '/t/:teamId/sheets/:sheetId',
+            lazy: () => import('../features/editor/routes/editor').then((m) => ({ Component: m.EditorRoute })),
+          },
           { path: '/t/:teamId/print-room', element: <PrintRoomRoute /> },
           { path: '/t/:teamId/team', element: <TeamRoute /> },
         ],

@@ -22,7 +22,7 @@ export function useAction({ preferField = false } = {}) {
       await action();
       return true;
     } catch (e) {
-      setError(e instanceof ApiError ? ((preferField && Object.values(e.fields)[0]) || e.message) : 'That did not work. Try again.');
+      setError(e instanceof ApiError ? (preferField && Object.values(e.fields)[0]) || e.message : 'That did not work. Try again.');
       if (e instanceof ApiError) setFields(e.fields);
       return false;
     } finally {

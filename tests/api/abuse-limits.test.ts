@@ -40,7 +40,8 @@ describe('rate limits kept in the database', () => {
   it('sign-ups per client address hold across two app processes', async () => {
     const shop = twoProcesses({ LIMIT_SIGNUPS_PER_HOUR: 2 });
     try {
-      const signUp = (app: typeof shop.a, email: string) => new Client(app.app).post('/api/auth/sign-up', { name: 'Maker', email, password: 'fresh-password-1' });
+      const signUp = (app: typeof shop.a, email: string) =>
+        new Client(app.app).post('/api/auth/sign-up', { name: 'Maker', email, password: 'fresh-password-1' });
       expect((await signUp(shop.a, uniqueEmail('s1'))).status).toBe(200);
       expect((await signUp(shop.b, uniqueEmail('s2'))).status).toBe(200);
       const refusedEmail = uniqueEmail('s3');
@@ -85,7 +86,8 @@ describe('rate limits kept in the database', () => {
       const owner = new Client(shop.a.app);
       await owner.signIn(users.owner.email);
       const repeat = uniqueEmail('again');
-      for (let i = 0; i < 3; i++) expect((await owner.post(`/api/teams/${team.id}/invites`, { email: repeat, role: 'member' })).status).toBe(201);
+      for (let i = 0; i < 3; i++)
+        expect((await owner.post(`/api/teams/${team.id}/invites`, { email: repeat, role: 'member' })).status).toBe(201);
       const fourthToSame = await owner.post(`/api/teams/${team.id}/invites`, { email: repeat, role: 'member' });
       expect(fourthToSame.status).toBe(429);
       expect(fourthToSame.body.error.message).toContain('That address has been invited several times today');
@@ -111,13 +113,16 @@ describe('rate limits kept in the database', () => {
     const shop = twoProcesses({ LOGIN_MAX_FAILURES: 3 });
     try {
       const user = await makeUser(db, 'guessed');
-      const attempt = (app: typeof shop.a, password: string) => new Client(app.app).post('/api/auth/sign-in', { email: user.email, password });
+      const attempt = (app: typeof shop.a, password: string) =>
+        new Client(app.app).post('/api/auth/sign-in', { email: user.email, password });
       expect((await attempt(shop.a, 'wrong-one-1')).status).toBe(401);
       expect((await attempt(shop.b, 'wrong-one-2')).status).toBe(401);
       expect((await attempt(shop.a, 'wrong-one-3')).status).toBe(401);
       const blocked = await attempt(shop.b, 'correct-horse-battery');
       expect(blocked.status).toBe(429);
-      expect(blocked.body.error.message).toMatch(/^Too many failed sign-ins\. Wait about \d+ minutes? and try again, or reset your password\.$/);
+      expect(blocked.body.error.message).toMatch(
+        /^Too many failed sign-ins\. Wait about \d+ minutes? and try again, or reset your password\.$/,
+      );
       // No e-mail or address is stored in the clear.
       const rows: { key: string }[] = await db.query('SELECT `key` FROM rate_limits');
       expect(rows.some((row) => row.key.includes(user.email) || row.key.includes('127.0.0.1'))).toBe(false);

@@ -16,8 +16,21 @@ async function sheetFor() {
 }
 
 // jakobs1's shapes at sticker size: a 171.45 × 234.95 mm print area, 3.175 mm gap and margin.
-const items = esicupItems('jakobs1', { stripHeight: 200 }).map((i) => ({ ...i, count: 1, outline: { ...i.outline, points: i.outline.points.map((p) => ({ x: p.x / 4, y: p.y / 4 })), widthMm: i.outline.widthMm / 4, heightMm: i.outline.heightMm / 4 } }));
-const request = (timeMs: number) => ({ items, options: { width: 171.45, height: 234.95, gap: 3.175, margin: 3.175, rotate: '90', fill: true, timeMs, seed: 2, maxSheets: 1 }, locked: [] });
+const items = esicupItems('jakobs1', { stripHeight: 200 }).map((i) => ({
+  ...i,
+  count: 1,
+  outline: {
+    ...i.outline,
+    points: i.outline.points.map((p) => ({ x: p.x / 4, y: p.y / 4 })),
+    widthMm: i.outline.widthMm / 4,
+    heightMm: i.outline.heightMm / 4,
+  },
+}));
+const request = (timeMs: number) => ({
+  items,
+  options: { width: 171.45, height: 234.95, gap: 3.175, margin: 3.175, rotate: '90', fill: true, timeMs, seed: 2, maxSheets: 1 },
+  locked: [],
+});
 
 async function until(client: Client, url: string, done: (body: { state: string }) => boolean) {
   for (let i = 0; i < 240; i++) {

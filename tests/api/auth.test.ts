@@ -19,7 +19,11 @@ describe('sign-up', () => {
     const client = new Client(t.sheetsmith.app);
     const email = uniqueEmail('maker');
     // E-mails are stored trimmed and lower-cased, so "ADA@…" and "ada@…" are one account.
-    const res = await client.post('/api/auth/sign-up', { name: 'Ada Pennywhistle', email: ` ${email.toUpperCase()}`, password: 'long-enough-pw' });
+    const res = await client.post('/api/auth/sign-up', {
+      name: 'Ada Pennywhistle',
+      email: ` ${email.toUpperCase()}`,
+      password: 'long-enough-pw',
+    });
     expect(res.status).toBe(200);
     expect(res.body.user).toMatchObject({ email, name: 'Ada Pennywhistle', unit: 'in' });
     expect(res.body.teams).toHaveLength(1);
@@ -93,7 +97,10 @@ describe('sign-in and sign-out', () => {
   it('gives one generic message for a wrong password and for an unknown e-mail', async () => {
     const user = await makeUser(t.db, 'wrongpw');
     const wrongPassword = await new Client(t.sheetsmith.app).post('/api/auth/sign-in', { email: user.email, password: 'nope-nope-nope' });
-    const unknownEmail = await new Client(t.sheetsmith.app).post('/api/auth/sign-in', { email: uniqueEmail('ghost'), password: TEST_PASSWORD });
+    const unknownEmail = await new Client(t.sheetsmith.app).post('/api/auth/sign-in', {
+      email: uniqueEmail('ghost'),
+      password: TEST_PASSWORD,
+    });
     expect(wrongPassword.status).toBe(401);
     expect(unknownEmail.status).toBe(401);
     expect(wrongPassword.body).toEqual(unknownEmail.body);

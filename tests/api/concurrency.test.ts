@@ -22,13 +22,33 @@ async function shop() {
 
 /** A distinct, noisy image per index, so every upload stores a new item with its own terms. */
 const noisyArt = (i: number, size = 400) =>
-  sharp({ create: { width: size, height: size, channels: 4, background: { r: 0, g: 0, b: 0, alpha: 1 }, noise: { type: 'gaussian', mean: 120 + i, sigma: 40 } } }).png().toBuffer();
+  sharp({
+    create: {
+      width: size,
+      height: size,
+      channels: 4,
+      background: { r: 0, g: 0, b: 0, alpha: 1 },
+      noise: { type: 'gaussian', mean: 120 + i, sigma: 40 },
+    },
+  })
+    .png()
+    .toBuffer();
 
 describe('concurrent work', () => {
   it('20 parallel saves of 20 different sheets that share art all succeed, twice over', async () => {
     const { team, member } = await shop();
     const arts: Array<{ id: string }> = [];
-    for (let i = 0; i < 3; i++) arts.push((await uploadFile(member, team.id, await svgArt(200, 200, `<circle cx="100" cy="100" r="${60 + i * 10}" fill="#2a6"/>`), `dot-${i}.png`)).body.results[0].item);
+    for (let i = 0; i < 3; i++)
+      arts.push(
+        (
+          await uploadFile(
+            member,
+            team.id,
+            await svgArt(200, 200, `<circle cx="100" cy="100" r="${60 + i * 10}" fill="#2a6"/>`),
+            `dot-${i}.png`,
+          )
+        ).body.results[0].item,
+      );
     const sheets: Array<{ id: string; document: { pieces: unknown[] } }> = [];
     for (let i = 0; i < 20; i++) sheets.push((await member.post(`/api/teams/${team.id}/sheets`, { name: `Parallel ${i}` })).body);
     for (const round of [1, 2]) {
@@ -49,7 +69,9 @@ describe('concurrent work', () => {
   it('20 parallel uploads with keywords all succeed and are all searchable', async () => {
     const { team, member } = await shop();
     const results = await Promise.all(
-      Array.from({ length: 20 }, async (_, i) => uploadFile(member, team.id, await noisyArt(i), `market-critter-${i}.png`, { keywords: 'autumn, market, critter' })),
+      Array.from({ length: 20 }, async (_, i) =>
+        uploadFile(member, team.id, await noisyArt(i), `market-critter-${i}.png`, { keywords: 'autumn, market, critter' }),
+      ),
     );
     expect(results.map((r) => r.status)).toEqual(results.map(() => 201));
     const found = await member.get(`/api/teams/${team.id}/art?q=critter&pageSize=50`);
@@ -59,8 +81,13 @@ describe('concurrent work', () => {
   it('parallel keyword edits of different art in one collection all succeed', async () => {
     const { team, member } = await shop();
     const items: Array<{ id: string }> = [];
-    for (let i = 0; i < 12; i++) items.push((await uploadFile(member, team.id, await noisyArt(i, 64), `leaf-${i}.png`)).body.results[0].item);
-    const edits = await Promise.all(items.map((item, i) => member.send('patch', `/api/teams/${team.id}/art/${item.id}`, { keywords: ['leaf', `batch${i % 3}`, 'green'] })));
+    for (let i = 0; i < 12; i++)
+      items.push((await uploadFile(member, team.id, await noisyArt(i, 64), `leaf-${i}.png`)).body.results[0].item);
+    const edits = await Promise.all(
+      items.map((item, i) =>
+        member.send('patch', `/api/teams/${team.id}/art/${item.id}`, { keywords: ['leaf', `batch${i % 3}`, 'green'] }),
+      ),
+    );
     expect(edits.map((r) => r.status)).toEqual(items.map(() => 200));
     expect((await member.get(`/api/teams/${team.id}/art?q=batch1&pageSize=50`)).body.total).toBe(4);
   });
@@ -111,6 +138,13 @@ describe('the same image uploaded by two people at once', () => {
     const image = await noisyArt(77, 120);
     const results = await Promise.all(Array.from({ length: 6 }, () => uploadFile(member, team.id, image, 'twin.png')));
     expect(results.map((r) => r.status).sort()).toEqual([200, 200, 200, 200, 200, 201]);
-    expect(results.flatMap((r) => r.body.results.map((x: { status: string }) => x.status)).sort()).toEqual(['duplicate', 'duplicate', 'duplicate', 'duplicate', 'duplicate', 'stored']);
+    expect(results.flatMap((r) => r.body.results.map((x: { status: string }) => x.status)).sort()).toEqual([
+      'duplicate',
+      'duplicate',
+      'duplicate',
+      'duplicate',
+      'duplicate',
+      'stored',
+    ]);
   });
 });

@@ -38,7 +38,10 @@ describe('while MariaDB is unreachable', { timeout: 180_000 }, () => {
     for (const [label, res] of Object.entries(checks)) {
       expect(res.status, label).toBe(503);
       expect(Number(res.headers['retry-after']), label).toBeGreaterThan(0);
-      if (label !== 'health, no cookie') expect(res.body.error.message, label).toBe('Sheetsmith cannot reach its database right now. Nothing was changed; try again in a moment.');
+      if (label !== 'health, no cookie')
+        expect(res.body.error.message, label).toBe(
+          'Sheetsmith cannot reach its database right now. Nothing was changed; try again in a moment.',
+        );
     }
 
     await mariadb.start();

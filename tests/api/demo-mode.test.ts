@@ -42,12 +42,16 @@ describe('demo mode', () => {
 
   it('refuses to start on a non-loopback HOST with a published session secret, saying why', () => {
     expect(() => loadEnv({ NODE_ENV: 'test', HOST: '0.0.0.0' } as NodeJS.ProcessEnv)).toThrow(/SESSION_SECRET is the published default/);
-    expect(() => loadEnv({ NODE_ENV: 'test', HOST: '10.1.2.3', SESSION_SECRET: 'change-me-to-a-long-random-string' } as NodeJS.ProcessEnv)).toThrow(/openssl rand/);
+    expect(() =>
+      loadEnv({ NODE_ENV: 'test', HOST: '10.1.2.3', SESSION_SECRET: 'change-me-to-a-long-random-string' } as NodeJS.ProcessEnv),
+    ).toThrow(/openssl rand/);
     expect(LOCAL_SESSION_SECRET.length).toBeGreaterThanOrEqual(16);
   });
 
   it('npm start’s seed step with DEMO=off seeds nothing and prints no password', async () => {
-    const { stdout } = await run('npx', ['--no-install', 'tsx', 'scripts/seed.ts'], { env: { ...process.env, NODE_ENV: 'production', DEMO: 'off' } });
+    const { stdout } = await run('npx', ['--no-install', 'tsx', 'scripts/seed.ts'], {
+      env: { ...process.env, NODE_ENV: 'production', DEMO: 'off' },
+    });
     expect(stdout).toMatch(/demo mode is off.*nothing seeded/);
     expect(stdout).not.toContain(DEMO_PASSWORD);
   });
@@ -66,7 +70,11 @@ describe('demo mode', () => {
       }
       // The session made while demo mode was on no longer signs anyone in.
       const stale = new Client(live.app);
-      stale.agent.jar.setCookies(String(cookie).split('; ').map((c) => `${c}; Path=/`));
+      stale.agent.jar.setCookies(
+        String(cookie)
+          .split('; ')
+          .map((c) => `${c}; Path=/`),
+      );
       expect((await stale.get('/api/me')).status).toBe(401);
       // No reset e-mail for them either: a server whose demo is off gives them no way in.
       expect((await new Client(live.app).post('/api/auth/password-reset', { email: 'owner@demo.test' })).status).toBe(200);
@@ -85,7 +93,9 @@ describe('demo mode', () => {
       await db.getRepository(Membership).save({ teamId: own.id, userId: maker.id, role: 'owner' });
       await db.getRepository(Team).update({ id: own.id }, { name: DEMO_SHOP });
       // Someone signed up with one of the demo addresses where the demo never ran.
-      const squatter = await db.getRepository(User).save({ email: 'viewer@demo.test', name: 'Not the demo', passwordHash: maker.passwordHash });
+      const squatter = await db
+        .getRepository(User)
+        .save({ email: 'viewer@demo.test', name: 'Not the demo', passwordHash: maker.passwordHash });
       expect(await seedDemo(db)).toBeGreaterThan(0);
       expect(await seedDemo(db)).toBe(0);
 

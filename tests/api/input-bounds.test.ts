@@ -13,7 +13,8 @@ async function shop() {
   const { team, users } = await makeTeamWithRoles(t.db);
   const member = new Client(t.sheetsmith.app);
   await member.signIn(users.member.email);
-  const art = (await uploadFile(member, team.id, await svgArt(400, 400, '<circle cx="200" cy="200" r="190" fill="#8e44ad"/>'), 'plum.png')).body.results[0].item;
+  const art = (await uploadFile(member, team.id, await svgArt(400, 400, '<circle cx="200" cy="200" r="190" fill="#8e44ad"/>'), 'plum.png'))
+    .body.results[0].item;
   const { body: sheet } = await member.post(`/api/teams/${team.id}/sheets`, { name: 'Bounds', unit: 'in' });
   return { team, users, member, art, sheet };
 }
@@ -37,7 +38,9 @@ describe('sheet documents are bounded to physical sense', () => {
     expect(stored.body.version).toBe(1);
     expect(stored.body.document.pieces).toEqual([]);
     // At the limit is fine: a piece as wide as the print area's long side, beside the area.
-    const fine = await placePieces(member, team.id, sheet, [testPiece('edge', art.id, -20, 100, { width: sheet.document.printArea.height - 2 * 3.175 })]);
+    const fine = await placePieces(member, team.id, sheet, [
+      testPiece('edge', art.id, -20, 100, { width: sheet.document.printArea.height - 2 * 3.175 }),
+    ]);
     expect(fine.status).toBe(200);
   });
 
@@ -65,11 +68,21 @@ describe('sheet documents are bounded to physical sense', () => {
     const refused = await member.send('put', `/api/teams/${team.id}/sheets/${sheet.id}`, { version: 1, thumbnail: html });
     expect(refused.status).toBe(400);
     expect(refused.body.error.fields.thumbnail).toMatch(/not a PNG/i);
-    const huge = await sharp({ create: { width: 4000, height: 10, channels: 3, background: '#fff' } }).png().toBuffer();
-    const tooBig = await member.send('put', `/api/teams/${team.id}/sheets/${sheet.id}`, { version: 1, thumbnail: `data:image/png;base64,${huge.toString('base64')}` });
+    const huge = await sharp({ create: { width: 4000, height: 10, channels: 3, background: '#fff' } })
+      .png()
+      .toBuffer();
+    const tooBig = await member.send('put', `/api/teams/${team.id}/sheets/${sheet.id}`, {
+      version: 1,
+      thumbnail: `data:image/png;base64,${huge.toString('base64')}`,
+    });
     expect(tooBig.status).toBe(400);
-    const small = await sharp({ create: { width: 160, height: 200, channels: 3, background: '#fde' } }).png().toBuffer();
-    const ok = await member.send('put', `/api/teams/${team.id}/sheets/${sheet.id}`, { version: 1, thumbnail: `data:image/png;base64,${small.toString('base64')}` });
+    const small = await sharp({ create: { width: 160, height: 200, channels: 3, background: '#fde' } })
+      .png()
+      .toBuffer();
+    const ok = await member.send('put', `/api/teams/${team.id}/sheets/${sheet.id}`, {
+      version: 1,
+      thumbnail: `data:image/png;base64,${small.toString('base64')}`,
+    });
     expect(ok.status).toBe(200);
     const served = await member.get(`/api/teams/${team.id}/sheets/${sheet.id}/thumbnail`);
     expect(served.headers['content-type']).toBe('image/png');
@@ -84,7 +97,9 @@ describe('multipart uploads', () => {
     await manager.signIn(users.admin.email);
     await manager.refreshCsrf();
     const post = () => manager.agent.post(`/api/teams/${team.id}/art/${art.id}/licence-proof`).set('x-csrf-token', manager.csrf);
-    const bigField = await post().field('note', 'x'.repeat(1024 * 1024)).attach('file', Buffer.from('%PDF-1.4 proof'), 'proof.pdf');
+    const bigField = await post()
+      .field('note', 'x'.repeat(1024 * 1024))
+      .attach('file', Buffer.from('%PDF-1.4 proof'), 'proof.pdf');
     expect(bigField.status).toBe(400);
     expect(bigField.body.error.message).toMatch(/text field is too long/);
     let many = post();
@@ -97,11 +112,18 @@ describe('multipart uploads', () => {
   it('a malformed body (bad part header, truncated, no boundary) is a 400 with a clear message', async () => {
     const { team, member } = await shop();
     await member.refreshCsrf();
-    const send = (contentType: string, body: string) => member.agent.post(`/api/teams/${team.id}/art`).set('x-csrf-token', member.csrf).set('Content-Type', contentType).send(body);
+    const send = (contentType: string, body: string) =>
+      member.agent.post(`/api/teams/${team.id}/art`).set('x-csrf-token', member.csrf).set('Content-Type', contentType).send(body);
     const b = 'XyZboundary';
     const cases = {
-      badHeader: send(`multipart/form-data; boundary=${b}`, `--${b}\r\nContent-Disposition form-data name="file"\r\n\r\nabc\r\n--${b}--\r\n`),
-      truncated: send(`multipart/form-data; boundary=${b}`, `--${b}\r\nContent-Disposition: form-data; name="file"; filename="a.png"\r\nContent-Type: image/png\r\n\r\n\x89PNG partial`),
+      badHeader: send(
+        `multipart/form-data; boundary=${b}`,
+        `--${b}\r\nContent-Disposition form-data name="file"\r\n\r\nabc\r\n--${b}--\r\n`,
+      ),
+      truncated: send(
+        `multipart/form-data; boundary=${b}`,
+        `--${b}\r\nContent-Disposition: form-data; name="file"; filename="a.png"\r\nContent-Type: image/png\r\n\r\n\x89PNG partial`,
+      ),
       noBoundary: send('multipart/form-data', `--${b}\r\nContent-Disposition: form-data; name="file"\r\n\r\nabc\r\n--${b}--\r\n`),
     };
     for (const [label, pending] of Object.entries(cases)) {
@@ -116,19 +138,29 @@ describe('refusals of the request itself say what to do', () => {
   it('a body over the 1 MB a request may carry is refused with the limit named, and nothing is saved', async () => {
     const { team, member, sheet } = await shop();
     await member.refreshCsrf();
-    const res = await member.agent.put(`/api/teams/${team.id}/sheets/${sheet.id}`).set('x-csrf-token', member.csrf).send({ version: 1, name: 'x'.repeat(1_200_000) });
+    const res = await member.agent
+      .put(`/api/teams/${team.id}/sheets/${sheet.id}`)
+      .set('x-csrf-token', member.csrf)
+      .send({ version: 1, name: 'x'.repeat(1_200_000) });
     expect(res.status).toBe(413);
-    expect(res.body.error.message).toBe('That is more than the 1 MB one change may carry. Nothing was saved; make the change in smaller steps.');
+    expect(res.body.error.message).toBe(
+      'That is more than the 1 MB one change may carry. Nothing was saved; make the change in smaller steps.',
+    );
     expect((await member.get(`/api/teams/${team.id}/sheets/${sheet.id}`)).body.version).toBe(1);
   });
 
   it('a zip cut short or not a zip at all is refused in a maker’s words, not the unzip library’s', async () => {
     const { team, member } = await shop();
     const zip = Buffer.from(zipSync({ 'a.png': await svgArt(40, 40, '<rect width="40" height="40" fill="#c0392b"/>') }));
-    for (const [label, bytes] of [['cut short', zip.subarray(0, zip.length - 30)], ['only its first bytes a zip', Buffer.concat([Buffer.from([0x50, 0x4b, 0x03, 0x04]), Buffer.from('the rest is only text')])]] as const) {
+    for (const [label, bytes] of [
+      ['cut short', zip.subarray(0, zip.length - 30)],
+      ['only its first bytes a zip', Buffer.concat([Buffer.from([0x50, 0x4b, 0x03, 0x04]), Buffer.from('the rest is only text')])],
+    ] as const) {
       const res = await uploadFile(member, team.id, bytes, 'pack.zip');
       expect(res.status, label).toBe(422);
-      expect(res.body.error.message, label).toBe('This zip could not be opened: it is damaged or was only partly downloaded. Download the pack again, or unzip it yourself and upload the images. Nothing from this zip was stored.');
+      expect(res.body.error.message, label).toBe(
+        'This zip could not be opened: it is damaged or was only partly downloaded. Download the pack again, or unzip it yourself and upload the images. Nothing from this zip was stored.',
+      );
     }
   });
 

@@ -87,7 +87,10 @@ describe('team invites', () => {
     const created = await owner.post(`/api/teams/${team.id}/invites`, { email: withdrawnEmail, role: 'member' });
     const withdrawnToken = tokenFrom((await lastMailTo(withdrawnEmail)).links.find((l) => l.includes('/invite/'))!);
     expect((await owner.send('delete', `/api/teams/${team.id}/invites/${created.body.id}`)).status).toBe(204);
-    const res = await new Client(t.sheetsmith.app).post(`/api/invites/${withdrawnToken}/accept`, { name: 'W', password: 'long-password-w' });
+    const res = await new Client(t.sheetsmith.app).post(`/api/invites/${withdrawnToken}/accept`, {
+      name: 'W',
+      password: 'long-password-w',
+    });
     expect(res.status).toBe(410);
     expect(await t.db.getRepository(User).countBy({ email: withdrawnEmail })).toBe(0);
   });
@@ -113,8 +116,12 @@ describe('password reset', () => {
     expect((await client.post(`/api/auth/password-reset/${token}`, { password: 'brand-new-password' })).status).toBe(200);
     expect((await client.post(`/api/auth/password-reset/${token}`, { password: 'another-new-password' })).status).toBe(410);
 
-    expect((await new Client(t.sheetsmith.app).post('/api/auth/sign-in', { email: user.email, password: 'brand-new-password' })).status).toBe(200);
-    expect((await new Client(t.sheetsmith.app).post('/api/auth/sign-in', { email: user.email, password: 'another-new-password' })).status).toBe(401);
+    expect(
+      (await new Client(t.sheetsmith.app).post('/api/auth/sign-in', { email: user.email, password: 'brand-new-password' })).status,
+    ).toBe(200);
+    expect(
+      (await new Client(t.sheetsmith.app).post('/api/auth/sign-in', { email: user.email, password: 'another-new-password' })).status,
+    ).toBe(401);
   });
 
   it('refuses an expired link and leaves the password unchanged', async () => {

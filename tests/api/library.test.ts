@@ -15,9 +15,16 @@ import { pngHeaderClaiming } from '../helpers/png';
 const storageDir = path.join(env.dataDir, 'storage-library-test');
 const storage = new LocalDiskStorage(storageDir);
 
-const t = useTestApp({ pool: true, extra: () => ({ storage, packLimits: { maxEntries: 50, maxTotalBytes: 3 * 1024 * 1024, maxEntryBytes: 20 * 1024 * 1024, maxRatio: 200 } }) });
+const t = useTestApp({
+  pool: true,
+  extra: () => ({
+    storage,
+    packLimits: { maxEntries: 50, maxTotalBytes: 3 * 1024 * 1024, maxEntryBytes: 20 * 1024 * 1024, maxRatio: 200 },
+  }),
+});
 
-const shape = (i: number) => svgArt(160, 160, `<circle cx="80" cy="80" r="${30 + i}" fill="#${(0x224466 + i * 0x101010).toString(16).slice(-6)}"/>`);
+const shape = (i: number) =>
+  svgArt(160, 160, `<circle cx="80" cy="80" r="${30 + i}" fill="#${(0x224466 + i * 0x101010).toString(16).slice(-6)}"/>`);
 
 async function signedIn(email: string) {
   const client = new Client(t.sheetsmith.app);
@@ -45,7 +52,9 @@ describe('collections: who may do what', () => {
     expect((await viewer.post(`/api/teams/${team.id}/collections`, { name: 'Mine' })).status).toBe(403);
     expect((await admin.post(`/api/teams/${team.id}/collections`, { name: 'Garden Party' })).status).toBe(409);
 
-    expect((await admin.send('patch', `/api/teams/${team.id}/collections/${a.body.id}`, { name: 'Garden Party 2026' })).body.name).toBe('Garden Party 2026');
+    expect((await admin.send('patch', `/api/teams/${team.id}/collections/${a.body.id}`, { name: 'Garden Party 2026' })).body.name).toBe(
+      'Garden Party 2026',
+    );
     expect((await member.send('patch', `/api/teams/${team.id}/collections/${a.body.id}`, { name: 'x' })).status).toBe(403);
     const order = await owner.send('put', `/api/teams/${team.id}/collections/order`, { ids: [b.body.id, a.body.id] });
     expect(order.body.collections.map((c: { id: string }) => c.id)).toEqual([b.body.id, a.body.id]);
@@ -78,7 +87,11 @@ describe('collections: who may do what', () => {
     const mine = (await uploadFile(member, team.id, await shape(5), 'mine.png', { collectionId: open.id })).body.results[0].item;
     const curated = (await uploadFile(admin, team.id, await shape(6), 'cur.png', { collectionId: closed.id })).body.results[0].item;
 
-    expect((await member.send('patch', `/api/teams/${team.id}/art/${mine.id}`, { collectionIds: [open2.id] })).body.collections.map((c: { name: string }) => c.name)).toEqual(['Open too']);
+    expect(
+      (await member.send('patch', `/api/teams/${team.id}/art/${mine.id}`, { collectionIds: [open2.id] })).body.collections.map(
+        (c: { name: string }) => c.name,
+      ),
+    ).toEqual(['Open too']);
     expect((await member.send('patch', `/api/teams/${team.id}/art/${mine.id}`, { collectionIds: [closed.id] })).status).toBe(403);
     expect((await member.send('patch', `/api/teams/${team.id}/art/${curated.id}`, { collectionIds: [open.id] })).status).toBe(403);
     const bulk = await admin.post(`/api/teams/${team.id}/art/bulk`, { action: 'move', ids: [mine.id, curated.id], collectionId: open.id });
@@ -89,10 +102,19 @@ describe('collections: who may do what', () => {
 
   it('licences: set by owners and admins, inherited from the collection, with a proof file', async () => {
     const { team, admin, member, viewer } = await setup();
-    const pack = (await admin.post(`/api/teams/${team.id}/collections`, { name: 'Bought bundle', licence: { kind: 'commercial_limited', source: 'Hollyhock Bundles', unitLimit: 500 } })).body;
+    const pack = (
+      await admin.post(`/api/teams/${team.id}/collections`, {
+        name: 'Bought bundle',
+        licence: { kind: 'commercial_limited', source: 'Hollyhock Bundles', unitLimit: 500 },
+      })
+    ).body;
     expect(pack.licence).toMatchObject({ kind: 'commercial_limited', unitLimit: 500 });
     const item = (await uploadFile(member, team.id, await shape(7), 'owl.png', { collectionId: pack.id })).body.results[0].item;
-    expect(item.licence).toMatchObject({ kind: 'commercial_limited', source: 'Hollyhock Bundles', inheritedFrom: { collectionId: pack.id } });
+    expect(item.licence).toMatchObject({
+      kind: 'commercial_limited',
+      source: 'Hollyhock Bundles',
+      inheritedFrom: { collectionId: pack.id },
+    });
 
     expect((await member.send('patch', `/api/teams/${team.id}/art/${item.id}`, { licence: { kind: 'commercial' } })).status).toBe(403);
     const bad = await admin.send('patch', `/api/teams/${team.id}/art/${item.id}`, { licence: { kind: 'commercial_limited' } });
@@ -102,7 +124,10 @@ describe('collections: who may do what', () => {
     expect(own.body.licence).toMatchObject({ kind: 'personal', inheritedFrom: null });
 
     await admin.refreshCsrf();
-    const proof = await admin.agent.post(`/api/teams/${team.id}/art/${item.id}/licence-proof`).set('x-csrf-token', admin.csrf).attach('file', Buffer.from('Receipt #4411, personal use'), 'receipt.txt');
+    const proof = await admin.agent
+      .post(`/api/teams/${team.id}/art/${item.id}/licence-proof`)
+      .set('x-csrf-token', admin.csrf)
+      .attach('file', Buffer.from('Receipt #4411, personal use'), 'receipt.txt');
     expect(proof.status).toBe(200);
     expect(proof.body.licence.proofName).toBe('receipt.txt');
     const download = await viewer.get(proof.body.licence.proofUrl);
@@ -116,7 +141,12 @@ describe('collections: who may do what', () => {
 describe('art in several collections', () => {
   it('art sits in two collections at once; its licence comes from its pack and survives moves, keyword edits and leaving the pack', async () => {
     const { team, admin, member } = await setup();
-    const pack = (await admin.post(`/api/teams/${team.id}/collections`, { name: 'Harvest Moon Pack', licence: { kind: 'commercial_limited', source: 'Hollyhock Bundles', unitLimit: 200 } })).body;
+    const pack = (
+      await admin.post(`/api/teams/${team.id}/collections`, {
+        name: 'Harvest Moon Pack',
+        licence: { kind: 'commercial_limited', source: 'Hollyhock Bundles', unitLimit: 200 },
+      })
+    ).body;
     const theme = (await admin.post(`/api/teams/${team.id}/collections`, { name: 'Autumn Market' })).body;
     const plain = (await admin.post(`/api/teams/${team.id}/collections`, { name: 'Loose Doodles', licence: { kind: 'personal' } })).body;
     const item = (await uploadFile(member, team.id, await shape(60), 'gourd.png', { collectionId: pack.id })).body.results[0].item;
@@ -126,10 +156,15 @@ describe('art in several collections', () => {
     const both = await member.send('patch', `/api/teams/${team.id}/art/${item.id}`, { collectionIds: [pack.id, theme.id] });
     expect(both.body.collections.map((c: { name: string }) => c.name)).toEqual(['Harvest Moon Pack', 'Autumn Market']);
     expect(both.body.licence).toMatchObject(licence);
-    for (const id of [pack.id, theme.id]) expect((await member.get(`/api/teams/${team.id}/art?collectionId=${id}`)).body.items.map((i: { id: string }) => i.id)).toEqual([item.id]);
+    for (const id of [pack.id, theme.id])
+      expect((await member.get(`/api/teams/${team.id}/art?collectionId=${id}`)).body.items.map((i: { id: string }) => i.id)).toEqual([
+        item.id,
+      ]);
     expect((await member.get(`/api/teams/${team.id}/art?q=autumn`)).body.total).toBe(1);
     const counts = (await member.get(`/api/teams/${team.id}/collections`)).body.collections;
-    expect(counts.filter((c: { id: string }) => [pack.id, theme.id].includes(c.id)).map((c: { artCount: number }) => c.artCount)).toEqual([1, 1]);
+    expect(counts.filter((c: { id: string }) => [pack.id, theme.id].includes(c.id)).map((c: { artCount: number }) => c.artCount)).toEqual([
+      1, 1,
+    ]);
 
     // A keyword edit alone sends only keywords and changes nothing else.
     const keyworded = await member.send('patch', `/api/teams/${team.id}/art/${item.id}`, { keywords: ['gourd', 'harvest'] });
@@ -141,7 +176,9 @@ describe('art in several collections', () => {
     const after = (await member.get(`/api/teams/${team.id}/art/${item.id}`)).body;
     expect(after.collections.map((c: { name: string }) => c.name)).toEqual(['Loose Doodles']);
     expect(after.licence).toMatchObject(licence);
-    expect((await member.get(`/api/teams/${team.id}/art?licence=commercial_limited`)).body.items.map((i: { id: string }) => i.id)).toEqual([item.id]);
+    expect((await member.get(`/api/teams/${team.id}/art?licence=commercial_limited`)).body.items.map((i: { id: string }) => i.id)).toEqual([
+      item.id,
+    ]);
   });
 });
 
@@ -152,7 +189,8 @@ describe('search', () => {
     await uploadFile(owner, team.id, await shape(8), 'Sun-Flower_01.png', { keywords: 'garden, Yellow Petals' });
     await uploadFile(owner, team.id, await shape(9), 'strawberries.png', { keywords: 'fruit' });
     await uploadFile(owner, team.id, await shape(10), 'rocket.png', { collectionId: space.id, keywords: 'ship' });
-    const names = async (q: string) => (await viewer.get(`/api/teams/${team.id}/art?q=${encodeURIComponent(q)}`)).body.items.map((i: { name: string }) => i.name).sort();
+    const names = async (q: string) =>
+      (await viewer.get(`/api/teams/${team.id}/art?q=${encodeURIComponent(q)}`)).body.items.map((i: { name: string }) => i.name).sort();
 
     expect(await names('sunflower')).toEqual(['Sun-Flower 01']);
     expect(await names('sun flower')).toEqual(['Sun-Flower 01']);
@@ -170,7 +208,9 @@ describe('search', () => {
   it('pages and sorts, and filters by transparency and uploader', async () => {
     const { team, users, owner, member } = await setup();
     for (const [i, name] of ['cherry', 'apple', 'banana'].entries()) await uploadFile(owner, team.id, await shape(20 + i), `${name}.png`);
-    const opaque = await sharp({ create: { width: 64, height: 64, channels: 3, background: '#abcdef' } }).jpeg().toBuffer();
+    const opaque = await sharp({ create: { width: 64, height: 64, channels: 3, background: '#abcdef' } })
+      .jpeg()
+      .toBuffer();
     await uploadFile(member, team.id, opaque, 'sky.jpg');
     const page1 = await owner.get(`/api/teams/${team.id}/art?sort=name&dir=asc&pageSize=2&page=1`);
     const page2 = await owner.get(`/api/teams/${team.id}/art?sort=name&dir=asc&pageSize=2&page=2`);
@@ -239,7 +279,10 @@ describe('zip packs', () => {
     const files: Record<string, Uint8Array> = {
       'Garden_Pack/Tulips/red-tulip.png': await shape(60),
       'Garden_Pack/Tulips/pink-tulip.png': await shape(61),
-      'Garden_Pack/bee.jpg': await sharp(await shape(62)).flatten({ background: '#ffffff' }).jpeg().toBuffer(),
+      'Garden_Pack/bee.jpg': await sharp(await shape(62))
+        .flatten({ background: '#ffffff' })
+        .jpeg()
+        .toBuffer(),
       'Garden_Pack/readme.txt': new TextEncoder().encode('Thanks for downloading!'),
       'Garden_Pack/extras.zip': zipSync({ 'inner.png': await shape(63) }),
       '__MACOSX/Garden_Pack/._bee.jpg': new Uint8Array([0, 5, 22, 7]),
@@ -247,7 +290,10 @@ describe('zip packs', () => {
     };
     const zip = Buffer.from(zipSync(files));
     // The reference: JSZip (an independent unzip package, test-only) lists the same file entries.
-    const reference = Object.values((await JSZip.loadAsync(zip)).files).filter((f) => !f.dir).map((f) => f.name).sort();
+    const reference = Object.values((await JSZip.loadAsync(zip)).files)
+      .filter((f) => !f.dir)
+      .map((f) => f.name)
+      .sort();
     expect(reference).toEqual(Object.keys(files).sort());
 
     const res = await uploadFile(member, team.id, zip, 'garden.zip', { keywords: 'spring' });
@@ -288,18 +334,51 @@ describe('bad uploads: a clear message each, and nothing half-stored', () => {
     const raw = Buffer.alloc(700 * 700 * 4);
     let s = seed;
     for (let i = 0; i < raw.length; i++) raw[i] = (s = (s * 1103515245 + 12345) & 0x7fffffff) >> 16;
-    return sharp(raw, { raw: { width: 700, height: 700, channels: 4 } }).png({ compressionLevel: 0 }).toBuffer();
+    return sharp(raw, { raw: { width: 700, height: 700, channels: 4 } })
+      .png({ compressionLevel: 0 })
+      .toBuffer();
   };
 
   const cases: Array<[string, () => Promise<[Buffer, string]>, number, RegExp]> = [
     ['a corrupt image', async () => [(await shape(70)).subarray(0, 200), 'broken.png'], 422, /damaged or cut short/],
     ['a text file renamed to .png', async () => [Buffer.from('just words, honestly'), 'words.png'], 415, /not an image/],
-    ['an image over the pixel limit', async () => [pngHeaderClaiming(30000, 30000), 'huge.png'], 422, /30000 × 30000 px; the limit is 50 megapixels/],
-    ['a zip with ../ entries', async () => [Buffer.from(zipSync({ 'ok.png': await shape(71), '../escape.png': await shape(72) })), 'evil.zip'], 422, /"\.\.\/escape\.png"\) whose path points outside the zip's own folder/],
-    ['a zip bomb (compression ratio)', async () => [Buffer.from(zipSync({ 'good.png': await shape(73), 'bomb.png': new Uint8Array(12 * 1024 * 1024) }, { level: 9 })), 'bomb.zip'], 422, /looks like a zip bomb/],
-    ['a zip over the total size', async () => [Buffer.from(zipSync({ 'a.png': await noise(1), 'b.png': await noise(2), 'c.png': await noise(3) }, { level: 0 })), 'big.zip'], 422, /more than 3 MB in all/],
+    [
+      'an image over the pixel limit',
+      async () => [pngHeaderClaiming(30000, 30000), 'huge.png'],
+      422,
+      /30000 × 30000 px; the limit is 50 megapixels/,
+    ],
+    [
+      'a zip with ../ entries',
+      async () => [Buffer.from(zipSync({ 'ok.png': await shape(71), '../escape.png': await shape(72) })), 'evil.zip'],
+      422,
+      /"\.\.\/escape\.png"\) whose path points outside the zip's own folder/,
+    ],
+    [
+      'a zip bomb (compression ratio)',
+      async () => [
+        Buffer.from(zipSync({ 'good.png': await shape(73), 'bomb.png': new Uint8Array(12 * 1024 * 1024) }, { level: 9 })),
+        'bomb.zip',
+      ],
+      422,
+      /looks like a zip bomb/,
+    ],
+    [
+      'a zip over the total size',
+      async () => [
+        Buffer.from(zipSync({ 'a.png': await noise(1), 'b.png': await noise(2), 'c.png': await noise(3) }, { level: 0 })),
+        'big.zip',
+      ],
+      422,
+      /more than 3 MB in all/,
+    ],
     ['an encrypted zip', async () => [encrypt(zipSync({ 'secret.png': await shape(74) })), 'locked.zip'], 422, /password-protected/],
-    ['a 60 MB file over the upload limit', async () => [Buffer.alloc(60 * 1024 * 1024, 7), 'enormous.png'], 413, /^That file is larger than the 50 MB limit for this upload\.$/],
+    [
+      'a 60 MB file over the upload limit',
+      async () => [Buffer.alloc(60 * 1024 * 1024, 7), 'enormous.png'],
+      413,
+      /^That file is larger than the 50 MB limit for this upload\.$/,
+    ],
   ];
 
   for (const [label, make, status, message] of cases) {

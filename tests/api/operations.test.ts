@@ -24,7 +24,9 @@ describe('logs', () => {
     const sheetsmith = testApp(db, { LOG_LEVEL: 'info' }, { log });
     try {
       const email = uniqueEmail('twice');
-      expect((await new Client(sheetsmith.app).post('/api/auth/sign-up', { name: 'Twice', email, password: 'first-secret-words' })).status).toBe(200);
+      expect(
+        (await new Client(sheetsmith.app).post('/api/auth/sign-up', { name: 'Twice', email, password: 'first-secret-words' })).status,
+      ).toBe(200);
       const again = await new Client(sheetsmith.app).post('/api/auth/sign-up', { name: 'Twice', email, password: 'second-secret-words' });
       expect(again.status).toBe(409);
       // The scenario is real: the refused INSERT carried the e-mail and a bcrypt hash as parameters.
@@ -68,7 +70,10 @@ describe('start-up', () => {
     await new Promise<void>((resolve) => blocker.listen(0, '127.0.0.1', resolve));
     const { port } = blocker.address() as { port: number };
     try {
-      const child = spawn('npx', ['--no-install', 'tsx', 'server/index.ts'], { env: { ...process.env, PORT: String(port), HOST: '127.0.0.1', LOG_LEVEL: 'silent' }, stdio: ['ignore', 'pipe', 'pipe'] });
+      const child = spawn('npx', ['--no-install', 'tsx', 'server/index.ts'], {
+        env: { ...process.env, PORT: String(port), HOST: '127.0.0.1', LOG_LEVEL: 'silent' },
+        stdio: ['ignore', 'pipe', 'pipe'],
+      });
       let out = '';
       child.stdout.on('data', (c) => (out += c));
       child.stderr.on('data', (c) => (out += c));

@@ -20,7 +20,10 @@ describe('art upload', () => {
     const art = await svgArt(400, 300, '<ellipse cx="200" cy="150" rx="150" ry="100" fill="#ca6f1e"/>');
     const first = await upload(member, team.id, art, 'Autumn Fox.png');
     expect(first.status).toBe(201);
-    expect(first.body.results[0]).toMatchObject({ status: 'stored', item: { name: 'Autumn Fox', format: 'png', widthPx: 400, heightPx: 300, hasTransparency: true } });
+    expect(first.body.results[0]).toMatchObject({
+      status: 'stored',
+      item: { name: 'Autumn Fox', format: 'png', widthPx: 400, heightPx: 300, hasTransparency: true },
+    });
     const again = await upload(member, team.id, art, 'copy.jpg');
     expect(again.status).toBe(200);
     expect(again.body.results[0]).toMatchObject({ status: 'duplicate', item: { id: first.body.results[0].item.id } });
@@ -80,25 +83,32 @@ describe('GET /api/teams/:teamId/art/:artId/outline', () => {
     const theirs = await makeTeamWithRoles(t.db);
     const owner = new Client(t.sheetsmith.app);
     await owner.signIn(theirs.users.owner.email);
-    const artId = (await upload(owner, theirs.team.id, await svgArt(200, 200, '<rect x="20" y="20" width="160" height="160"/>'))).body.results[0].item.id;
+    const artId = (await upload(owner, theirs.team.id, await svgArt(200, 200, '<rect x="20" y="20" width="160" height="160"/>'))).body
+      .results[0].item.id;
 
     const bad = await owner.get(`/api/teams/${theirs.team.id}/art/${artId}/outline?width=banana&dpi=5`);
     expect(bad.status).toBe(400);
-    expect(bad.body.error.fields).toMatchObject({ 'query.width': expect.stringMatching(/length like 2in/), 'query.dpi': 'At least 72 DPI' });
+    expect(bad.body.error.fields).toMatchObject({
+      'query.width': expect.stringMatching(/length like 2in/),
+      'query.dpi': 'At least 72 DPI',
+    });
 
     const stranger = new Client(t.sheetsmith.app);
     await stranger.signIn(mine.users.owner.email);
     expect((await stranger.get(`/api/teams/${mine.team.id}/art/${artId}/outline?width=1in`)).status).toBe(404);
     expect((await stranger.get(`/api/teams/${theirs.team.id}/art/${artId}/outline?width=1in`)).status).toBe(404);
     const good = await owner.get(`/api/teams/${theirs.team.id}/art/${artId}/outline?width=1in`);
-    expect((await stranger.get(good.body.pieces[0].pngUrl.replace(`/teams/${theirs.team.id}/`, `/teams/${mine.team.id}/`))).status).toBe(404);
+    expect((await stranger.get(good.body.pieces[0].pngUrl.replace(`/teams/${theirs.team.id}/`, `/teams/${mine.team.id}/`))).status).toBe(
+      404,
+    );
   });
 
   it('ten outlines at once never stall the API: health answers while they run', async () => {
     const { team, users } = await makeTeamWithRoles(t.db);
     const member = new Client(t.sheetsmith.app);
     await member.signIn(users.member.email);
-    const artId = (await upload(member, team.id, await svgArt(2000, 2000, '<circle cx="1000" cy="1000" r="900" fill="#7b241c"/>'))).body.results[0].item.id;
+    const artId = (await upload(member, team.id, await svgArt(2000, 2000, '<circle cx="1000" cy="1000" r="900" fill="#7b241c"/>'))).body
+      .results[0].item.id;
     const finished: number[] = [];
     const jobs = Array.from({ length: 10 }, (_, i) =>
       member.get(`/api/teams/${team.id}/art/${artId}/outline?width=${2 + i * 0.1}in`).then((res) => {
@@ -123,7 +133,14 @@ describe('GET /api/teams/:teamId/art/:artId/background-removal.png', () => {
     const member = new Client(t.sheetsmith.app);
     await member.signIn(users.member.email);
     // No transparency: a cream-tipped shape on white (the tip is about 37 from white).
-    const flat = await sharp(Buffer.from('<svg xmlns="http://www.w3.org/2000/svg" width="300" height="300"><rect width="300" height="300" fill="#fff"/><rect x="100" y="40" width="100" height="60" fill="#fcf4dc"/><rect x="100" y="100" width="100" height="160" fill="#f28c28"/></svg>')).flatten({ background: '#ffffff' }).png().toBuffer();
+    const flat = await sharp(
+      Buffer.from(
+        '<svg xmlns="http://www.w3.org/2000/svg" width="300" height="300"><rect width="300" height="300" fill="#fff"/><rect x="100" y="40" width="100" height="60" fill="#fcf4dc"/><rect x="100" y="100" width="100" height="160" fill="#f28c28"/></svg>',
+      ),
+    )
+      .flatten({ background: '#ffffff' })
+      .png()
+      .toBuffer();
     const art = (await upload(member, team.id, flat, 'corn.png')).body.results[0].item;
     const url = (q: string) => `/api/teams/${team.id}/art/${art.id}/background-removal.png?${q}`;
     const safe = await member.get(url('background=auto&backgroundTolerance=32')).buffer(true).parse(binary);
@@ -135,7 +152,9 @@ describe('GET /api/teams/:teamId/art/:artId/background-removal.png', () => {
     // The tip is 6000 of 22000 art pixels.
     expect(Number(eaten.headers['x-art-taken'])).toBeGreaterThan(0.2);
     const outline = await member.get(`/api/teams/${team.id}/art/${art.id}/outline?width=2in&background=%23ffffff&backgroundTolerance=42`);
-    expect(outline.body.warnings.find((w: { code: string }) => w.code === 'background-took-art')?.message).toMatch(/^Background removal at tolerance 42 also took away \d+ % of the art/);
+    expect(outline.body.warnings.find((w: { code: string }) => w.code === 'background-took-art')?.message).toMatch(
+      /^Background removal at tolerance 42 also took away \d+ % of the art/,
+    );
     const bad = await member.get(url('background=auto&backgroundTolerance=400'));
     expect(bad.status).toBe(400);
     expect(bad.body.error.fields['query.backgroundTolerance']).toBe('The tolerance is at most 255');
@@ -150,10 +169,23 @@ describe('GET /api/teams/:teamId/art/:artId/background-removal.png', () => {
     const { team, users } = await makeTeamWithRoles(t.db);
     const member = new Client(t.sheetsmith.app);
     await member.signIn(users.member.email);
-    const art = (await upload(member, team.id, await svgArt(100, 100, '<circle cx="50" cy="50" r="40" fill="#ca6f1e"/>'), 'dot.png')).body.results[0].item;
+    const art = (await upload(member, team.id, await svgArt(100, 100, '<circle cx="50" cy="50" r="40" fill="#ca6f1e"/>'), 'dot.png')).body
+      .results[0].item;
     const path = `/api/teams/${team.id}/art/${art.id}`;
-    expect((await member.send('patch', path, { background: { mode: 'auto', tolerance: 42 } })).body.background).toEqual({ mode: 'auto', colour: null, tolerance: 42 });
-    expect((await member.send('patch', path, { background: { mode: 'colour', colour: '#FFFFFF' } })).body.background).toEqual({ mode: 'colour', colour: '#ffffff', tolerance: 24 });
-    expect((await member.send('patch', path, { background: { mode: 'auto' } })).body.background).toEqual({ mode: 'auto', colour: null, tolerance: 32 });
+    expect((await member.send('patch', path, { background: { mode: 'auto', tolerance: 42 } })).body.background).toEqual({
+      mode: 'auto',
+      colour: null,
+      tolerance: 42,
+    });
+    expect((await member.send('patch', path, { background: { mode: 'colour', colour: '#FFFFFF' } })).body.background).toEqual({
+      mode: 'colour',
+      colour: '#ffffff',
+      tolerance: 24,
+    });
+    expect((await member.send('patch', path, { background: { mode: 'auto' } })).body.background).toEqual({
+      mode: 'auto',
+      colour: null,
+      tolerance: 32,
+    });
   });
 });

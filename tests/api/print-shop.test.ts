@@ -7,7 +7,15 @@ import { uploadFile } from '../helpers/library';
 import { placePieces, testPiece } from '../helpers/sheets';
 
 const t = useTestApp({ pool: true });
-const STOCK = { name: 'Glossy inkjet sticker paper', finish: 'glossy', paper: 'letter', packPrice: 18, sheetsPerPack: 100, onHand: 10, cutterSettings: { material: 'Sticker paper, glossy', pressure: '3', passes: 1, blade: 'standard, depth 2' } };
+const STOCK = {
+  name: 'Glossy inkjet sticker paper',
+  finish: 'glossy',
+  paper: 'letter',
+  packPrice: 18,
+  sheetsPerPack: 100,
+  onHand: 10,
+  cutterSettings: { material: 'Sticker paper, glossy', pressure: '3', passes: 1, blade: 'standard, depth 2' },
+};
 
 /** A team whose sheet holds `pieces` circles 44.35 mm across (38 mm art + 1/8 in border) on a 50 mm grid. */
 async function shop(pieces = 3, spacing = 50) {
@@ -17,9 +25,16 @@ async function shop(pieces = 3, spacing = 50) {
     clients[role] = new Client(t.sheetsmith.app);
     await clients[role].signIn(users[role].email);
   }
-  const art = (await uploadFile(clients.member, team.id, await svgArt(600, 600, '<circle cx="300" cy="300" r="300" fill="#1b4f72"/>'), 'moon.png')).body.results[0].item;
+  const art = (
+    await uploadFile(clients.member, team.id, await svgArt(600, 600, '<circle cx="300" cy="300" r="300" fill="#1b4f72"/>'), 'moon.png')
+  ).body.results[0].item;
   const { body: sheet } = await clients.member.post(`/api/teams/${team.id}/sheets`, { name: 'Moons' });
-  const saved = await placePieces(clients.member, team.id, sheet, Array.from({ length: pieces }, (_, i) => testPiece(`m${i}`, art.id, 40 + i * spacing, 40)));
+  const saved = await placePieces(
+    clients.member,
+    team.id,
+    sheet,
+    Array.from({ length: pieces }, (_, i) => testPiece(`m${i}`, art.id, 40 + i * spacing, 40)),
+  );
   expect(saved.status).toBe(200);
   return { team, users, ...clients, art, sheet: saved.body, base: `/api/teams/${team.id}` };
 }
@@ -27,7 +42,12 @@ async function shop(pieces = 3, spacing = 50) {
 async function withCutter(s: Awaited<ReturnType<typeof shop>>) {
   const stock = (await s.owner.post(`${s.base}/stock`, STOCK)).body;
   const cutter = (await s.owner.post(`${s.base}/machines`, { kind: 'cutter', name: 'Desk cutter' })).body;
-  const fitted = await s.member.post(`${s.base}/machines/${cutter.id}/blades`, { label: 'Standard blade #1', fittedOn: '2026-11-01', lifeM: 600, price: 9 });
+  const fitted = await s.member.post(`${s.base}/machines/${cutter.id}/blades`, {
+    label: 'Standard blade #1',
+    fittedOn: '2026-11-01',
+    lifeM: 600,
+    price: 9,
+  });
   expect(fitted.status).toBe(201);
   return { stock, cutter, blade: fitted.body.blade };
 }
@@ -37,7 +57,14 @@ describe('stock and machines', () => {
     const s = await shop(1);
     const created = await s.owner.post(`${s.base}/stock`, STOCK);
     expect(created.status).toBe(201);
-    expect(created.body).toMatchObject({ name: STOCK.name, paperWidthMm: 215.9, paperHeightMm: 279.4, onHand: 10, rating: null, foodSafe: false });
+    expect(created.body).toMatchObject({
+      name: STOCK.name,
+      paperWidthMm: 215.9,
+      paperHeightMm: 279.4,
+      onHand: 10,
+      rating: null,
+      foodSafe: false,
+    });
     expect(created.body.costPerSheet).toBeCloseTo(0.18, 10);
     expect(created.body.cutterSettings).toEqual(STOCK.cutterSettings);
     const bad = await s.owner.post(`${s.base}/stock`, { ...STOCK, sheetsPerPack: 0, packPrice: -1, finish: 'velvet' });
@@ -49,9 +76,17 @@ describe('stock and machines', () => {
   it('logs blade changes: the old blade is kept with its removal date and length, the new one starts at zero', async () => {
     const s = await shop(1);
     const { cutter } = await withCutter(s);
-    const changed = await s.member.post(`${s.base}/machines/${cutter.id}/blades`, { label: 'Standard blade #2', fittedOn: '2026-12-01', lifeM: 600, price: 9 });
+    const changed = await s.member.post(`${s.base}/machines/${cutter.id}/blades`, {
+      label: 'Standard blade #2',
+      fittedOn: '2026-12-01',
+      lifeM: 600,
+      price: 9,
+    });
     expect(changed.body.blade).toMatchObject({ label: 'Standard blade #2', cutLengthM: 0, removedOn: null, wear: 'ok' });
-    expect(changed.body.blades.map((b: { label: string; removedOn: string | null }) => [b.label, b.removedOn])).toEqual([['Standard blade #2', null], ['Standard blade #1', '2026-12-01']]);
+    expect(changed.body.blades.map((b: { label: string; removedOn: string | null }) => [b.label, b.removedOn])).toEqual([
+      ['Standard blade #2', null],
+      ['Standard blade #1', '2026-12-01'],
+    ]);
   });
 
   it('follows the role table: viewers read only, members count stock and log runs, only owners and admins set up', async () => {
@@ -59,28 +94,59 @@ describe('stock and machines', () => {
     const { stock, cutter } = await withCutter(s);
     expect((await s.viewer.get(`${s.base}/stock`)).status).toBe(200);
     expect((await s.viewer.post(`${s.base}/stock/${stock.id}/adjust`, { change: 5 })).status).toBe(403);
-    expect((await s.viewer.post(`${s.base}/print-runs`, { sheetId: s.sheet.id, copies: 1, stockId: stock.id, result: 'good' })).status).toBe(403);
+    expect(
+      (await s.viewer.post(`${s.base}/print-runs`, { sheetId: s.sheet.id, copies: 1, stockId: stock.id, result: 'good' })).status,
+    ).toBe(403);
     expect((await s.member.post(`${s.base}/stock`, STOCK)).status).toBe(403);
     expect((await s.member.post(`${s.base}/machines`, { kind: 'printer', name: 'X', inkFullPage: 1 })).status).toBe(403);
-    expect((await s.member.send('put', `${s.base}/shop-settings`, { currency: '€', labourRatePerHour: 10, markupPercent: 50 })).status).toBe(403);
+    expect(
+      (await s.member.send('put', `${s.base}/shop-settings`, { currency: '€', labourRatePerHour: 10, markupPercent: 50 })).status,
+    ).toBe(403);
     expect((await s.member.post(`${s.base}/stock/${stock.id}/adjust`, { change: 5 })).body.onHand).toBe(15);
-    expect((await s.member.post(`${s.base}/machines/${cutter.id}/blades`, { label: 'b', fittedOn: '2026-12-02', lifeM: 500 })).status).toBe(201);
-    expect((await s.owner.send('put', `${s.base}/shop-settings`, { currency: '€', labourRatePerHour: 10, markupPercent: 50 })).body).toEqual({ currency: '€', labourRatePerHour: 10, markupPercent: 50 });
+    expect((await s.member.post(`${s.base}/machines/${cutter.id}/blades`, { label: 'b', fittedOn: '2026-12-02', lifeM: 500 })).status).toBe(
+      201,
+    );
+    expect(
+      (await s.owner.send('put', `${s.base}/shop-settings`, { currency: '€', labourRatePerHour: 10, markupPercent: 50 })).body,
+    ).toEqual({ currency: '€', labourRatePerHour: 10, markupPercent: 50 });
   });
 
   it('answers 404 for another team’s stock, machines, runs and sheets, the same as for ones that do not exist', async () => {
     const a = await shop(1);
     const b = await shop(1);
     const { stock, cutter } = await withCutter(b);
-    const run = (await b.member.post(`${b.base}/print-runs`, { sheetId: b.sheet.id, copies: 1, stockId: stock.id, cutterId: cutter.id, result: 'good' })).body;
+    const run = (
+      await b.member.post(`${b.base}/print-runs`, {
+        sheetId: b.sheet.id,
+        copies: 1,
+        stockId: stock.id,
+        cutterId: cutter.id,
+        result: 'good',
+      })
+    ).body;
     expect((await a.owner.send('put', `${a.base}/stock/${stock.id}`, STOCK)).status).toBe(404);
     expect((await a.member.post(`${a.base}/stock/${stock.id}/adjust`, { change: 1 })).status).toBe(404);
-    expect((await a.member.post(`${a.base}/machines/${cutter.id}/blades`, { label: 'x', fittedOn: '2026-12-02', lifeM: 5 })).status).toBe(404);
+    expect((await a.member.post(`${a.base}/machines/${cutter.id}/blades`, { label: 'x', fittedOn: '2026-12-02', lifeM: 5 })).status).toBe(
+      404,
+    );
     expect((await a.member.get(`${a.base}/print-runs/${run.id}/photo`)).status).toBe(404);
-    expect((await a.member.post(`${a.base}/print-runs`, { sheetId: b.sheet.id, copies: 1, stockId: stock.id, result: 'good' })).status).toBe(404);
+    expect(
+      (await a.member.post(`${a.base}/print-runs`, { sheetId: b.sheet.id, copies: 1, stockId: stock.id, result: 'good' })).status,
+    ).toBe(404);
     // Our own sheet on their stock is as unknown as their sheet.
-    expect((await a.member.post(`${a.base}/print-runs`, { sheetId: a.sheet.id, copies: 1, stockId: stock.id, result: 'good' })).status).toBe(404);
-    expect((await a.member.send('put', `${a.base}/sheets/${a.sheet.id}/costing`, { stockId: stock.id, printerId: null, cutterId: null, labourMinutes: 0 })).status).toBe(404);
+    expect(
+      (await a.member.post(`${a.base}/print-runs`, { sheetId: a.sheet.id, copies: 1, stockId: stock.id, result: 'good' })).status,
+    ).toBe(404);
+    expect(
+      (
+        await a.member.send('put', `${a.base}/sheets/${a.sheet.id}/costing`, {
+          stockId: stock.id,
+          printerId: null,
+          cutterId: null,
+          labourMinutes: 0,
+        })
+      ).status,
+    ).toBe(404);
     expect((await a.member.get(`${b.base}/stock`)).status).toBe(404);
     expect((await a.member.get(`${a.base}/print-runs`)).body.runs).toEqual([]);
   });
@@ -89,11 +155,34 @@ describe('stock and machines', () => {
     const other = await shop(1);
     const { stock, cutter } = await withCutter(s);
     await s.member.post(`${s.base}/stock/${stock.id}/adjust`, { change: -3 });
-    const edited = await s.owner.send('put', `${s.base}/stock/${stock.id}`, { ...STOCK, name: 'Glossy sticker paper (new pack)', packPrice: 20, onHand: 999, paper: 'custom', paperWidthMm: 101.6, paperHeightMm: 152.4, printerSettings: { paperSetting: 'Photo glossy', quality: 'Best', colour: '', other: '' }, skinSafe: true });
+    const edited = await s.owner.send('put', `${s.base}/stock/${stock.id}`, {
+      ...STOCK,
+      name: 'Glossy sticker paper (new pack)',
+      packPrice: 20,
+      onHand: 999,
+      paper: 'custom',
+      paperWidthMm: 101.6,
+      paperHeightMm: 152.4,
+      printerSettings: { paperSetting: 'Photo glossy', quality: 'Best', colour: '', other: '' },
+      skinSafe: true,
+    });
     expect(edited.status).toBe(200);
-    expect(edited.body).toMatchObject({ name: 'Glossy sticker paper (new pack)', onHand: 7, paper: 'custom', paperWidthMm: 101.6, paperHeightMm: 152.4, skinSafe: true, printerSettings: { paperSetting: 'Photo glossy', quality: 'Best' } });
+    expect(edited.body).toMatchObject({
+      name: 'Glossy sticker paper (new pack)',
+      onHand: 7,
+      paper: 'custom',
+      paperWidthMm: 101.6,
+      paperHeightMm: 152.4,
+      skinSafe: true,
+      printerSettings: { paperSetting: 'Photo glossy', quality: 'Best' },
+    });
     expect(edited.body.costPerSheet).toBeCloseTo(0.2, 10);
-    const tooSmall = await s.owner.send('put', `${s.base}/stock/${stock.id}`, { ...STOCK, paper: 'custom', paperWidthMm: 5, paperHeightMm: 152.4 });
+    const tooSmall = await s.owner.send('put', `${s.base}/stock/${stock.id}`, {
+      ...STOCK,
+      paper: 'custom',
+      paperWidthMm: 5,
+      paperHeightMm: 152.4,
+    });
     expect(tooSmall.status).toBe(400);
     expect(tooSmall.body.error.fields.paperWidthMm).toMatch(/at least 20 mm/);
     expect((await s.owner.get(`${s.base}/stock`)).body.stock[0].name).toBe('Glossy sticker paper (new pack)');
@@ -110,7 +199,13 @@ describe('stock and machines', () => {
     expect(onRetired.status).toBe(400);
     expect(onRetired.body.error.fields.stockId).toMatch(/retired/);
     const fresh = (await s.owner.post(`${s.base}/stock`, STOCK)).body;
-    const withRetiredCutter = await s.member.post(`${s.base}/print-runs`, { sheetId: s.sheet.id, copies: 1, stockId: fresh.id, cutterId: cutter.id, result: 'good' });
+    const withRetiredCutter = await s.member.post(`${s.base}/print-runs`, {
+      sheetId: s.sheet.id,
+      copies: 1,
+      stockId: fresh.id,
+      cutterId: cutter.id,
+      result: 'good',
+    });
     expect(withRetiredCutter.status).toBe(400);
     expect(withRetiredCutter.body.error.fields.cutterId).toMatch(/retired/);
     expect((await s.owner.get(`${s.base}/stock`)).body.stock[0].onHand).toBe(STOCK.onHand); // nothing taken
@@ -126,9 +221,23 @@ describe('print runs', () => {
     const analysis = (await s.member.get(`${s.base}/sheets/${s.sheet.id}/analysis`)).body;
     // Three circles 38 + 2 × 3.175 = 44.35 mm across: 3 × π × 44.35 mm of cut (circumference).
     expect(Math.abs(analysis.cutLengthMm - 3 * Math.PI * 44.35) / (3 * Math.PI * 44.35)).toBeLessThan(0.005);
-    const res = await s.member.post(`${s.base}/print-runs`, { sheetId: s.sheet.id, copies: 4, stockId: stock.id, cutterId: cutter.id, result: 'misaligned', notes: 'Registration off by a hair' });
+    const res = await s.member.post(`${s.base}/print-runs`, {
+      sheetId: s.sheet.id,
+      copies: 4,
+      stockId: stock.id,
+      cutterId: cutter.id,
+      result: 'misaligned',
+      notes: 'Registration off by a hair',
+    });
     expect(res.status).toBe(201);
-    expect(res.body).toMatchObject({ copies: 4, wasted: 4, result: 'misaligned', stock: { id: stock.id }, cutter: { id: cutter.id }, sheet: { id: s.sheet.id, version: 2 } });
+    expect(res.body).toMatchObject({
+      copies: 4,
+      wasted: 4,
+      result: 'misaligned',
+      stock: { id: stock.id },
+      cutter: { id: cutter.id },
+      sheet: { id: s.sheet.id, version: 2 },
+    });
     expect(res.body.cutterSettings).toEqual(STOCK.cutterSettings); // taken from the stock's settings
     expect(res.body.cutLengthM).toBeCloseTo((4 * analysis.cutLengthMm) / 1000, 6);
     expect((await s.member.get(`${s.base}/stock`)).body.stock[0].onHand).toBe(6);
@@ -148,7 +257,13 @@ describe('print runs', () => {
     expect((await s.member.get(`${s.base}/print-runs`)).body.runs).toEqual([]);
     expect((await s.member.post(`${s.base}/stock/${stock.id}/adjust`, { change: -11 })).status).toBe(409);
     expect((await s.member.get(`${s.base}/stock`)).body.stock[0].onHand).toBe(10);
-    const confirmed = await s.member.post(`${s.base}/print-runs`, { sheetId: s.sheet.id, copies: 11, stockId: stock.id, result: 'good', confirmNegativeStock: true });
+    const confirmed = await s.member.post(`${s.base}/print-runs`, {
+      sheetId: s.sheet.id,
+      copies: 11,
+      stockId: stock.id,
+      result: 'good',
+      confirmNegativeStock: true,
+    });
     expect(confirmed.status).toBe(201);
     expect((await s.member.get(`${s.base}/stock`)).body.stock[0].onHand).toBe(-1);
   });
@@ -158,9 +273,17 @@ describe('print runs', () => {
     const { stock, cutter } = await withCutter(s);
     // A trigger makes the database refuse the run's own row, after stock and blade were updated.
     await t.db.query('DROP TRIGGER IF EXISTS refuse_run');
-    await t.db.query(`CREATE TRIGGER refuse_run BEFORE INSERT ON print_runs FOR EACH ROW BEGIN IF NEW.stock_id = ${Number(stock.id)} THEN SIGNAL SQLSTATE '45000' SET MESSAGE_TEXT = 'refused for the test'; END IF; END`);
+    await t.db.query(
+      `CREATE TRIGGER refuse_run BEFORE INSERT ON print_runs FOR EACH ROW BEGIN IF NEW.stock_id = ${Number(stock.id)} THEN SIGNAL SQLSTATE '45000' SET MESSAGE_TEXT = 'refused for the test'; END IF; END`,
+    );
     try {
-      const res = await s.member.post(`${s.base}/print-runs`, { sheetId: s.sheet.id, copies: 3, stockId: stock.id, cutterId: cutter.id, result: 'good' });
+      const res = await s.member.post(`${s.base}/print-runs`, {
+        sheetId: s.sheet.id,
+        copies: 3,
+        stockId: stock.id,
+        cutterId: cutter.id,
+        result: 'good',
+      });
       expect(res.status).toBe(500);
     } finally {
       await t.db.query('DROP TRIGGER IF EXISTS refuse_run');
@@ -175,11 +298,19 @@ describe('print runs', () => {
     const s = await shop(1);
     const { stock } = await withCutter(s);
     const run = (await s.member.post(`${s.base}/print-runs`, { sheetId: s.sheet.id, copies: 1, stockId: stock.id, result: 'good' })).body;
-    const photo = await sharp({ create: { width: 3000, height: 2000, channels: 3, background: { r: 200, g: 120, b: 90 } } }).jpeg().toBuffer();
+    const photo = await sharp({ create: { width: 3000, height: 2000, channels: 3, background: { r: 200, g: 120, b: 90 } } })
+      .jpeg()
+      .toBuffer();
     await s.member.refreshCsrf();
-    const bad = await s.member.agent.post(`${s.base}/print-runs/${run.id}/photo`).set('x-csrf-token', s.member.csrf).attach('photo', Buffer.from('not a photo'), 'x.jpg');
+    const bad = await s.member.agent
+      .post(`${s.base}/print-runs/${run.id}/photo`)
+      .set('x-csrf-token', s.member.csrf)
+      .attach('photo', Buffer.from('not a photo'), 'x.jpg');
     expect(bad.status).toBe(422);
-    const ok = await s.member.agent.post(`${s.base}/print-runs/${run.id}/photo`).set('x-csrf-token', s.member.csrf).attach('photo', photo, 'run.jpg');
+    const ok = await s.member.agent
+      .post(`${s.base}/print-runs/${run.id}/photo`)
+      .set('x-csrf-token', s.member.csrf)
+      .attach('photo', photo, 'run.jpg');
     expect(ok.status).toBe(200);
     const back = await s.viewer.get(ok.body.photoUrl).buffer(true);
     expect(back.status).toBe(200);
@@ -194,7 +325,11 @@ describe('preflight and cost', () => {
     const forSale = await s.member.send('put', `${s.base}/sheets/${s.sheet.id}`, { version: 2, forSale: true });
     expect(forSale.status).toBe(200);
     const analysis = (await s.member.get(`${s.base}/sheets/${s.sheet.id}/analysis`)).body;
-    expect(analysis.findings.map((f: { code: string; severity: string }) => `${f.code}:${f.severity}`).sort()).toEqual(['overlap:error', 'personal-licence:error', 'personal-licence:error']);
+    expect(analysis.findings.map((f: { code: string; severity: string }) => `${f.code}:${f.severity}`).sort()).toEqual([
+      'overlap:error',
+      'personal-licence:error',
+      'personal-licence:error',
+    ]);
     const refused = await s.member.post(`${s.base}/sheets/${s.sheet.id}/exports`, { dpi: 150, formats: ['svg'] });
     expect(refused.status).toBe(409);
     expect(refused.body.error).toMatchObject({ code: 'preflight_errors', message: expect.stringContaining('3 errors') });
@@ -206,11 +341,14 @@ describe('preflight and cost', () => {
       job = (await s.member.get(`${s.base}/sheets/${s.sheet.id}/exports/${job.id}`)).body;
     }
     expect(job.status).toBe('done');
-    const zip = await s.member.get(job.downloadUrl).buffer(true).parse((res, cb) => {
-      const parts: Buffer[] = [];
-      res.on('data', (c: Buffer) => parts.push(c));
-      res.on('end', () => cb(null, Buffer.concat(parts)));
-    });
+    const zip = await s.member
+      .get(job.downloadUrl)
+      .buffer(true)
+      .parse((res, cb) => {
+        const parts: Buffer[] = [];
+        res.on('data', (c: Buffer) => parts.push(c));
+        res.on('end', () => cb(null, Buffer.concat(parts)));
+      });
     const settings = await (await JSZip.loadAsync(zip.body as Buffer)).file('moons-settings.txt')!.async('string');
     expect(settings).toMatch(/ERROR: moon 1 and moon 2 overlap/);
   });
@@ -220,7 +358,12 @@ describe('preflight and cost', () => {
     const { stock, cutter } = await withCutter(s);
     const printer = (await s.owner.post(`${s.base}/machines`, { kind: 'printer', name: 'Inkjet', inkFullPage: 2 })).body;
     await s.owner.send('put', `${s.base}/shop-settings`, { currency: '$', labourRatePerHour: 18, markupPercent: 150 });
-    const res = await s.member.send('put', `${s.base}/sheets/${s.sheet.id}/costing`, { stockId: stock.id, printerId: printer.id, cutterId: cutter.id, labourMinutes: 6 });
+    const res = await s.member.send('put', `${s.base}/sheets/${s.sheet.id}/costing`, {
+      stockId: stock.id,
+      printerId: printer.id,
+      cutterId: cutter.id,
+      labourMinutes: 6,
+    });
     expect(res.status).toBe(200);
     const { analysis, cost, missing } = res.body;
     expect(missing).toEqual([]);

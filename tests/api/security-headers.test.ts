@@ -6,7 +6,13 @@ const t = useTestApp();
 
 /** Parses a Content-Security-Policy header into directive → sources (W3C CSP Level 3 §2.2). */
 const policy = (header: string) =>
-  Object.fromEntries(header.split(';').map((part) => part.trim().split(/\s+/)).filter((words) => words[0]).map(([name, ...sources]) => [name, sources]));
+  Object.fromEntries(
+    header
+      .split(';')
+      .map((part) => part.trim().split(/\s+/))
+      .filter((words) => words[0])
+      .map(([name, ...sources]) => [name, sources]),
+  );
 
 describe('security headers (OWASP ASVS 4.0 §14.4, §8.2.1)', () => {
   it('a CSP allowing only this origin, no framing, nosniff, a referrer policy, and no HSTS over plain HTTP', async () => {
@@ -40,7 +46,11 @@ describe('security headers (OWASP ASVS 4.0 §14.4, §8.2.1)', () => {
     const user = await makeUser(t.db, 'cache');
     const client = new Client(t.sheetsmith.app);
     await client.signIn(user.email);
-    for (const res of [await client.get('/api/me'), await client.get('/api/no-such-route'), await request(t.sheetsmith.app).get('/api/me')]) {
+    for (const res of [
+      await client.get('/api/me'),
+      await client.get('/api/no-such-route'),
+      await request(t.sheetsmith.app).get('/api/me'),
+    ]) {
       expect(res.headers['cache-control']).toBe('no-store');
     }
   });

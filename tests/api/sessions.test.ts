@@ -36,7 +36,9 @@ describe('sessions', () => {
     const { user, laptop, shop } = await twoSessions();
     await new Client(t.sheetsmith.app).post('/api/auth/password-reset', { email: user.email });
     const token = tokenFrom((await lastMailTo(user.email)).links.find((l) => l.includes('/reset-password/'))!);
-    expect((await new Client(t.sheetsmith.app).post(`/api/auth/password-reset/${token}`, { password: 'reset-to-something-new' })).status).toBe(200);
+    expect(
+      (await new Client(t.sheetsmith.app).post(`/api/auth/password-reset/${token}`, { password: 'reset-to-something-new' })).status,
+    ).toBe(200);
     expect((await laptop.get('/api/me')).status).toBe(401);
     expect((await shop.get('/api/me')).status).toBe(401);
   });

@@ -55,7 +55,10 @@ describe('several machines: two apps and two workers on one MariaDB, Redis and S
   let shared: NodeJS.ProcessEnv;
 
   const start = (name: string, args: string[], extra: NodeJS.ProcessEnv, ready: RegExp) => {
-    const child = spawn(process.execPath, ['--import', 'tsx', ...args], { env: { ...shared, ...extra }, stdio: ['ignore', 'pipe', 'pipe'] });
+    const child = spawn(process.execPath, ['--import', 'tsx', ...args], {
+      env: { ...shared, ...extra },
+      stdio: ['ignore', 'pipe', 'pipe'],
+    });
     const proc: Proc = { child, out: [], name };
     child.stdout!.on('data', (c) => proc.out.push(String(c)));
     child.stderr!.on('data', (c) => proc.out.push(String(c)));
@@ -120,18 +123,39 @@ describe('several machines: two apps and two workers on one MariaDB, Redis and S
     expect((await me.json()).user.email).toBe(users.member.email);
 
     // Art uploaded through B lands in the bucket; a sheet of 30 pieces is saved through A.
-    const png = await sharp(Buffer.from('<svg xmlns="http://www.w3.org/2000/svg" width="900" height="900"><circle cx="450" cy="450" r="420" fill="#7d3c98"/></svg>')).png().toBuffer();
+    const png = await sharp(
+      Buffer.from(
+        '<svg xmlns="http://www.w3.org/2000/svg" width="900" height="900"><circle cx="450" cy="450" r="420" fill="#7d3c98"/></svg>',
+      ),
+    )
+      .png()
+      .toBuffer();
     const form = new FormData();
     form.append('file', new Blob([png], { type: 'image/png' }), 'plum.png');
-    const uploaded = await fetch(`${apps[1]}/api/teams/${team.id}/art`, { method: 'POST', headers: { cookie: maker.cookie, 'x-csrf-token': maker.csrf }, body: form });
+    const uploaded = await fetch(`${apps[1]}/api/teams/${team.id}/art`, {
+      method: 'POST',
+      headers: { cookie: maker.cookie, 'x-csrf-token': maker.csrf },
+      body: form,
+    });
     expect(uploaded.status).toBe(201);
     const art = (await uploaded.json()).results[0].item;
     const sheet = await (await maker.call(apps[0], 'POST', `/api/teams/${team.id}/sheets`, { name: 'Two machines' })).json();
-    const pieces = Array.from({ length: 30 }, (_, i) => testPiece(`m${i}`, art.id, 25 + (i % 5) * 30, 25 + Math.floor(i / 5) * 35, { width: 25 }));
-    const saved = await maker.call(apps[0], 'PUT', `/api/teams/${team.id}/sheets/${sheet.id}`, { version: sheet.version, document: { ...sheet.document, pieces } });
+    const pieces = Array.from({ length: 30 }, (_, i) =>
+      testPiece(`m${i}`, art.id, 25 + (i % 5) * 30, 25 + Math.floor(i / 5) * 35, { width: 25 }),
+    );
+    const saved = await maker.call(apps[0], 'PUT', `/api/teams/${team.id}/sheets/${sheet.id}`, {
+      version: sheet.version,
+      document: { ...sheet.document, pieces },
+    });
     expect(saved.status).toBe(200);
 
-    const started = await (await maker.call(apps[0], 'POST', `/api/teams/${team.id}/sheets/${sheet.id}/exports`, { dpi: 300, formats: ['png', 'pdf'], acceptErrors: true })).json();
+    const started = await (
+      await maker.call(apps[0], 'POST', `/api/teams/${team.id}/sheets/${sheet.id}/exports`, {
+        dpi: 300,
+        formats: ['png', 'pdf'],
+        acceptErrors: true,
+      })
+    ).json();
     expect(started.status).toBe('running');
     const jobUrl = `/api/teams/${team.id}/sheets/${sheet.id}/exports/${started.id}`;
     // Wait until a worker is well into it, then kill that worker without warning.
@@ -158,7 +182,20 @@ describe('several machines: two apps and two workers on one MariaDB, Redis and S
       }
       await new Promise((r) => setTimeout(r, 250));
     }
-    if (done?.error) console.log(procs.map((p) => `--- ${p.name}\n${p.out.join('').split('\n').filter((l) => /warn|error|stalled|export/i.test(l)).slice(-15).join('\n')}`).join('\n'));
+    if (done?.error)
+      console.log(
+        procs
+          .map(
+            (p) =>
+              `--- ${p.name}\n${p.out
+                .join('')
+                .split('\n')
+                .filter((l) => /warn|error|stalled|export/i.test(l))
+                .slice(-15)
+                .join('\n')}`,
+          )
+          .join('\n'),
+      );
     expect(done?.error ?? null).toBeNull();
     expect(done?.status).toBe('done');
     const [row] = await db.query('SELECT attempts FROM sheet_exports WHERE id = ?', [started.id]);

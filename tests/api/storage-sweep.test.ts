@@ -44,13 +44,30 @@ describe('storage hygiene', () => {
     await admin.signIn(users.admin.email);
     const art = (await uploadFile(admin, team.id, await uniqueArt(), 'kept.png')).body.results[0].item;
     await admin.send('patch', `/api/teams/${team.id}/art/${art.id}`, { licence: { kind: 'personal' } });
-    await admin.agent.post(`/api/teams/${team.id}/art/${art.id}/licence-proof`).set('x-csrf-token', admin.csrf).attach('file', randomBytes(200), 'proof.pdf');
+    await admin.agent
+      .post(`/api/teams/${team.id}/art/${art.id}/licence-proof`)
+      .set('x-csrf-token', admin.csrf)
+      .attach('file', randomBytes(200), 'proof.pdf');
     const collection = (await admin.post(`/api/teams/${team.id}/collections`, { name: 'Pack', licence: { kind: 'commercial' } })).body;
-    await admin.agent.post(`/api/teams/${team.id}/collections/${collection.id}/licence-proof`).set('x-csrf-token', admin.csrf).attach('file', randomBytes(300), 'pack-licence.pdf');
+    await admin.agent
+      .post(`/api/teams/${team.id}/collections/${collection.id}/licence-proof`)
+      .set('x-csrf-token', admin.csrf)
+      .attach('file', randomBytes(300), 'pack-licence.pdf');
     expect((await admin.get(`/api/teams/${team.id}/art/${art.id}/outline?width=40mm&border=3mm`)).status).toBe(200);
     const { body: sheet } = await admin.post(`/api/teams/${team.id}/sheets`, { name: 'Sweep' });
-    const thumb = `data:image/png;base64,${(await (await import('sharp')).default({ create: { width: 20, height: 26, channels: 3, background: `#${randomBytes(3).toString('hex')}` } }).png().toBuffer()).toString('base64')}`;
-    await admin.send('put', `/api/teams/${team.id}/sheets/${sheet.id}`, { version: 1, thumbnail: thumb, document: { ...sheet.document, pieces: [testPiece('s1', art.id, 40, 40)] } });
+    const thumb = `data:image/png;base64,${(
+      await (
+        await import('sharp')
+      )
+        .default({ create: { width: 20, height: 26, channels: 3, background: `#${randomBytes(3).toString('hex')}` } })
+        .png()
+        .toBuffer()
+    ).toString('base64')}`;
+    await admin.send('put', `/api/teams/${team.id}/sheets/${sheet.id}`, {
+      version: 1,
+      thumbnail: thumb,
+      document: { ...sheet.document, pieces: [testPiece('s1', art.id, 40, 40)] },
+    });
     const referenced = await keys();
     expect(referenced.length).toBeGreaterThanOrEqual(6); // file, thumbnail, 2 proofs, outline PNG, sheet preview
 
@@ -89,9 +106,13 @@ describe('storage hygiene', () => {
     const { team, users } = await makeTeamWithRoles(t.db);
     const admin = new Client(t.sheetsmith.app);
     await admin.signIn(users.admin.email);
-    const [a, b] = [(await uploadFile(admin, team.id, await uniqueArt(), 'a.png')).body.results[0].item, (await uploadFile(admin, team.id, await uniqueArt(), 'b.png')).body.results[0].item];
+    const [a, b] = [
+      (await uploadFile(admin, team.id, await uniqueArt(), 'a.png')).body.results[0].item,
+      (await uploadFile(admin, team.id, await uniqueArt(), 'b.png')).body.results[0].item,
+    ];
     for (const item of [a, b]) await admin.send('patch', `/api/teams/${team.id}/art/${item.id}`, { licence: { kind: 'commercial' } });
-    const attach = (id: string, bytes: Buffer) => admin.agent.post(`/api/teams/${team.id}/art/${id}/licence-proof`).set('x-csrf-token', admin.csrf).attach('file', bytes, 'proof.pdf');
+    const attach = (id: string, bytes: Buffer) =>
+      admin.agent.post(`/api/teams/${team.id}/art/${id}/licence-proof`).set('x-csrf-token', admin.csrf).attach('file', bytes, 'proof.pdf');
     const first = randomBytes(700);
     const shared = randomBytes(800);
     await attach(a.id, first);

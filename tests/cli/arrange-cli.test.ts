@@ -15,12 +15,40 @@ const run = promisify(execFile);
 describe('npm run arrange (CLI, no database)', () => {
   it('writes sheet.json, sheet.svg and a 300 DPI sheet.png, names the unreadable file, arranges the rest', async () => {
     const dir = await mkdtemp(path.join(tmpdir(), 'sheetsmith-arrange-'));
-    const fox = path.join(dir, 'fox.png'), leaf = path.join(dir, 'leaf.png'), junk = path.join(dir, 'junk.png');
-    await writeFile(fox, await svgArt(900, 700, '<ellipse cx="450" cy="350" rx="400" ry="300" fill="#d35400"/><circle cx="700" cy="150" r="120" fill="#d35400"/>'));
+    const fox = path.join(dir, 'fox.png'),
+      leaf = path.join(dir, 'leaf.png'),
+      junk = path.join(dir, 'junk.png');
+    await writeFile(
+      fox,
+      await svgArt(
+        900,
+        700,
+        '<ellipse cx="450" cy="350" rx="400" ry="300" fill="#d35400"/><circle cx="700" cy="150" r="120" fill="#d35400"/>',
+      ),
+    );
     await writeFile(leaf, await svgArt(600, 900, '<path d="M300 30 C560 300 560 600 300 870 C40 600 40 300 300 30 Z" fill="#229954"/>'));
     await writeFile(junk, 'not an image at all');
     const out = path.join(dir, 'out');
-    const result = await run('npx', ['--no-install', 'tsx', 'scripts/arrange.ts', `${fox}=5@1.5in`, `${leaf}=4@1in`, `${junk}=2@1in`, '--sheet', '6.75x9.25in', '--gap', '0.125in', '--margin', '0.1in', '--time', '1s', '--threads', '2', '--out', out]).catch((e) => e);
+    const result = await run('npx', [
+      '--no-install',
+      'tsx',
+      'scripts/arrange.ts',
+      `${fox}=5@1.5in`,
+      `${leaf}=4@1in`,
+      `${junk}=2@1in`,
+      '--sheet',
+      '6.75x9.25in',
+      '--gap',
+      '0.125in',
+      '--margin',
+      '0.1in',
+      '--time',
+      '1s',
+      '--threads',
+      '2',
+      '--out',
+      out,
+    ]).catch((e) => e);
     expect(result.code).toBe(1);
     const summary = JSON.parse(String(result.stdout).trim());
     expect(summary).toMatchObject({ requested: 9, placed: 9, sheets: 1, threads: 2 });
@@ -39,7 +67,9 @@ describe('npm run arrange (CLI, no database)', () => {
 
     // The SVG read back with fast-xml-parser and svg-path-bbox: print-area size in mm, nine closed
     // paths, each inside the print area less the margin.
-    const svg = new XMLParser({ ignoreAttributes: false, attributeNamePrefix: '' }).parse(await readFile(path.join(out, 'sheet.svg'), 'utf8')).svg;
+    const svg = new XMLParser({ ignoreAttributes: false, attributeNamePrefix: '' }).parse(
+      await readFile(path.join(out, 'sheet.svg'), 'utf8'),
+    ).svg;
     expect(svg.width).toBe('171.45mm');
     expect(svg.viewBox).toBe('0 0 171.45 234.95');
     const paths = svg.g.path as Array<{ d: string }>;

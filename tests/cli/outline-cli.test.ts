@@ -17,14 +17,35 @@ describe('npm run outline (CLI, no database)', () => {
     const input = path.join(dir, 'in');
     const out = path.join(dir, 'out');
     await mkdir(input);
-    await writeFile(path.join(input, 'acorn.png'), await svgArt(800, 1000, '<ellipse cx="400" cy="560" rx="300" ry="380" fill="#935116"/><rect x="150" y="80" width="500" height="200" rx="90" fill="#4a235a"/>'));
-    await writeFile(path.join(input, 'moon.png'), await svgArt(600, 600, '<path d="M300 50 A250 250 0 1 0 550 300 A190 190 0 1 1 300 50 Z" fill="#f4d03f"/>'));
+    await writeFile(
+      path.join(input, 'acorn.png'),
+      await svgArt(
+        800,
+        1000,
+        '<ellipse cx="400" cy="560" rx="300" ry="380" fill="#935116"/><rect x="150" y="80" width="500" height="200" rx="90" fill="#4a235a"/>',
+      ),
+    );
+    await writeFile(
+      path.join(input, 'moon.png'),
+      await svgArt(600, 600, '<path d="M300 50 A250 250 0 1 0 550 300 A190 190 0 1 1 300 50 Z" fill="#f4d03f"/>'),
+    );
     await writeFile(path.join(input, 'notes.png'), 'not really a png');
 
-    const result = await run('npx', ['--no-install', 'tsx', 'scripts/outline.ts', input, '--width', '2in', '--border', '3mm', '--out', out, '--json'], { cwd: process.cwd() }).catch((e) => e);
+    const result = await run(
+      'npx',
+      ['--no-install', 'tsx', 'scripts/outline.ts', input, '--width', '2in', '--border', '3mm', '--out', out, '--json'],
+      { cwd: process.cwd() },
+    ).catch((e) => e);
     expect(result.code).toBe(1);
-    const lines = String(result.stdout).trim().split('\n').map((l) => JSON.parse(l));
-    expect(lines.map((l) => [path.basename(l.file), l.ok])).toEqual([['acorn.png', true], ['moon.png', true], ['notes.png', false]]);
+    const lines = String(result.stdout)
+      .trim()
+      .split('\n')
+      .map((l) => JSON.parse(l));
+    expect(lines.map((l) => [path.basename(l.file), l.ok])).toEqual([
+      ['acorn.png', true],
+      ['moon.png', true],
+      ['notes.png', false],
+    ]);
     expect(lines[2].error).toMatch(/not an image/);
 
     for (const line of lines.filter((l) => l.ok)) {
@@ -40,7 +61,9 @@ describe('npm run outline (CLI, no database)', () => {
 
       // SVG read back with a general-purpose XML parser (fast-xml-parser): width/height in mm
       // agree with the viewBox (CSS/SVG units, 1in = 25.4mm), one closed path, its bounds inside the frame.
-      const svg = new XMLParser({ ignoreAttributes: false, attributeNamePrefix: '' }).parse(await readFile(path.join(out, piece.svg), 'utf8')).svg;
+      const svg = new XMLParser({ ignoreAttributes: false, attributeNamePrefix: '' }).parse(
+        await readFile(path.join(out, piece.svg), 'utf8'),
+      ).svg;
       const [vx, vy, vw, vh] = String(svg.viewBox).split(' ').map(Number);
       expect([vx, vy]).toEqual([0, 0]);
       expect(svg.width).toBe(`${vw}mm`);
@@ -59,7 +82,9 @@ describe('npm run outline (CLI, no database)', () => {
   });
 
   it('refuses bad options with a message naming the flag', async () => {
-    const result = await run('npx', ['--no-install', 'tsx', 'scripts/outline.ts', 'x.png', '--width', 'wide', '--out', tmpdir()]).catch((e) => e);
+    const result = await run('npx', ['--no-install', 'tsx', 'scripts/outline.ts', 'x.png', '--width', 'wide', '--out', tmpdir()]).catch(
+      (e) => e,
+    );
     expect(result.code).toBe(2);
     expect(String(result.stderr)).toMatch(/--width: Printed width: give a length like 2in/);
   });

@@ -27,7 +27,11 @@ describe('sheet editor in Chromium', { timeout: BROWSER_TEST_TIMEOUT }, () => {
     await expect.poll(() => items.count()).toBe(3);
 
     const canvas = page.getByTestId('sheet-canvas');
-    const targets = [{ x: 40, y: 40 }, { x: 110, y: 40 }, { x: 75, y: 150 }];
+    const targets = [
+      { x: 40, y: 40 },
+      { x: 110, y: 40 },
+      { x: 75, y: 150 },
+    ];
     // The panel lists newest first: the circle (shape-1) is last; it goes top left.
     for (const [i, at] of targets.entries()) {
       const p = await screenOf(page, at);
@@ -125,7 +129,12 @@ describe('sheet editor in Chromium', { timeout: BROWSER_TEST_TIMEOUT }, () => {
   it('auto-arrange can be stopped: the best layout so far is previewed at once, long before the time is up', async () => {
     const { team, users, client, art } = await teamWithArt();
     const { body: sheet } = await client.post(`/api/teams/${team.id}/sheets`, { name: 'Stop early' });
-    await placePieces(client, team.id, sheet, Array.from({ length: 12 }, (_, i) => testPiece(`s${i}`, art[i % 3].id, 80 + i, 110 + i)));
+    await placePieces(
+      client,
+      team.id,
+      sheet,
+      Array.from({ length: 12 }, (_, i) => testPiece(`s${i}`, art[i % 3].id, 80 + i, 110 + i)),
+    );
     const page = await t.browser.newPage({ viewport: { width: 1280, height: 900 } });
     await signIn(page, users.member.email);
     await page.goto(`${t.served.url}/t/${team.id}/sheets/${sheet.id}`);
@@ -135,7 +144,9 @@ describe('sheet editor in Chromium', { timeout: BROWSER_TEST_TIMEOUT }, () => {
     expect(await dialog.textContent()).toContain('may turn art upside down (180°)');
     await dialog.getByLabel('Try for').selectOption('10');
     await dialog.getByRole('button', { name: 'Arrange' }).click();
-    await expect.poll(() => page.getByTestId('arrange-progress').textContent(), { timeout: 10_000 }).toMatch(/tried; the best places 12 on 1 sheet/);
+    await expect
+      .poll(() => page.getByTestId('arrange-progress').textContent(), { timeout: 10_000 })
+      .toMatch(/tried; the best places 12 on 1 sheet/);
     const stoppedAt = Date.now();
     await dialog.getByRole('button', { name: 'Stop and keep the best so far' }).click();
     await expect.poll(() => page.getByTestId('arrange-summary').textContent(), { timeout: 3_000 }).toMatch(/^Preview: 12 of 12 placed/);
@@ -147,7 +158,12 @@ describe('sheet editor in Chromium', { timeout: BROWSER_TEST_TIMEOUT }, () => {
   it('auto-arrange runs on the shop’s server too: its best so far shows while it runs, and Stop ends it with that best', async () => {
     const { team, users, client, art } = await teamWithArt();
     const { body: sheet } = await client.post(`/api/teams/${team.id}/sheets`, { name: 'On the server' });
-    await placePieces(client, team.id, sheet, Array.from({ length: 10 }, (_, i) => testPiece(`v${i}`, art[i % 3].id, 80 + i, 110 + i)));
+    await placePieces(
+      client,
+      team.id,
+      sheet,
+      Array.from({ length: 10 }, (_, i) => testPiece(`v${i}`, art[i % 3].id, 80 + i, 110 + i)),
+    );
     const page = await t.browser.newPage({ viewport: { width: 1280, height: 800 } });
     await signIn(page, users.member.email);
     await page.goto(`${t.served.url}/t/${team.id}/sheets/${sheet.id}`);
@@ -157,7 +173,9 @@ describe('sheet editor in Chromium', { timeout: BROWSER_TEST_TIMEOUT }, () => {
     await dialog.getByLabel('Run on').selectOption('server');
     await dialog.getByLabel('Try for').selectOption('120');
     await dialog.getByRole('button', { name: 'Arrange' }).click();
-    await expect.poll(() => page.getByTestId('arrange-progress').textContent(), { timeout: 30_000 }).toMatch(/^Arranging on the shop’s server… the best places 10 on 1 sheet/);
+    await expect
+      .poll(() => page.getByTestId('arrange-progress').textContent(), { timeout: 30_000 })
+      .toMatch(/^Arranging on the shop’s server… the best places 10 on 1 sheet/);
     await screenshot(page, 'editor-arrange-on-server');
     const stoppedAt = Date.now();
     await dialog.getByRole('button', { name: 'Stop and keep the best so far' }).click();
@@ -199,7 +217,11 @@ describe('sheet editor in Chromium', { timeout: BROWSER_TEST_TIMEOUT }, () => {
   it('auto-arrange takes a quantity per art, refuses a bad one with the art named, and makes the further sheets a quantity needs', async () => {
     const { team, users, client, art } = await teamWithArt();
     const { body: sheet } = await client.post(`/api/teams/${team.id}/sheets`, { name: 'Ghost run' });
-    await placePieces(client, team.id, sheet, [testPiece('q0', art[0].id, 40, 40), testPiece('q1', art[1].id, 100, 40), testPiece('q2', art[2].id, 40, 120)]);
+    await placePieces(client, team.id, sheet, [
+      testPiece('q0', art[0].id, 40, 40),
+      testPiece('q1', art[1].id, 100, 40),
+      testPiece('q2', art[2].id, 40, 120),
+    ]);
     const page = await t.browser.newPage({ viewport: { width: 1280, height: 900 } });
     await signIn(page, users.member.email);
     await page.goto(`${t.served.url}/t/${team.id}/sheets/${sheet.id}`);
@@ -221,7 +243,9 @@ describe('sheet editor in Chromium', { timeout: BROWSER_TEST_TIMEOUT }, () => {
     await circle.fill('40');
     await dialog.getByLabel(`Quantity of ${art[1].name}`).fill('1');
     await dialog.getByRole('button', { name: 'Arrange' }).click();
-    await expect.poll(() => page.getByTestId('arrange-summary').textContent(), { timeout: 20_000 }).toMatch(/The quantity needs \d+ sheets/);
+    await expect
+      .poll(() => page.getByTestId('arrange-summary').textContent(), { timeout: 20_000 })
+      .toMatch(/The quantity needs \d+ sheets/);
     const summary = (await page.getByTestId('arrange-summary').textContent())!;
     const needed = Number(/needs (\d+) sheets/.exec(summary)![1]);
     const onThis = Number(/^Preview: (\d+) of 42 placed/.exec(summary)![1]);
@@ -239,8 +263,12 @@ describe('sheet editor in Chromium', { timeout: BROWSER_TEST_TIMEOUT }, () => {
     // Every sticker asked for is on exactly one sheet: this one and the ones made.
     const { body: list } = await client.get(`/api/teams/${team.id}/sheets`);
     const further = (list.sheets as Array<{ id: string; name: string }>).filter((s) => s.name.startsWith('Ghost run · sheet '));
-    expect(further.map((s) => s.name).sort()).toEqual(Array.from({ length: needed - 1 }, (_, i) => `Ghost run · sheet ${i + 2} of ${needed}`).sort());
-    const docs = [await sheetOf(client, team.id, sheet.id), ...(await Promise.all(further.map((s) => sheetOf(client, team.id, s.id))))].map((d) => d.document.pieces as Piece[]);
+    expect(further.map((s) => s.name).sort()).toEqual(
+      Array.from({ length: needed - 1 }, (_, i) => `Ghost run · sheet ${i + 2} of ${needed}`).sort(),
+    );
+    const docs = [await sheetOf(client, team.id, sheet.id), ...(await Promise.all(further.map((s) => sheetOf(client, team.id, s.id))))].map(
+      (d) => d.document.pieces as Piece[],
+    );
     expect(docs[0]).toHaveLength(onThis);
     const byArt = (id: string) => docs.flat().filter((p) => p.artId === id).length;
     expect([byArt(art[0].id), byArt(art[1].id), byArt(art[2].id)]).toEqual([40, 1, 1]);
@@ -271,7 +299,13 @@ describe('sheet editor in Chromium', { timeout: BROWSER_TEST_TIMEOUT }, () => {
     const { body: sheet } = await client.post(`/api/teams/${team.id}/sheets`, { name: 'Crowded' });
     const pieces: Piece[] = [];
     for (let i = 0; i < 150; i++) {
-      pieces.push(testPiece(`b${i}`, art[i % 3].id, 8 + (i % 13) * 12.5, 8 + Math.floor(i / 13) * 19, { rotation: (i * 15) % 360, width: 9, border: 1.5 }));
+      pieces.push(
+        testPiece(`b${i}`, art[i % 3].id, 8 + (i % 13) * 12.5, 8 + Math.floor(i / 13) * 19, {
+          rotation: (i * 15) % 360,
+          width: 9,
+          border: 1.5,
+        }),
+      );
     }
     await placePieces(client, team.id, sheet, pieces);
     const page = await t.browser.newPage({ viewport: { width: 1280, height: 900 } });

@@ -28,7 +28,10 @@ describe('export panel in Chromium', { timeout: BROWSER_TEST_TIMEOUT }, () => {
     await expect.poll(() => files.count(), { timeout: 30_000 }).toBe(7);
     expect(await files.allTextContents()).toContain('Print image (PNG) for the cutter software');
     expect(await page.getByRole('link', { name: 'Everything in one zip' }).count()).toBe(1);
-    const [download] = await Promise.all([page.waitForEvent('download'), page.getByRole('link', { name: 'Print image (PNG) for the cutter software' }).click()]);
+    const [download] = await Promise.all([
+      page.waitForEvent('download'),
+      page.getByRole('link', { name: 'Print image (PNG) for the cutter software' }).click(),
+    ]);
     expect(download.suggestedFilename()).toBe('market-singles-print.png');
     await screenshot(page, 'export-panel-files');
     await page.close();
@@ -40,9 +43,24 @@ describe('export panel in Chromium', { timeout: BROWSER_TEST_TIMEOUT }, () => {
     await admin.signIn(users.admin.email);
     const [profile] = (await admin.get(`/api/teams/${team.id}/sheet-profiles`)).body.profiles;
     const { id: _id, isDefault: _d, ...fields } = profile;
-    expect((await admin.send('put', `/api/teams/${team.id}/sheet-profiles/${profile.id}`, { ...fields, regMarkShape: 'bracket', regMarkSizeMm: 6.35, regMarkOffsetMm: 3.175 })).status).toBe(200);
+    expect(
+      (
+        await admin.send('put', `/api/teams/${team.id}/sheet-profiles/${profile.id}`, {
+          ...fields,
+          regMarkShape: 'bracket',
+          regMarkSizeMm: 6.35,
+          regMarkOffsetMm: 3.175,
+        })
+      ).status,
+    ).toBe(200);
     // Two discs joined by a bar 0.6 mm wide at 40 mm, cut with no border.
-    const necked = await sharp(Buffer.from('<svg xmlns="http://www.w3.org/2000/svg" width="1600" height="640" viewBox="0 0 40 16"><circle cx="8" cy="8" r="8" fill="#1f618d"/><circle cx="32" cy="8" r="8" fill="#1f618d"/><rect x="15" y="7.7" width="10" height="0.6" fill="#1f618d"/></svg>')).png().toBuffer();
+    const necked = await sharp(
+      Buffer.from(
+        '<svg xmlns="http://www.w3.org/2000/svg" width="1600" height="640" viewBox="0 0 40 16"><circle cx="8" cy="8" r="8" fill="#1f618d"/><circle cx="32" cy="8" r="8" fill="#1f618d"/><rect x="15" y="7.7" width="10" height="0.6" fill="#1f618d"/></svg>',
+      ),
+    )
+      .png()
+      .toBuffer();
     const art = (await uploadFile(admin, team.id, necked, 'dumbbell.png')).body.results[0].item;
     const { body: sheet } = await admin.post(`/api/teams/${team.id}/sheets`, { name: 'Dumbbells', unit: 'in' });
     await placePieces(admin, team.id, sheet, [testPiece('n1', art.id, 60, 60, { width: 40, border: 0 })]);
@@ -56,7 +74,9 @@ describe('export panel in Chromium', { timeout: BROWSER_TEST_TIMEOUT }, () => {
     await screenshot(page, 'neck-in-live-preflight');
     await page.getByRole('button', { name: 'Export…' }).click();
     expect(await page.getByTestId('export-warnings').textContent()).toMatch(neck);
-    expect(await page.getByTestId('export-marks').textContent()).toBe('Registration marks from the profile: corner brackets 0.25 in, 0.125 in outside three corners, printed on the PDF page. Cut layer colour: CutContour.');
+    expect(await page.getByTestId('export-marks').textContent()).toBe(
+      'Registration marks from the profile: corner brackets 0.25 in, 0.125 in outside three corners, printed on the PDF page. Cut layer colour: CutContour.',
+    );
     expect(await page.getByLabel('Outline the marks in the cut files too').isChecked()).toBe(false);
     await screenshot(page, 'export-panel-neck-and-marks');
     await page.close();

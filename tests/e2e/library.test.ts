@@ -24,7 +24,11 @@ async function critterPack(): Promise<string> {
     );
   }
   // One flat JPEG on white: the library offers background removal for it.
-  files['Critter_Pack/critter-12.jpg'] = await sharp(Buffer.from('<svg xmlns="http://www.w3.org/2000/svg" width="600" height="500"><rect width="600" height="500" fill="#fff"/><path d="M120 400 Q300 40 480 400 Z" fill="#6d4c41"/></svg>'))
+  files['Critter_Pack/critter-12.jpg'] = await sharp(
+    Buffer.from(
+      '<svg xmlns="http://www.w3.org/2000/svg" width="600" height="500"><rect width="600" height="500" fill="#fff"/><path d="M120 400 Q300 40 480 400 Z" fill="#6d4c41"/></svg>',
+    ),
+  )
     .jpeg({ quality: 92 })
     .toBuffer();
   const dir = await mkdtemp(path.join(tmpdir(), 'sheetsmith-e2e-'));
@@ -76,7 +80,9 @@ describe('art library in Chromium', { timeout: BROWSER_TEST_TIMEOUT }, () => {
     await page.getByRole('link', { name: 'critter-12' }).click();
     await page.getByRole('heading', { name: 'Background' }).waitFor();
     await page.getByTestId('after-preview').waitFor({ timeout: 30_000 });
-    await expect.poll(() => page.getByTestId('after-preview').evaluate((img: HTMLImageElement) => img.complete && img.naturalWidth > 0)).toBe(true);
+    await expect
+      .poll(() => page.getByTestId('after-preview').evaluate((img: HTMLImageElement) => img.complete && img.naturalWidth > 0))
+      .toBe(true);
     await screenshot(page, 'library-art-detail');
     await page.close();
   });
@@ -96,9 +102,18 @@ describe('art library in Chromium', { timeout: BROWSER_TEST_TIMEOUT }, () => {
     const { team, users } = await makeTeamWithRoles(t.db);
     const admin = new Client(t.served.url);
     await admin.signIn(users.admin.email);
-    const pack = (await admin.post(`/api/teams/${team.id}/collections`, { name: 'Harvest Moon Pack', licence: { kind: 'commercial_limited', source: 'Hollyhock Bundles', unitLimit: 200 } })).body;
+    const pack = (
+      await admin.post(`/api/teams/${team.id}/collections`, {
+        name: 'Harvest Moon Pack',
+        licence: { kind: 'commercial_limited', source: 'Hollyhock Bundles', unitLimit: 200 },
+      })
+    ).body;
     const market = (await admin.post(`/api/teams/${team.id}/collections`, { name: 'Autumn Market' })).body;
-    const art = (await uploadFile(admin, team.id, await svgArt(500, 500, '<circle cx="250" cy="250" r="230" fill="#d35400"/>'), 'gourd.png', { collectionId: pack.id })).body.results[0].item;
+    const art = (
+      await uploadFile(admin, team.id, await svgArt(500, 500, '<circle cx="250" cy="250" r="230" fill="#d35400"/>'), 'gourd.png', {
+        collectionId: pack.id,
+      })
+    ).body.results[0].item;
     const page = await t.browser.newPage({ viewport: { width: 1280, height: 900 } });
     await signIn(page, users.admin.email);
     // The collection list arrives late, as on a slow connection.
@@ -124,7 +139,9 @@ describe('art library in Chromium', { timeout: BROWSER_TEST_TIMEOUT }, () => {
     expect(await page.getByRole('checkbox', { name: 'Harvest Moon Pack' }).isChecked()).toBe(true);
     await second.check();
     await page.getByRole('button', { name: 'Save details' }).click();
-    await expect.poll(async () => (await admin.get(`/api/teams/${team.id}/art/${art.id}`)).body.collections.length, { timeout: 15_000 }).toBe(2);
+    await expect
+      .poll(async () => (await admin.get(`/api/teams/${team.id}/art/${art.id}`)).body.collections.length, { timeout: 15_000 })
+      .toBe(2);
     stored = (await admin.get(`/api/teams/${team.id}/art/${art.id}`)).body;
     expect(stored.collections.map((c: { id: string }) => c.id)).toEqual([pack.id, market.id]);
     expect(stored.licence).toMatchObject({ kind: 'commercial_limited', unitLimit: 200, inheritedFrom: { name: 'Harvest Moon Pack' } });
@@ -138,14 +155,23 @@ describe('art library in Chromium', { timeout: BROWSER_TEST_TIMEOUT }, () => {
     const member = new Client(t.served.url);
     await member.signIn(users.member.email);
     // A candy-corn-like piece with no transparency: a cream tip (about 37 from white) on white, 300 DPI at the preview's 3 in.
-    const corn = await sharp(Buffer.from(`<svg xmlns="http://www.w3.org/2000/svg" width="1500" height="1500" viewBox="0 0 600 600"><rect width="600" height="600" fill="#fff"/><clipPath id="c"><polygon points="300,40 480,560 120,560"/></clipPath><g clip-path="url(#c)"><rect width="600" height="200" fill="#fcf4dc"/><rect y="200" width="600" height="180" fill="#f28c28"/><rect y="380" width="600" height="220" fill="#f7c531"/></g></svg>`)).flatten({ background: '#ffffff' }).png().toBuffer();
+    const corn = await sharp(
+      Buffer.from(
+        `<svg xmlns="http://www.w3.org/2000/svg" width="1500" height="1500" viewBox="0 0 600 600"><rect width="600" height="600" fill="#fff"/><clipPath id="c"><polygon points="300,40 480,560 120,560"/></clipPath><g clip-path="url(#c)"><rect width="600" height="200" fill="#fcf4dc"/><rect y="200" width="600" height="180" fill="#f28c28"/><rect y="380" width="600" height="220" fill="#f7c531"/></g></svg>`,
+      ),
+    )
+      .flatten({ background: '#ffffff' })
+      .png()
+      .toBuffer();
     const art = (await uploadFile(member, team.id, corn, 'candy-corn.png')).body.results[0].item;
     const page = await t.browser.newPage({ viewport: { width: 1280, height: 800 } });
     await signInThroughForm(page, t.served.url, users.member.email);
     await page.goto(`${t.served.url}/t/${team.id}/library/${art.id}`);
     await page.getByRole('heading', { name: 'Background' }).waitFor();
     const removal = page.getByTestId('removal-preview');
-    await expect.poll(() => removal.evaluate((img: HTMLImageElement) => img.complete && img.naturalWidth > 0), { timeout: 30_000 }).toBe(true);
+    await expect
+      .poll(() => removal.evaluate((img: HTMLImageElement) => img.complete && img.naturalWidth > 0), { timeout: 30_000 })
+      .toBe(true);
     await page.getByTestId('after-preview').waitFor({ timeout: 30_000 });
     expect(await page.getByTestId('tolerance-value').textContent()).toBe('32');
     expect(await page.getByTestId('outline-cautions').count()).toBe(0);
@@ -153,9 +179,13 @@ describe('art library in Chromium', { timeout: BROWSER_TEST_TIMEOUT }, () => {
     await page.getByRole('slider').focus();
     for (let i = 0; i < 10; i++) await page.keyboard.press('ArrowRight');
     expect(await page.getByTestId('tolerance-value').textContent()).toBe('42');
-    await expect.poll(() => page.getByTestId('outline-cautions').textContent(), { timeout: 30_000 }).toMatch(/Background removal at tolerance 42 also took away \d+(\.\d)? % of the art/);
+    await expect
+      .poll(() => page.getByTestId('outline-cautions').textContent(), { timeout: 30_000 })
+      .toMatch(/Background removal at tolerance 42 also took away \d+(\.\d)? % of the art/);
     await expect.poll(() => removal.getAttribute('src')).toContain('backgroundTolerance=42');
-    await expect.poll(() => removal.evaluate((img: HTMLImageElement) => img.complete && img.naturalWidth > 0), { timeout: 30_000 }).toBe(true);
+    await expect
+      .poll(() => removal.evaluate((img: HTMLImageElement) => img.complete && img.naturalWidth > 0), { timeout: 30_000 })
+      .toBe(true);
     await screenshot(page, 'background-removal-eats-tip');
     // Another mode starts from its own default, not from 42.
     await page.getByLabel('Remove a colour').check();

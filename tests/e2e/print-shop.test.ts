@@ -13,21 +13,41 @@ describe('print shop in Chromium', { timeout: BROWSER_TEST_TIMEOUT }, () => {
     const owner = new Client(t.served.url);
     await owner.signIn(users.owner.email);
     const base = `/api/teams/${team.id}`;
-    const sharp = (await uploadFile(owner, team.id, await svgArt(1200, 1200, '<circle cx="600" cy="600" r="600" fill="#117a65"/>'), 'fern-badge.png')).body.results[0].item;
-    const soft = (await uploadFile(owner, team.id, await svgArt(80, 80, '<circle cx="40" cy="40" r="40" fill="#a93226"/>'), 'tiny-berry.png')).body.results[0].item;
+    const sharp = (
+      await uploadFile(owner, team.id, await svgArt(1200, 1200, '<circle cx="600" cy="600" r="600" fill="#117a65"/>'), 'fern-badge.png')
+    ).body.results[0].item;
+    const soft = (
+      await uploadFile(owner, team.id, await svgArt(80, 80, '<circle cx="40" cy="40" r="40" fill="#a93226"/>'), 'tiny-berry.png')
+    ).body.results[0].item;
     const { body: sheet } = await owner.post(`${base}/sheets`, { name: 'Market sheet' });
     // Two 38 mm badges with a 1/8 in border (44.35 mm across) 2 mm apart, under the 1/8 in gap;
     // an 80 px berry printed 30 mm wide: 68 DPI, under 150.
-    const pieces = [testPiece('b1', sharp.id, 40, 40), testPiece('b2', sharp.id, 86.35, 40), testPiece('berry', soft.id, 40, 120, { width: 30 })];
+    const pieces = [
+      testPiece('b1', sharp.id, 40, 40),
+      testPiece('b2', sharp.id, 86.35, 40),
+      testPiece('berry', soft.id, 40, 120, { width: 30 }),
+    ];
     expect((await placePieces(owner, team.id, sheet, pieces)).status).toBe(200);
-    const stock = (await owner.post(`${base}/stock`, { name: 'Matte sticker paper', finish: 'matte', paper: 'letter', packPrice: 18, sheetsPerPack: 100, onHand: 20, cutterSettings: { material: 'Matte sticker', pressure: '4', passes: 1, blade: '' } })).body;
+    const stock = (
+      await owner.post(`${base}/stock`, {
+        name: 'Matte sticker paper',
+        finish: 'matte',
+        paper: 'letter',
+        packPrice: 18,
+        sheetsPerPack: 100,
+        onHand: 20,
+        cutterSettings: { material: 'Matte sticker', pressure: '4', passes: 1, blade: '' },
+      })
+    ).body;
     const cutter = await benchCutter(owner, team.id);
 
     const page = await t.browser.newPage({ viewport: { width: 1280, height: 900 } });
     await signInThroughForm(page, t.served.url, users.member.email);
     await page.goto(`${t.served.url}/t/${team.id}/sheets/${sheet.id}`);
     const list = page.getByTestId('preflight');
-    await expect.poll(() => list.textContent(), { timeout: 20_000 }).toMatch(/fern-badge 1 and fern-badge 2 are 0\.0[78]\d in apart; the cutter needs 0\.125 in/);
+    await expect
+      .poll(() => list.textContent(), { timeout: 20_000 })
+      .toMatch(/fern-badge 1 and fern-badge 2 are 0\.0[78]\d in apart; the cutter needs 0\.125 in/);
     await expect.poll(() => list.textContent()).toMatch(/tiny-berry prints at 68 DPI: under 150 looks soft/);
     await screenshot(page, 'preflight-in-editor');
 
@@ -67,7 +87,9 @@ describe('print shop in Chromium', { timeout: BROWSER_TEST_TIMEOUT }, () => {
     // A double click logs the run once.
     await form.getByRole('button', { name: 'Log run' }).dblclick();
     const metres = ((3 * analysis.cutLengthMm) / 1000).toFixed(2);
-    await expect.poll(() => page.getByTestId('run-logged').textContent(), { timeout: 15_000 }).toBe(`Logged: 3 × Market sheet, ${metres} m of cut.`);
+    await expect
+      .poll(() => page.getByTestId('run-logged').textContent(), { timeout: 15_000 })
+      .toBe(`Logged: 3 × Market sheet, ${metres} m of cut.`);
     await expect.poll(() => page.getByTestId(`blade-${cutter.id}`).getByTestId('blade-length').textContent()).toBe(`${metres} m`);
     await expect.poll(() => page.getByTestId(`stock-${stock.id}`).getByTestId('on-hand').textContent()).toBe('17');
     // The form is ready for the next run: sheet, copies and notes blank, stock and cutter kept; pressing
@@ -79,8 +101,15 @@ describe('print shop in Chromium', { timeout: BROWSER_TEST_TIMEOUT }, () => {
     await form.getByRole('button', { name: 'Log run' }).click();
     await expect.poll(() => page.getByRole('alert').first().textContent()).toMatch(/sheet/i);
     expect((await owner.get(`${base}/print-runs`)).body.runs).toHaveLength(1);
-    expect((await owner.get(`${base}/print-runs`)).body.runs[0].cutterSettings).toEqual({ material: 'Matte sticker', pressure: '5', passes: 1, blade: '' });
-    await expect.poll(() => page.getByTestId('runs-table').textContent()).toMatch(/Market sheet v\d.*3.*3.*Matte sticker paper.*Bench cutter \/ Fine blade.*Tore.*Berry corner lifted/);
+    expect((await owner.get(`${base}/print-runs`)).body.runs[0].cutterSettings).toEqual({
+      material: 'Matte sticker',
+      pressure: '5',
+      passes: 1,
+      blade: '',
+    });
+    await expect
+      .poll(() => page.getByTestId('runs-table').textContent())
+      .toMatch(/Market sheet v\d.*3.*3.*Matte sticker paper.*Bench cutter \/ Fine blade.*Tore.*Berry corner lifted/);
     expect(await page.getByTestId('run-chart').count()).toBe(1);
     await screenshot(page, 'print-room-after-run');
     await page.close();
@@ -146,8 +175,19 @@ describe('print shop in Chromium', { timeout: BROWSER_TEST_TIMEOUT }, () => {
     const owner = new Client(t.served.url);
     await owner.signIn(users.owner.email);
     const base = `/api/teams/${team.id}`;
-    const profile = (await owner.post(`${base}/sheet-profiles`, { name: 'Letter market', paper: 'letter', areaWidthMm: 171.45, areaHeightMm: 234.95, safeMarginMm: 3.175, minGapMm: 3.175 })).body;
-    const art = (await uploadFile(owner, team.id, await svgArt(1200, 1200, '<circle cx="600" cy="600" r="600" fill="#6c3483"/>'), 'plum.png')).body.results[0].item;
+    const profile = (
+      await owner.post(`${base}/sheet-profiles`, {
+        name: 'Letter market',
+        paper: 'letter',
+        areaWidthMm: 171.45,
+        areaHeightMm: 234.95,
+        safeMarginMm: 3.175,
+        minGapMm: 3.175,
+      })
+    ).body;
+    const art = (
+      await uploadFile(owner, team.id, await svgArt(1200, 1200, '<circle cx="600" cy="600" r="600" fill="#6c3483"/>'), 'plum.png')
+    ).body.results[0].item;
     const { body: sheet } = await owner.post(`${base}/sheets`, { name: 'Plums', profileId: profile.id });
     expect((await placePieces(owner, team.id, sheet, [testPiece('p1', art.id, 40, 40, { width: 19.05 })])).status).toBe(200);
 
@@ -160,13 +200,20 @@ describe('print shop in Chromium', { timeout: BROWSER_TEST_TIMEOUT }, () => {
     await edit.getByLabel('Smallest sticker (in)').fill('1.5');
     await screenshot(page, 'profile-edit');
     await edit.getByLabel('Smallest sticker (in)').press('Enter');
-    await expect.poll(async () => (await owner.get(`${base}/sheet-profiles`)).body.profiles.find((p: { id: string }) => p.id === profile.id)?.smallestStickerMm).toBeCloseTo(38.1, 6);
+    await expect
+      .poll(
+        async () =>
+          (await owner.get(`${base}/sheet-profiles`)).body.profiles.find((p: { id: string }) => p.id === profile.id)?.smallestStickerMm,
+      )
+      .toBeCloseTo(38.1, 6);
     const saved = (await owner.get(`${base}/sheet-profiles`)).body.profiles.find((p: { id: string }) => p.id === profile.id);
     for (const key of ['areaXMm', 'areaYMm', 'areaWidthMm', 'minGapMm'] as const) expect(saved[key]).toBeCloseTo(profile[key], 3);
 
     // A 3/4 in plum with a 1/8 in border is 1 in across: under the new 1.5 in smallest sticker.
     await page.goto(`${t.served.url}/t/${team.id}/sheets/${sheet.id}`);
-    await expect.poll(() => page.getByTestId('preflight').textContent(), { timeout: 20_000 }).toMatch(/plum is 1 in across, under the 1\.5 in smallest practical sticker/);
+    await expect
+      .poll(() => page.getByTestId('preflight').textContent(), { timeout: 20_000 })
+      .toMatch(/plum is 1 in across, under the 1\.5 in smallest practical sticker/);
     await screenshot(page, 'preflight-after-profile-edit');
     await page.close();
   });

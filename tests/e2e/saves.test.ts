@@ -59,14 +59,26 @@ describe('saves are never silent', { timeout: BROWSER_TEST_TIMEOUT }, () => {
       if (route.request().method() !== 'PUT') return route.continue();
       puts += 1;
       if (puts > 1) return route.continue();
-      await route.fulfill({ status: 400, contentType: 'application/json', body: JSON.stringify({ error: { code: 'validation_failed', message: 'Piece 1 uses a border this shop does not allow. Nothing was saved.', fields: { 'document.pieces.0.border': 'Not allowed' } } }) });
+      await route.fulfill({
+        status: 400,
+        contentType: 'application/json',
+        body: JSON.stringify({
+          error: {
+            code: 'validation_failed',
+            message: 'Piece 1 uses a border this shop does not allow. Nothing was saved.',
+            fields: { 'document.pieces.0.border': 'Not allowed' },
+          },
+        }),
+      });
     });
     await openWithSelected(page, team.id, sheet.id, users.member.email, { x: 60, y: 60 });
     const width = page.getByLabel('Art width (in)');
     await width.fill('2');
     await width.press('Enter');
     const refusal = page.getByTestId('save-refusal');
-    await expect.poll(() => refusal.textContent(), { timeout: 15_000 }).toMatch(/Piece 1 uses a border this shop does not allow.*Change it and the sheet saves again/);
+    await expect
+      .poll(() => refusal.textContent(), { timeout: 15_000 })
+      .toMatch(/Piece 1 uses a border this shop does not allow.*Change it and the sheet saves again/);
     await expect.poll(() => page.getByTestId('save-state').textContent()).toBe('Not saved: see why');
     await screenshot(page, 'editor-save-refused');
     // Not retried on its own.
@@ -99,7 +111,9 @@ describe('saves are never silent', { timeout: BROWSER_TEST_TIMEOUT }, () => {
     const width = page.getByLabel('Art width (in)');
     await width.fill('1.25');
     await width.press('Enter');
-    await expect.poll(() => page.getByTestId('save-refusal').textContent(), { timeout: 15_000 }).toMatch(/far outside the print area.*fitted it back within reach/);
+    await expect
+      .poll(() => page.getByTestId('save-refusal').textContent(), { timeout: 15_000 })
+      .toMatch(/far outside the print area.*fitted it back within reach/);
     await expect.poll(() => page.getByTestId('save-state').textContent(), { timeout: 15_000 }).toBe('All changes saved');
     await screenshot(page, 'editor-fitted-back');
     const saved = (await sheetOf(client, team.id, sheet.id)).document.pieces as Piece[];

@@ -106,7 +106,10 @@ describe('the demo shop', { timeout: BROWSER_TEST_TIMEOUT }, () => {
     const teamId = (await owner.get('/api/me')).body.teams.find((x: { teamName: string }) => x.teamName === DEMO_SHOP).teamId;
     const base = `/api/teams/${teamId}`;
     const { sheets } = (await owner.get(`${base}/sheets`)).body;
-    expect(sheets.map((s: { name: string }) => s.name).sort()).toEqual(['Garden party, market sheet', 'Space doodles for the Hartwell kids']);
+    expect(sheets.map((s: { name: string }) => s.name).sort()).toEqual([
+      'Garden party, market sheet',
+      'Space doodles for the Hartwell kids',
+    ]);
     for (const sheet of sheets) {
       expect(sheet.pieceCount).toBeGreaterThanOrEqual(9);
       expect(sheet.cost?.sheet).toBeGreaterThan(0);
@@ -117,8 +120,11 @@ describe('the demo shop', { timeout: BROWSER_TEST_TIMEOUT }, () => {
     const { runs } = (await owner.get(`${base}/print-runs`)).body;
     expect(runs).toHaveLength(5);
     const { stock } = (await owner.get(`${base}/stock`)).body;
-    const used = (name: string) => runs.filter((r: { stock: { name: string } }) => r.stock.name === name).reduce((n: number, r: { copies: number }) => n + r.copies, 0);
-    expect(stock.find((s: { name: string }) => s.name === 'Puddle glossy sticker paper').onHand).toBe(64 - used('Puddle glossy sticker paper'));
+    const used = (name: string) =>
+      runs.filter((r: { stock: { name: string } }) => r.stock.name === name).reduce((n: number, r: { copies: number }) => n + r.copies, 0);
+    expect(stock.find((s: { name: string }) => s.name === 'Puddle glossy sticker paper').onHand).toBe(
+      64 - used('Puddle glossy sticker paper'),
+    );
     expect(stock.find((s: { name: string }) => s.name === 'Frosted clear vinyl').onHand).toBe(6 - used('Frosted clear vinyl'));
     const cutter = (await owner.get(`${base}/machines`)).body.machines.find((m: { kind: string }) => m.kind === 'cutter');
     const total = runs.reduce((m: number, r: { cutLengthM: number }) => m + r.cutLengthM, 0);

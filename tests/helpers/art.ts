@@ -19,11 +19,18 @@ export function maskArt(width: number, height: number, inside: (x: number, y: nu
       data[i + 3] = 255;
     }
   }
-  return sharp(data, { raw: { width, height, channels: 4 } }).png().toBuffer();
+  return sharp(data, { raw: { width, height, channels: 4 } })
+    .png()
+    .toBuffer();
 }
 
 /** Decodes a PNG to RGBA pixels. */
 export async function pixels(png: Buffer) {
   const { data, info } = await sharp(png).ensureAlpha().raw().toBuffer({ resolveWithObject: true });
-  return { data, width: info.width, height: info.height, at: (x: number, y: number) => [...data.subarray((y * info.width + x) * 4, (y * info.width + x) * 4 + 4)] };
+  return {
+    data,
+    width: info.width,
+    height: info.height,
+    at: (x: number, y: number) => [...data.subarray((y * info.width + x) * 4, (y * info.width + x) * 4 + 4)],
+  };
 }

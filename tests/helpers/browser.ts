@@ -38,7 +38,13 @@ export function launchChromium(): Promise<Browser> {
 
 /** The real app (API + built client) listening on a free loopback port. */
 export async function serveApp(dataSource: DataSource) {
-  const sheetsmith = createApp({ env, dataSource, clientDir: path.resolve('dist'), rateLimitPrefix: unique('e2e'), queuePrefix: unique('e2eq') });
+  const sheetsmith = createApp({
+    env,
+    dataSource,
+    clientDir: path.resolve('dist'),
+    rateLimitPrefix: unique('e2e'),
+    queuePrefix: unique('e2eq'),
+  });
   const server: Server = await new Promise((resolve) => {
     const s = sheetsmith.app.listen(0, '127.0.0.1', () => resolve(s));
   });

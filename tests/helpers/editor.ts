@@ -9,9 +9,17 @@ export async function teamWithShapes(db: DataSource, url: string) {
   const { team, users } = await makeTeamWithRoles(db);
   const client = new Client(url);
   await client.signIn(users.member.email);
-  const shapes = ['<circle cx="300" cy="300" r="270" fill="#1f618d"/>', '<rect x="45" y="45" width="510" height="510" rx="90" fill="#b9770e"/>', '<path d="M300 30 L570 570 L30 570 Z" fill="#7d3c98"/>'];
+  const shapes = [
+    '<circle cx="300" cy="300" r="270" fill="#1f618d"/>',
+    '<rect x="45" y="45" width="510" height="510" rx="90" fill="#b9770e"/>',
+    '<path d="M300 30 L570 570 L30 570 Z" fill="#7d3c98"/>',
+  ];
   const art = [];
-  for (const [i, shape] of shapes.entries()) art.push((await uploadFile(client, team.id, await svgArt(1200, 1200, `<g transform="scale(2)">${shape}</g>`), `shape-${i + 1}.png`)).body.results[0].item);
+  for (const [i, shape] of shapes.entries())
+    art.push(
+      (await uploadFile(client, team.id, await svgArt(1200, 1200, `<g transform="scale(2)">${shape}</g>`), `shape-${i + 1}.png`)).body
+        .results[0].item,
+    );
   return { team, users, client, art };
 }
 

@@ -24,7 +24,10 @@ export async function ownMariaDb(label: string) {
   const dataDir = path.join(env.dataDir, `own-db-${label}`);
   const database = `sheetsmith_${label}`;
   const shell = (script: string) =>
-    run('bash', ['-c', `. scripts/env.sh && ${script}`], { env: { ...process.env, DATA_DIR: dataDir, DB_PORT: String(port) }, timeout: 120_000 });
+    run('bash', ['-c', `. scripts/env.sh && ${script}`], {
+      env: { ...process.env, DATA_DIR: dataDir, DB_PORT: String(port) },
+      timeout: 120_000,
+    });
   return {
     port,
     database,

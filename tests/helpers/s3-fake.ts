@@ -13,7 +13,14 @@ export async function startS3Fake(bucket = 'sheetsmith-test') {
   const { port } = (await server.run()) as { port: number };
   return {
     endpoint: `http://127.0.0.1:${port}`,
-    settings: { endpoint: `http://127.0.0.1:${port}`, region: 'us-east-1', bucket, accessKeyId: 'S3RVER', secretAccessKey: 'S3RVER', forcePathStyle: true },
+    settings: {
+      endpoint: `http://127.0.0.1:${port}`,
+      region: 'us-east-1',
+      bucket,
+      accessKeyId: 'S3RVER',
+      secretAccessKey: 'S3RVER',
+      forcePathStyle: true,
+    },
     close: async () => {
       await server.close();
       await rm(directory, { recursive: true, force: true });

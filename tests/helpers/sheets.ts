@@ -22,6 +22,11 @@ export const placePieces = (client: Client, teamId: string, sheet: { id: string;
 /** A cutter named "Bench cutter" with a 600 m blade fitted. */
 export async function benchCutter(client: Client, teamId: string) {
   const cutter = (await client.post(`/api/teams/${teamId}/machines`, { kind: 'cutter', name: 'Bench cutter' })).body;
-  await client.post(`/api/teams/${teamId}/machines/${cutter.id}/blades`, { label: 'Fine blade', fittedOn: '2026-11-20', lifeM: 600, price: 9 });
+  await client.post(`/api/teams/${teamId}/machines/${cutter.id}/blades`, {
+    label: 'Fine blade',
+    fittedOn: '2026-11-20',
+    lifeM: 600,
+    price: 9,
+  });
   return cutter;
 }

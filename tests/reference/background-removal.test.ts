@@ -8,7 +8,8 @@ import { DEFAULT_LIMITS } from '../../server/engine/outline/outline';
 // A candy-corn-like piece on a white background with no transparency: a yellow base, an orange
 // middle and a light cream tip (#fcf4dc, about 37 from white in RGB): close enough to white that a
 // loose tolerance floods into it from the background.
-const TIP_TOP = 40, TIP_BOTTOM = 200;
+const TIP_TOP = 40,
+  TIP_BOTTOM = 200;
 const candyCorn = () =>
   sharp(
     Buffer.from(`<svg xmlns="http://www.w3.org/2000/svg" width="600" height="600">
@@ -25,7 +26,8 @@ const candyCorn = () =>
     .png()
     .toBuffer();
 
-const tookArt = (warnings: Array<{ code: string; message: string; severity: string }>) => warnings.filter((w) => w.code === 'background-took-art');
+const tookArt = (warnings: Array<{ code: string; message: string; severity: string }>) =>
+  warnings.filter((w) => w.code === 'background-took-art');
 
 describe('background removal protects the art', () => {
   it('each mode keeps the light tip at its own default tolerance, and says nothing', async () => {
@@ -52,12 +54,18 @@ describe('background removal protects the art', () => {
 
   it('a noisy JPEG background is removed at the default without a false warning', async () => {
     // White paper with grain of ±8 per channel, saved as a JPEG at quality 70, and a plain red disc.
-    const W = 400, noise = Buffer.alloc(W * W * 3);
+    const W = 400,
+      noise = Buffer.alloc(W * W * 3);
     let seed = 7;
-    const rand = () => ((seed = (seed * 1103515245 + 12345) & 0x7fffffff) / 0x7fffffff);
+    const rand = () => (seed = (seed * 1103515245 + 12345) & 0x7fffffff) / 0x7fffffff;
     for (let i = 0; i < noise.length; i++) noise[i] = 247 + Math.floor(rand() * 9);
-    const disc = Buffer.from(`<svg xmlns="http://www.w3.org/2000/svg" width="${W}" height="${W}"><circle cx="200" cy="200" r="120" fill="#c0392b"/></svg>`);
-    const jpeg = await sharp(noise, { raw: { width: W, height: W, channels: 3 } }).composite([{ input: disc }]).jpeg({ quality: 70 }).toBuffer();
+    const disc = Buffer.from(
+      `<svg xmlns="http://www.w3.org/2000/svg" width="${W}" height="${W}"><circle cx="200" cy="200" r="120" fill="#c0392b"/></svg>`,
+    );
+    const jpeg = await sharp(noise, { raw: { width: W, height: W, channels: 3 } })
+      .composite([{ input: disc }])
+      .jpeg({ quality: 70 })
+      .toBuffer();
     const result = await outline(jpeg, { width: '2in', background: 'auto', dpi: 150 });
     expect(result.warnings.map((w) => w.code)).toContain('background-removed');
     expect(tookArt(result.warnings)).toEqual([]);
@@ -70,7 +78,8 @@ describe('background removal protects the art', () => {
     const count = async (tolerance: number) => {
       const { png, takenShare } = await removalPreview(art, { background: 'auto', backgroundTolerance: tolerance }, DEFAULT_LIMITS);
       const { data, info } = await sharp(png).raw().toBuffer({ resolveWithObject: true });
-      let magenta = 0, tinted = 0;
+      let magenta = 0,
+        tinted = 0;
       for (let i = 0; i < data.length; i += info.channels) {
         // The taken tint over cream is about (208, 37, 135); none of the art's colours is near it.
         if (data[i] > 190 && data[i] < 225 && data[i + 1] < 60 && data[i + 2] > 115 && data[i + 2] < 155) magenta++;

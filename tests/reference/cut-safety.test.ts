@@ -22,12 +22,19 @@ function partsAfterInset(ring: Ring, insetMm: number): number {
 // region left means the shape is at least 2r wide wherever it joins). Regions counted 4-connected.
 const RASTER_PX_PER_MM = 25;
 async function regionsAfterErosion(ring: Ring, widthMm: number, heightMm: number, halfWidthMm: number): Promise<number> {
-  const k = RASTER_PX_PER_MM, pad = 4;
-  const w = Math.ceil(widthMm * k) + 2 * pad, h = Math.ceil(heightMm * k) + 2 * pad;
+  const k = RASTER_PX_PER_MM,
+    pad = 4;
+  const w = Math.ceil(widthMm * k) + 2 * pad,
+    h = Math.ceil(heightMm * k) + 2 * pad;
   const d = ring.map((p, i) => `${i ? 'L' : 'M'}${(p.x * k + pad).toFixed(2)} ${(p.y * k + pad).toFixed(2)}`).join('') + 'Z';
   const svg = `<svg xmlns="http://www.w3.org/2000/svg" width="${w}" height="${h}"><rect width="${w}" height="${h}" fill="#fff"/><path d="${d}" fill="#000"/></svg>`;
   // sharp's erode shrinks dark shapes on a light ground.
-  const data = await sharp(Buffer.from(svg)).flatten({ background: '#ffffff' }).extractChannel(0).erode(Math.floor(halfWidthMm * k)).raw().toBuffer();
+  const data = await sharp(Buffer.from(svg))
+    .flatten({ background: '#ffffff' })
+    .extractChannel(0)
+    .erode(Math.floor(halfWidthMm * k))
+    .raw()
+    .toBuffer();
   const seen = new Uint8Array(w * h);
   let regions = 0;
   for (let start = 0; start < w * h; start++) {
@@ -51,12 +58,21 @@ async function regionsAfterErosion(ring: Ring, widthMm: number, heightMm: number
 
 /** Art drawn in millimetres at 40 px/mm: an SVG body with a viewBox in mm. */
 const mmArt = (widthMm: number, heightMm: number, body: string) =>
-  sharp(Buffer.from(`<svg xmlns="http://www.w3.org/2000/svg" width="${widthMm * 40}" height="${heightMm * 40}" viewBox="0 0 ${widthMm} ${heightMm}">${body}</svg>`)).png().toBuffer();
+  sharp(
+    Buffer.from(
+      `<svg xmlns="http://www.w3.org/2000/svg" width="${widthMm * 40}" height="${heightMm * 40}" viewBox="0 0 ${widthMm} ${heightMm}">${body}</svg>`,
+    ),
+  )
+    .png()
+    .toBuffer();
 
 // Two discs 6.56 mm apart across 2 in: grown by a 1/8 in border their regions meet in a waist of
 // about 0.74 mm (the case that was measured), which no blade cuts cleanly (common practice: 1 mm).
-const W = inchToMm(2), GAP = 6.56, R = (W - GAP) / 4;
-const twoIslands = () => mmArt(W, 2 * R, `<circle cx="${R}" cy="${R}" r="${R}" fill="#884ea0"/><circle cx="${W - R}" cy="${R}" r="${R}" fill="#884ea0"/>`);
+const W = inchToMm(2),
+  GAP = 6.56,
+  R = (W - GAP) / 4;
+const twoIslands = () =>
+  mmArt(W, 2 * R, `<circle cx="${R}" cy="${R}" r="${R}" fill="#884ea0"/><circle cx="${W - R}" cy="${R}" r="${R}" fill="#884ea0"/>`);
 
 describe('bridges between parts of the art are at least the bridge width', () => {
   it('the case as measured: without the rule the waist is under 1 mm (the check can fail)', async () => {
@@ -85,7 +101,12 @@ describe('bridges between parts of the art are at least the bridge width', () =>
 });
 
 // One piece of art: two discs joined by a bar 0.6 mm wide, cut with no border.
-const necked = () => mmArt(40, 16, '<circle cx="8" cy="8" r="8" fill="#1f618d"/><circle cx="32" cy="8" r="8" fill="#1f618d"/><rect x="15" y="7.7" width="10" height="0.6" fill="#1f618d"/>');
+const necked = () =>
+  mmArt(
+    40,
+    16,
+    '<circle cx="8" cy="8" r="8" fill="#1f618d"/><circle cx="32" cy="8" r="8" fill="#1f618d"/><rect x="15" y="7.7" width="10" height="0.6" fill="#1f618d"/>',
+  );
 
 describe('narrow necks and slots are found and said where', () => {
   it('a 0.6 mm neck gets a narrow-neck warning at the bar, and is left as drawn', async () => {
@@ -108,7 +129,8 @@ describe('narrow necks and slots are found and said where', () => {
   });
 
   it('a slot 0.5 mm wide cut into the art is found; a 3 mm one is not', async () => {
-    const slot = (w: number) => mmArt(30, 30, `<path fill-rule="evenodd" fill="#b9770e" d="M0 0H30V30H0Z M${15 - w / 2} 0H${15 + w / 2}V18H${15 - w / 2}Z"/>`);
+    const slot = (w: number) =>
+      mmArt(30, 30, `<path fill-rule="evenodd" fill="#b9770e" d="M0 0H30V30H0Z M${15 - w / 2} 0H${15 + w / 2}V18H${15 - w / 2}Z"/>`);
     const narrow = await outline(await slot(0.5), { width: 30, border: 0, dpi: 300 });
     expect(narrow.warnings.filter((w) => w.code === 'narrow-slot')).toHaveLength(1);
     expect(narrow.warnings.find((w) => w.code === 'narrow-slot')!.at!.xMm).toBeCloseTo(15, 0);

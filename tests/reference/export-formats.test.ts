@@ -17,7 +17,8 @@ import { outline } from '../../server/engine/outline/outline';
 import { svgArt } from '../helpers/art';
 import { pngPhys, pngSize } from '../helpers/png';
 
-const W = inchToMm(6.75), H = inchToMm(9.25);
+const W = inchToMm(6.75),
+  H = inchToMm(9.25);
 const IN = 25.4;
 let sheet: ExportSheet;
 let result: Awaited<ReturnType<typeof exportSheet>>;
@@ -27,19 +28,54 @@ const file = (suffix: string) => result.files.find((f) => f.name.endsWith(suffix
 const place = (p: ExportSheet['pieces'][number]) => {
   const a = (p.piece.rotation * Math.PI) / 180;
   return p.cutLine.points.map((q) => {
-    const dx = q.x - p.cutLine.widthMm / 2, dy = q.y - p.cutLine.heightMm / 2;
+    const dx = q.x - p.cutLine.widthMm / 2,
+      dy = q.y - p.cutLine.heightMm / 2;
     return { x: p.piece.x + dx * Math.cos(a) - dy * Math.sin(a), y: p.piece.y + dx * Math.sin(a) + dy * Math.cos(a) };
   });
 };
-const bounds = (pts: Array<{ x: number; y: number }>) => [Math.min(...pts.map((p) => p.x)), Math.min(...pts.map((p) => p.y)), Math.max(...pts.map((p) => p.x)), Math.max(...pts.map((p) => p.y))];
+const bounds = (pts: Array<{ x: number; y: number }>) => [
+  Math.min(...pts.map((p) => p.x)),
+  Math.min(...pts.map((p) => p.y)),
+  Math.max(...pts.map((p) => p.x)),
+  Math.max(...pts.map((p) => p.y)),
+];
 
 beforeAll(async () => {
-  const art = await svgArt(900, 600, '<ellipse cx="450" cy="300" rx="420" ry="270" fill="#c0392b"/><circle cx="450" cy="300" r="80" fill="#f4d03f"/>');
-  const placements: Array<[number, number, number]> = [[45, 40, 0], [125, 45, 30], [50, 120, 90], [125, 130, 135], [60, 200, 200]];
+  const art = await svgArt(
+    900,
+    600,
+    '<ellipse cx="450" cy="300" rx="420" ry="270" fill="#c0392b"/><circle cx="450" cy="300" r="80" fill="#f4d03f"/>',
+  );
+  const placements: Array<[number, number, number]> = [
+    [45, 40, 0],
+    [125, 45, 30],
+    [50, 120, 90],
+    [125, 130, 135],
+    [60, 200, 200],
+  ];
   const pieces = [];
   for (const [i, [x, y, rotation]] of placements.entries()) {
-    const piece: Piece = { id: `p${i}`, artId: '1', x, y, rotation, width: 45, border: 3, borderColour: '#ffffff', locked: false, cut: i === 4 ? 'die' : 'kiss' };
-    pieces.push(await exportPiece(piece, 'ellipse.png', pieceOutlineOptions(DEFAULT_ART_BACKGROUND, piece, { minFeatureMm: 1, bridgeWidthMm: 3, dpi: 300 }), 0, (o) => outline(art, o)));
+    const piece: Piece = {
+      id: `p${i}`,
+      artId: '1',
+      x,
+      y,
+      rotation,
+      width: 45,
+      border: 3,
+      borderColour: '#ffffff',
+      locked: false,
+      cut: i === 4 ? 'die' : 'kiss',
+    };
+    pieces.push(
+      await exportPiece(
+        piece,
+        'ellipse.png',
+        pieceOutlineOptions(DEFAULT_ART_BACKGROUND, piece, { minFeatureMm: 1, bridgeWidthMm: 3, dpi: 300 }),
+        0,
+        (o) => outline(art, o),
+      ),
+    );
   }
   sheet = {
     name: 'Reference sheet',
@@ -59,17 +95,25 @@ describe('export: the print image', () => {
   });
 
   it('is opaque just inside every cut line and transparent just outside, on rotated pieces', async () => {
-    const { data, info } = await sharp(file('-print.png') as Buffer).ensureAlpha().raw().toBuffer({ resolveWithObject: true });
-    const alpha = (xMm: number, yMm: number) => data[(Math.round((yMm / IN) * 300 - 0.5) * info.width + Math.round((xMm / IN) * 300 - 0.5)) * 4 + 3];
+    const { data, info } = await sharp(file('-print.png') as Buffer)
+      .ensureAlpha()
+      .raw()
+      .toBuffer({ resolveWithObject: true });
+    const alpha = (xMm: number, yMm: number) =>
+      data[(Math.round((yMm / IN) * 300 - 0.5) * info.width + Math.round((xMm / IN) * 300 - 0.5)) * 4 + 3];
     let checked = 0;
     for (const p of sheet.pieces) {
       const ring = place(p);
       for (let i = 0; i < ring.length; i++) {
-        const a = ring[i], b = ring[(i + 1) % ring.length];
+        const a = ring[i],
+          b = ring[(i + 1) % ring.length];
         const len = Math.hypot(b.x - a.x, b.y - a.y);
         if (len < 0.5) continue;
         // Clockwise on screen (y down): the outward normal of edge a→b is (dy, −dx) / len.
-        const nx = (b.y - a.y) / len, ny = -(b.x - a.x) / len, mx = (a.x + b.x) / 2, my = (a.y + b.y) / 2;
+        const nx = (b.y - a.y) / len,
+          ny = -(b.x - a.x) / len,
+          mx = (a.x + b.x) / 2,
+          my = (a.y + b.y) / 2;
         expect(alpha(mx - nx * 0.35, my - ny * 0.35)).toBeGreaterThan(200);
         expect(alpha(mx + nx * 0.35, my + ny * 0.35)).toBeLessThan(40);
         checked++;
@@ -82,13 +126,25 @@ describe('export: the print image', () => {
 describe('export: the PDF, read back with pdf.js (pdfjs-dist, Mozilla)', () => {
   it('has a Letter MediaBox of 612 × 792 pt (ISO 32000-1 §8.3.2.3) and the art at the print area within 0.01 in', async () => {
     const pdfjs = await import('pdfjs-dist/legacy/build/pdf.mjs');
-    const doc = await pdfjs.getDocument({ data: new Uint8Array(file('.pdf') as Buffer), useSystemFonts: false, isEvalSupported: false, verbosity: 0 }).promise;
+    const doc = await pdfjs.getDocument({
+      data: new Uint8Array(file('.pdf') as Buffer),
+      useSystemFonts: false,
+      isEvalSupported: false,
+      verbosity: 0,
+    }).promise;
     expect(doc.numPages).toBe(1); // the print page alone: "print all pages" prints one sheet
     const page = await doc.getPage(1);
     expect(page.view).toEqual([0, 0, 612, 792]);
     const ops = await page.getOperatorList();
     // Compose the current transformation matrix as pdf.js reports it (save/restore/transform).
-    const multiply = (m: number[], n: number[]) => [m[0] * n[0] + m[1] * n[2], m[0] * n[1] + m[1] * n[3], m[2] * n[0] + m[3] * n[2], m[2] * n[1] + m[3] * n[3], m[4] * n[0] + m[5] * n[2] + n[4], m[4] * n[1] + m[5] * n[3] + n[5]];
+    const multiply = (m: number[], n: number[]) => [
+      m[0] * n[0] + m[1] * n[2],
+      m[0] * n[1] + m[1] * n[3],
+      m[2] * n[0] + m[3] * n[2],
+      m[2] * n[1] + m[3] * n[3],
+      m[4] * n[0] + m[5] * n[2] + n[4],
+      m[4] * n[1] + m[5] * n[3] + n[5],
+    ];
     let ctm = [1, 0, 0, 1, 0, 0];
     const stack: number[][] = [];
     for (let i = 0; i < ops.fnArray.length; i++) {
@@ -127,7 +183,12 @@ async function renderPage(data: Buffer, intent: 'display' | 'print') {
   const ctx = canvas.getContext('2d');
   ctx.fillStyle = '#fff';
   ctx.fillRect(0, 0, canvas.width, canvas.height);
-  await page.render({ canvasContext: ctx as never, viewport, intent, optionalContentConfigPromise: doc.getOptionalContentConfig({ intent }) }).promise;
+  await page.render({
+    canvasContext: ctx as never,
+    viewport,
+    intent,
+    optionalContentConfigPromise: doc.getOptionalContentConfig({ intent }),
+  }).promise;
   return { pixels: ctx.getImageData(0, 0, canvas.width, canvas.height).data, width: canvas.width };
 }
 
@@ -177,7 +238,13 @@ describe('export: the PDF prints no cut lines (pdf.js, rendered with @napi-rs/ca
     for (let n = 1; n <= summary.numPages; n++) all += await pageWithin(summary, n);
     expect(all).toContain('Print at 100 % (actual size): no scaling, no fit-to-page, no borderless expansion.');
     // A long piece name and many pieces: wrapped and paginated, never cut off.
-    const long = { ...sheet, pieces: Array.from({ length: 60 }, (_, i) => ({ ...sheet.pieces[i % 5], name: `A watercolour piece with a very long descriptive file name number ${i} that runs on and on past any page edge` })) };
+    const long = {
+      ...sheet,
+      pieces: Array.from({ length: 60 }, (_, i) => ({
+        ...sheet.pieces[i % 5],
+        name: `A watercolour piece with a very long descriptive file name number ${i} that runs on and on past any page edge`,
+      })),
+    };
     const withPage = await exportSheet(long, { ...DEFAULT_EXPORT_OPTIONS, formats: ['pdf'], summaryPage: true, dpi: 150 });
     const doc = await load(withPage.files.find((f) => f.name.endsWith('sheet.pdf'))!.data as Buffer);
     expect(doc.numPages).toBeGreaterThan(2);
@@ -211,14 +278,29 @@ describe('export: registration marks (a layout of our own; off by default)', () 
     // Not asked into the cut files: the cut SVG and DXF are as before.
     const cut = withMarks.files.find((f) => f.name.endsWith('-cut.svg'))!.data as string;
     expect(cut).toBe(file('-cut.svg'));
-    expect(new DxfParser().parseSync(withMarks.files.find((f) => f.name.endsWith('-cut.dxf'))!.data as string)!.entities.some((e) => e.layer === 'REGISTRATION')).toBe(false);
+    expect(
+      new DxfParser()
+        .parseSync(withMarks.files.find((f) => f.name.endsWith('-cut.dxf'))!.data as string)!
+        .entities.some((e) => e.layer === 'REGISTRATION'),
+    ).toBe(false);
     const settings = withMarks.files.find((f) => f.name.endsWith('-settings.txt'))!.data as string;
-    expect(settings).toMatch(/Registration marks: filled squares 0\.197 in, 0\.197 in outside the top-left, top-right and bottom-left corners .*not in the cut files/);
+    expect(settings).toMatch(
+      /Registration marks: filled squares 0\.197 in, 0\.197 in outside the top-left, top-right and bottom-left corners .*not in the cut files/,
+    );
   }, 60_000);
 
   it('go into the cut SVG and DXF only when asked, without moving a cut line', async () => {
-    const asked = await exportSheet(sheet, { ...DEFAULT_EXPORT_OPTIONS, dpi: 150, formats: ['svg', 'dxf'], dxfUnit: 'in', marks, marksInCutFile: true });
-    const svg = new XMLParser({ ignoreAttributes: false, attributeNamePrefix: '' }).parse(asked.files.find((f) => f.name.endsWith('-cut.svg'))!.data as string).svg;
+    const asked = await exportSheet(sheet, {
+      ...DEFAULT_EXPORT_OPTIONS,
+      dpi: 150,
+      formats: ['svg', 'dxf'],
+      dxfUnit: 'in',
+      marks,
+      marksInCutFile: true,
+    });
+    const svg = new XMLParser({ ignoreAttributes: false, attributeNamePrefix: '' }).parse(
+      asked.files.find((f) => f.name.endsWith('-cut.svg'))!.data as string,
+    ).svg;
     // The view widens by offset + size (10 mm) on every side; user space keeps its origin at the print area.
     const [vx, vy, vw, vh] = (svg.viewBox as string).split(' ').map(Number);
     expect(vx).toBeCloseTo(-10 / IN, 4);
@@ -226,17 +308,23 @@ describe('export: registration marks (a layout of our own; off by default)', () 
     expect(vw).toBeCloseTo((W + 20) / IN, 4);
     expect(vh).toBeCloseTo((H + 20) / IN, 4);
     expect(parseFloat(svg.width)).toBeCloseTo(vw, 3);
-    const groups = (Array.isArray(svg.g) ? svg.g : [svg.g]) as Array<{ id: string; path: Array<{ id: string; d: string }> | { id: string; d: string } }>;
+    const groups = (Array.isArray(svg.g) ? svg.g : [svg.g]) as Array<{
+      id: string;
+      path: Array<{ id: string; d: string }> | { id: string; d: string };
+    }>;
     const markPaths = groups.find((g) => g.id === 'registration-marks')!.path as Array<{ id: string; d: string }>;
     expect(markPaths.map((p) => p.id)).toEqual(['mark-top-left', 'mark-top-right', 'mark-bottom-left']);
     expect(svgPathBbox(markPaths[0].d).map((v) => v * IN)).toEqual([-10, -10, -5, -5].map((v) => expect.closeTo(v, 2)));
     const before = new XMLParser({ ignoreAttributes: false, attributeNamePrefix: '' }).parse(file('-cut.svg') as string).svg;
     expect(groups.filter((g) => g.id !== 'registration-marks')).toEqual(Array.isArray(before.g) ? before.g : [before.g]);
     const dxf = new DxfParser().parseSync(asked.files.find((f) => f.name.endsWith('-cut.dxf'))!.data as string)!;
-    const registration = dxf.entities.filter((e) => e.layer === 'REGISTRATION') as unknown as Array<{ vertices: Array<{ x: number; y: number }> }>;
+    const registration = dxf.entities.filter((e) => e.layer === 'REGISTRATION') as unknown as Array<{
+      vertices: Array<{ x: number; y: number }>;
+    }>;
     expect(registration).toHaveLength(3);
     // DXF y runs up from the print area's bottom edge: the top-left mark sits above its top.
-    const xs = registration[0].vertices.map((v) => v.x), ys = registration[0].vertices.map((v) => v.y);
+    const xs = registration[0].vertices.map((v) => v.x),
+      ys = registration[0].vertices.map((v) => v.y);
     expect(Math.min(...xs)).toBeCloseTo(-10 / IN, 4);
     expect(Math.max(...ys)).toBeCloseTo((H + 10) / IN, 4);
   }, 60_000);
@@ -265,7 +353,11 @@ describe('export: the cut SVG, read with fast-xml-parser and svg-path-bbox', () 
 describe('export: the DXF, read back with dxf-parser', () => {
   it('gives the same vertices within 0.001 in (y up from the bottom edge)', () => {
     const dxf = new DxfParser().parseSync(file('-cut.dxf') as string)!;
-    const polylines = dxf.entities.filter((e) => e.type === 'POLYLINE') as unknown as Array<{ vertices: Array<{ x: number; y: number }>; shape?: boolean; layer: string }>;
+    const polylines = dxf.entities.filter((e) => e.type === 'POLYLINE') as unknown as Array<{
+      vertices: Array<{ x: number; y: number }>;
+      shape?: boolean;
+      layer: string;
+    }>;
     expect(polylines).toHaveLength(5);
     for (const [i, p] of sheet.pieces.entries()) {
       const expected = place(p).map((q) => ({ x: q.x / IN, y: (H - q.y) / IN }));
@@ -284,7 +376,15 @@ describe('export: the bundle, read with JSZip', () => {
   it('lists every promised file', async () => {
     const zip = await JSZip.loadAsync(result.zip);
     expect(Object.keys(zip.files).sort()).toEqual(
-      ['reference-sheet-cut.dxf', 'reference-sheet-cut.svg', 'reference-sheet-print-and-cut.svg', 'reference-sheet-print.png', 'reference-sheet-settings.txt', 'reference-sheet.pdf', 'reference-sheet-summary.pdf'].sort(),
+      [
+        'reference-sheet-cut.dxf',
+        'reference-sheet-cut.svg',
+        'reference-sheet-print-and-cut.svg',
+        'reference-sheet-print.png',
+        'reference-sheet-settings.txt',
+        'reference-sheet.pdf',
+        'reference-sheet-summary.pdf',
+      ].sort(),
     );
     const settings = await zip.file('reference-sheet-settings.txt')!.async('string');
     expect(settings).toMatch(/Print area: 6\.75 in x 9\.25 in/);

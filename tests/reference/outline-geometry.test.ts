@@ -11,7 +11,8 @@ const PX_PER_MM = 300 / 25.4;
 
 /** Cut-line points (mm, sticker frame) → pixels in the art's own frame (art scaled 1:1). */
 function toArtPixels(points: Ring, pixelWidth: number, pixelHeight: number, artW: number, artH: number): Ring {
-  const ox = Math.round((pixelWidth - artW) / 2), oy = Math.round((pixelHeight - artH) / 2);
+  const ox = Math.round((pixelWidth - artW) / 2),
+    oy = Math.round((pixelHeight - artH) / 2);
   return points.map((p) => ({ x: p.x * PX_PER_MM - ox, y: p.y * PX_PER_MM - oy }));
 }
 
@@ -24,7 +25,8 @@ describe("Steiner's formula: area of a convex shape grown by r is A + P·r + π�
   it('a disk of diameter 40 mm with a 3 mm border', async () => {
     const art = await svgArt(1000, 1000, '<circle cx="500" cy="500" r="400" fill="#b03a2e"/>');
     const { pieces } = await outline(art, { width: 40, border: 3 });
-    const R = 20, r = 3;
+    const R = 20,
+      r = 3;
     const expected = Math.PI * R * R + 2 * Math.PI * R * r + Math.PI * r * r;
     expect(Math.abs(pieces[0].areaMm2 - expected) / expected).toBeLessThan(0.01);
     // Circumference of the grown disk, π·d (handbook formula)
@@ -34,7 +36,8 @@ describe("Steiner's formula: area of a convex shape grown by r is A + P·r + π�
   it('a 40 mm square with a 1/8 in border', async () => {
     const art = await svgArt(1000, 1000, '<rect x="100" y="100" width="800" height="800" fill="#1f618d"/>');
     const { pieces } = await outline(art, { width: 40, border: '0.125in' });
-    const s = 40, r = 3.175;
+    const s = 40,
+      r = 3.175;
     const expected = s * s + 4 * s * r + Math.PI * r * r;
     expect(Math.abs(pieces[0].areaMm2 - expected) / expected).toBeLessThan(0.01);
   });
@@ -42,19 +45,28 @@ describe("Steiner's formula: area of a convex shape grown by r is A + P·r + π�
 
 describe('against a polygon offset by a maintained Clipper2 port (clipper2-ts, round joins)', () => {
   it('a non-convex shape with a hole and a narrow gap: symmetric difference under 1 % of the area', async () => {
-    const W = 600, H = 480, borderPx = 36;
+    const W = 600,
+      H = 480,
+      borderPx = 36;
     // A thick U whose arms are 20 px apart (closed by the border), with a 200 × 90 px hole in its base.
     const inside = (x: number, y: number) => {
-      const inU = (x >= 40 && x < 290 && y >= 20 && y < 460) || (x >= 310 && x < 560 && y >= 20 && y < 460) || (x >= 40 && x < 560 && y >= 260 && y < 460);
+      const inU =
+        (x >= 40 && x < 290 && y >= 20 && y < 460) ||
+        (x >= 310 && x < 560 && y >= 20 && y < 460) ||
+        (x >= 40 && x < 560 && y >= 260 && y < 460);
       const inHole = x >= 200 && x < 400 && y >= 320 && y < 410;
       return inU && !inHole;
     };
     const art = await maskArt(W, H, inside);
-    const artW = 520, artH = 440; // the visible part: x 40..560, y 20..460
+    const artW = 520,
+      artH = 440; // the visible part: x 40..560, y 20..460
     const result = await outline(art, { width: artW / PX_PER_MM, border: borderPx / PX_PER_MM, smoothing: 0.02 });
     expect(result.pieces).toHaveLength(1);
     const piece = result.pieces[0];
-    const ours = toArtPixels(piece.cutLine.points, piece.pixelWidth, piece.pixelHeight, artW, artH).map((p) => ({ x: p.x + 40, y: p.y + 20 }));
+    const ours = toArtPixels(piece.cutLine.points, piece.pixelWidth, piece.pixelHeight, artW, artH).map((p) => ({
+      x: p.x + 40,
+      y: p.y + 20,
+    }));
 
     // The reference: trace the same art (marching squares at 0.5 on the mask), offset by the
     // border with Clipper2 round joins, and keep the outer boundary (holes filled).
@@ -77,17 +89,28 @@ describe('against a polygon offset by a maintained Clipper2 port (clipper2-ts, r
 
 describe('every cut-line vertex lies at the border width from the art (brute force)', () => {
   it('± 1 px at 300 DPI on a small irregular image', async () => {
-    const W = 48, H = 36;
+    const W = 48,
+      H = 36;
     const inside = (x: number, y: number) =>
-      (Math.hypot(x - 14, y - 18) < 12 || Math.hypot(x - 32, y - 14) < 11 || (x > 20 && x < 44 && y > 22 && y < 32)) && !(x > 28 && x < 36 && y > 24);
+      (Math.hypot(x - 14, y - 18) < 12 || Math.hypot(x - 32, y - 14) < 11 || (x > 20 && x < 44 && y > 22 && y < 32)) &&
+      !(x > 28 && x < 36 && y > 24);
     const art = await maskArt(W, H, inside);
     const opaque: Array<[number, number]> = [];
-    let minX = W, minY = H, maxX = 0, maxY = 0;
-    for (let y = 0; y < H; y++) for (let x = 0; x < W; x++) if (inside(x, y)) {
-      opaque.push([x, y]);
-      minX = Math.min(minX, x); minY = Math.min(minY, y); maxX = Math.max(maxX, x); maxY = Math.max(maxY, y);
-    }
-    const artW = maxX - minX + 1, artH = maxY - minY + 1;
+    let minX = W,
+      minY = H,
+      maxX = 0,
+      maxY = 0;
+    for (let y = 0; y < H; y++)
+      for (let x = 0; x < W; x++)
+        if (inside(x, y)) {
+          opaque.push([x, y]);
+          minX = Math.min(minX, x);
+          minY = Math.min(minY, y);
+          maxX = Math.max(maxX, x);
+          maxY = Math.max(maxY, y);
+        }
+    const artW = maxX - minX + 1,
+      artH = maxY - minY + 1;
     const borderMm = 1;
     const { pieces } = await outline(art, { width: artW / PX_PER_MM, border: borderMm, minSpeckArea: 0 });
     const piece = pieces[0];

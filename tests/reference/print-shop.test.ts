@@ -7,7 +7,8 @@ import { inchToMm } from '../../shared/units';
 import { outline } from '../../server/engine/outline/outline';
 import { maskArt } from '../helpers/art';
 
-const regularPolygon = (r: number, n: number): Ring => Array.from({ length: n }, (_, i) => ({ x: r * Math.cos((2 * Math.PI * i) / n), y: r * Math.sin((2 * Math.PI * i) / n) }));
+const regularPolygon = (r: number, n: number): Ring =>
+  Array.from({ length: n }, (_, i) => ({ x: r * Math.cos((2 * Math.PI * i) / n), y: r * Math.sin((2 * Math.PI * i) / n) }));
 
 describe('cut length', () => {
   it('of a circle of diameter d is π·d within 0.5 % (circumference: any geometry handbook)', async () => {
@@ -20,7 +21,16 @@ describe('cut length', () => {
 
   it('of a square of side s is 4·s, and 4·s + 2πr once grown by a border r (Steiner: perimeter of a parallel body)', async () => {
     const s = 30;
-    expect(cutLength([[{ x: 0, y: 0 }, { x: s, y: 0 }, { x: s, y: s }, { x: 0, y: s }]])).toBe(4 * s);
+    expect(
+      cutLength([
+        [
+          { x: 0, y: 0 },
+          { x: s, y: 0 },
+          { x: s, y: s },
+          { x: 0, y: s },
+        ],
+      ]),
+    ).toBe(4 * s);
     // Schneider, Convex Bodies §4.2: P(K + rB) = P(K) + 2πr for a convex K.
     const art = await maskArt(600, 600, () => true);
     const { pieces } = await outline(art, { width: s, border: 3 });
@@ -44,7 +54,9 @@ describe('ink coverage', () => {
   });
 
   it('counts a solid red as full magenta plus full yellow (200 %), white as none, half-transparent black as half', async () => {
-    const red = Buffer.from([255, 0, 0, 255]), white = Buffer.from([255, 255, 255, 255]), faint = Buffer.from([0, 0, 0, 128]);
+    const red = Buffer.from([255, 0, 0, 255]),
+      white = Buffer.from([255, 255, 255, 255]),
+      faint = Buffer.from([0, 0, 0, 128]);
     expect(inkCoverage(red, 1)).toEqual({ c: 0, m: 1, y: 1, k: 0, total: 2 });
     expect(inkCoverage(white, 1).total).toBe(0);
     expect(inkCoverage(faint, 1).k).toBeCloseTo(128 / 255, 6);
@@ -89,7 +101,19 @@ describe('cost', () => {
   });
 
   it('has no per-sticker figure for an empty sheet and no blade share without a blade life', () => {
-    const cost = sheetCost({ stockPerSheet: 0.2, coverage: 0, printAreaShare: 1, inkFullPage: 1, cutLengthMm: 1000, bladePrice: 10, bladeLifeM: 0, labourMinutes: 0, labourRatePerHour: 0, pieces: 0, markupPercent: 100 });
+    const cost = sheetCost({
+      stockPerSheet: 0.2,
+      coverage: 0,
+      printAreaShare: 1,
+      inkFullPage: 1,
+      cutLengthMm: 1000,
+      bladePrice: 10,
+      bladeLifeM: 0,
+      labourMinutes: 0,
+      labourRatePerHour: 0,
+      pieces: 0,
+      markupPercent: 100,
+    });
     expect(cost.perSticker).toBeNull();
     expect(cost.blade).toBe(0);
     expect(cost.suggestedSheet).toBeCloseTo(0.4, 10);

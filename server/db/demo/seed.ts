@@ -37,11 +37,49 @@ async function seedShop(dataSource: DataSource): Promise<number> {
   const stock = new StockService(dataSource);
   const machines = new MachinesService(dataSource);
   const blank = { colour: '', other: '' };
-  await stock.create(team.id, stockInputSchema.parse({ name: 'Puddle glossy sticker paper', finish: 'glossy', paper: 'letter', packPrice: 18, sheetsPerPack: 100, onHand: 64, rating: 4, printerSettings: { paperSetting: 'Photo paper glossy', quality: 'High', ...blank }, cutterSettings: { material: 'Sticker paper glossy', pressure: '3', passes: 1, blade: 'depth 2' } }));
-  await stock.create(team.id, stockInputSchema.parse({ name: 'Frosted clear vinyl', finish: 'clear', paper: 'letter', packPrice: 14.5, sheetsPerPack: 20, onHand: 6, rating: 3, notes: 'Needs a white underlay behind pale art.', printerSettings: { paperSetting: 'Transparency', quality: 'Standard', ...blank }, cutterSettings: { material: 'Vinyl clear', pressure: '4', passes: 2, blade: 'depth 3' } }));
+  await stock.create(
+    team.id,
+    stockInputSchema.parse({
+      name: 'Puddle glossy sticker paper',
+      finish: 'glossy',
+      paper: 'letter',
+      packPrice: 18,
+      sheetsPerPack: 100,
+      onHand: 64,
+      rating: 4,
+      printerSettings: { paperSetting: 'Photo paper glossy', quality: 'High', ...blank },
+      cutterSettings: { material: 'Sticker paper glossy', pressure: '3', passes: 1, blade: 'depth 2' },
+    }),
+  );
+  await stock.create(
+    team.id,
+    stockInputSchema.parse({
+      name: 'Frosted clear vinyl',
+      finish: 'clear',
+      paper: 'letter',
+      packPrice: 14.5,
+      sheetsPerPack: 20,
+      onHand: 6,
+      rating: 3,
+      notes: 'Needs a white underlay behind pale art.',
+      printerSettings: { paperSetting: 'Transparency', quality: 'Standard', ...blank },
+      cutterSettings: { material: 'Vinyl clear', pressure: '4', passes: 2, blade: 'depth 3' },
+    }),
+  );
   await machines.create(team.id, { kind: 'printer', name: 'Studio inkjet', notes: '', inkFullPage: 2 });
-  const cutter = await machines.create(team.id, { kind: 'cutter', name: 'Bench cutter', notes: 'Lives on the back table.', inkFullPage: null });
-  await machines.fitBlade(team.id, cutter.id, owner.id, { label: 'Fine-point blade', fittedOn: '2026-10-05', lifeM: 600, price: 9, note: '' });
+  const cutter = await machines.create(team.id, {
+    kind: 'cutter',
+    name: 'Bench cutter',
+    notes: 'Lives on the back table.',
+    inkFullPage: null,
+  });
+  await machines.fitBlade(team.id, cutter.id, owner.id, {
+    label: 'Fine-point blade',
+    fittedOn: '2026-10-05',
+    lifeM: 600,
+    price: 9,
+    note: '',
+  });
   await saveShopSettings(dataSource, team.id, { currency: '$', labourRatePerHour: 18, markupPercent: 150 });
   return 6;
 }
@@ -56,7 +94,11 @@ async function seedArt(dataSource: DataSource, storage: Storage): Promise<number
   for (const pack of DEMO_PACKS) {
     let collection = await dataSource.getRepository(Collection).findOneBy({ teamId: team.id, name: pack.collection });
     if (!collection) {
-      const created = await collections.create(team.id, { name: pack.collection, membersCanAdd: true, licence: { ...pack.licence, unitLimit: null } });
+      const created = await collections.create(team.id, {
+        name: pack.collection,
+        membersCanAdd: true,
+        licence: { ...pack.licence, unitLimit: null },
+      });
       collection = await dataSource.getRepository(Collection).findOneByOrFail({ id: created.id });
       added++;
     }
@@ -80,30 +122,34 @@ async function seedArt(dataSource: DataSource, storage: Storage): Promise<number
  * demo e-mail but without the marker belongs to someone else: it is left alone and not added.
  */
 async function seedPeople(dataSource: DataSource): Promise<number> {
-  return inTransaction(dataSource, async (manager) => {
-    let added = 0;
-    let team = await manager.findOneBy(Team, { seedKey: DEMO_TEAM_KEY });
-    if (!team) {
-      team = await manager.save(manager.create(Team, { name: DEMO_SHOP, personal: false, seedKey: DEMO_TEAM_KEY }));
-      added++;
-    }
-    const passwordHash = await hashPassword(DEMO_PASSWORD);
-    for (const account of DEMO_ACCOUNTS) {
-      const seedKey = demoUserKey(account.email);
-      let user = await manager.findOneBy(User, { email: account.email });
-      if (user && user.seedKey !== seedKey) continue;
-      if (!user) {
-        user = await createUserWithTeam(manager, account, passwordHash);
-        await manager.update(User, { id: user.id }, { seedKey });
-        added += 3;
-      }
-      const membership = await manager.findOneBy(Membership, { teamId: team.id, userId: user.id });
-      if (!membership) {
-        await manager.save(manager.create(Membership, { teamId: team.id, userId: user.id, role: account.role }));
+  return inTransaction(
+    dataSource,
+    async (manager) => {
+      let added = 0;
+      let team = await manager.findOneBy(Team, { seedKey: DEMO_TEAM_KEY });
+      if (!team) {
+        team = await manager.save(manager.create(Team, { name: DEMO_SHOP, personal: false, seedKey: DEMO_TEAM_KEY }));
         added++;
       }
-    }
-    return added;
-    // A second seeder running at the same moment (two starts, or a test) made the same rows: look again.
-  }, { retryIf: (error) => (error as { code?: string }).code === 'ER_DUP_ENTRY' });
+      const passwordHash = await hashPassword(DEMO_PASSWORD);
+      for (const account of DEMO_ACCOUNTS) {
+        const seedKey = demoUserKey(account.email);
+        let user = await manager.findOneBy(User, { email: account.email });
+        if (user && user.seedKey !== seedKey) continue;
+        if (!user) {
+          user = await createUserWithTeam(manager, account, passwordHash);
+          await manager.update(User, { id: user.id }, { seedKey });
+          added += 3;
+        }
+        const membership = await manager.findOneBy(Membership, { teamId: team.id, userId: user.id });
+        if (!membership) {
+          await manager.save(manager.create(Membership, { teamId: team.id, userId: user.id, role: account.role }));
+          added++;
+        }
+      }
+      return added;
+      // A second seeder running at the same moment (two starts, or a test) made the same rows: look again.
+    },
+    { retryIf: (error) => (error as { code?: string }).code === 'ER_DUP_ENTRY' },
+  );
 }

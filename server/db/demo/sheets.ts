@@ -36,7 +36,14 @@ type DemoSheet = {
   stock: string;
   /** Art name, count, printed width in inches. */
   art: Array<[string, number, number]>;
-  runs: Array<{ by: string; printedOn: string; copies: number; result: 'good' | 'misaligned' | 'tore' | 'other'; wasted?: number; notes?: string }>;
+  runs: Array<{
+    by: string;
+    printedOn: string;
+    copies: number;
+    result: 'good' | 'misaligned' | 'tore' | 'other';
+    wasted?: number;
+    notes?: string;
+  }>;
 };
 
 const SHEETS: DemoSheet[] = [
@@ -47,10 +54,22 @@ const SHEETS: DemoSheet[] = [
     forSale: true,
     notes: 'For the Saturday craft market table.',
     stock: 'Puddle glossy sticker paper',
-    art: [['tulip-trio', 2, 1.5], ['sun-flower', 3, 1.4], ['bumble-bee', 3, 1.3], ['lady-bugs', 2, 1.5], ['snail-shell', 2, 1.4]],
+    art: [
+      ['tulip-trio', 2, 1.5],
+      ['sun-flower', 3, 1.4],
+      ['bumble-bee', 3, 1.3],
+      ['lady-bugs', 2, 1.5],
+      ['snail-shell', 2, 1.4],
+    ],
     runs: [
       { by: 'member@demo.test', printedOn: '2026-11-09', copies: 4, result: 'good' },
-      { by: 'member@demo.test', printedOn: '2026-11-16', copies: 2, result: 'misaligned', notes: 'Registration marks smudged; cut drifted right. Reprinted.' },
+      {
+        by: 'member@demo.test',
+        printedOn: '2026-11-16',
+        copies: 2,
+        result: 'misaligned',
+        notes: 'Registration marks smudged; cut drifted right. Reprinted.',
+      },
       { by: 'owner@demo.test', printedOn: '2026-11-17', copies: 6, result: 'good' },
       { by: 'member@demo.test', printedOn: '2026-11-26', copies: 5, result: 'good', notes: 'Market restock.' },
     ],
@@ -62,8 +81,22 @@ const SHEETS: DemoSheet[] = [
     forSale: false,
     notes: 'A gift sheet: the pack is personal-use only.',
     stock: 'Frosted clear vinyl',
-    art: [['rocket-ship', 2, 1.6], ['ringed-planet', 2, 1.5], ['crescent-moon', 2, 1.2], ['ufo-saucer', 2, 1.4], ['astro-helmet', 1, 1.7]],
-    runs: [{ by: 'member@demo.test', printedOn: '2026-11-20', copies: 1, result: 'tore', notes: 'Vinyl lifted at the moon tips: try two passes at lower pressure.' }],
+    art: [
+      ['rocket-ship', 2, 1.6],
+      ['ringed-planet', 2, 1.5],
+      ['crescent-moon', 2, 1.2],
+      ['ufo-saucer', 2, 1.4],
+      ['astro-helmet', 1, 1.7],
+    ],
+    runs: [
+      {
+        by: 'member@demo.test',
+        printedOn: '2026-11-20',
+        copies: 1,
+        result: 'tore',
+        notes: 'Vinyl lifted at the moon tips: try two passes at lower pressure.',
+      },
+    ],
   },
 ];
 
@@ -73,7 +106,10 @@ const BORDER_MM = inchToMm(0.125);
 export async function seedSheets(dataSource: DataSource, storage: Storage): Promise<number> {
   const team = await demoTeam(dataSource);
   // A demo sheet counts as there once saved with its pieces (version > 1); an interrupted seed's empty one is filled in.
-  const present: Array<{ id: string; name: string; version: number }> = await dataSource.query('SELECT id, name, version FROM sheets WHERE team_id = ?', [team.id]);
+  const present: Array<{ id: string; name: string; version: number }> = await dataSource.query(
+    'SELECT id, name, version FROM sheets WHERE team_id = ?',
+    [team.id],
+  );
   const todo = SHEETS.filter((spec) => !present.some((p) => p.name === spec.name && p.version > 1));
   if (todo.length === 0) return 0;
   const pool = new OutlinePool({ maxInputPixels: env.OUTLINE_MAX_PIXELS, maxOutputPixels: env.OUTLINE_MAX_OUTPUT_PIXELS }, 1);
@@ -85,7 +121,12 @@ export async function seedSheets(dataSource: DataSource, storage: Storage): Prom
     const machines = new MachinesService(dataSource);
     const runs = new RunsService(dataSource, storage, sheets, stock, machines, analysis);
     const costing = new CostingService(dataSource, sheets, analysis);
-    const people = new Map((await dataSource.getRepository(User).findBy({ seedKey: In(['owner@demo.test', 'member@demo.test'].map(demoUserKey)) })).map((u) => [u.email, u.id]));
+    const people = new Map(
+      (await dataSource.getRepository(User).findBy({ seedKey: In(['owner@demo.test', 'member@demo.test'].map(demoUserKey)) })).map((u) => [
+        u.email,
+        u.id,
+      ]),
+    );
     const shelf = await stock.list(team.id);
     const bench = await machines.list(team.id);
     const printer = bench.find((m) => m.kind === 'printer') ?? null;
@@ -94,14 +135,29 @@ export async function seedSheets(dataSource: DataSource, storage: Storage): Prom
 
     for (const spec of todo) {
       const actor = { userId: people.get(spec.owner)!, teamId: team.id, role: 'owner' as const };
-      const arts = new Map((await dataSource.getRepository(ArtItem).findBy({ teamId: team.id, name: In(spec.art.map(([name]) => name)) })).map((a) => [a.name, a]));
+      const arts = new Map(
+        (await dataSource.getRepository(ArtItem).findBy({ teamId: team.id, name: In(spec.art.map(([name]) => name)) })).map((a) => [
+          a.name,
+          a,
+        ]),
+      );
       const items: ArrangeItem[] = [];
       const templates = new Map<string, Piece>();
       const byArt = new Map<string, StoredOutline>();
       for (const [name, count, widthIn] of spec.art) {
         const art = arts.get(name);
         if (!art) continue;
-        const template: Piece = { id: '', artId: art.id, x: 0, y: 0, rotation: 0, width: inchToMm(widthIn), border: BORDER_MM, borderColour: '#ffffff', locked: false };
+        const template: Piece = {
+          id: '',
+          artId: art.id,
+          x: 0,
+          y: 0,
+          rotation: 0,
+          width: inchToMm(widthIn),
+          border: BORDER_MM,
+          borderColour: '#ffffff',
+          locked: false,
+        };
         const { outline } = await outlines.forPiece(art, template, DEFAULT_PREFLIGHT_LIMITS);
         const first = outline.pieces[0];
         items.push({ key: name, outline: { points: first.cutLine.points, widthMm: first.widthMm, heightMm: first.heightMm }, count });
@@ -112,18 +168,58 @@ export async function seedSheets(dataSource: DataSource, storage: Storage): Prom
       const empty = present.find((p) => p.name === spec.name);
       const created = empty ? await sheets.detail(team.id, String(empty.id)) : await sheets.create(actor, { name: spec.name, unit: 'in' });
       const doc: SheetDocument = created.document;
-      const result = arrange(items, { width: doc.printArea.width, height: doc.printArea.height, gap: doc.minGap, margin: doc.safeMargin, rotate: '90', fill: false, timeMs: 1500, seed: 7, maxSheets: 1 });
-      const pieces = result.placements.filter((p) => p.sheet === 0).map((p, i) => ({ ...templates.get(p.key)!, id: `demo-${i + 1}`, x: p.x, y: p.y, rotation: p.rotation }));
+      const result = arrange(items, {
+        width: doc.printArea.width,
+        height: doc.printArea.height,
+        gap: doc.minGap,
+        margin: doc.safeMargin,
+        rotate: '90',
+        fill: false,
+        timeMs: 1500,
+        seed: 7,
+        maxSheets: 1,
+      });
+      const pieces = result.placements
+        .filter((p) => p.sheet === 0)
+        .map((p, i) => ({ ...templates.get(p.key)!, id: `demo-${i + 1}`, x: p.x, y: p.y, rotation: p.rotation }));
       const document = { ...doc, pieces };
       const area = pieces.reduce((sum, p) => sum + byArt.get(p.artId)!.pieces[0].areaMm2, 0);
-      const thumbnail = await renderThumbnail(storage, document, pieces.map((piece) => ({ piece, outline: byArt.get(piece.artId)! })));
-      const saved = await sheets.save(actor, created.id, { version: created.version, document, status: spec.status, forSale: spec.forSale, notes: spec.notes, areaUsed: area / (doc.printArea.width * doc.printArea.height), thumbnail });
+      const thumbnail = await renderThumbnail(
+        storage,
+        document,
+        pieces.map((piece) => ({ piece, outline: byArt.get(piece.artId)! })),
+      );
+      const saved = await sheets.save(actor, created.id, {
+        version: created.version,
+        document,
+        status: spec.status,
+        forSale: spec.forSale,
+        notes: spec.notes,
+        areaUsed: area / (doc.printArea.width * doc.printArea.height),
+        thumbnail,
+      });
       const chosen = shelf.find((s) => s.name === spec.stock) ?? null;
-      await costing.setCosting(team.id, saved.id, { stockId: chosen?.id ?? null, printerId: printer?.id ?? null, cutterId: cutter?.id ?? null, labourMinutes: 6 });
+      await costing.setCosting(team.id, saved.id, {
+        stockId: chosen?.id ?? null,
+        printerId: printer?.id ?? null,
+        cutterId: cutter?.id ?? null,
+        labourMinutes: 6,
+      });
       added += 1;
       for (const run of spec.runs) {
         if (!chosen) break;
-        await runs.record(team.id, people.get(run.by)!, printRunInputSchema.parse({ sheetId: saved.id, stockId: chosen.id, printerId: printer?.id ?? null, cutterId: cutter?.id ?? null, ...run, confirmNegativeStock: true }));
+        await runs.record(
+          team.id,
+          people.get(run.by)!,
+          printRunInputSchema.parse({
+            sheetId: saved.id,
+            stockId: chosen.id,
+            printerId: printer?.id ?? null,
+            cutterId: cutter?.id ?? null,
+            ...run,
+            confirmNegativeStock: true,
+          }),
+        );
         added += 1;
       }
     }
@@ -134,10 +230,18 @@ export async function seedSheets(dataSource: DataSource, storage: Storage): Prom
 }
 
 /** A small PNG of the sheet for the sheets table (the editor replaces it with its own on the next save). */
-async function renderThumbnail(storage: Storage, doc: SheetDocument, pieces: Array<{ piece: Piece; outline: StoredOutline }>): Promise<string> {
+async function renderThumbnail(
+  storage: Storage,
+  doc: SheetDocument,
+  pieces: Array<{ piece: Piece; outline: StoredOutline }>,
+): Promise<string> {
   const parts = await Promise.all(pieces.map(({ piece, outline }) => toExportPiece(storage, piece, outline)));
   // The cached piece images are at the analysis resolution, so the sheet is drawn at it and scaled down.
-  const full = await renderPrintImage({ name: '', unit: 'in', doc, pieces: parts, paper: { paperWidthMm: 0, paperHeightMm: 0, areaXMm: 0, areaYMm: 0 } }, ANALYSIS_DPI, 'white');
+  const full = await renderPrintImage(
+    { name: '', unit: 'in', doc, pieces: parts, paper: { paperWidthMm: 0, paperHeightMm: 0, areaXMm: 0, areaYMm: 0 } },
+    ANALYSIS_DPI,
+    'white',
+  );
   const png = await sharp(full).resize({ width: 240 }).png().toBuffer();
   return `data:image/png;base64,${png.toString('base64')}`;
 }

@@ -117,8 +117,11 @@ export class PrintShop1765152000000 implements MigrationInterface {
   }
 
   async down(queryRunner: QueryRunner): Promise<void> {
-    await queryRunner.query('ALTER TABLE sheets DROP COLUMN stock_id, DROP COLUMN printer_id, DROP COLUMN cutter_id, DROP COLUMN labour_minutes, DROP COLUMN analysis_json, DROP COLUMN analysis_version');
-    for (const table of ['print_runs', 'blades', 'machines', 'stock_items', 'shop_settings']) await queryRunner.query(`DROP TABLE IF EXISTS ${table}`);
+    await queryRunner.query(
+      'ALTER TABLE sheets DROP COLUMN stock_id, DROP COLUMN printer_id, DROP COLUMN cutter_id, DROP COLUMN labour_minutes, DROP COLUMN analysis_json, DROP COLUMN analysis_version',
+    );
+    for (const table of ['print_runs', 'blades', 'machines', 'stock_items', 'shop_settings'])
+      await queryRunner.query(`DROP TABLE IF EXISTS ${table}`);
     await queryRunner.query('ALTER TABLE sheet_profiles DROP COLUMN smallest_sticker_mm, DROP COLUMN min_feature_mm');
   }
 }

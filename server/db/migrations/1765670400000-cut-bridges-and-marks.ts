@@ -21,6 +21,8 @@ export class CutBridgesAndMarks1765670400000 implements MigrationInterface {
 
   async down(queryRunner: QueryRunner): Promise<void> {
     await queryRunner.query('ALTER TABLE art_items DROP COLUMN widen_necks');
-    await queryRunner.query('ALTER TABLE sheet_profiles DROP COLUMN reg_mark_offset_mm, DROP COLUMN reg_mark_size_mm, DROP COLUMN reg_mark_shape, DROP COLUMN spot_colour, DROP COLUMN bridge_width_mm');
+    await queryRunner.query(
+      'ALTER TABLE sheet_profiles DROP COLUMN reg_mark_offset_mm, DROP COLUMN reg_mark_size_mm, DROP COLUMN reg_mark_shape, DROP COLUMN spot_colour, DROP COLUMN bridge_width_mm',
+    );
   }
 }

@@ -12,4 +12,17 @@ import { CutBridgesAndMarks1765670400000 } from './1765670400000-cut-bridges-and
 import { ExportJobs1765756800000 } from './1765756800000-export-jobs';
 
 // Every migration, oldest first. A new one is appended here and never edited after it lands.
-export const migrations = [Foundation1764633600000, ArtAndOutlines1764720000000, Library1764806400000, Sheets1764892800000, SheetExports1764979200000, PrintShop1765152000000, DemoMarkersAndSessions1765324800000, RateLimits1765411200000, ArtInSeveralCollections1765497600000, ExportFiles1765584000000, CutBridgesAndMarks1765670400000, ExportJobs1765756800000];
+export const migrations = [
+  Foundation1764633600000,
+  ArtAndOutlines1764720000000,
+  Library1764806400000,
+  Sheets1764892800000,
+  SheetExports1764979200000,
+  PrintShop1765152000000,
+  DemoMarkersAndSessions1765324800000,
+  RateLimits1765411200000,
+  ArtInSeveralCollections1765497600000,
+  ExportFiles1765584000000,
+  CutBridgesAndMarks1765670400000,
+  ExportJobs1765756800000,
+];

@@ -17,8 +17,19 @@ export type ParallelRun = {
 
 export const defaultThreads = () => threadsFor(availableParallelism());
 
-export function arrangeInThreads(items: ArrangeItem[], options: Omit<ArrangeOptions, 'shouldStop' | 'onBest'>, locked: LockedPiece[] = [], threads = defaultThreads(), onBest?: (best: ArrangeResult) => void): ParallelRun {
-  const pool = new Piscina({ filename: new URL('./thread-entry.mjs', import.meta.url).href, minThreads: threads, maxThreads: threads, execArgv: [] });
+export function arrangeInThreads(
+  items: ArrangeItem[],
+  options: Omit<ArrangeOptions, 'shouldStop' | 'onBest'>,
+  locked: LockedPiece[] = [],
+  threads = defaultThreads(),
+  onBest?: (best: ArrangeResult) => void,
+): ParallelRun {
+  const pool = new Piscina({
+    filename: new URL('./thread-entry.mjs', import.meta.url).href,
+    minThreads: threads,
+    maxThreads: threads,
+    execArgv: [],
+  });
   const stop = new SharedArrayBuffer(4);
   let best: ArrangeResult | null = null;
   const offer = (result: ArrangeResult) => {

@@ -20,7 +20,10 @@ export function zipFiles(files: Array<{ name: string; data: Buffer | string }>):
 /** The media type each exported file is served with (IANA registrations; DXF as image/vnd.dxf). */
 export function exportFileType(name: string): string {
   const ext = name.slice(name.lastIndexOf('.') + 1).toLowerCase();
-  return { png: 'image/png', svg: 'image/svg+xml', pdf: 'application/pdf', dxf: 'image/vnd.dxf', txt: 'text/plain; charset=utf-8' }[ext] ?? 'application/octet-stream';
+  return (
+    { png: 'image/png', svg: 'image/svg+xml', pdf: 'application/pdf', dxf: 'image/vnd.dxf', txt: 'text/plain; charset=utf-8' }[ext] ??
+    'application/octet-stream'
+  );
 }
 
 /** The names and sizes of the files in a bundle. */

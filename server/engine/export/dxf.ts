@@ -8,7 +8,12 @@ import type { ExportSheet } from './types';
  * CUT (kiss) or CUT-DIE (registration marks, when asked, on REGISTRATION), in mm or inches, y pointing up from the print area's bottom-left corner as
  * DXF drawings expect.
  */
-export function cutDxf(sheet: ExportSheet, lines: Array<{ id: string; ring: Ring; kind: 'kiss' | 'die' }>, unit: 'mm' | 'in', marks: RegMarks | null = null): string {
+export function cutDxf(
+  sheet: ExportSheet,
+  lines: Array<{ id: string; ring: Ring; kind: 'kiss' | 'die' }>,
+  unit: 'mm' | 'in',
+  marks: RegMarks | null = null,
+): string {
   const k = unit === 'in' ? 1 / 25.4 : 1;
   const height = sheet.doc.printArea.height;
   const out: Array<string | number> = [];
@@ -29,7 +34,10 @@ export function cutDxf(sheet: ExportSheet, lines: Array<{ id: string; ring: Ring
   pair(0, 'SECTION');
   pair(2, 'ENTITIES');
   // Registration marks (only when asked) on a layer of their own, so the cutter's software can tell them apart.
-  const all = [...lines.map((l) => ({ ring: l.ring, layer: l.kind === 'die' ? 'CUT-DIE' : 'CUT' })), ...(marks ? registrationMarks(sheet.doc.printArea, marks).map((m) => ({ ring: m.ring, layer: 'REGISTRATION' })) : [])];
+  const all = [
+    ...lines.map((l) => ({ ring: l.ring, layer: l.kind === 'die' ? 'CUT-DIE' : 'CUT' })),
+    ...(marks ? registrationMarks(sheet.doc.printArea, marks).map((m) => ({ ring: m.ring, layer: 'REGISTRATION' })) : []),
+  ];
   for (const line of all) {
     pair(0, 'POLYLINE');
     pair(8, line.layer);

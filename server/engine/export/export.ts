@@ -19,7 +19,12 @@ export const PRINT_CAUTION = (area: string) => [
   `Check with a ruler: the print area is ${area}; in the PDF the bar under it is 1 in.`,
 ];
 
-const slug = (name: string) => name.toLowerCase().replace(/[^a-z0-9]+/g, '-').replace(/^-|-$/g, '').slice(0, 60) || 'sheet';
+const slug = (name: string) =>
+  name
+    .toLowerCase()
+    .replace(/[^a-z0-9]+/g, '-')
+    .replace(/^-|-$/g, '')
+    .slice(0, 60) || 'sheet';
 
 /**
  * Renders every requested format of one sheet from one set of placed cut lines, and a short text
@@ -34,7 +39,11 @@ export async function exportSheet(sheet: ExportSheet, options: ExportOptions, on
   const wants = new Set(options.formats);
   onProgress?.(0.05, 'Rendering the print image');
   const needsPng = wants.has('png') || wants.has('combined') || wants.has('pdf');
-  const png = needsPng ? await renderPrintImage(sheet, options.dpi, options.background, (d, t) => onProgress?.(0.05 + 0.6 * (d / t), 'Rendering the print image')) : null;
+  const png = needsPng
+    ? await renderPrintImage(sheet, options.dpi, options.background, (d, t) =>
+        onProgress?.(0.05 + 0.6 * (d / t), 'Rendering the print image'),
+      )
+    : null;
   if (wants.has('png')) files.push({ name: `${base}-print.png`, data: png! });
   onProgress?.(0.7, 'Writing the cut files');
   const marks = options.marks;
@@ -55,15 +64,32 @@ export async function exportSheet(sheet: ExportSheet, options: ExportOptions, on
       ? `Registration marks: ${REG_MARK_LABELS[marks.shape].toLowerCase()} ${formatLength(marks.sizeMm, u)}, ${formatLength(marks.offsetMm, u)} outside the top-left, top-right and bottom-left corners of the print area; printed on the PDF page and in the print-and-cut SVG (not in the print PNG, which covers the print area only)${options.marksInCutFile ? '; also outlined in the cut SVG, the DXF and the PDF cut layer' : '; not in the cut files'}`
       : 'Registration marks: none (the cutter software adds its own)',
     `Pieces: ${sheet.pieces.length}`,
-    ...sheet.pieces.map((p, i) => `  ${i + 1}. ${p.name}: ${formatLength(p.piece.width, u)} wide, border ${formatLength(p.piece.border, u)}, at (${formatLength(p.piece.x, u)}, ${formatLength(p.piece.y, u)}), turned ${Math.round(p.piece.rotation)} deg`),
+    ...sheet.pieces.map(
+      (p, i) =>
+        `  ${i + 1}. ${p.name}: ${formatLength(p.piece.width, u)} wide, border ${formatLength(p.piece.border, u)}, at (${formatLength(p.piece.x, u)}, ${formatLength(p.piece.y, u)}), turned ${Math.round(p.piece.rotation)} deg`,
+    ),
     ...(sheet.preflight?.length ? ['Preflight:', ...sheet.preflight.map((f) => `  - ${f}`)] : []),
     '',
     'Cutting: follow your machine instructions; keep fingers away from the carriage while it moves and change blades with the tool the maker provides.',
   ];
   if (wants.has('pdf')) {
     onProgress?.(0.8, 'Writing the PDF');
-    files.push({ name: `${base}.pdf`, data: await sheetPdf(sheet, lines, png!, options.spotColour, { checkBar: options.checkBar, summary: options.summaryPage ? settings.filter(Boolean) : null, marks, marksInCutFile: options.marksInCutFile }) });
-    files.push({ name: `${base}-summary.pdf`, data: await summaryPdf(`${sheet.name}: export summary`, settings, { widthMm: sheet.paper.paperWidthMm, heightMm: sheet.paper.paperHeightMm }) });
+    files.push({
+      name: `${base}.pdf`,
+      data: await sheetPdf(sheet, lines, png!, options.spotColour, {
+        checkBar: options.checkBar,
+        summary: options.summaryPage ? settings.filter(Boolean) : null,
+        marks,
+        marksInCutFile: options.marksInCutFile,
+      }),
+    });
+    files.push({
+      name: `${base}-summary.pdf`,
+      data: await summaryPdf(`${sheet.name}: export summary`, settings, {
+        widthMm: sheet.paper.paperWidthMm,
+        heightMm: sheet.paper.paperHeightMm,
+      }),
+    });
   }
   files.push({ name: `${base}-settings.txt`, data: `${settings.join('\n')}\n` });
   onProgress?.(0.95, 'Zipping');

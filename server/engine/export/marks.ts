@@ -15,7 +15,8 @@ export type RegMark = { corner: 'top-left' | 'top-right' | 'bottom-left'; ring: 
  * along the mark square's outer edges.
  */
 export function registrationMarks(area: { width: number; height: number }, marks: RegMarks): RegMark[] {
-  const s = marks.sizeMm, o = marks.offsetMm;
+  const s = marks.sizeMm,
+    o = marks.offsetMm;
   const boxes: RegMark['box'][] = [
     { x: -o - s, y: -o - s, size: s },
     { x: area.width + o, y: -o - s, size: s },
@@ -27,16 +28,28 @@ export function registrationMarks(area: { width: number; height: number }, marks
 
 function markRing(box: RegMark['box'], shape: RegMarks['shape'], corner: RegMark['corner']): Ring {
   const { x, y, size: s } = box;
-  if (shape === 'square') return [{ x, y }, { x: x + s, y }, { x: x + s, y: y + s }, { x, y: y + s }];
+  if (shape === 'square')
+    return [
+      { x, y },
+      { x: x + s, y },
+      { x: x + s, y: y + s },
+      { x, y: y + s },
+    ];
   if (shape === 'dot') {
     const r = s / 2;
-    return Array.from({ length: 48 }, (_, i) => ({ x: x + r + r * Math.cos((i * Math.PI) / 24), y: y + r + r * Math.sin((i * Math.PI) / 24) }));
+    return Array.from({ length: 48 }, (_, i) => ({
+      x: x + r + r * Math.cos((i * Math.PI) / 24),
+      y: y + r + r * Math.sin((i * Math.PI) / 24),
+    }));
   }
   // A bracket: an L in the mark square's corner away from the print area, arms along its outer edges.
   const t = Math.max(0.5, s / 5);
-  const left = corner !== 'top-right', top = corner !== 'bottom-left';
-  const x0 = left ? x : x + s, y0 = top ? y : y + s; // the L's outer corner
-  const dx = left ? 1 : -1, dy = top ? 1 : -1;
+  const left = corner !== 'top-right',
+    top = corner !== 'bottom-left';
+  const x0 = left ? x : x + s,
+    y0 = top ? y : y + s; // the L's outer corner
+  const dx = left ? 1 : -1,
+    dy = top ? 1 : -1;
   const ring: Ring = [
     { x: x0, y: y0 },
     { x: x0 + dx * s, y: y0 },

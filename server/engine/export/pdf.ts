@@ -50,17 +50,42 @@ export async function sheetPdf(
   const image = await pdf.embedPng(printPng);
   const area = sheet.doc.printArea;
   // PDF y runs up from the bottom of the page; the print area is placed from the top.
-  page.drawImage(image, { x: areaXMm * PT_PER_MM, y: (paperHeightMm - areaYMm - area.height) * PT_PER_MM, width: area.width * PT_PER_MM, height: area.height * PT_PER_MM });
+  page.drawImage(image, {
+    x: areaXMm * PT_PER_MM,
+    y: (paperHeightMm - areaYMm - area.height) * PT_PER_MM,
+    width: area.width * PT_PER_MM,
+    height: area.height * PT_PER_MM,
+  });
 
   const context = pdf.context;
   const tint = context.obj({ FunctionType: 2, Domain: [0, 1], C0: [0, 0, 0, 0], C1: [0, 1, 0, 0], N: 1 });
-  const separation = context.obj([PDFName.of('Separation'), PDFName.of(spotColour.replace(/[^A-Za-z0-9_-]/g, '')), PDFName.of('DeviceCMYK'), tint]);
+  const separation = context.obj([
+    PDFName.of('Separation'),
+    PDFName.of(spotColour.replace(/[^A-Za-z0-9_-]/g, '')),
+    PDFName.of('DeviceCMYK'),
+    tint,
+  ]);
   const layer: PDFRef = context.register(
-    context.obj({ Type: 'OCG', Name: PDFString.of('Cut lines (not printed)'), Intent: [PDFName.of('View'), PDFName.of('Design')], Usage: { Print: { PrintState: PDFName.of('OFF') }, View: { ViewState: PDFName.of('ON') } } }),
+    context.obj({
+      Type: 'OCG',
+      Name: PDFString.of('Cut lines (not printed)'),
+      Intent: [PDFName.of('View'), PDFName.of('Design')],
+      Usage: { Print: { PrintState: PDFName.of('OFF') }, View: { ViewState: PDFName.of('ON') } },
+    }),
   );
   pdf.catalog.set(
     PDFName.of('OCProperties'),
-    context.obj({ OCGs: [layer], D: { Order: [layer], ON: [layer], AS: [{ Event: PDFName.of('Print'), OCGs: [layer], Category: [PDFName.of('Print')] }, { Event: PDFName.of('View'), OCGs: [layer], Category: [PDFName.of('View')] }] } }),
+    context.obj({
+      OCGs: [layer],
+      D: {
+        Order: [layer],
+        ON: [layer],
+        AS: [
+          { Event: PDFName.of('Print'), OCGs: [layer], Category: [PDFName.of('Print')] },
+          { Event: PDFName.of('View'), OCGs: [layer], Category: [PDFName.of('View')] },
+        ],
+      },
+    }),
   );
   resourceDict(page, 'ColorSpace').set(PDFName.of('CSCut'), separation);
   resourceDict(page, 'Properties').set(PDFName.of('OCCut'), layer);
@@ -101,7 +126,13 @@ export async function sheetPdf(
     const x0 = (areaXMm + area.width / 2) * PT_PER_MM - 36;
     const ink = rgb(0.2, 0.2, 0.2);
     page.drawRectangle({ x: x0, y: y0, width: 72, height: 6, color: ink });
-    for (let i = 0; i <= 4; i++) page.drawLine({ start: { x: x0 + i * 18, y: y0 + 6 }, end: { x: x0 + i * 18, y: y0 + (i % 4 === 0 ? 12 : 9) }, thickness: 0.5, color: ink });
+    for (let i = 0; i <= 4; i++)
+      page.drawLine({
+        start: { x: x0 + i * 18, y: y0 + 6 },
+        end: { x: x0 + i * 18, y: y0 + (i % 4 === 0 ? 12 : 9) },
+        thickness: 0.5,
+        color: ink,
+      });
     const label = 'This bar is 1 in (25.4 mm) at 100 %: if not, the print was scaled.';
     const size = 6.5;
     page.drawText(label, { x: x0 + 36 - font.widthOfTextAtSize(label, size) / 2, y: y0 - 9, size, font, color: ink });

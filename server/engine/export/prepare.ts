@@ -8,7 +8,13 @@ import type { ExportPiece } from './types';
  * or the server's cached pool), with the options pieceOutlineOptions() gives. With bleed, the raster comes from an outline with the border grown
  * by the bleed, while the cut line stays on the border's edge.
  */
-export async function exportPiece(piece: Piece, name: string, base: OutlineOptionsInput, bleedMm: number, compute: (options: OutlineOptionsInput) => Promise<OutlineResult>): Promise<ExportPiece> {
+export async function exportPiece(
+  piece: Piece,
+  name: string,
+  base: OutlineOptionsInput,
+  bleedMm: number,
+  compute: (options: OutlineOptionsInput) => Promise<OutlineResult>,
+): Promise<ExportPiece> {
   const cut = (await compute(base)).pieces[0];
   const raster = bleedMm > 0 ? (await compute({ ...base, border: piece.border + bleedMm })).pieces[0] : cut;
   return {

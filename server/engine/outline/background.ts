@@ -8,8 +8,7 @@ export function parseHex(hex: string): Rgb {
   return { r: (v >> 16) & 255, g: (v >> 8) & 255, b: v & 255 };
 }
 
-const distance = (data: Uint8Array, i: number, c: Rgb) =>
-  Math.hypot(data[i] - c.r, data[i + 1] - c.g, data[i + 2] - c.b);
+const distance = (data: Uint8Array, i: number, c: Rgb) => Math.hypot(data[i] - c.r, data[i + 1] - c.g, data[i + 2] - c.b);
 
 function edgeIndices(width: number, height: number): number[] {
   const out: number[] = [];
@@ -47,7 +46,8 @@ function floodFromEdge(rgba: Uint8Array, width: number, height: number, colour: 
   while (stack.length) {
     const p = stack.pop()!;
     region[p] = 1;
-    const x = p % width, y = (p - x) / width;
+    const x = p % width,
+      y = (p - x) / width;
     if (x > 0) visit(p - 1);
     if (x < width - 1) visit(p + 1);
     if (y > 0) visit(p - width);
@@ -92,12 +92,17 @@ const FRINGE_PX = 2;
  */
 export function planRemoval(rgba: Uint8Array, width: number, height: number, colour: Rgb, tolerance: number): RemovalPlan {
   const region = floodFromEdge(rgba, width, height, colour, tolerance);
-  const spread = edgeIndices(width, height).map((i) => distance(rgba, i * 4, colour)).filter((d) => d <= tolerance).sort((a, b) => a - b);
+  const spread = edgeIndices(width, height)
+    .map((i) => distance(rgba, i * 4, colour))
+    .filter((d) => d <= tolerance)
+    .sort((a, b) => a - b);
   const reference = Math.min(tolerance, Math.max(6, spread.length ? spread[Math.floor(0.9 * (spread.length - 1))] + 2 : 6));
   const strict = reference >= tolerance ? region : floodFromEdge(rgba, width, height, colour, reference);
   const near = strict === region ? region : dilate(strict, width, height, FRINGE_PX);
   const map = new Uint8Array(width * height);
-  let removed = 0, taken = 0, art = 0;
+  let removed = 0,
+    taken = 0,
+    art = 0;
   for (let i = 0; i < map.length; i++) {
     if (!strict[i] && rgba[i * 4 + 3] > 0) art++;
     if (!region[i]) continue;

@@ -9,7 +9,8 @@ export function boundaryPixels(labels: Int32Array, mask: Uint8Array, width: numb
     for (let x = 0; x < width; x++) {
       const i = y * width + x;
       if (!mask[i] || !labels[i]) continue;
-      const edge = x === 0 || y === 0 || x === width - 1 || y === height - 1 || !mask[i - 1] || !mask[i + 1] || !mask[i - width] || !mask[i + width];
+      const edge =
+        x === 0 || y === 0 || x === width - 1 || y === height - 1 || !mask[i - 1] || !mask[i + 1] || !mask[i - width] || !mask[i + width];
       if (edge) out[labels[i] - 1].push({ x, y });
     }
   }
@@ -32,9 +33,13 @@ export function closestPair(a: Pixel[], b: Pixel[]): { p: Pixel; q: Pixel; d2: n
 }
 
 function drawCapsule(mask: Uint8Array, width: number, height: number, p: Pixel, q: Pixel, radius: number) {
-  const minX = Math.max(0, Math.floor(Math.min(p.x, q.x) - radius)), maxX = Math.min(width - 1, Math.ceil(Math.max(p.x, q.x) + radius));
-  const minY = Math.max(0, Math.floor(Math.min(p.y, q.y) - radius)), maxY = Math.min(height - 1, Math.ceil(Math.max(p.y, q.y) + radius));
-  const dx = q.x - p.x, dy = q.y - p.y, len2 = dx * dx + dy * dy || 1;
+  const minX = Math.max(0, Math.floor(Math.min(p.x, q.x) - radius)),
+    maxX = Math.min(width - 1, Math.ceil(Math.max(p.x, q.x) + radius));
+  const minY = Math.max(0, Math.floor(Math.min(p.y, q.y) - radius)),
+    maxY = Math.min(height - 1, Math.ceil(Math.max(p.y, q.y) + radius));
+  const dx = q.x - p.x,
+    dy = q.y - p.y,
+    len2 = dx * dx + dy * dy || 1;
   for (let y = minY; y <= maxY; y++) {
     for (let x = minX; x <= maxX; x++) {
       const t = Math.max(0, Math.min(1, ((x - p.x) * dx + (y - p.y) * dy) / len2));
@@ -47,7 +52,14 @@ function drawCapsule(mask: Uint8Array, width: number, height: number, p: Pixel, 
  * `groupLabels` labels art pixels by the island group they belong to (1..groups). Draws bridges of
  * the given radius into `mask` so every group is linked; returns how many bridges were drawn.
  */
-export function bridgeIslands(mask: Uint8Array, groupLabels: Int32Array, groups: number, width: number, height: number, radius: number): number {
+export function bridgeIslands(
+  mask: Uint8Array,
+  groupLabels: Int32Array,
+  groups: number,
+  width: number,
+  height: number,
+  radius: number,
+): number {
   const boundary = boundaryPixels(groupLabels, mask, width, height, groups);
   const inTree = new Set<number>([0]);
   let bridges = 0;

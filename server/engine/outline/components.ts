@@ -9,7 +9,11 @@ export type Component = { label: number; area: number; minX: number; minY: numbe
  */
 export type Runs = { count: number; x0: Int32Array; x1: Int32Array; y: Int32Array; label: Int32Array };
 
-export function labelComponents(mask: Uint8Array, width: number, height: number): { labels: Int32Array; components: Component[]; runs: Runs } {
+export function labelComponents(
+  mask: Uint8Array,
+  width: number,
+  height: number,
+): { labels: Int32Array; components: Component[]; runs: Runs } {
   const { components, runs } = labelRuns(mask, width, height);
   const labels = new Int32Array(width * height);
   for (let i = 0; i < runs.count; i++) labels.fill(runs.label[i], runs.y[i] * width + runs.x0[i], runs.y[i] * width + runs.x1[i] + 1);
@@ -24,7 +28,9 @@ export function clearComponents(runs: Runs, labels: Set<number>, clear: (start: 
 /** The components of a mask and its runs of set pixels, each run with its component label. */
 export function labelRuns(mask: Uint8Array, width: number, height: number): { components: Component[]; runs: Runs } {
   let cap = 1024;
-  let runX0 = new Int32Array(cap), runX1 = new Int32Array(cap), runY = new Int32Array(cap);
+  let runX0 = new Int32Array(cap),
+    runX1 = new Int32Array(cap),
+    runY = new Int32Array(cap);
   let count = 0;
   const rowStart = new Int32Array(height + 1);
   for (let y = 0; y < height; y++) {
@@ -71,7 +77,8 @@ export function labelRuns(mask: Uint8Array, width: number, height: number): { co
       // Skip previous-row runs that end before this run's reach (x0 − 1).
       while (p < pEnd && runX1[p] < runX0[c] - 1) p++;
       for (let q = p; q < pEnd && runX0[q] <= runX1[c] + 1; q++) {
-        const a = find(q), b = find(c);
+        const a = find(q),
+          b = find(c);
         if (a !== b) parent[Math.max(a, b)] = Math.min(a, b);
       }
     }
@@ -89,7 +96,9 @@ export function labelRuns(mask: Uint8Array, width: number, height: number): { co
     }
     const label = compact[i];
     const c = components[label - 1];
-    const x0 = runX0[i], x1 = runX1[i], y = runY[i];
+    const x0 = runX0[i],
+      x1 = runX1[i],
+      y = runY[i];
     c.area += x1 - x0 + 1;
     if (x0 < c.minX) c.minX = x0;
     if (x1 > c.maxX) c.maxX = x1;

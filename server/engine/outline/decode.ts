@@ -27,9 +27,13 @@ export async function decodeArt(input: Buffer, maxPixels: number): Promise<Decod
     throw new OutlineInputError('not-an-image', 'This file is not an image Sheetsmith can read. Use PNG, JPEG or WebP.');
   }
   if (!meta.format || !FORMATS.has(meta.format)) {
-    throw new OutlineInputError('unsupported-format', `${(meta.format ?? 'This').toUpperCase()} files are not supported. Use PNG, JPEG or WebP.`);
+    throw new OutlineInputError(
+      'unsupported-format',
+      `${(meta.format ?? 'This').toUpperCase()} files are not supported. Use PNG, JPEG or WebP.`,
+    );
   }
-  const width = meta.width ?? 0, height = meta.height ?? 0;
+  const width = meta.width ?? 0,
+    height = meta.height ?? 0;
   if (width * height > maxPixels) {
     const mp = (n: number) => (n / 1e6).toFixed(n >= 1e7 ? 0 : 1);
     throw new OutlineInputError(

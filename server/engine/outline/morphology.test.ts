@@ -5,10 +5,12 @@ import { nearSet } from './morphology';
 /** Random blobs and specks on a small canvas, repeatable. */
 function randomMask(width: number, height: number, seed: number): Uint8Array {
   let a = seed;
-  const random = () => ((a = (a * 1103515245 + 12345) % 2147483648) / 2147483648);
+  const random = () => (a = (a * 1103515245 + 12345) % 2147483648) / 2147483648;
   const mask = new Uint8Array(width * height);
   for (let k = 0; k < 12; k++) {
-    const cx = random() * width, cy = random() * height, r = 1 + random() * 9;
+    const cx = random() * width,
+      cy = random() * height,
+      r = 1 + random() * 9;
     for (let y = 0; y < height; y++) for (let x = 0; x < width; x++) if ((x - cx) ** 2 + (y - cy) ** 2 < r * r) mask[y * width + x] = 1;
   }
   return mask;
@@ -17,14 +19,26 @@ function randomMask(width: number, height: number, seed: number): Uint8Array {
 describe('disk stamping around the edge of a set', () => {
   // The reference: an exact Euclidean distance transform (Felzenszwalb & Huttenlocher 2012)
   // thresholded, over every pixel of the canvas.
-  for (const [radius, inclusive] of [[6.5, false], [6.5, true], [3, false], [3, true], [18.2, false], [0.5, false], [1, true]] as const) {
+  for (const [radius, inclusive] of [
+    [6.5, false],
+    [6.5, true],
+    [3, false],
+    [3, true],
+    [18.2, false],
+    [0.5, false],
+    [1, true],
+  ] as const) {
     it(`marks exactly the pixels ${inclusive ? 'at most' : 'less than'} ${radius} px from the set`, () => {
       for (const seed of [1, 2, 3, 4]) {
-        const width = 61, height = 47;
+        const width = 61,
+          height = 47;
         const set = randomMask(width, height, seed);
         const distance = distanceTransform(set, width, height);
         const ours = nearSet(set, width, height, radius, inclusive);
-        for (let i = 0; i < set.length; i++) expect(ours[i], `pixel ${i % width}, ${Math.floor(i / width)}`).toBe((inclusive ? distance[i] <= radius : distance[i] < radius) ? 1 : 0);
+        for (let i = 0; i < set.length; i++)
+          expect(ours[i], `pixel ${i % width}, ${Math.floor(i / width)}`).toBe(
+            (inclusive ? distance[i] <= radius : distance[i] < radius) ? 1 : 0,
+          );
       }
     });
   }

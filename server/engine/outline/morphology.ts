@@ -30,12 +30,15 @@ export function nearSet(set: Uint8Array, width: number, height: number, radius: 
   // unsetNear[x]: some pixel of rows y-1..y+1 in column x is not in the set.
   const unsetNear = new Uint8Array(width + 2);
   for (let y = 0; y < height; y++) {
-    const row = y * width, up = y > 0 ? row - width : row, down = y < height - 1 ? row + width : row;
+    const row = y * width,
+      up = y > 0 ? row - width : row,
+      down = y < height - 1 ? row + width : row;
     for (let x = 0; x < width; x++) unsetNear[x + 1] = set[up + x] & set[row + x] & set[down + x] ? 0 : 1;
     for (let x = 0; x < width; x++) {
       // An edge pixel: in the set, with some 8-neighbour inside the canvas not in it.
       if (!set[row + x] || !(unsetNear[x] | unsetNear[x + 1] | unsetNear[x + 2])) continue;
-      const y0 = Math.max(0, y - rows), y1 = Math.min(height - 1, y + rows);
+      const y0 = Math.max(0, y - rows),
+        y1 = Math.min(height - 1, y + rows);
       for (let sy = y0; sy <= y1; sy++) {
         const dx = reach[sy - y + rows];
         if (dx < 0) continue;

@@ -8,7 +8,12 @@ import { nearSet } from './morphology';
  * least the radius). Leftover pieces bigger than radius² px are reported; smaller ones are the
  * rounding of ordinary corners. Returns the centres (px) of the narrow parts found.
  */
-export function findNarrowParts(filled: Uint8Array, width: number, height: number, minWidth: number): Array<{ x: number; y: number; area: number; box: { minX: number; minY: number; maxX: number; maxY: number } }> {
+export function findNarrowParts(
+  filled: Uint8Array,
+  width: number,
+  height: number,
+  minWidth: number,
+): Array<{ x: number; y: number; area: number; box: { minX: number; minY: number; maxX: number; maxY: number } }> {
   const r = minWidth / 2;
   if (r < 1) return [];
   const residue = thinResidue(filled, width, height, r);
@@ -16,7 +21,12 @@ export function findNarrowParts(filled: Uint8Array, width: number, height: numbe
   const { components } = labelComponents(residue, width, height);
   return components
     .filter((c) => c.area > r * r)
-    .map((c) => ({ x: (c.minX + c.maxX + 1) / 2, y: (c.minY + c.maxY + 1) / 2, area: c.area, box: { minX: c.minX, minY: c.minY, maxX: c.maxX, maxY: c.maxY } }));
+    .map((c) => ({
+      x: (c.minX + c.maxX + 1) / 2,
+      y: (c.minY + c.maxY + 1) / 2,
+      area: c.area,
+      box: { minX: c.minX, minY: c.minY, maxX: c.maxX, maxY: c.maxY },
+    }));
 }
 
 /** The pixels of a filled shape an opening by a disk of radius `r` px removes; null when none. */
@@ -83,11 +93,17 @@ export function findNecks(filled: Uint8Array, width: number, height: number, min
 }
 
 /** Slots and notches narrower than `minWidth` px: thin parts of the outside reaching into the shape. */
-export function findSlots(filled: Uint8Array, width: number, height: number, minWidth: number): Array<{ x: number; y: number; area: number }> {
+export function findSlots(
+  filled: Uint8Array,
+  width: number,
+  height: number,
+  minWidth: number,
+): Array<{ x: number; y: number; area: number }> {
   // The outside goes on past the canvas: pad it, so the strip between the shape and the canvas
   // edge is not taken for a slot.
   const m = Math.ceil(minWidth) + 2;
-  const W = width + 2 * m, H = height + 2 * m;
+  const W = width + 2 * m,
+    H = height + 2 * m;
   const outside = new Uint8Array(W * H).fill(1);
   for (let y = 0; y < height; y++) for (let x = 0; x < width; x++) if (filled[y * width + x]) outside[(y + m) * W + x + m] = 0;
   return findNarrowParts(outside, W, H, minWidth).map((p) => ({ ...p, x: p.x - m, y: p.y - m }));

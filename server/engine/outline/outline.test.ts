@@ -13,7 +13,11 @@ const countPaths = (d: string) => (d.match(/M/g) ?? []).length;
 
 describe('outline: shape guarantees', () => {
   it('gives one simple closed clockwise cut line', async () => {
-    const art = await svgArt(800, 600, '<path d="M100 500 L400 80 L700 500 Z M380 300 h40 v120 h-40 Z" fill="#145a32" fill-rule="evenodd"/>');
+    const art = await svgArt(
+      800,
+      600,
+      '<path d="M100 500 L400 80 L700 500 Z M380 300 h40 v120 h-40 Z" fill="#145a32" fill-rule="evenodd"/>',
+    );
     const { pieces } = await outline(art, { width: '2in' });
     expect(pieces).toHaveLength(1);
     const ring = pieces[0].cutLine.points;
@@ -47,11 +51,14 @@ describe('outline: shape guarantees', () => {
   });
 
   it('a JPEG with EXIF orientation 6 outlines like the same art turned 90° clockwise in a PNG (EXIF 2.32, tag 0x0112)', async () => {
-    const W = 300, H = 200;
+    const W = 300,
+      H = 200;
     const raw = Buffer.alloc(W * H * 3, 255);
-    for (let y = 0; y < H; y++) for (let x = 0; x < W; x++) {
-      if ((x > 30 && x < 90 && y > 20 && y < 180) || (x > 30 && x < 270 && y > 120 && y < 180)) raw.fill(30, (y * W + x) * 3, (y * W + x) * 3 + 3);
-    }
+    for (let y = 0; y < H; y++)
+      for (let x = 0; x < W; x++) {
+        if ((x > 30 && x < 90 && y > 20 && y < 180) || (x > 30 && x < 270 && y > 120 && y < 180))
+          raw.fill(30, (y * W + x) * 3, (y * W + x) * 3 + 3);
+      }
     const image = sharp(raw, { raw: { width: W, height: H, channels: 3 } });
     const jpeg = await image.clone().jpeg({ quality: 95 }).withMetadata({ orientation: 6 }).toBuffer();
     expect((await sharp(jpeg).metadata()).orientation).toBe(6);
@@ -64,8 +71,16 @@ describe('outline: shape guarantees', () => {
     expect(fromJpeg.pixelWidth).toBe(fromPng.pixelWidth);
     expect(fromJpeg.pixelHeight).toBe(fromPng.pixelHeight);
     expect(ignoringExif.pixelHeight).not.toBe(fromPng.pixelHeight);
-    const toPaths = (points: Array<{ x: number; y: number }>) => [points.map((p) => ({ x: Math.round(p.x * 1000), y: Math.round(p.y * 1000) }))];
-    const xor = Math.abs(Clipper.xor(toPaths(fromJpeg.cutLine.points), toPaths(fromPng.cutLine.points), FillRule.NonZero).reduce((s, p) => s + Clipper.area(p), 0)) / 1e6;
+    const toPaths = (points: Array<{ x: number; y: number }>) => [
+      points.map((p) => ({ x: Math.round(p.x * 1000), y: Math.round(p.y * 1000) })),
+    ];
+    const xor =
+      Math.abs(
+        Clipper.xor(toPaths(fromJpeg.cutLine.points), toPaths(fromPng.cutLine.points), FillRule.NonZero).reduce(
+          (s, p) => s + Clipper.area(p),
+          0,
+        ),
+      ) / 1e6;
     expect(xor / fromPng.areaMm2).toBeLessThan(0.02);
   });
 });
@@ -87,14 +102,20 @@ describe('outline: the bordered PNG', () => {
     const img = await pixels(pieces[0].png);
     const mid = img.height >> 1;
     // 1.5 mm in from the left edge: inside the border ring, outside the art.
-    expect(img.at(Math.round(1.5 * 300 / 25.4), mid)).toEqual([255, 255, 255, 255]);
+    expect(img.at(Math.round((1.5 * 300) / 25.4), mid)).toEqual([255, 255, 255, 255]);
     expect(img.at(img.width >> 1, mid)).toEqual([176, 58, 46, 255]);
   });
 });
 
 describe('outline: backgrounds, specks, islands, necks, resolution', () => {
   it('removes a flat white background from a JPEG (auto) and keeps it with keep', async () => {
-    const jpeg = await sharp(Buffer.from(`<svg xmlns="http://www.w3.org/2000/svg" width="600" height="600"><rect width="600" height="600" fill="#fff"/><circle cx="300" cy="300" r="200" fill="#1a5276"/></svg>`)).jpeg({ quality: 95 }).toBuffer();
+    const jpeg = await sharp(
+      Buffer.from(
+        `<svg xmlns="http://www.w3.org/2000/svg" width="600" height="600"><rect width="600" height="600" fill="#fff"/><circle cx="300" cy="300" r="200" fill="#1a5276"/></svg>`,
+      ),
+    )
+      .jpeg({ quality: 95 })
+      .toBuffer();
     const auto = await outline(jpeg, { width: 40, border: 3 });
     expect(auto.warnings.map((w) => w.code)).toContain('background-removed');
     expect(auto.art.printedHeightMm).toBeCloseTo(40, 0);
@@ -117,7 +138,11 @@ describe('outline: backgrounds, specks, islands, necks, resolution', () => {
   });
 
   it('joins far islands into one piece, or splits them into one piece each', async () => {
-    const art = await svgArt(1200, 400, '<circle cx="200" cy="200" r="150" fill="#117864"/><circle cx="1000" cy="200" r="150" fill="#b9770e"/>');
+    const art = await svgArt(
+      1200,
+      400,
+      '<circle cx="200" cy="200" r="150" fill="#117864"/><circle cx="1000" cy="200" r="150" fill="#b9770e"/>',
+    );
     const joined = await outline(art, { width: 60, border: 2, islands: 'join' });
     expect(joined.pieces).toHaveLength(1);
     expect(countPaths(joined.pieces[0].cutLine.svgPath)).toBe(1);
@@ -131,7 +156,11 @@ describe('outline: backgrounds, specks, islands, necks, resolution', () => {
   });
 
   it('warns about a neck narrower than the smallest cuttable feature', async () => {
-    const art = await svgArt(1000, 400, '<circle cx="200" cy="200" r="150" fill="#333"/><circle cx="800" cy="200" r="150" fill="#333"/><rect x="300" y="196" width="400" height="8" fill="#333"/>');
+    const art = await svgArt(
+      1000,
+      400,
+      '<circle cx="200" cy="200" r="150" fill="#333"/><circle cx="800" cy="200" r="150" fill="#333"/><rect x="300" y="196" width="400" height="8" fill="#333"/>',
+    );
     const thin = await outline(art, { width: 50, border: 0, minFeature: 1 });
     expect(thin.warnings.map((w) => w.code)).toContain('narrow-neck');
     const bordered = await outline(art, { width: 50, border: 2, minFeature: 1 });
@@ -154,7 +183,18 @@ describe('outline: decoding many kinds of file', () => {
   it('outlines 16-bit, grey-with-alpha, palette, CMYK JPEG and WebP like the 8-bit PNG', async () => {
     const base = await svgArt(1000, 1000, DISK);
     const reference = (await outline(base, { width: 40, border: 3 })).pieces[0].areaMm2;
-    const jpegCmyk = await sharp(await sharp(Buffer.from(`<svg xmlns="http://www.w3.org/2000/svg" width="1000" height="1000"><rect width="1000" height="1000" fill="#fff"/>${DISK}</svg>`)).png().toBuffer()).toColourspace('cmyk').jpeg().toBuffer();
+    const jpegCmyk = await sharp(
+      await sharp(
+        Buffer.from(
+          `<svg xmlns="http://www.w3.org/2000/svg" width="1000" height="1000"><rect width="1000" height="1000" fill="#fff"/>${DISK}</svg>`,
+        ),
+      )
+        .png()
+        .toBuffer(),
+    )
+      .toColourspace('cmyk')
+      .jpeg()
+      .toBuffer();
     expect((await sharp(jpegCmyk).metadata()).space).toBe('cmyk');
     const variants: Record<string, Buffer> = {
       rgba16: await sharp(base).toColourspace('rgb16').png().toBuffer(),
@@ -178,10 +218,36 @@ describe('outline: bad input gets a clear error', () => {
   const cases: Array<[string, () => Promise<Buffer>, OutlineInputError['code'], RegExp]> = [
     ['not an image', async () => Buffer.from('%PDF-1.7 definitely not a picture'), 'not-an-image', /not an image/],
     ['a truncated PNG', async () => (await svgArt(400, 400, DISK)).subarray(0, 600), 'corrupt', /damaged or cut short/],
-    ['a 1 × 1 px image', () => sharp({ create: { width: 1, height: 1, channels: 4, background: '#000' } }).png().toBuffer(), 'too-small', /1 × 1 px/],
-    ['fully transparent art', () => sharp({ create: { width: 64, height: 64, channels: 4, background: { r: 0, g: 0, b: 0, alpha: 0 } } }).png().toBuffer(), 'no-visible-art', /no visible art/],
-    ['a 30000 × 30000 px decompression bomb', async () => pngHeaderClaiming(30000, 30000), 'too-many-pixels', /30000 × 30000 px.*limit is 50/],
-    ['an SVG file', async () => Buffer.from('<svg xmlns="http://www.w3.org/2000/svg" width="10" height="10"><rect width="10" height="10"/></svg>'), 'unsupported-format', /SVG files are not supported/],
+    [
+      'a 1 × 1 px image',
+      () =>
+        sharp({ create: { width: 1, height: 1, channels: 4, background: '#000' } })
+          .png()
+          .toBuffer(),
+      'too-small',
+      /1 × 1 px/,
+    ],
+    [
+      'fully transparent art',
+      () =>
+        sharp({ create: { width: 64, height: 64, channels: 4, background: { r: 0, g: 0, b: 0, alpha: 0 } } })
+          .png()
+          .toBuffer(),
+      'no-visible-art',
+      /no visible art/,
+    ],
+    [
+      'a 30000 × 30000 px decompression bomb',
+      async () => pngHeaderClaiming(30000, 30000),
+      'too-many-pixels',
+      /30000 × 30000 px.*limit is 50/,
+    ],
+    [
+      'an SVG file',
+      async () => Buffer.from('<svg xmlns="http://www.w3.org/2000/svg" width="10" height="10"><rect width="10" height="10"/></svg>'),
+      'unsupported-format',
+      /SVG files are not supported/,
+    ],
   ];
 
   for (const [label, make, code, message] of cases) {
@@ -197,7 +263,9 @@ describe('outline: bad input gets a clear error', () => {
 
   it('the pixel limit is configurable', async () => {
     const art = await svgArt(300, 300, DISK);
-    await expect(outline(art, { width: 20 }, { maxInputPixels: 10_000, maxOutputPixels: 40_000_000 })).rejects.toThrow(/limit is 0\.0 megapixels|limit is/);
+    await expect(outline(art, { width: 20 }, { maxInputPixels: 10_000, maxOutputPixels: 40_000_000 })).rejects.toThrow(
+      /limit is 0\.0 megapixels|limit is/,
+    );
   });
 
   it('refuses options without a size, with a field message', async () => {

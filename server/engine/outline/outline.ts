@@ -37,8 +37,10 @@ function isFlat(rgba: Buffer, colour: { r: number; g: number; b: number }, toler
 } // working margin (px) so traced rings never touch the canvas edge
 
 function unionBox(components: Component[]): Box {
-  const minX = Math.min(...components.map((c) => c.minX)), minY = Math.min(...components.map((c) => c.minY));
-  const maxX = Math.max(...components.map((c) => c.maxX)), maxY = Math.max(...components.map((c) => c.maxY));
+  const minX = Math.min(...components.map((c) => c.minX)),
+    minY = Math.min(...components.map((c) => c.minY));
+  const maxX = Math.max(...components.map((c) => c.maxX)),
+    maxY = Math.max(...components.map((c) => c.maxY));
   return { x: minX, y: minY, width: maxX - minX + 1, height: maxY - minY + 1 };
 }
 
@@ -51,7 +53,11 @@ function splitSpecks(components: Component[], minArea: number) {
   return { kept, dropped: droppedLabels.size, droppedLabels };
 }
 
-export async function outline(image: Buffer, rawOptions: OutlineOptionsInput, limits: OutlineLimits = DEFAULT_LIMITS): Promise<OutlineResult> {
+export async function outline(
+  image: Buffer,
+  rawOptions: OutlineOptionsInput,
+  limits: OutlineLimits = DEFAULT_LIMITS,
+): Promise<OutlineResult> {
   const options: OutlineOptions = outlineOptionsSchema.parse(rawOptions);
   const warnings: OutlineWarning[] = [];
   const decoded = await decodeArt(image, limits.maxInputPixels);
@@ -63,7 +69,8 @@ export async function outline(image: Buffer, rawOptions: OutlineOptionsInput, li
   if (explicit) {
     const plan = removeBackground(rgba, W, H, parseHex(explicit.colour), explicit.tolerance);
     removal = { plan, tolerance: explicit.tolerance };
-    if (plan.removed > 0) warnings.push({ code: 'background-removed', severity: 'notice', message: `Removed the ${explicit.colour} background.` });
+    if (plan.removed > 0)
+      warnings.push({ code: 'background-removed', severity: 'notice', message: `Removed the ${explicit.colour} background.` });
   } else if (options.background === 'auto' && !decoded.hasTransparency) {
     const colour = detectBackground(rgba, W, H, options.backgroundTolerance);
     // An image that is one flat colour edge to edge is all art, not all background.
@@ -71,9 +78,17 @@ export async function outline(image: Buffer, rawOptions: OutlineOptionsInput, li
     if (colour && !flat) {
       removal = { plan: removeBackground(rgba, W, H, colour, options.backgroundTolerance), tolerance: options.backgroundTolerance };
       const hex = `#${[colour.r, colour.g, colour.b].map((v) => v.toString(16).padStart(2, '0')).join('')}`;
-      warnings.push({ code: 'background-removed', severity: 'notice', message: `No transparency: removed the flat ${hex} background around the art.` });
+      warnings.push({
+        code: 'background-removed',
+        severity: 'notice',
+        message: `No transparency: removed the flat ${hex} background around the art.`,
+      });
     } else {
-      warnings.push({ code: 'no-flat-background', severity: 'notice', message: 'No transparency and no flat background colour: the whole image is used as the art.' });
+      warnings.push({
+        code: 'no-flat-background',
+        severity: 'notice',
+        message: 'No transparency and no flat background colour: the whole image is used as the art.',
+      });
     }
   }
   if (removal && removal.plan.share > options.removalGuard) {
@@ -91,7 +106,10 @@ export async function outline(image: Buffer, rawOptions: OutlineOptionsInput, li
   for (let i = 0; i < sourceMask.length; i++) sourceMask[i] = rgba[i * 4 + 3] >= threshold ? 1 : 0;
   const source = labelRuns(sourceMask, W, H);
   if (source.components.length === 0) {
-    throw new OutlineInputError('no-visible-art', 'The image has no visible art: every pixel is transparent (or below the alpha threshold).');
+    throw new OutlineInputError(
+      'no-visible-art',
+      'The image has no visible art: every pixel is transparent (or below the alpha threshold).',
+    );
   }
   const pxPerMm = options.dpi / MM_PER_INCH;
   const sizeOf = (box: Box) =>
@@ -109,8 +127,10 @@ export async function outline(image: Buffer, rawOptions: OutlineOptionsInput, li
   const effectiveDpi = visible.width / (printed.w / MM_PER_INCH);
 
   // 3. Resample the visible part to the print resolution.
-  const artW = Math.max(1, Math.round(printed.w * pxPerMm)), artH = Math.max(1, Math.round(printed.h * pxPerMm));
-  const finishedW = Math.round((printed.w + 2 * options.border) * pxPerMm), finishedH = Math.round((printed.h + 2 * options.border) * pxPerMm);
+  const artW = Math.max(1, Math.round(printed.w * pxPerMm)),
+    artH = Math.max(1, Math.round(printed.h * pxPerMm));
+  const finishedW = Math.round((printed.w + 2 * options.border) * pxPerMm),
+    finishedH = Math.round((printed.h + 2 * options.border) * pxPerMm);
   if (finishedW * finishedH > limits.maxOutputPixels) {
     throw new OutlineInputError(
       'too-large-output',
@@ -124,7 +144,8 @@ export async function outline(image: Buffer, rawOptions: OutlineOptionsInput, li
     .toBuffer();
 
   // 4. The art mask on a canvas padded by the border (art touching the image edge keeps its border).
-  const cw = finishedW + 2 * PAD, ch = finishedH + 2 * PAD;
+  const cw = finishedW + 2 * PAD,
+    ch = finishedH + 2 * PAD;
   const origin = { x: PAD + Math.round((finishedW - artW) / 2), y: PAD + Math.round((finishedH - artH) / 2) };
   const artMask = new Uint8Array(cw * ch);
   for (let y = 0; y < artH; y++) {
@@ -140,7 +161,11 @@ export async function outline(image: Buffer, rawOptions: OutlineOptionsInput, li
   clearComponents(resampled.runs, small.droppedLabels, (x0, x1, y) => artMask.fill(0, y * cw + x0, y * cw + x1));
   droppedSpecks += small.dropped;
   if (droppedSpecks > 0) {
-    warnings.push({ code: 'specks-dropped', severity: 'notice', message: `Dropped ${droppedSpecks} speck${droppedSpecks === 1 ? '' : 's'} smaller than ${options.minSpeckArea} mm².` });
+    warnings.push({
+      code: 'specks-dropped',
+      severity: 'notice',
+      message: `Dropped ${droppedSpecks} speck${droppedSpecks === 1 ? '' : 's'} smaller than ${options.minSpeckArea} mm².`,
+    });
   }
 
   // 5. Grow by the border with an exact Euclidean distance transform; group islands by their grown regions.
@@ -156,7 +181,8 @@ export async function outline(image: Buffer, rawOptions: OutlineOptionsInput, li
   const border = parseHex(options.borderColour);
   const toMm = (v: number) => v / pxPerMm;
   // Far from the cut line only the sign of the field matters; the square root is taken near it.
-  const near2Low = level > 2 ? (level - 2) ** 2 : -1, near2High = (level + 2) ** 2;
+  const near2Low = level > 2 ? (level - 2) ** 2 : -1,
+    near2High = (level + 2) ** 2;
 
   const buildPiece = async (pieceArt: Uint8Array, artVisible: (i: number) => boolean) => {
     const sq = pieceArt === artMask ? squared : squaredDistanceTransform(pieceArt, cw, ch);
@@ -186,8 +212,14 @@ export async function outline(image: Buffer, rawOptions: OutlineOptionsInput, li
       options.islands === 'join'
         ? { x: PAD, y: PAD, width: finishedW, height: finishedH }
         : (() => {
-            const x0 = Math.max(0, Math.floor(box.x)), y0 = Math.max(0, Math.floor(box.y));
-            return { x: x0, y: y0, width: Math.min(cw, Math.ceil(box.x + box.width)) - x0, height: Math.min(ch, Math.ceil(box.y + box.height)) - y0 };
+            const x0 = Math.max(0, Math.floor(box.x)),
+              y0 = Math.max(0, Math.floor(box.y));
+            return {
+              x: x0,
+              y: y0,
+              width: Math.min(cw, Math.ceil(box.x + box.width)) - x0,
+              height: Math.min(ch, Math.ceil(box.y + box.height)) - y0,
+            };
           })();
     const points = scale(translate(ring, -frame.x, -frame.y), 1 / pxPerMm);
 
@@ -200,17 +232,47 @@ export async function outline(image: Buffer, rawOptions: OutlineOptionsInput, li
     const waists = findNecks(filled, cw, ch, minFeaturePx);
     const slack = minFeaturePx;
     // A thin part that holds a waist is that waist: one warning for one place.
-    const spikes = level >= minFeaturePx / 2 ? [] : findNarrowParts(filled, cw, ch, minFeaturePx).filter((t) => !waists.some((w) => w.x >= t.box.minX - slack && w.x <= t.box.maxX + 1 + slack && w.y >= t.box.minY - slack && w.y <= t.box.maxY + 1 + slack));
+    const spikes =
+      level >= minFeaturePx / 2
+        ? []
+        : findNarrowParts(filled, cw, ch, minFeaturePx).filter(
+            (t) =>
+              !waists.some(
+                (w) =>
+                  w.x >= t.box.minX - slack && w.x <= t.box.maxX + 1 + slack && w.y >= t.box.minY - slack && w.y <= t.box.maxY + 1 + slack,
+              ),
+          );
     const necks = [...waists, ...spikes];
     for (const neck of necks) {
       const p = where(neck);
-      warnings.push({ code: 'narrow-neck', severity: 'warning', at: p, message: `The cut line narrows below ${formatLength(options.minFeature, 'mm')} near ${at(p)} from the sticker's top-left corner: the blade may tear it. Widen the border, or let Sheetsmith widen narrow necks.` });
+      warnings.push({
+        code: 'narrow-neck',
+        severity: 'warning',
+        at: p,
+        message: `The cut line narrows below ${formatLength(options.minFeature, 'mm')} near ${at(p)} from the sticker's top-left corner: the blade may tear it. Widen the border, or let Sheetsmith widen narrow necks.`,
+      });
     }
     for (const slot of findSlots(filled, cw, ch, minFeaturePx)) {
       const p = where(slot);
-      warnings.push({ code: 'narrow-slot', severity: 'warning', at: p, message: `The cut line has a slot narrower than ${formatLength(options.minFeature, 'mm')} near ${at(p)} from the sticker's top-left corner: the blade cannot cut it cleanly. Widen the border to close it.` });
+      warnings.push({
+        code: 'narrow-slot',
+        severity: 'warning',
+        at: p,
+        message: `The cut line has a slot narrower than ${formatLength(options.minFeature, 'mm')} near ${at(p)} from the sticker's top-left corner: the blade cannot cut it cleanly. Widen the border to close it.`,
+      });
     }
-    const rgbaOut = composeSticker({ frame, canvasWidth: cw, field, holes, art, artWidth: artW, artHeight: artH, artOrigin: origin, artVisible, border });
+    const rgbaOut = composeSticker({
+      frame,
+      canvasWidth: cw,
+      field,
+      holes,
+      art,
+      artWidth: artW,
+      artHeight: artH,
+      artOrigin: origin,
+      artVisible,
+      border,
+    });
     pieces.push({
       cutLine: { points, svgPath: ringToSvgPath(points) },
       areaMm2: area(points),
@@ -237,7 +299,10 @@ export async function outline(image: Buffer, rawOptions: OutlineOptionsInput, li
       // cut shape thinner than the bridge width that holds it (what an opening by it removes),
       // until it is that wide; a closing then rounds the crevices where the widened part meets the rest.
       const filledGrown = fillHoles(grown, cw, ch);
-      const narrow = [...findNecks(filledGrown, cw, ch, minFeaturePx), ...(level >= minFeaturePx / 2 ? [] : findNarrowParts(filledGrown, cw, ch, minFeaturePx))];
+      const narrow = [
+        ...findNecks(filledGrown, cw, ch, minFeaturePx),
+        ...(level >= minFeaturePx / 2 ? [] : findNarrowParts(filledGrown, cw, ch, minFeaturePx)),
+      ];
       const residue = narrow.length ? thinResidue(grown, cw, ch, bridgePx / 2) : null;
       const pieces = residue ? labelComponents(residue, cw, ch) : null;
       const slack = Math.ceil(minFeaturePx) + 1;
@@ -246,8 +311,10 @@ export async function outline(image: Buffer, rawOptions: OutlineOptionsInput, li
         // The residue component at (or within the smallest feature of) the narrow place.
         for (let dy = -slack; dy <= slack; dy++) {
           for (let dx = -slack; dx <= slack; dx++) {
-            const x = Math.floor(n.x) + dx, y = Math.floor(n.y) + dy;
-            if (x >= 0 && y >= 0 && x < cw && y < ch && pieces!.labels[y * cw + x] > 0 && residue![y * cw + x]) holding.add(pieces!.labels[y * cw + x]);
+            const x = Math.floor(n.x) + dx,
+              y = Math.floor(n.y) + dy;
+            if (x >= 0 && y >= 0 && x < cw && y < ch && pieces!.labels[y * cw + x] > 0 && residue![y * cw + x])
+              holding.add(pieces!.labels[y * cw + x]);
           }
         }
       }
@@ -267,7 +334,11 @@ export async function outline(image: Buffer, rawOptions: OutlineOptionsInput, li
         for (let i = 0; i < artMask.length; i++) if (!artMask[i] && toOutside[i] > rc && reach[i] <= grow + 2 * rc) artMask[i] = 1;
         squared = squaredDistanceTransform(artMask, cw, ch);
         for (let i = 0; i < grown.length; i++) grown[i] = squared[i] <= level2 ? 1 : 0;
-        warnings.push({ code: 'necks-widened', severity: 'notice', message: `Widened ${thin} narrow part${thin === 1 ? '' : 's'} of the cut line to at least ${wide}, as asked.` });
+        warnings.push({
+          code: 'necks-widened',
+          severity: 'notice',
+          message: `Widened ${thin} narrow part${thin === 1 ? '' : 's'} of the cut line to at least ${wide}, as asked.`,
+        });
       }
     }
     const parts = joinParts(artMask, grown, cw, ch, bridgePx / 2);
@@ -276,7 +347,11 @@ export async function outline(image: Buffer, rawOptions: OutlineOptionsInput, li
       const radius = Math.max(0.75, bridgePx / 2 - (level - 0.5) + 1);
       const bridges = bridgeIslands(artMask, parts.labels, parts.count, cw, ch, radius);
       squared = squaredDistanceTransform(artMask, cw, ch);
-      warnings.push({ code: 'islands-joined', severity: 'notice', message: `Joined ${parts.count} separate parts of the art into one sticker with ${bridges} bridge${bridges === 1 ? '' : 's'} at least ${wide} wide.` });
+      warnings.push({
+        code: 'islands-joined',
+        severity: 'notice',
+        message: `Joined ${parts.count} separate parts of the art into one sticker with ${bridges} bridge${bridges === 1 ? '' : 's'} at least ${wide} wide.`,
+      });
     }
     await buildPiece(artMask, () => true);
   } else {
@@ -288,9 +363,17 @@ export async function outline(image: Buffer, rawOptions: OutlineOptionsInput, li
   }
 
   if (effectiveDpi < 150) {
-    warnings.push({ code: 'very-low-resolution', severity: 'warning', message: `The art has only ${Math.round(effectiveDpi)} DPI at this size (under 150 looks soft). Print it smaller or find a larger file.` });
+    warnings.push({
+      code: 'very-low-resolution',
+      severity: 'warning',
+      message: `The art has only ${Math.round(effectiveDpi)} DPI at this size (under 150 looks soft). Print it smaller or find a larger file.`,
+    });
   } else if (effectiveDpi < 300) {
-    warnings.push({ code: 'low-resolution', severity: 'notice', message: `The art has ${Math.round(effectiveDpi)} DPI at this size (300 is ideal for stickers).` });
+    warnings.push({
+      code: 'low-resolution',
+      severity: 'notice',
+      message: `The art has ${Math.round(effectiveDpi)} DPI at this size (300 is ideal for stickers).`,
+    });
   }
 
   return {
@@ -316,7 +399,13 @@ export async function outline(image: Buffer, rawOptions: OutlineOptionsInput, li
  * grown shape eroded by `r` px, merged where one connected piece of art spans several (a piece of
  * art's own thin waist is the maker's drawing, warned about, not bridged unless asked).
  */
-function joinParts(artMask: Uint8Array, grown: Uint8Array, width: number, height: number, r: number): { labels: Int32Array; count: number } {
+function joinParts(
+  artMask: Uint8Array,
+  grown: Uint8Array,
+  width: number,
+  height: number,
+  r: number,
+): { labels: Int32Array; count: number } {
   const eroded = erode(grown, width, height, r);
   const er = labelComponents(eroded, width, height);
   const art = labelComponents(artMask, width, height);
@@ -324,7 +413,8 @@ function joinParts(artMask: Uint8Array, grown: Uint8Array, width: number, height
   const parent = Int32Array.from({ length: E + art.components.length + 1 }, (_, i) => i);
   const find = (a: number): number => (parent[a] === a ? a : (parent[a] = find(parent[a])));
   const union = (a: number, b: number) => {
-    const ra = find(a), rb = find(b);
+    const ra = find(a),
+      rb = find(b);
     if (ra !== rb) parent[Math.max(ra, rb)] = Math.min(ra, rb);
   };
   for (let i = 0; i < artMask.length; i++) if (artMask[i] && er.labels[i] > 0) union(er.labels[i], E + art.labels[i]);

@@ -49,7 +49,8 @@ export class OutlinePool {
     try {
       reply = await this.piscina.run(task);
     } catch (error) {
-      if (String((error as Error).message).includes('queue is at limit')) throw new OutlinePoolBusyError('The outline workers are busy. Try again in a moment.');
+      if (String((error as Error).message).includes('queue is at limit'))
+        throw new OutlinePoolBusyError('The outline workers are busy. Try again in a moment.');
       throw error;
     }
     if (!reply.ok) throw new OutlineInputError(reply.code, reply.message);

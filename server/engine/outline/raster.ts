@@ -25,12 +25,16 @@ export function composeSticker(input: {
   const out = Buffer.alloc(frame.width * frame.height * 4);
   for (let y = 0; y < frame.height; y++) {
     for (let x = 0; x < frame.width; x++) {
-      const cx = x + frame.x, cy = y + frame.y;
+      const cx = x + frame.x,
+        cy = y + frame.y;
       const c = cy * canvasWidth + cx;
       const coverage = holes[c] ? 1 : Math.min(1, Math.max(0, field[c] + 0.5));
       if (coverage <= 0) continue;
-      let r = border.r, g = border.g, b = border.b;
-      const ax = cx - artOrigin.x, ay = cy - artOrigin.y;
+      let r = border.r,
+        g = border.g,
+        b = border.b;
+      const ax = cx - artOrigin.x,
+        ay = cy - artOrigin.y;
       if (ax >= 0 && ay >= 0 && ax < artWidth && ay < artHeight && input.artVisible(c)) {
         const a = (ay * artWidth + ax) * 4;
         const alpha = art[a + 3] / 255;

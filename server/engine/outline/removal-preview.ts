@@ -13,11 +13,20 @@ const BACKGROUND_TINT = { r: 120, g: 160, b: 200, a: 0.7 };
 const TAKEN_TINT = { r: 200, g: 0, b: 120, a: 0.85 };
 
 /** The same removal the outline engine does for `options.background`, drawn at most `maxSide` px. */
-export async function removalPreview(image: Buffer, options: Pick<OutlineOptions, 'background' | 'backgroundTolerance'>, limits: OutlineLimits, maxSide = 640): Promise<RemovalPreview> {
+export async function removalPreview(
+  image: Buffer,
+  options: Pick<OutlineOptions, 'background' | 'backgroundTolerance'>,
+  limits: OutlineLimits,
+  maxSide = 640,
+): Promise<RemovalPreview> {
   const decoded = await decodeArt(image, limits.maxInputPixels);
   const { rgba, width: W, height: H } = decoded;
   const explicit = typeof options.background === 'object' ? options.background : null;
-  const colour = explicit ? parseHex(explicit.colour) : options.background === 'auto' && !decoded.hasTransparency ? detectBackground(rgba, W, H, options.backgroundTolerance) : null;
+  const colour = explicit
+    ? parseHex(explicit.colour)
+    : options.background === 'auto' && !decoded.hasTransparency
+      ? detectBackground(rgba, W, H, options.backgroundTolerance)
+      : null;
   const tolerance = explicit ? explicit.tolerance : options.backgroundTolerance;
   const plan = colour ? planRemoval(rgba, W, H, colour, tolerance) : null;
   const out = Buffer.alloc(W * H * 4);
@@ -25,7 +34,9 @@ export async function removalPreview(image: Buffer, options: Pick<OutlineOptions
     const tint = plan?.map[i] === 1 ? BACKGROUND_TINT : plan?.map[i] === 2 ? TAKEN_TINT : null;
     const a = rgba[i * 4 + 3] / 255;
     // Flatten onto white first (transparent areas show as white), then lay the tint over it.
-    let r = 255 + (rgba[i * 4] - 255) * a, g = 255 + (rgba[i * 4 + 1] - 255) * a, b = 255 + (rgba[i * 4 + 2] - 255) * a;
+    let r = 255 + (rgba[i * 4] - 255) * a,
+      g = 255 + (rgba[i * 4 + 1] - 255) * a,
+      b = 255 + (rgba[i * 4 + 2] - 255) * a;
     if (tint) {
       r += (tint.r - r) * tint.a;
       g += (tint.g - g) * tint.a;

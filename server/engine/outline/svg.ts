@@ -7,7 +7,8 @@ const num = (v: number) => Number(v.toFixed(4)).toString();
  * unit (CSS/SVG absolute units: 1in = 25.4mm), one closed stroked path, no fill.
  */
 export function cutLineSvg(piece: Pick<OutlinePiece, 'widthMm' | 'heightMm' | 'cutLine'>, title = 'Cut line'): string {
-  const w = num(piece.widthMm), h = num(piece.heightMm);
+  const w = num(piece.widthMm),
+    h = num(piece.heightMm);
   return [
     `<?xml version="1.0" encoding="UTF-8"?>`,
     `<svg xmlns="http://www.w3.org/2000/svg" width="${w}mm" height="${h}mm" viewBox="0 0 ${w} ${h}">`,

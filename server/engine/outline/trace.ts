@@ -20,7 +20,8 @@ export function traceOuterRings(field: Float32Array, width: number, height: numb
       const last = ring[ring.length - 1];
       if (!last || Math.abs(last.x - x) > 1e-9 || Math.abs(last.y - y) > 1e-9) ring.push({ x, y });
     }
-    while (ring.length > 1 && Math.abs(ring[0].x - ring[ring.length - 1].x) < 1e-9 && Math.abs(ring[0].y - ring[ring.length - 1].y) < 1e-9) ring.pop();
+    while (ring.length > 1 && Math.abs(ring[0].x - ring[ring.length - 1].x) < 1e-9 && Math.abs(ring[0].y - ring[ring.length - 1].y) < 1e-9)
+      ring.pop();
     rings.push(ring);
   }
   return rings.sort((a, b) => area(b) - area(a));

@@ -8,7 +8,9 @@ import { outlineOptionsSchema } from '../../../shared/schemas/outline';
 import type { RemovalPreview } from './removal-preview';
 import { removalPreview } from './removal-preview';
 
-export type OutlineTask = { kind?: 'outline'; image: Uint8Array; options: OutlineOptionsInput; limits: OutlineLimits } | { kind: 'removal-preview'; image: Uint8Array; options: OutlineOptionsInput; limits: OutlineLimits };
+export type OutlineTask =
+  | { kind?: 'outline'; image: Uint8Array; options: OutlineOptionsInput; limits: OutlineLimits }
+  | { kind: 'removal-preview'; image: Uint8Array; options: OutlineOptionsInput; limits: OutlineLimits };
 export type OutlineTaskResult =
   | { ok: true; result: OutlineResult }
   | { ok: true; preview: RemovalPreview }
@@ -17,7 +19,8 @@ export type OutlineTaskResult =
 export async function outlineTask(task: OutlineTask): Promise<OutlineTaskResult> {
   try {
     const image = Buffer.from(task.image.buffer, task.image.byteOffset, task.image.byteLength);
-    if (task.kind === 'removal-preview') return { ok: true, preview: await removalPreview(image, outlineOptionsSchema.parse(task.options), task.limits) };
+    if (task.kind === 'removal-preview')
+      return { ok: true, preview: await removalPreview(image, outlineOptionsSchema.parse(task.options), task.limits) };
     return { ok: true, result: await outline(image, task.options, task.limits) };
   } catch (error) {
     if (error instanceof OutlineInputError) return { ok: false, code: error.code, message: error.message };

@@ -26,7 +26,17 @@ export function arrangeRouter({ dataSource, runs }: { dataSource: DataSource; ru
       return runs.start(teamId(req), req.user!.id, params.sheetId, body);
     }),
   );
-  router.get('/teams/:teamId/sheets/:sheetId/arrange-runs/:runId', scoped, view, route({ params: runParams }, ({ params }, req) => runs.get(teamId(req), params.sheetId, params.runId)));
-  router.post('/teams/:teamId/sheets/:sheetId/arrange-runs/:runId/stop', scoped, edit, route({ params: runParams }, ({ params }, req) => runs.stop(teamId(req), params.sheetId, params.runId)));
+  router.get(
+    '/teams/:teamId/sheets/:sheetId/arrange-runs/:runId',
+    scoped,
+    view,
+    route({ params: runParams }, ({ params }, req) => runs.get(teamId(req), params.sheetId, params.runId)),
+  );
+  router.post(
+    '/teams/:teamId/sheets/:sheetId/arrange-runs/:runId/stop',
+    scoped,
+    edit,
+    route({ params: runParams }, ({ params }, req) => runs.stop(teamId(req), params.sheetId, params.runId)),
+  );
   return router;
 }

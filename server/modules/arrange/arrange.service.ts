@@ -30,7 +30,13 @@ export class ArrangeRunsService {
     if (state === 'failed') {
       // A refusal of the nester's own is already in a maker's words; anything else is not shown raw.
       const own = job.failedReason && !/stalled|lock|Error:/i.test(job.failedReason) ? job.failedReason : null;
-      return { id, state: 'failed', progress, message: own ?? 'Arranging stopped on the server before it finished; nothing was changed. Try again.', result: null };
+      return {
+        id,
+        state: 'failed',
+        progress,
+        message: own ?? 'Arranging stopped on the server before it finished; nothing was changed. Try again.',
+        result: null,
+      };
     }
     return { id, state: state === 'active' ? 'running' : 'waiting', progress, message: null, result: null };
   }

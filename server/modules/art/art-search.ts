@@ -16,7 +16,11 @@ const SORTS: Record<ArtListQuery['sort'], string> = {
  * One search box over names, keywords and collection names, plus filters, sorting and paging.
  * Each query chunk is an indexed prefix match on the normalised terms (art_terms: team, term).
  */
-export async function searchArt(dataSource: DataSource, teamId: string, query: ArtListQuery): Promise<{ items: ArtView[]; total: number; page: number; pageSize: number }> {
+export async function searchArt(
+  dataSource: DataSource,
+  teamId: string,
+  query: ArtListQuery,
+): Promise<{ items: ArtView[]; total: number; page: number; pageSize: number }> {
   const where: string[] = ['a.team_id = ?', 'a.deleted_at IS NULL'];
   const params: unknown[] = [teamId];
   const term = (t: string) => {
@@ -53,10 +57,11 @@ export async function searchArt(dataSource: DataSource, teamId: string, query: A
   const from = `FROM art_items a LEFT JOIN collections c ON c.id = a.pack_id WHERE ${where.join(' AND ')}`;
   const [{ total }] = await dataSource.query(`SELECT COUNT(*) AS total ${from}`, params);
   const order = `${SORTS[query.sort]} ${query.dir === 'asc' ? 'ASC' : 'DESC'}, a.id ${query.dir === 'asc' ? 'ASC' : 'DESC'}`;
-  const rows: Array<{ id: string }> = await dataSource.query(
-    `SELECT a.id ${from} ORDER BY ${order} LIMIT ? OFFSET ?`,
-    [...params, query.pageSize, (query.page - 1) * query.pageSize],
-  );
+  const rows: Array<{ id: string }> = await dataSource.query(`SELECT a.id ${from} ORDER BY ${order} LIMIT ? OFFSET ?`, [
+    ...params,
+    query.pageSize,
+    (query.page - 1) * query.pageSize,
+  ]);
   const ids = rows.map((r) => String(r.id));
   const items = ids.length ? await dataSource.getRepository(ArtItem).findBy({ id: In(ids) }) : [];
   const byId = new Map(items.map((i) => [i.id, i]));

@@ -9,23 +9,31 @@ import { ArtItem } from './art-item.entity';
 import { keywordsOf } from './terms';
 import { collectionsOf } from './memberships';
 
-
-
 /** API views of art items, with keywords, collection, effective licence and uploader in few queries. */
 export async function artViews(manager: EntityManager, items: ArtItem[]): Promise<ArtView[]> {
   if (items.length === 0) return [];
-  const keywords = await keywordsOf(manager, items.map((i) => i.id));
-  const memberships = await collectionsOf(manager, items.map((i) => i.id));
+  const keywords = await keywordsOf(
+    manager,
+    items.map((i) => i.id),
+  );
+  const memberships = await collectionsOf(
+    manager,
+    items.map((i) => i.id),
+  );
   const packIds = [...new Set(items.map((i) => i.packId).filter((id): id is string => id !== null))];
   const packs = new Map((packIds.length ? await manager.findBy(Collection, { id: In(packIds) }) : []).map((c) => [c.id, c]));
   const users = new Map((await manager.findBy(User, { id: In([...new Set(items.map((i) => i.uploadedBy))]) })).map((u) => [u.id, u]));
   return items.map((item) => {
     const base = `/api/teams/${item.teamId}/art/${item.id}`;
-    const pack = item.packId ? packs.get(item.packId) ?? null : null;
+    const pack = item.packId ? (packs.get(item.packId) ?? null) : null;
     let licence: LicenceView | null = null;
     const source = licenceSource(item, pack);
     if (source === 'own') licence = { ...licenceView(item.licence, `${base}/licence-proof`)!, inheritedFrom: null };
-    else if (source === 'pack' && pack) licence = { ...licenceView(pack.licence, `/api/teams/${item.teamId}/collections/${pack.id}/licence-proof`)!, inheritedFrom: { collectionId: pack.id, name: pack.name } };
+    else if (source === 'pack' && pack)
+      licence = {
+        ...licenceView(pack.licence, `/api/teams/${item.teamId}/collections/${pack.id}/licence-proof`)!,
+        inheritedFrom: { collectionId: pack.id, name: pack.name },
+      };
     const at = (dpi: number) => ({ widthMm: (item.widthPx / dpi) * MM_PER_INCH, heightMm: (item.heightPx / dpi) * MM_PER_INCH });
     return {
       id: item.id,
@@ -68,7 +76,7 @@ export async function effectiveLicenceKinds(manager: EntityManager, teamId: stri
   const packs = new Map((packIds.length ? await manager.findBy(Collection, { id: In(packIds) }) : []).map((c) => [c.id, c]));
   return new Map(
     items.map((item) => {
-      const pack = item.packId ? packs.get(item.packId) ?? null : null;
+      const pack = item.packId ? (packs.get(item.packId) ?? null) : null;
       const source = licenceSource(item, pack);
       return [item.id, source === 'own' ? item.licence.kind : source === 'pack' ? pack!.licence.kind : null];
     }),

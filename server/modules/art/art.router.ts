@@ -1,7 +1,13 @@
 import { Router } from 'express';
 import { PROOF_LIMITS, singleUpload } from '../../middleware/uploads';
 import type { DataSource } from 'typeorm';
-import { artListQuerySchema, artParamsSchema, artUpdateSchema, bulkActionSchema, uploadFieldsSchema } from '../../../shared/schemas/library';
+import {
+  artListQuerySchema,
+  artParamsSchema,
+  artUpdateSchema,
+  bulkActionSchema,
+  uploadFieldsSchema,
+} from '../../../shared/schemas/library';
 import { teamParamsSchema } from '../../../shared/schemas/team';
 import { AppError, notFound } from '../../lib/errors';
 import { actorOf, requirePermission, teamScope } from '../../middleware/auth';
@@ -10,11 +16,20 @@ import type { ArtService } from './art.service';
 import { searchArt } from './art-search';
 import { z } from 'zod';
 
-
 /** Names of the team's sheets that use any of the art (sheets sit above art and are asked through this). */
 export type SheetsUsingArt = (teamId: string, artIds: string[]) => Promise<string[]>;
 
-export function artRouter({ dataSource, art, sheetsUsing, maxBytes }: { dataSource: DataSource; art: ArtService; sheetsUsing: SheetsUsingArt; maxBytes: number }): Router {
+export function artRouter({
+  dataSource,
+  art,
+  sheetsUsing,
+  maxBytes,
+}: {
+  dataSource: DataSource;
+  art: ArtService;
+  sheetsUsing: SheetsUsingArt;
+  maxBytes: number;
+}): Router {
   const router = Router();
   const scoped = teamScope(dataSource);
   const upload = singleUpload('file', { maxBytes, fields: 20, fieldBytes: 16 * 1024 });
@@ -22,7 +37,14 @@ export function artRouter({ dataSource, art, sheetsUsing, maxBytes }: { dataSour
   const view = requirePermission('team.view');
   const contribute = requirePermission('library.contribute');
 
-  router.get('/teams/:teamId/art', scoped, view, route({ params: teamParamsSchema, query: artListQuerySchema }, ({ query }, req) => searchArt(dataSource, req.membership!.teamId, query)));
+  router.get(
+    '/teams/:teamId/art',
+    scoped,
+    view,
+    route({ params: teamParamsSchema, query: artListQuerySchema }, ({ query }, req) =>
+      searchArt(dataSource, req.membership!.teamId, query),
+    ),
+  );
 
   // One file per request (an image or a zip of a pack), so the client can show progress per file.
   router.post(
@@ -31,7 +53,8 @@ export function artRouter({ dataSource, art, sheetsUsing, maxBytes }: { dataSour
     contribute,
     upload,
     route({ params: teamParamsSchema, body: uploadFieldsSchema }, async ({ body }, req, res) => {
-      if (!req.file) throw new AppError(400, 'validation_failed', 'Attach an image or a zip in the "file" field.', { file: 'Choose a file to upload' });
+      if (!req.file)
+        throw new AppError(400, 'validation_failed', 'Attach an image or a zip in the "file" field.', { file: 'Choose a file to upload' });
       const results = await art.upload(actorOf(req), req.file, body);
       res.status(results.some((r) => r.status === 'stored') ? 201 : 200);
       return { results };
@@ -45,15 +68,30 @@ export function artRouter({ dataSource, art, sheetsUsing, maxBytes }: { dataSour
     route({ params: teamParamsSchema, body: bulkActionSchema }, async ({ body }, req) => {
       if (body.action === 'delete' && !body.confirm) {
         const usedBy = await sheetsUsing(req.membership!.teamId, body.ids);
-        if (usedBy.length) throw new AppError(409, 'art_in_use', `Some of this art is on ${usedBy.length} sheet${usedBy.length === 1 ? '' : 's'} (${usedBy.slice(0, 3).join(', ')}${usedBy.length > 3 ? ', …' : ''}). Delete it anyway? Those sheets keep their copy.`);
+        if (usedBy.length)
+          throw new AppError(
+            409,
+            'art_in_use',
+            `Some of this art is on ${usedBy.length} sheet${usedBy.length === 1 ? '' : 's'} (${usedBy.slice(0, 3).join(', ')}${usedBy.length > 3 ? ', …' : ''}). Delete it anyway? Those sheets keep their copy.`,
+          );
       }
       return art.bulk(actorOf(req), body);
     }),
   );
 
-  router.get('/teams/:teamId/art/:artId', scoped, view, route({ params: artParamsSchema }, ({ params }, req) => art.view(req.membership!.teamId, params.artId)));
+  router.get(
+    '/teams/:teamId/art/:artId',
+    scoped,
+    view,
+    route({ params: artParamsSchema }, ({ params }, req) => art.view(req.membership!.teamId, params.artId)),
+  );
 
-  router.patch('/teams/:teamId/art/:artId', scoped, contribute, route({ params: artParamsSchema, body: artUpdateSchema }, ({ params, body }, req) => art.update(actorOf(req), params.artId, body)));
+  router.patch(
+    '/teams/:teamId/art/:artId',
+    scoped,
+    contribute,
+    route({ params: artParamsSchema, body: artUpdateSchema }, ({ params, body }, req) => art.update(actorOf(req), params.artId, body)),
+  );
 
   router.delete(
     '/teams/:teamId/art/:artId',
@@ -64,7 +102,12 @@ export function artRouter({ dataSource, art, sheetsUsing, maxBytes }: { dataSour
       // Art on sheets is asked about first; deleting it then keeps those sheets printable.
       const usedBy = await sheetsUsing(req.membership!.teamId, [item.id]);
       if (usedBy.length > 0 && !query.confirm) {
-        throw new AppError(409, 'art_in_use', `“${item.name}” is on ${usedBy.length} sheet${usedBy.length === 1 ? '' : 's'} (${usedBy.slice(0, 3).join(', ')}${usedBy.length > 3 ? ', …' : ''}). Delete it anyway? Those sheets keep their copy.`, { sheets: usedBy.join(', ') });
+        throw new AppError(
+          409,
+          'art_in_use',
+          `“${item.name}” is on ${usedBy.length} sheet${usedBy.length === 1 ? '' : 's'} (${usedBy.slice(0, 3).join(', ')}${usedBy.length > 3 ? ', …' : ''}). Delete it anyway? Those sheets keep their copy.`,
+          { sheets: usedBy.join(', ') },
+        );
       }
       await art.remove(actorOf(req), [item]);
       res.status(204).end();

@@ -31,27 +31,48 @@ export async function sniffArt(data: Buffer, maxPixels: number) {
   } catch {
     throw new AppError(415, 'unsupported_type', 'This file is not an image Sheetsmith can read. Use PNG, JPEG or WebP.');
   }
-  if (meta.format === 'svg') throw new AppError(415, 'unsupported_type', 'SVG files are not supported yet. Export the art as a PNG with transparency.');
+  if (meta.format === 'svg')
+    throw new AppError(415, 'unsupported_type', 'SVG files are not supported yet. Export the art as a PNG with transparency.');
   if (!meta.format || !ACCEPTED.has(meta.format)) {
-    throw new AppError(415, 'unsupported_type', `${String(meta.format ?? 'This').toUpperCase()} files are not supported. Use PNG, JPEG or WebP.`);
+    throw new AppError(
+      415,
+      'unsupported_type',
+      `${String(meta.format ?? 'This').toUpperCase()} files are not supported. Use PNG, JPEG or WebP.`,
+    );
   }
-  const width = meta.autoOrient?.width ?? meta.width ?? 0, height = meta.autoOrient?.height ?? meta.height ?? 0;
+  const width = meta.autoOrient?.width ?? meta.width ?? 0,
+    height = meta.autoOrient?.height ?? meta.height ?? 0;
   if (width * height > maxPixels) {
-    throw new AppError(422, 'image_too_large', `The image is ${width} × ${height} px; the limit is ${(maxPixels / 1e6).toFixed(0)} megapixels. Scale it down first.`);
+    throw new AppError(
+      422,
+      'image_too_large',
+      `The image is ${width} × ${height} px; the limit is ${(maxPixels / 1e6).toFixed(0)} megapixels. Scale it down first.`,
+    );
   }
   try {
     // Decoding the whole image proves it is not damaged and tells whether any pixel is see-through.
     const stats = await sharp(data, { limitInputPixels: maxPixels, failOn: 'error' }).stats();
     const hasTransparency = meta.hasAlpha === true && (stats.channels[stats.channels.length - 1]?.min ?? 255) < 255;
-    const thumbnail = await sharp(data, { limitInputPixels: maxPixels }).rotate().resize(320, 320, { fit: 'inside', withoutEnlargement: true }).webp({ quality: 82 }).toBuffer();
+    const thumbnail = await sharp(data, { limitInputPixels: maxPixels })
+      .rotate()
+      .resize(320, 320, { fit: 'inside', withoutEnlargement: true })
+      .webp({ quality: 82 })
+      .toBuffer();
     return { format: meta.format, width, height, hasTransparency, thumbnail };
   } catch {
     throw new AppError(422, 'image_corrupt', 'The image data is damaged or cut short. Export the file again and retry.');
   }
 }
 
-const isZip = (data: Buffer) => data.length >= 4 && data[0] === 0x50 && data[1] === 0x4b && (data[2] === 3 || data[2] === 5) && (data[3] === 4 || data[3] === 6);
-const nameFrom = (file: string) => path.basename(file).replace(/\.[^.]+$/, '').replace(/[_]+/g, ' ').trim().slice(0, 200) || 'Untitled art';
+const isZip = (data: Buffer) =>
+  data.length >= 4 && data[0] === 0x50 && data[1] === 0x4b && (data[2] === 3 || data[2] === 5) && (data[3] === 4 || data[3] === 6);
+const nameFrom = (file: string) =>
+  path
+    .basename(file)
+    .replace(/\.[^.]+$/, '')
+    .replace(/[_]+/g, ' ')
+    .trim()
+    .slice(0, 200) || 'Untitled art';
 
 export class ArtService {
   constructor(
@@ -61,12 +82,17 @@ export class ArtService {
     private readonly packLimits: PackLimits = DEFAULT_PACK_LIMITS,
   ) {}
 
-  private async writableCollection(actor: Actor, collectionId: string | null | undefined, manager: EntityManager = this.dataSource.manager) {
+  private async writableCollection(
+    actor: Actor,
+    collectionId: string | null | undefined,
+    manager: EntityManager = this.dataSource.manager,
+  ) {
     if (!collectionId) return null;
     const collection = await manager.findOneBy(Collection, { id: collectionId, teamId: actor.teamId });
     if (!collection) throw notFound('That collection');
     if (collection.archivedAt) throw new AppError(409, 'conflict', `"${collection.name}" is archived. Restore it before adding art.`);
-    if (!can(actor.role, 'library.manage') && !collection.membersCanAdd) throw forbidden(`Only owners and admins add art to "${collection.name}".`);
+    if (!can(actor.role, 'library.manage') && !collection.membersCanAdd)
+      throw forbidden(`Only owners and admins add art to "${collection.name}".`);
     return collection;
   }
 
@@ -74,10 +100,16 @@ export class ArtService {
    * Takes one upload: an image, or a zip of a whole pack. Everything is checked before anything is
    * stored; rows go in one transaction, and files written for a failed batch are removed again.
    */
-  async upload(actor: Actor, file: { originalname: string; buffer: Buffer }, fields: { keywords: string[]; collectionId?: string }): Promise<UploadResult[]> {
+  async upload(
+    actor: Actor,
+    file: { originalname: string; buffer: Buffer },
+    fields: { keywords: string[]; collectionId?: string },
+  ): Promise<UploadResult[]> {
     const collection = await this.writableCollection(actor, fields.collectionId);
     const zipped = isZip(file.buffer);
-    const entries = zipped ? await readPack(file.buffer, this.packLimits) : { images: [{ path: file.originalname, folders: [], data: file.buffer }], skipped: [] };
+    const entries = zipped
+      ? await readPack(file.buffer, this.packLimits)
+      : { images: [{ path: file.originalname, folders: [], data: file.buffer }], skipped: [] };
     if (!zipped) await sniffArt(file.buffer, this.maxPixels); // a single bad file is refused outright
 
     const results: UploadResult[] = entries.skipped.map((s) => ({ file: s.path, status: 'skipped', reason: s.reason }));
@@ -104,61 +136,90 @@ export class ArtService {
       return (await this.storage.put(data)).key;
     };
     try {
-      const stored = await inTransaction(this.dataSource, async (manager) => {
-        const out: Array<{ path: string; id: string; status: 'stored' | 'duplicate'; suggested: string[] }> = [];
-        // Read inside the transaction: a teammate's upload of the same image that committed
-        // meanwhile is seen on the retry below and reported as a duplicate.
-        const existing = fresh.length ? await manager.findBy(ArtItem, { teamId: actor.teamId, sha256: In(fresh.map((f) => f.sha256)) }) : [];
-        const bySha = new Map(existing.map((e) => [e.sha256, e]));
-        for (const entry of fresh) {
-          const suggested = zipped ? suggestKeywords(entry.path) : suggestKeywords(file.originalname);
-          const old = bySha.get(entry.sha256);
-          if (old && !old.deletedAt) {
-            out.push({ path: entry.path, id: old.id, status: 'duplicate', suggested });
-            continue;
+      const stored = await inTransaction(
+        this.dataSource,
+        async (manager) => {
+          const out: Array<{ path: string; id: string; status: 'stored' | 'duplicate'; suggested: string[] }> = [];
+          // Read inside the transaction: a teammate's upload of the same image that committed
+          // meanwhile is seen on the retry below and reported as a duplicate.
+          const existing = fresh.length
+            ? await manager.findBy(ArtItem, { teamId: actor.teamId, sha256: In(fresh.map((f) => f.sha256)) })
+            : [];
+          const bySha = new Map(existing.map((e) => [e.sha256, e]));
+          for (const entry of fresh) {
+            const suggested = zipped ? suggestKeywords(entry.path) : suggestKeywords(file.originalname);
+            const old = bySha.get(entry.sha256);
+            if (old && !old.deletedAt) {
+              out.push({ path: entry.path, id: old.id, status: 'duplicate', suggested });
+              continue;
+            }
+            const storageKey = await put(entry.data);
+            const thumbnailKey = await put(entry.info.thumbnail);
+            let id: string;
+            if (old) {
+              await manager.update(ArtItem, { id: old.id }, { deletedAt: null, storageKey, thumbnailKey });
+              id = old.id;
+            } else {
+              const item = await manager.save(
+                manager.create(ArtItem, {
+                  teamId: actor.teamId,
+                  packId: collection?.id ?? null,
+                  name: nameFrom(entry.path),
+                  sha256: entry.sha256,
+                  storageKey,
+                  thumbnailKey,
+                  format: entry.info.format,
+                  sizeBytes: entry.data.length,
+                  widthPx: entry.info.width,
+                  heightPx: entry.info.height,
+                  hasTransparency: entry.info.hasTransparency,
+                  uploadedBy: actor.userId,
+                  deletedAt: null,
+                }),
+              );
+              id = item.id;
+            }
+            if (collection)
+              await manager
+                .createQueryBuilder()
+                .insert()
+                .into(ArtCollection)
+                .values({ artId: id, collectionId: collection.id })
+                .orIgnore()
+                .execute();
+            // Folder names inside a pack become keywords, with the batch's own keywords.
+            await addKeywords(manager, id, [
+              ...fields.keywords,
+              ...(zipped ? entry.folders.flatMap((f) => suggestKeywords(`${f}/x`)) : []),
+            ]);
+            out.push({ path: entry.path, id, status: 'stored', suggested });
           }
-          const storageKey = await put(entry.data);
-          const thumbnailKey = await put(entry.info.thumbnail);
-          let id: string;
-          if (old) {
-            await manager.update(ArtItem, { id: old.id }, { deletedAt: null, storageKey, thumbnailKey });
-            id = old.id;
-          } else {
-            const item = await manager.save(
-              manager.create(ArtItem, {
-                teamId: actor.teamId,
-                packId: collection?.id ?? null,
-                name: nameFrom(entry.path),
-                sha256: entry.sha256,
-                storageKey,
-                thumbnailKey,
-                format: entry.info.format,
-                sizeBytes: entry.data.length,
-                widthPx: entry.info.width,
-                heightPx: entry.info.height,
-                hasTransparency: entry.info.hasTransparency,
-                uploadedBy: actor.userId,
-                deletedAt: null,
-              }),
-            );
-            id = item.id;
-          }
-          if (collection) await manager.createQueryBuilder().insert().into(ArtCollection).values({ artId: id, collectionId: collection.id }).orIgnore().execute();
-          // Folder names inside a pack become keywords, with the batch's own keywords.
-          await addKeywords(manager, id, [...fields.keywords, ...(zipped ? entry.folders.flatMap((f) => suggestKeywords(`${f}/x`)) : [])]);
-          out.push({ path: entry.path, id, status: 'stored', suggested });
-        }
-        await refreshTerms(manager, out.filter((o) => o.status === 'stored').map((o) => o.id));
-        return out;
-      }, { retryIf: isDuplicateOf('uq_art_items_team_sha') });
+          await refreshTerms(
+            manager,
+            out.filter((o) => o.status === 'stored').map((o) => o.id),
+          );
+          return out;
+        },
+        { retryIf: isDuplicateOf('uq_art_items_team_sha') },
+      );
       const items = await this.dataSource.getRepository(ArtItem).findBy({ id: In(stored.map((s) => s.id)) });
       const views = new Map((await artViews(this.dataSource.manager, items)).map((v) => [v.id, v]));
-      for (const s of stored) results.push({ file: s.path, status: s.status, item: views.get(s.id), suggestedKeywords: s.suggested, reason: s.status === 'duplicate' ? 'Already in the library.' : undefined });
+      for (const s of stored)
+        results.push({
+          file: s.path,
+          status: s.status,
+          item: views.get(s.id),
+          suggestedKeywords: s.suggested,
+          reason: s.status === 'duplicate' ? 'Already in the library.' : undefined,
+        });
       return results;
     } catch (error) {
       // Remove what this batch wrote, unless a concurrent upload has started using the same bytes.
       for (const key of written) {
-        const [{ used }] = await this.dataSource.query('SELECT COUNT(*) AS used FROM art_items WHERE storage_key = ? OR thumbnail_key = ?', [key, key]);
+        const [{ used }] = await this.dataSource.query(
+          'SELECT COUNT(*) AS used FROM art_items WHERE storage_key = ? OR thumbnail_key = ?',
+          [key, key],
+        );
         if (Number(used) === 0) await this.storage.delete(key).catch(() => undefined);
       }
       throw error;
@@ -197,7 +258,14 @@ export class ArtService {
       if (input.licence !== undefined) {
         const l = input.licence;
         Object.assign(changes, {
-          licence: { kind: l?.kind ?? null, source: l?.source || null, notes: l?.notes || null, unitLimit: l?.unitLimit ?? null, proofKey: l ? item.licence.proofKey : null, proofName: l ? item.licence.proofName : null },
+          licence: {
+            kind: l?.kind ?? null,
+            source: l?.source || null,
+            notes: l?.notes || null,
+            unitLimit: l?.unitLimit ?? null,
+            proofKey: l ? item.licence.proofKey : null,
+            proofName: l ? item.licence.proofName : null,
+          },
         });
       }
       if (Object.keys(changes).length) await manager.update(ArtItem, { id: item.id }, changes);
@@ -238,7 +306,10 @@ export class ArtService {
           await this.changeCollections(actor, item, action.collectionId ? [action.collectionId] : [], manager);
         }
       }
-      await refreshTerms(manager, items.map((i) => i.id));
+      await refreshTerms(
+        manager,
+        items.map((i) => i.id),
+      );
     });
     return { changed: items.length };
   }
@@ -260,7 +331,9 @@ export class ArtService {
     const item = await this.find(actor.teamId, artId);
     if (!item.licence.kind) throw new AppError(409, 'conflict', 'Set the licence kind before attaching its proof.');
     const { key } = await this.storage.put(file.buffer);
-    await this.dataSource.getRepository(ArtItem).update({ id: item.id }, { licence: { ...item.licence, proofKey: key, proofName: path.basename(file.originalname).slice(0, 200) } });
+    await this.dataSource
+      .getRepository(ArtItem)
+      .update({ id: item.id }, { licence: { ...item.licence, proofKey: key, proofName: path.basename(file.originalname).slice(0, 200) } });
     // The proof it replaces goes with it, unless another row still uses the same file.
     if (item.licence.proofKey !== key) await releaseKey(this.dataSource, this.storage, item.licence.proofKey);
     return this.view(actor.teamId, artId);

@@ -10,7 +10,12 @@ export async function collectionsOf(manager: EntityManager, artIds: string[]): P
   const out = new Map<string, Collection[]>(artIds.map((id) => [id, []]));
   if (artIds.length === 0) return out;
   const links = await manager.findBy(ArtCollection, { artId: In(artIds) });
-  const collections = new Map((links.length ? await manager.findBy(Collection, { id: In([...new Set(links.map((l) => l.collectionId))]) }) : []).map((c) => [c.id, c]));
+  const collections = new Map(
+    (links.length ? await manager.findBy(Collection, { id: In([...new Set(links.map((l) => l.collectionId))]) }) : []).map((c) => [
+      c.id,
+      c,
+    ]),
+  );
   for (const link of links) {
     const c = collections.get(link.collectionId);
     if (c) out.get(link.artId)?.push(c);
@@ -26,6 +31,13 @@ export async function setCollections(manager: EntityManager, artId: string, coll
   const gone = [...have].filter((id) => !want.has(id)).sort(byId);
   const added = [...want].filter((id) => !have.has(id)).sort(byId);
   if (gone.length) await manager.delete(ArtCollection, { artId, collectionId: In(gone) });
-  if (added.length) await manager.createQueryBuilder().insert().into(ArtCollection).values(added.map((collectionId) => ({ artId, collectionId }))).orIgnore().execute();
+  if (added.length)
+    await manager
+      .createQueryBuilder()
+      .insert()
+      .into(ArtCollection)
+      .values(added.map((collectionId) => ({ artId, collectionId })))
+      .orIgnore()
+      .execute();
   return { added, gone };
 }

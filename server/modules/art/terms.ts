@@ -18,7 +18,10 @@ const sorted = (values: Iterable<string>) => [...values].sort();
 export async function addKeywords(manager: EntityManager, artId: string, keywords: string[]) {
   const clean = sorted(new Set(keywords.map(normaliseKeyword).filter(Boolean)));
   if (clean.length === 0) return;
-  await manager.query(`INSERT IGNORE INTO art_keywords (art_id, keyword) VALUES ${clean.map(() => '(?, ?)').join(',')}`, clean.flatMap((k) => [artId, k]));
+  await manager.query(
+    `INSERT IGNORE INTO art_keywords (art_id, keyword) VALUES ${clean.map(() => '(?, ?)').join(',')}`,
+    clean.flatMap((k) => [artId, k]),
+  );
 }
 
 export async function removeKeywords(manager: EntityManager, artId: string, keywords: string[]) {
@@ -31,8 +34,16 @@ export async function removeKeywords(manager: EntityManager, artId: string, keyw
 export async function setKeywords(manager: EntityManager, artId: string, keywords: string[]) {
   const want = new Set(keywords.map(normaliseKeyword).filter(Boolean));
   const have = new Set((await keywordsOf(manager, [artId])).get(artId));
-  await removeKeywords(manager, artId, [...have].filter((k) => !want.has(k)));
-  await addKeywords(manager, artId, [...want].filter((k) => !have.has(k)));
+  await removeKeywords(
+    manager,
+    artId,
+    [...have].filter((k) => !want.has(k)),
+  );
+  await addKeywords(
+    manager,
+    artId,
+    [...want].filter((k) => !have.has(k)),
+  );
 }
 
 /**
@@ -51,7 +62,10 @@ export async function refreshTerms(manager: EntityManager, artIds: string[]) {
     ids,
   );
   const keywords = await keywordsOf(manager, ids);
-  const current: Array<{ art_id: string; term: string }> = await manager.query(`SELECT art_id, term FROM art_terms WHERE art_id IN (${marks})`, ids);
+  const current: Array<{ art_id: string; term: string }> = await manager.query(
+    `SELECT art_id, term FROM art_terms WHERE art_id IN (${marks})`,
+    ids,
+  );
   const have = new Map<string, Set<string>>(ids.map((id) => [id, new Set()]));
   for (const row of current) have.get(String(row.art_id))?.add(row.term);
   const gone: Array<[string, string]> = [];
@@ -69,6 +83,9 @@ export async function refreshTerms(manager: EntityManager, artIds: string[]) {
   }
   for (let i = 0; i < added.length; i += 500) {
     const batch = added.slice(i, i + 500);
-    await manager.query(`INSERT IGNORE INTO art_terms (team_id, art_id, term) VALUES ${batch.map(() => '(?, ?, ?)').join(',')}`, batch.flat());
+    await manager.query(
+      `INSERT IGNORE INTO art_terms (team_id, art_id, term) VALUES ${batch.map(() => '(?, ?, ?)').join(',')}`,
+      batch.flat(),
+    );
   }
 }

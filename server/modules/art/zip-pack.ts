@@ -22,12 +22,15 @@ export type PackImage = { path: string; folders: string[]; data: Buffer };
 export type PackSkip = { path: string; reason: string };
 
 const IMAGE = /\.(png|jpe?g|webp)$/i;
-const DAMAGED = 'This zip could not be opened: it is damaged or was only partly downloaded. Download the pack again, or unzip it yourself and upload the images.';
+const DAMAGED =
+  'This zip could not be opened: it is damaged or was only partly downloaded. Download the pack again, or unzip it yourself and upload the images.';
 const refused = (message: string) => new AppError(422, 'zip_refused', `${message} Nothing from this zip was stored.`);
 
 function open(buffer: Buffer): Promise<ZipFile> {
   return new Promise((resolve, reject) =>
-    yauzl.fromBuffer(buffer, { lazyEntries: true, validateEntrySizes: true, strictFileNames: true }, (error, zip) => (error ? reject(error) : resolve(zip))),
+    yauzl.fromBuffer(buffer, { lazyEntries: true, validateEntrySizes: true, strictFileNames: true }, (error, zip) =>
+      error ? reject(error) : resolve(zip),
+    ),
   );
 }
 
@@ -55,7 +58,10 @@ function readEntry(zip: ZipFile, entry: Entry, limit: number): Promise<Buffer> {
  * compression ratio typical of zip bombs refuses the whole zip. Non-image entries, nested zips and
  * system files are skipped and reported.
  */
-export async function readPack(buffer: Buffer, limits: PackLimits = DEFAULT_PACK_LIMITS): Promise<{ images: PackImage[]; skipped: PackSkip[] }> {
+export async function readPack(
+  buffer: Buffer,
+  limits: PackLimits = DEFAULT_PACK_LIMITS,
+): Promise<{ images: PackImage[]; skipped: PackSkip[] }> {
   let zip: ZipFile;
   try {
     zip = await open(buffer);
@@ -101,15 +107,22 @@ export async function readPack(buffer: Buffer, limits: PackLimits = DEFAULT_PACK
         return next();
       }
       const declared = entry.uncompressedSize;
-      if (declared > limits.maxEntryBytes) return fail(refused(`"${path}" unpacks to ${Math.round(declared / 1048576)} MB; the limit per image is ${Math.round(limits.maxEntryBytes / 1048576)} MB.`));
+      if (declared > limits.maxEntryBytes)
+        return fail(
+          refused(
+            `"${path}" unpacks to ${Math.round(declared / 1048576)} MB; the limit per image is ${Math.round(limits.maxEntryBytes / 1048576)} MB.`,
+          ),
+        );
       if (entry.compressedSize > 0 && declared / entry.compressedSize > limits.maxRatio && declared > 1024 * 1024) {
         return fail(refused(`"${path}" is compressed ${Math.round(declared / entry.compressedSize)}:1, which looks like a zip bomb.`));
       }
-      if (total + declared > limits.maxTotalBytes) return fail(refused(`The images unpack to more than ${Math.round(limits.maxTotalBytes / 1048576)} MB in all.`));
+      if (total + declared > limits.maxTotalBytes)
+        return fail(refused(`The images unpack to more than ${Math.round(limits.maxTotalBytes / 1048576)} MB in all.`));
       readEntry(zip, entry, limits.maxEntryBytes)
         .then((data) => {
           total += data.length;
-          if (total > limits.maxTotalBytes) return fail(refused(`The images unpack to more than ${Math.round(limits.maxTotalBytes / 1048576)} MB in all.`));
+          if (total > limits.maxTotalBytes)
+            return fail(refused(`The images unpack to more than ${Math.round(limits.maxTotalBytes / 1048576)} MB in all.`));
           images.push({ path, folders: segments.slice(0, -1), data });
           next();
         })
@@ -124,7 +137,9 @@ function describe(error: unknown): AppError {
   const message = String((error as Error)?.message ?? error);
   if (/invalid relative path|absolute path|invalid characters/i.test(message)) {
     const name = message.replace(/^.*?: /, '').slice(0, 120);
-    return refused(`The zip holds a file ("${name}") whose path points outside the zip's own folder, which Sheetsmith never unpacks. Unzip the pack yourself and upload the images.`);
+    return refused(
+      `The zip holds a file ("${name}") whose path points outside the zip's own folder, which Sheetsmith never unpacks. Unzip the pack yourself and upload the images.`,
+    );
   }
   return refused(DAMAGED);
 }

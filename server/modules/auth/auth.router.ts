@@ -37,8 +37,7 @@ type Deps = {
 
 export const SESSION_COOKIE_NAME = 'sheetsmith.sid';
 
-const badCredentials = () =>
-  new AppError(401, ERROR_CODES.badCredentials, 'That e-mail and password do not match an account.');
+const badCredentials = () => new AppError(401, ERROR_CODES.badCredentials, 'That e-mail and password do not match an account.');
 
 // Passport regenerates the session id when signing in (no session fixation).
 const logIn = signInSession;

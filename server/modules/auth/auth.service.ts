@@ -85,9 +85,14 @@ export class AuthService {
       role: m.role,
       personal: m.team!.personal,
     }));
-    const active =
-      teams.find((t) => t.teamId === activeTeamId) ?? teams.find((t) => !t.personal) ?? teams[0] ?? null;
-    return { user: { id: user.id, email: user.email, name: user.name, unit: user.unit }, teams, activeTeamId: active?.teamId ?? null, csrfToken, sessionLimits: { idleSeconds: this.env.SESSION_IDLE_SECONDS, absoluteSeconds: this.env.SESSION_ABSOLUTE_SECONDS } };
+    const active = teams.find((t) => t.teamId === activeTeamId) ?? teams.find((t) => !t.personal) ?? teams[0] ?? null;
+    return {
+      user: { id: user.id, email: user.email, name: user.name, unit: user.unit },
+      teams,
+      activeTeamId: active?.teamId ?? null,
+      csrfToken,
+      sessionLimits: { idleSeconds: this.env.SESSION_IDLE_SECONDS, absoluteSeconds: this.env.SESSION_ABSOLUTE_SECONDS },
+    };
   }
 
   /** Always succeeds from the caller's view, so it never reveals whether an e-mail has an account. */
@@ -101,9 +106,7 @@ export class AuthService {
       expiresAt: new Date(Date.now() + RESET_LIFETIME_MS),
       usedAt: null,
     });
-    await this.mailer.send(
-      passwordResetMail({ to: user.email, name: user.name, link: `${this.env.appUrl}/reset-password/${token}` }),
-    );
+    await this.mailer.send(passwordResetMail({ to: user.email, name: user.name, link: `${this.env.appUrl}/reset-password/${token}` }));
   }
 
   async findValidReset(token: string, manager: EntityManager = this.dataSource.manager) {

@@ -28,7 +28,11 @@ export class SignInThrottle {
     ].filter((entry) => entry !== null);
     if (blocked.length > 0) {
       const seconds = Math.ceil(Math.max(...blocked.map((entry) => entry.msBeforeNext)) / 1000);
-      const error = new AppError(429, ERROR_CODES.throttled, `Too many failed sign-ins. Wait ${waitText(seconds)} and try again, or reset your password.`);
+      const error = new AppError(
+        429,
+        ERROR_CODES.throttled,
+        `Too many failed sign-ins. Wait ${waitText(seconds)} and try again, or reset your password.`,
+      );
       error.retryAfter = seconds;
       throw error;
     }

@@ -1,7 +1,12 @@
 import { Router } from 'express';
 import { PROOF_LIMITS, singleUpload } from '../../middleware/uploads';
 import type { DataSource } from 'typeorm';
-import { collectionCreateSchema, collectionOrderSchema, collectionParamsSchema, collectionUpdateSchema } from '../../../shared/schemas/library';
+import {
+  collectionCreateSchema,
+  collectionOrderSchema,
+  collectionParamsSchema,
+  collectionUpdateSchema,
+} from '../../../shared/schemas/library';
 import { teamParamsSchema } from '../../../shared/schemas/team';
 import { AppError } from '../../lib/errors';
 import { requirePermission, teamScope } from '../../middleware/auth';
@@ -14,7 +19,12 @@ export function collectionsRouter({ dataSource, collections }: { dataSource: Dat
   const manage = requirePermission('library.manage');
   const proofUpload = singleUpload('file', PROOF_LIMITS);
 
-  router.get('/teams/:teamId/collections', scoped, requirePermission('team.view'), route({ params: teamParamsSchema }, async (_i, req) => ({ collections: await collections.list(req.membership!.teamId) })));
+  router.get(
+    '/teams/:teamId/collections',
+    scoped,
+    requirePermission('team.view'),
+    route({ params: teamParamsSchema }, async (_i, req) => ({ collections: await collections.list(req.membership!.teamId) })),
+  );
   router.post(
     '/teams/:teamId/collections',
     scoped,
@@ -24,8 +34,22 @@ export function collectionsRouter({ dataSource, collections }: { dataSource: Dat
       return collections.create(req.membership!.teamId, body);
     }),
   );
-  router.put('/teams/:teamId/collections/order', scoped, manage, route({ params: teamParamsSchema, body: collectionOrderSchema }, async ({ body }, req) => ({ collections: await collections.reorder(req.membership!.teamId, body.ids) })));
-  router.patch('/teams/:teamId/collections/:collectionId', scoped, manage, route({ params: collectionParamsSchema, body: collectionUpdateSchema }, ({ params, body }, req) => collections.update(req.membership!.teamId, params.collectionId, body)));
+  router.put(
+    '/teams/:teamId/collections/order',
+    scoped,
+    manage,
+    route({ params: teamParamsSchema, body: collectionOrderSchema }, async ({ body }, req) => ({
+      collections: await collections.reorder(req.membership!.teamId, body.ids),
+    })),
+  );
+  router.patch(
+    '/teams/:teamId/collections/:collectionId',
+    scoped,
+    manage,
+    route({ params: collectionParamsSchema, body: collectionUpdateSchema }, ({ params, body }, req) =>
+      collections.update(req.membership!.teamId, params.collectionId, body),
+    ),
+  );
   router.post(
     '/teams/:teamId/collections/:collectionId/licence-proof',
     scoped,

@@ -62,7 +62,9 @@ export class CollectionsService {
 
   async create(teamId: string, input: { name: string; membersCanAdd: boolean; licence?: LicenceInput | null }) {
     await this.ensureUniqueName(teamId, input.name);
-    const [{ next }] = await this.dataSource.query('SELECT COALESCE(MAX(position), -1) + 1 AS next FROM collections WHERE team_id = ?', [teamId]);
+    const [{ next }] = await this.dataSource.query('SELECT COALESCE(MAX(position), -1) + 1 AS next FROM collections WHERE team_id = ?', [
+      teamId,
+    ]);
     const empty = { proofKey: null, proofName: null } as LicenceColumns;
     const saved = await this.dataSource.getRepository(Collection).save({
       teamId,
@@ -75,20 +77,27 @@ export class CollectionsService {
     return (await this.list(teamId)).find((c) => c.id === saved.id)!;
   }
 
-  async update(teamId: string, id: string, input: { name?: string; membersCanAdd?: boolean; archived?: boolean; licence?: LicenceInput | null }) {
+  async update(
+    teamId: string,
+    id: string,
+    input: { name?: string; membersCanAdd?: boolean; archived?: boolean; licence?: LicenceInput | null },
+  ) {
     const collection = await this.find(teamId, id);
     if (input.name !== undefined) await this.ensureUniqueName(teamId, input.name, id);
     await inTransaction(this.dataSource, async (manager) => {
       const changes: Partial<Collection> = {};
       if (input.name !== undefined) changes.name = input.name;
       if (input.membersCanAdd !== undefined) changes.membersCanAdd = input.membersCanAdd;
-      if (input.archived !== undefined) changes.archivedAt = input.archived ? collection.archivedAt ?? new Date() : null;
+      if (input.archived !== undefined) changes.archivedAt = input.archived ? (collection.archivedAt ?? new Date()) : null;
       if (input.licence !== undefined) changes.licence = licenceColumns(input.licence, collection.licence);
       if (Object.keys(changes).length) await manager.update(Collection, { id }, changes);
       if (input.name !== undefined && input.name !== collection.name) {
         // The collection's name is searchable through its art.
         const ids: Array<{ id: string }> = await manager.query('SELECT art_id AS id FROM art_collections WHERE collection_id = ?', [id]);
-        await this.onRenamed(manager, ids.map((r) => String(r.id)));
+        await this.onRenamed(
+          manager,
+          ids.map((r) => String(r.id)),
+        );
       }
     });
     return (await this.list(teamId)).find((c) => c.id === id)!;
@@ -99,7 +108,9 @@ export class CollectionsService {
     const all = await this.dataSource.getRepository(Collection).findBy({ teamId });
     const known = new Set(all.map((c) => c.id));
     if (ids.length !== all.length || new Set(ids).size !== ids.length || ids.some((i) => !known.has(i))) {
-      throw new AppError(400, 'validation_failed', 'List every collection of the team exactly once.', { ids: 'List every collection exactly once' });
+      throw new AppError(400, 'validation_failed', 'List every collection of the team exactly once.', {
+        ids: 'List every collection exactly once',
+      });
     }
     await inTransaction(this.dataSource, async (manager) => {
       for (const [position, id] of ids.entries()) await manager.update(Collection, { id, teamId }, { position });
@@ -111,7 +122,9 @@ export class CollectionsService {
     const collection = await this.find(teamId, id);
     if (!collection.licence.kind) throw new AppError(409, 'conflict', 'Set the licence kind before attaching its proof.');
     const { key } = await this.storage.put(file.buffer);
-    await this.dataSource.getRepository(Collection).update({ id }, { licence: { ...collection.licence, proofKey: key, proofName: path.basename(file.originalname).slice(0, 200) } });
+    await this.dataSource
+      .getRepository(Collection)
+      .update({ id }, { licence: { ...collection.licence, proofKey: key, proofName: path.basename(file.originalname).slice(0, 200) } });
     if (collection.licence.proofKey !== key) await releaseKey(this.dataSource, this.storage, collection.licence.proofKey);
     return (await this.list(teamId)).find((c) => c.id === id)!;
   }

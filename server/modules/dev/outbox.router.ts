@@ -11,7 +11,10 @@ const fileParams = z.object({ file: z.string().regex(/^[A-Za-z0-9_.-]+\.eml$/, '
 /** Development only: the e-mails the fake mailer wrote, so invites and resets can be followed. */
 export function outboxRouter(dir: string): Router {
   const router = Router();
-  router.get('/dev/outbox', route({}, async () => ({ messages: await listOutbox(dir) })));
+  router.get(
+    '/dev/outbox',
+    route({}, async () => ({ messages: await listOutbox(dir) })),
+  );
   router.get(
     '/dev/outbox/:file',
     route({ params: fileParams }, async ({ params }, _req, res) => {

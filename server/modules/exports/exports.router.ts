@@ -31,8 +31,18 @@ export function exportsRouter({ dataSource, exports }: { dataSource: DataSource;
     edit,
     route({ params: exportParams }, ({ params }, req) => exports.cancel(teamId(req), params.sheetId, params.exportId)),
   );
-  router.get('/teams/:teamId/sheets/:sheetId/exports/latest', scoped, view, route({ params: sheetParamsSchema }, async ({ params }, req) => ({ export: await exports.latest(teamId(req), params.sheetId) })));
-  router.get('/teams/:teamId/sheets/:sheetId/exports/:exportId', scoped, view, route({ params: exportParams }, ({ params }, req) => exports.get(teamId(req), params.sheetId, params.exportId)));
+  router.get(
+    '/teams/:teamId/sheets/:sheetId/exports/latest',
+    scoped,
+    view,
+    route({ params: sheetParamsSchema }, async ({ params }, req) => ({ export: await exports.latest(teamId(req), params.sheetId) })),
+  );
+  router.get(
+    '/teams/:teamId/sheets/:sheetId/exports/:exportId',
+    scoped,
+    view,
+    route({ params: exportParams }, ({ params }, req) => exports.get(teamId(req), params.sheetId, params.exportId)),
+  );
   router.get(
     '/teams/:teamId/sheets/:sheetId/exports/:exportId/download',
     scoped,
@@ -46,11 +56,14 @@ export function exportsRouter({ dataSource, exports }: { dataSource: DataSource;
     '/teams/:teamId/sheets/:sheetId/exports/:exportId/files/:file',
     scoped,
     view,
-    route({ params: exportParams.extend({ file: z.string().regex(/^[a-z0-9-]{1,80}\.(png|svg|pdf|dxf|txt)$/, 'Not a file of this export') }) }, async ({ params }, req, res) => {
-      const file = await exports.downloadFile(teamId(req), params.sheetId, params.exportId, params.file);
-      // Always a download (never shown inline), so an SVG cannot run in the app's origin.
-      res.attachment(file.name).type(file.type).send(file.data);
-    }),
+    route(
+      { params: exportParams.extend({ file: z.string().regex(/^[a-z0-9-]{1,80}\.(png|svg|pdf|dxf|txt)$/, 'Not a file of this export') }) },
+      async ({ params }, req, res) => {
+        const file = await exports.downloadFile(teamId(req), params.sheetId, params.exportId, params.file);
+        // Always a download (never shown inline), so an SVG cannot run in the app's origin.
+        res.attachment(file.name).type(file.type).send(file.data);
+      },
+    ),
   );
   return router;
 }

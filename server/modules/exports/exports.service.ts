@@ -25,7 +25,17 @@ import type { SheetAnalysisService } from '../shop/sheet-analysis.service';
 /** The row stopped being "running" under the job (the maker stopped it): the job ends quietly. */
 class ExportCancelled extends Error {}
 
-type Row = { id: string; sheet_version: number; status: ExportJobView['status']; progress: string; step: string; error: string | null; zip_key: string | null; files_json: string | null; created_at: Date };
+type Row = {
+  id: string;
+  sheet_version: number;
+  status: ExportJobView['status'];
+  progress: string;
+  step: string;
+  error: string | null;
+  zip_key: string | null;
+  files_json: string | null;
+  created_at: Date;
+};
 
 /**
  * Export jobs: the request answers at once and queues a BullMQ job; a worker (embedded in an app, or
@@ -53,9 +63,14 @@ export class ExportsService {
       step: r.step,
       error: r.error,
       downloadUrl: r.status === 'done' ? `/api/teams/${teamId}/sheets/${sheetId}/exports/${r.id}/download` : null,
-      files: r.status === 'done' && r.files_json
-        ? (JSON.parse(r.files_json) as Array<{ name: string; size: number }>).map((f) => ({ ...f, label: exportFileLabel(f.name), url: `/api/teams/${teamId}/sheets/${sheetId}/exports/${r.id}/files/${encodeURIComponent(f.name)}` }))
-        : [],
+      files:
+        r.status === 'done' && r.files_json
+          ? (JSON.parse(r.files_json) as Array<{ name: string; size: number }>).map((f) => ({
+              ...f,
+              label: exportFileLabel(f.name),
+              url: `/api/teams/${teamId}/sheets/${sheetId}/exports/${r.id}/files/${encodeURIComponent(f.name)}`,
+            }))
+          : [],
       createdAt: new Date(r.created_at).toISOString(),
     };
   }
@@ -66,15 +81,29 @@ export class ExportsService {
     if (doc.pieces.length === 0) throw new AppError(422, 'empty_sheet', 'This sheet has no pieces yet: add art before exporting.');
     // Never printable, whatever the maker confirms: a piece far off the sheet or wider than it.
     const outOfBounds = documentProblems(doc);
-    if (outOfBounds.length > 0) throw new AppError(422, 'out_of_bounds', `${outOfBounds[0].message(sheet.unit)} Fix it in the editor before exporting.`);
+    if (outOfBounds.length > 0)
+      throw new AppError(422, 'out_of_bounds', `${outOfBounds[0].message(sheet.unit)} Fix it in the editor before exporting.`);
     const findings = await this.analysis.preflightFor(teamId, sheet, options.bleedMm);
     const errors = findings.filter((f) => f.severity === 'error');
     if (errors.length > 0 && !options.acceptErrors) {
-      throw new AppError(409, 'preflight_errors', `Preflight found ${errors.length} error${errors.length === 1 ? '' : 's'}: ${errors.map((f) => f.message).join(' ')} Fix them, or confirm to export anyway.`);
+      throw new AppError(
+        409,
+        'preflight_errors',
+        `Preflight found ${errors.length} error${errors.length === 1 ? '' : 's'}: ${errors.map((f) => f.message).join(' ')} Fix them, or confirm to export anyway.`,
+      );
     }
     const insert = await this.dataSource.query(
       "INSERT INTO sheet_exports (team_id, sheet_id, sheet_version, status, options_json, document_json, findings_json, created_by, step, queue_prefix) VALUES (?, ?, ?, 'running', ?, ?, ?, ?, 'Waiting for a worker', ?)",
-      [teamId, sheetId, sheet.version, JSON.stringify(options), JSON.stringify(doc), JSON.stringify(findings.map((f) => `${f.severity.toUpperCase()}: ${f.message}`)), userId, this.queues.settings.prefix],
+      [
+        teamId,
+        sheetId,
+        sheet.version,
+        JSON.stringify(options),
+        JSON.stringify(doc),
+        JSON.stringify(findings.map((f) => `${f.severity.toUpperCase()}: ${f.message}`)),
+        userId,
+        this.queues.settings.prefix,
+      ],
     );
     const id = String(insert.insertId);
     try {
@@ -88,7 +117,10 @@ export class ExportsService {
 
   /** Ends a running export as failed with a message for the maker; false when it had already ended. */
   async fail(id: string, message: string): Promise<boolean> {
-    const result = await this.dataSource.query("UPDATE sheet_exports SET status = 'failed', error = ?, step = 'Failed' WHERE id = ? AND status = 'running'", [message.slice(0, 500), id]);
+    const result = await this.dataSource.query(
+      "UPDATE sheet_exports SET status = 'failed', error = ?, step = 'Failed' WHERE id = ? AND status = 'running'",
+      [message.slice(0, 500), id],
+    );
     return result.affectedRows > 0;
   }
 
@@ -104,7 +136,11 @@ export class ExportsService {
   /** Moves a running job on; throws Cancelled when the row is no longer running (stopped, or failed elsewhere). */
   private async progress(id: string, fraction: number, step: string) {
     // Only a running job moves: a late progress write never undoes "done" or "failed".
-    const result = await this.dataSource.query("UPDATE sheet_exports SET progress = ?, step = ? WHERE id = ? AND status = 'running'", [Math.min(1, fraction).toFixed(3), step, id]);
+    const result = await this.dataSource.query("UPDATE sheet_exports SET progress = ?, step = ? WHERE id = ? AND status = 'running'", [
+      Math.min(1, fraction).toFixed(3),
+      step,
+      id,
+    ]);
     if (result.affectedRows === 0) throw new ExportCancelled();
   }
 
@@ -116,16 +152,28 @@ export class ExportsService {
     const { teamId, exportId: id } = data;
     const [row] = await this.dataSource.query('SELECT * FROM sheet_exports WHERE id = ? AND team_id = ?', [id, teamId]);
     if (!row || row.status !== 'running') return; // stopped, or finished by an earlier attempt
-    await this.dataSource.query("UPDATE sheet_exports SET attempts = attempts + 1, progress = 0, step = 'Starting' WHERE id = ? AND status = 'running'", [id]);
+    await this.dataSource.query(
+      "UPDATE sheet_exports SET attempts = attempts + 1, progress = 0, step = 'Starting' WHERE id = ? AND status = 'running'",
+      [id],
+    );
     let timer: NodeJS.Timeout | undefined;
     const limit = new Promise<never>((_, reject) => {
-      timer = setTimeout(() => reject(new ExportInputError(`The export took longer than ${Math.round(timeoutMs / 60_000) || 1} minutes and was stopped. Try a lower resolution or fewer pieces.`)), timeoutMs);
+      timer = setTimeout(
+        () =>
+          reject(
+            new ExportInputError(
+              `The export took longer than ${Math.round(timeoutMs / 60_000) || 1} minutes and was stopped. Try a lower resolution or fewer pieces.`,
+            ),
+          ),
+        timeoutMs,
+      );
     });
     try {
       await Promise.race([this.run(row), limit]);
     } catch (error) {
       if (error instanceof ExportCancelled) return;
-      const known = error instanceof ExportInputError || (error as { code?: string }).code === 'too-large-output' || error instanceof OutlineInputError;
+      const known =
+        error instanceof ExportInputError || (error as { code?: string }).code === 'too-large-output' || error instanceof OutlineInputError;
       if (!known) this.log.error({ err: error, exportId: id }, 'export failed');
       await this.fail(id, known ? (error as Error).message : 'The export failed on our side. Try again.');
     } finally {
@@ -133,7 +181,9 @@ export class ExportsService {
     }
   }
 
-  private async run(row: Row & { team_id: string; sheet_id: string; options_json: string; document_json: string | null; findings_json: string | null }) {
+  private async run(
+    row: Row & { team_id: string; sheet_id: string; options_json: string; document_json: string | null; findings_json: string | null },
+  ) {
     const id = String(row.id);
     const teamId = String(row.team_id);
     const sheet = await this.sheets.find(teamId, String(row.sheet_id));
@@ -141,7 +191,11 @@ export class ExportsService {
     const options = JSON.parse(row.options_json) as ExportRequest;
     const findings: string[] = row.findings_json ? JSON.parse(row.findings_json) : [];
     const profile = sheet.profileId ? await this.dataSource.getRepository(SheetProfile).findOneBy({ id: sheet.profileId }) : null;
-    const arts = new Map((await this.dataSource.getRepository(ArtItem).findBy({ teamId })).filter((a) => doc.pieces.some((p) => p.artId === a.id)).map((a) => [a.id, a]));
+    const arts = new Map(
+      (await this.dataSource.getRepository(ArtItem).findBy({ teamId }))
+        .filter((a) => doc.pieces.some((p) => p.artId === a.id))
+        .map((a) => [a.id, a]),
+    );
     const bytes = new Map<string, Buffer>();
     const pieces = [];
     for (const [i, piece] of doc.pieces.entries()) {
@@ -155,7 +209,12 @@ export class ExportsService {
     }
     const paper = profile
       ? { paperWidthMm: profile.paperWidthMm, paperHeightMm: profile.paperHeightMm, areaXMm: profile.areaXMm, areaYMm: profile.areaYMm }
-      : { paperWidthMm: PAPER_SIZES.letter.width, paperHeightMm: PAPER_SIZES.letter.height, areaXMm: (PAPER_SIZES.letter.width - doc.printArea.width) / 2, areaYMm: (PAPER_SIZES.letter.height - doc.printArea.height) / 2 };
+      : {
+          paperWidthMm: PAPER_SIZES.letter.width,
+          paperHeightMm: PAPER_SIZES.letter.height,
+          areaXMm: (PAPER_SIZES.letter.width - doc.printArea.width) / 2,
+          areaYMm: (PAPER_SIZES.letter.height - doc.printArea.height) / 2,
+        };
     let last = 0;
     // Progress writes run one after another and are awaited before the job is marked done.
     let writes = Promise.resolve();
@@ -164,21 +223,33 @@ export class ExportsService {
     const resolved: ExportOptions = {
       ...options,
       spotColour: options.spotColour ?? profile?.spotColour ?? DEFAULT_EXPORT_OPTIONS.spotColour,
-      marks: profile && profile.regMarkShape !== 'none' ? { shape: profile.regMarkShape, sizeMm: profile.regMarkSizeMm, offsetMm: profile.regMarkOffsetMm } : null,
+      marks:
+        profile && profile.regMarkShape !== 'none'
+          ? { shape: profile.regMarkShape, sizeMm: profile.regMarkSizeMm, offsetMm: profile.regMarkOffsetMm }
+          : null,
     };
-    const result = await exportSheet({ name: sheet.name, unit: sheet.unit, doc, pieces, paper, preflight: findings }, resolved, (fraction, step) => {
-      if (fraction - last >= 0.1 || fraction === 1) {
-        last = fraction;
-        writes = writes.then(() => this.progress(id, 0.4 + 0.55 * fraction, step)).catch((error) => {
-          if (error instanceof ExportCancelled) cancelled = true;
-        });
-      }
-    });
+    const result = await exportSheet(
+      { name: sheet.name, unit: sheet.unit, doc, pieces, paper, preflight: findings },
+      resolved,
+      (fraction, step) => {
+        if (fraction - last >= 0.1 || fraction === 1) {
+          last = fraction;
+          writes = writes
+            .then(() => this.progress(id, 0.4 + 0.55 * fraction, step))
+            .catch((error) => {
+              if (error instanceof ExportCancelled) cancelled = true;
+            });
+        }
+      },
+    );
     await writes;
     if (cancelled) throw new ExportCancelled();
     const { key } = await this.storage.put(result.zip);
     const files = JSON.stringify(await listZip(result.zip));
-    await this.dataSource.query("UPDATE sheet_exports SET status = 'done', progress = 1, step = 'Ready', zip_key = ?, zip_name = ?, files_json = ? WHERE id = ? AND status = 'running'", [key, result.zipName, files, id]);
+    await this.dataSource.query(
+      "UPDATE sheet_exports SET status = 'done', progress = 1, step = 'Ready', zip_key = ?, zip_name = ?, files_json = ? WHERE id = ? AND status = 'running'",
+      [key, result.zipName, files, id],
+    );
   }
 
   /**
@@ -190,8 +261,14 @@ export class ExportsService {
     // jobs are not ours to judge.
     const prefix = this.queues.settings.prefix;
     const rows: Array<{ id: string }> = ids?.length
-      ? await this.dataSource.query(`SELECT id FROM sheet_exports WHERE status = 'running' AND (queue_prefix = ? OR queue_prefix IS NULL) AND id IN (${ids.map(() => '?').join(',')})`, [prefix, ...ids])
-      : await this.dataSource.query("SELECT id FROM sheet_exports WHERE status = 'running' AND (queue_prefix = ? OR queue_prefix IS NULL) AND created_at < NOW(3) - INTERVAL 5 SECOND LIMIT 500", [prefix]);
+      ? await this.dataSource.query(
+          `SELECT id FROM sheet_exports WHERE status = 'running' AND (queue_prefix = ? OR queue_prefix IS NULL) AND id IN (${ids.map(() => '?').join(',')})`,
+          [prefix, ...ids],
+        )
+      : await this.dataSource.query(
+          "SELECT id FROM sheet_exports WHERE status = 'running' AND (queue_prefix = ? OR queue_prefix IS NULL) AND created_at < NOW(3) - INTERVAL 5 SECOND LIMIT 500",
+          [prefix],
+        );
     let ended = 0;
     for (const { id } of rows) {
       const job = await this.queues.exportState(String(id)).catch(() => undefined);
@@ -200,9 +277,10 @@ export class ExportsService {
       // worker died, active, delayed) is still on its way.
       if (job === null || job.state === 'failed') {
         this.log.warn({ exportId: id, state: job?.state ?? 'missing', reason: job?.reason }, 'running export without a live job: ended');
-        const message = job?.reason && /stalled/i.test(job.reason)
-          ? 'The export stopped because the machine working on it went away, more than once. Try again.'
-          : 'The export stopped before it finished. Try again.';
+        const message =
+          job?.reason && /stalled/i.test(job.reason)
+            ? 'The export stopped because the machine working on it went away, more than once. Try again.'
+            : 'The export stopped before it finished. Try again.';
         if (await this.fail(String(id), message)) ended++;
       }
     }
@@ -210,7 +288,11 @@ export class ExportsService {
   }
 
   async get(teamId: string, sheetId: string, id: string): Promise<ExportJobView> {
-    let [row] = await this.dataSource.query('SELECT * FROM sheet_exports WHERE id = ? AND sheet_id = ? AND team_id = ?', [id, sheetId, teamId]);
+    let [row] = await this.dataSource.query('SELECT * FROM sheet_exports WHERE id = ? AND sheet_id = ? AND team_id = ?', [
+      id,
+      sheetId,
+      teamId,
+    ]);
     if (!row) throw notFound('That export');
     if (row.status === 'running' && Date.now() - new Date(row.created_at).getTime() > 5000 && (await this.reconcile([String(id)])) > 0) {
       [row] = await this.dataSource.query('SELECT * FROM sheet_exports WHERE id = ?', [id]);
@@ -221,12 +303,18 @@ export class ExportsService {
   /** The newest export of the sheet's current version, if any. */
   async latest(teamId: string, sheetId: string): Promise<ExportJobView | null> {
     const sheet = await this.sheets.find(teamId, sheetId);
-    const [row] = await this.dataSource.query('SELECT * FROM sheet_exports WHERE sheet_id = ? AND team_id = ? AND sheet_version = ? ORDER BY id DESC LIMIT 1', [sheetId, teamId, sheet.version]);
+    const [row] = await this.dataSource.query(
+      'SELECT * FROM sheet_exports WHERE sheet_id = ? AND team_id = ? AND sheet_version = ? ORDER BY id DESC LIMIT 1',
+      [sheetId, teamId, sheet.version],
+    );
     return row ? this.view(teamId, sheetId, row) : null;
   }
 
   async download(teamId: string, sheetId: string, id: string): Promise<{ name: string; data: Buffer }> {
-    const [row] = await this.dataSource.query("SELECT zip_key, zip_name FROM sheet_exports WHERE id = ? AND sheet_id = ? AND team_id = ? AND status = 'done'", [id, sheetId, teamId]);
+    const [row] = await this.dataSource.query(
+      "SELECT zip_key, zip_name FROM sheet_exports WHERE id = ? AND sheet_id = ? AND team_id = ? AND status = 'done'",
+      [id, sheetId, teamId],
+    );
     if (!row) throw notFound('That export');
     return { name: row.zip_name, data: await this.storage.get(row.zip_key) };
   }

@@ -25,20 +25,32 @@ export type StoredOutline = OutlineData<StoredPiece>;
 function canonical(value: unknown): string {
   if (Array.isArray(value)) return `[${value.map(canonical).join(',')}]`;
   if (value && typeof value === 'object') {
-    const entries = Object.entries(value as Record<string, unknown>).filter(([, v]) => v !== undefined).sort(([a], [b]) => a.localeCompare(b));
+    const entries = Object.entries(value as Record<string, unknown>)
+      .filter(([, v]) => v !== undefined)
+      .sort(([a], [b]) => a.localeCompare(b));
     return `{${entries.map(([k, v]) => `${JSON.stringify(k)}:${canonical(v)}`).join(',')}}`;
   }
   return JSON.stringify(value);
 }
 
 export function outlineCacheKey(artSha256: string, options: OutlineOptions): string {
-  return createHash('sha256').update(`${OUTLINE_ENGINE_VERSION}\n${artSha256}\n${canonical(options)}`).digest('hex');
+  return createHash('sha256')
+    .update(`${OUTLINE_ENGINE_VERSION}\n${artSha256}\n${canonical(options)}`)
+    .digest('hex');
 }
 
 /** What the request leaves out, the art item's saved setting fills in: its background and whether narrow parts may be widened. */
-export function withArtSetting(item: ArtItem, options: OutlineOptions, explicit: { background: boolean; widenNecks: boolean }): OutlineOptions {
+export function withArtSetting(
+  item: ArtItem,
+  options: OutlineOptions,
+  explicit: { background: boolean; widenNecks: boolean },
+): OutlineOptions {
   if (explicit.background && explicit.widenNecks) return options;
-  return outlineOptionsSchema.parse({ ...options, ...(explicit.background ? {} : artBackgroundOptions(item)), ...(explicit.widenNecks ? {} : { widenNecks: item.widenNecks }) });
+  return outlineOptionsSchema.parse({
+    ...options,
+    ...(explicit.background ? {} : artBackgroundOptions(item)),
+    ...(explicit.widenNecks ? {} : { widenNecks: item.widenNecks }),
+  });
 }
 
 /**
@@ -46,7 +58,8 @@ export function withArtSetting(item: ArtItem, options: OutlineOptions, explicit:
  * already made, so a read-only role cannot make the server compute and store images at will.
  */
 export type OutlineAccess = 'compute' | 'cached';
-export const outlineAccess = (role: Role | undefined): OutlineAccess => (can(role, 'sheets.edit') || can(role, 'library.contribute') ? 'compute' : 'cached');
+export const outlineAccess = (role: Role | undefined): OutlineAccess =>
+  can(role, 'sheets.edit') || can(role, 'library.contribute') ? 'compute' : 'cached';
 export const outlineNotMade = () =>
   new AppError(409, 'outline_not_made', 'This outline has not been made yet: it is made when someone who can edit the sheet opens it.');
 
@@ -66,7 +79,11 @@ export class OutlineService {
   }
 
   /** The outline of a team's art at the given options, from cache when it was computed before. */
-  async forArt(art: ArtItem, options: OutlineOptions, access: OutlineAccess = 'compute'): Promise<{ key: string; cached: boolean; outline: StoredOutline }> {
+  async forArt(
+    art: ArtItem,
+    options: OutlineOptions,
+    access: OutlineAccess = 'compute',
+  ): Promise<{ key: string; cached: boolean; outline: StoredOutline }> {
     const key = outlineCacheKey(art.sha256, options);
     const repo = this.dataSource.getRepository(OutlineCacheEntry);
     const hit = await repo.findOneBy({ cacheKey: key });
@@ -118,8 +135,15 @@ export class OutlineService {
   async removalPreview(art: ArtItem, query: RemovalPreviewQuery, access: OutlineAccess) {
     if (access === 'cached') throw forbidden('Only people who can edit sheets or add art preview background removal.');
     const tolerance = query.backgroundTolerance;
-    const background = query.background === 'auto' || query.background === 'keep' ? query.background : { colour: query.background, tolerance: tolerance ?? DEFAULT_TOLERANCE.colour };
-    return this.pool.removalPreview(await this.storage.get(art.storageKey), { width: 10, background, backgroundTolerance: tolerance ?? DEFAULT_TOLERANCE.auto });
+    const background =
+      query.background === 'auto' || query.background === 'keep'
+        ? query.background
+        : { colour: query.background, tolerance: tolerance ?? DEFAULT_TOLERANCE.colour };
+    return this.pool.removalPreview(await this.storage.get(art.storageKey), {
+      width: 10,
+      background,
+      backgroundTolerance: tolerance ?? DEFAULT_TOLERANCE.auto,
+    });
   }
 
   /** A piece's PNG, only if the team has art with the outline's content hash. */

@@ -21,7 +21,15 @@ const pieceParams = z.object({
  * GET /api/teams/:teamId/art/:artId/outline?width=2in&border=3mm&… computes (or fetches from the
  * cache) the outline of one art item; each piece's bordered PNG is at its `pngUrl`.
  */
-export function outlinesRouter({ dataSource, art, outlines }: { dataSource: DataSource; art: ArtService; outlines: OutlineService }): Router {
+export function outlinesRouter({
+  dataSource,
+  art,
+  outlines,
+}: {
+  dataSource: DataSource;
+  art: ArtService;
+  outlines: OutlineService;
+}): Router {
   const router = Router();
   const scoped = teamScope(dataSource);
 
@@ -32,7 +40,10 @@ export function outlinesRouter({ dataSource, art, outlines }: { dataSource: Data
     route({ params: artParams, query: outlineQuerySchema }, async ({ params, query }, req): Promise<OutlineResponse> => {
       const teamId = req.membership!.teamId;
       const item = await art.find(teamId, params.artId);
-      const options = withArtSetting(item, query, { background: req.query.background !== undefined, widenNecks: req.query.widenNecks !== undefined });
+      const options = withArtSetting(item, query, {
+        background: req.query.background !== undefined,
+        widenNecks: req.query.widenNecks !== undefined,
+      });
       const { key, cached, outline } = await outlines.forArt(item, options, outlineAccess(req.membership!.role));
       return {
         key,

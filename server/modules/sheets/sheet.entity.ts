@@ -42,7 +42,14 @@ export class Sheet {
   @Column({ name: 'piece_count', type: 'int', unsigned: true, default: 0 })
   pieceCount!: number;
 
-  @Column({ name: 'area_used', type: 'decimal', precision: 6, scale: 5, default: 0, transformer: { to: (v: number) => v, from: (v: string) => Number(v) } })
+  @Column({
+    name: 'area_used',
+    type: 'decimal',
+    precision: 6,
+    scale: 5,
+    default: 0,
+    transformer: { to: (v: number) => v, from: (v: string) => Number(v) },
+  })
   areaUsed!: number;
 
   @Column({ name: 'thumbnail_key', type: 'char', length: 64, nullable: true })

@@ -1,7 +1,15 @@
 import { Router } from 'express';
 import type { Request } from 'express';
 import type { DataSource } from 'typeorm';
-import { profileInputSchema, profileParamsSchema, sheetCreateSchema, sheetDuplicateSchema, sheetListQuerySchema, sheetParamsSchema, sheetSaveSchema } from '../../../shared/schemas/sheets';
+import {
+  profileInputSchema,
+  profileParamsSchema,
+  sheetCreateSchema,
+  sheetDuplicateSchema,
+  sheetListQuerySchema,
+  sheetParamsSchema,
+  sheetSaveSchema,
+} from '../../../shared/schemas/sheets';
 import { teamParamsSchema } from '../../../shared/schemas/team';
 import { actorOf, requirePermission, teamScope } from '../../middleware/auth';
 import { route } from '../../middleware/validate';
@@ -9,11 +17,20 @@ import type { ProfilesService } from './profiles.service';
 import type { SheetsService } from './sheets.service';
 import type { SheetSummary } from '../../../shared/schemas/sheets';
 
-
 /** Adds what modules above this one know of each listed sheet (its cost, from the print shop). */
 export type SheetListExtras = (teamId: string, list: SheetSummary[]) => Promise<SheetSummary[]>;
 
-export function sheetsRouter({ dataSource, sheets, profiles, listExtras }: { dataSource: DataSource; sheets: SheetsService; profiles: ProfilesService; listExtras: SheetListExtras }): Router {
+export function sheetsRouter({
+  dataSource,
+  sheets,
+  profiles,
+  listExtras,
+}: {
+  dataSource: DataSource;
+  sheets: SheetsService;
+  profiles: ProfilesService;
+  listExtras: SheetListExtras;
+}): Router {
   const router = Router();
   const scoped = teamScope(dataSource);
   const view = requirePermission('team.view');
@@ -21,7 +38,12 @@ export function sheetsRouter({ dataSource, sheets, profiles, listExtras }: { dat
   const settings = requirePermission('team.settings');
   const teamId = (req: Request) => req.membership!.teamId;
 
-  router.get('/teams/:teamId/sheet-profiles', scoped, view, route({ params: teamParamsSchema }, async (_i, req) => ({ profiles: await profiles.list(teamId(req)) })));
+  router.get(
+    '/teams/:teamId/sheet-profiles',
+    scoped,
+    view,
+    route({ params: teamParamsSchema }, async (_i, req) => ({ profiles: await profiles.list(teamId(req)) })),
+  );
   router.post(
     '/teams/:teamId/sheet-profiles',
     scoped,
@@ -31,11 +53,23 @@ export function sheetsRouter({ dataSource, sheets, profiles, listExtras }: { dat
       return profiles.create(teamId(req), body);
     }),
   );
-  router.put('/teams/:teamId/sheet-profiles/:profileId', scoped, settings, route({ params: profileParamsSchema, body: profileInputSchema }, ({ params, body }, req) => profiles.update(teamId(req), params.profileId, body, false)));
-  router.post('/teams/:teamId/sheet-profiles/:profileId/default', scoped, settings, route({ params: profileParamsSchema }, async ({ params }, req) => {
-    const profile = await profiles.find(teamId(req), params.profileId);
-    return profiles.update(teamId(req), params.profileId, profile, true);
-  }));
+  router.put(
+    '/teams/:teamId/sheet-profiles/:profileId',
+    scoped,
+    settings,
+    route({ params: profileParamsSchema, body: profileInputSchema }, ({ params, body }, req) =>
+      profiles.update(teamId(req), params.profileId, body, false),
+    ),
+  );
+  router.post(
+    '/teams/:teamId/sheet-profiles/:profileId/default',
+    scoped,
+    settings,
+    route({ params: profileParamsSchema }, async ({ params }, req) => {
+      const profile = await profiles.find(teamId(req), params.profileId);
+      return profiles.update(teamId(req), params.profileId, profile, true);
+    }),
+  );
   router.delete(
     '/teams/:teamId/sheet-profiles/:profileId',
     scoped,
@@ -46,7 +80,14 @@ export function sheetsRouter({ dataSource, sheets, profiles, listExtras }: { dat
     }),
   );
 
-  router.get('/teams/:teamId/sheets', scoped, view, route({ params: teamParamsSchema, query: sheetListQuerySchema }, async ({ query }, req) => ({ sheets: await listExtras(teamId(req), await sheets.list(teamId(req), query)) })));
+  router.get(
+    '/teams/:teamId/sheets',
+    scoped,
+    view,
+    route({ params: teamParamsSchema, query: sheetListQuerySchema }, async ({ query }, req) => ({
+      sheets: await listExtras(teamId(req), await sheets.list(teamId(req), query)),
+    })),
+  );
   router.post(
     '/teams/:teamId/sheets',
     scoped,
@@ -56,8 +97,18 @@ export function sheetsRouter({ dataSource, sheets, profiles, listExtras }: { dat
       return sheets.create(actorOf(req), body);
     }),
   );
-  router.get('/teams/:teamId/sheets/:sheetId', scoped, view, route({ params: sheetParamsSchema }, ({ params }, req) => sheets.detail(teamId(req), params.sheetId)));
-  router.put('/teams/:teamId/sheets/:sheetId', scoped, edit, route({ params: sheetParamsSchema, body: sheetSaveSchema }, ({ params, body }, req) => sheets.save(actorOf(req), params.sheetId, body)));
+  router.get(
+    '/teams/:teamId/sheets/:sheetId',
+    scoped,
+    view,
+    route({ params: sheetParamsSchema }, ({ params }, req) => sheets.detail(teamId(req), params.sheetId)),
+  );
+  router.put(
+    '/teams/:teamId/sheets/:sheetId',
+    scoped,
+    edit,
+    route({ params: sheetParamsSchema, body: sheetSaveSchema }, ({ params, body }, req) => sheets.save(actorOf(req), params.sheetId, body)),
+  );
   router.post(
     '/teams/:teamId/sheets/:sheetId/duplicate',
     scoped,
@@ -81,7 +132,10 @@ export function sheetsRouter({ dataSource, sheets, profiles, listExtras }: { dat
     scoped,
     view,
     route({ params: sheetParamsSchema }, async ({ params }, req, res) => {
-      res.type('png').set('Cache-Control', 'private, max-age=86400').send(await sheets.thumbnail(teamId(req), params.sheetId));
+      res
+        .type('png')
+        .set('Cache-Control', 'private, max-age=86400')
+        .send(await sheets.thumbnail(teamId(req), params.sheetId));
     }),
   );
   return router;

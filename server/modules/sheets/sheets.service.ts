@@ -30,10 +30,20 @@ export class SheetsService {
 
   private async summaries(rows: Sheet[]): Promise<SheetSummary[]> {
     if (rows.length === 0) return [];
-    const users = new Map((await this.dataSource.getRepository(User).findBy({ id: In([...new Set(rows.map((r) => r.ownerId))]) })).map((u) => [u.id, u]));
+    const users = new Map(
+      (await this.dataSource.getRepository(User).findBy({ id: In([...new Set(rows.map((r) => r.ownerId))]) })).map((u) => [u.id, u]),
+    );
     const profileIds = [...new Set(rows.map((r) => r.profileId).filter((id): id is string => id !== null))];
-    const profiles = new Map((profileIds.length ? await this.dataSource.getRepository(SheetProfile).findBy({ id: In(profileIds) }) : []).map((p) => [p.id, p]));
-    const exportRows: Array<{ id: string; sheet_id: string; sheet_version: number; status: 'running' | 'done' | 'failed'; progress: string }> = await this.dataSource.query(
+    const profiles = new Map(
+      (profileIds.length ? await this.dataSource.getRepository(SheetProfile).findBy({ id: In(profileIds) }) : []).map((p) => [p.id, p]),
+    );
+    const exportRows: Array<{
+      id: string;
+      sheet_id: string;
+      sheet_version: number;
+      status: 'running' | 'done' | 'failed';
+      progress: string;
+    }> = await this.dataSource.query(
       `SELECT e.id, e.sheet_id, e.sheet_version, e.status, e.progress FROM sheet_exports e
        JOIN (SELECT sheet_id, MAX(id) AS id FROM sheet_exports WHERE sheet_id IN (${rows.map(() => '?').join(',')}) GROUP BY sheet_id) last ON last.id = e.id`,
       rows.map((r) => r.id),
@@ -56,13 +66,25 @@ export class SheetsService {
       lastExport: (() => {
         const e = exportsBySheet.get(r.id);
         if (!e) return null;
-        return { status: e.status, progress: Number(e.progress), current: e.sheet_version === r.version, downloadUrl: e.status === 'done' ? `/api/teams/${r.teamId}/sheets/${r.id}/exports/${e.id}/download` : null };
+        return {
+          status: e.status,
+          progress: Number(e.progress),
+          current: e.sheet_version === r.version,
+          downloadUrl: e.status === 'done' ? `/api/teams/${r.teamId}/sheets/${r.id}/exports/${e.id}/download` : null,
+        };
       })(),
     }));
   }
 
-  async list(teamId: string, query: { q: string; status?: string; ownerId?: string; templates: 'only' | 'exclude' }): Promise<SheetSummary[]> {
-    const qb = this.dataSource.getRepository(Sheet).createQueryBuilder('s').where('s.team_id = :teamId', { teamId }).andWhere('s.is_template = :t', { t: query.templates === 'only' ? 1 : 0 });
+  async list(
+    teamId: string,
+    query: { q: string; status?: string; ownerId?: string; templates: 'only' | 'exclude' },
+  ): Promise<SheetSummary[]> {
+    const qb = this.dataSource
+      .getRepository(Sheet)
+      .createQueryBuilder('s')
+      .where('s.team_id = :teamId', { teamId })
+      .andWhere('s.is_template = :t', { t: query.templates === 'only' ? 1 : 0 });
     if (query.q) qb.andWhere('s.name LIKE :q', { q: `%${query.q.replace(/[%_\\]/g, (c) => `\\${c}`)}%` });
     if (query.status) qb.andWhere('s.status = :status', { status: query.status });
     if (query.ownerId) qb.andWhere('s.owner_id = :owner', { owner: query.ownerId });
@@ -92,7 +114,10 @@ export class SheetsService {
       limits: profileLimits(profile),
       printing: {
         spotColour: profile?.spotColour ?? 'CutContour',
-        marks: profile && profile.regMarkShape !== 'none' ? { shape: profile.regMarkShape, sizeMm: profile.regMarkSizeMm, offsetMm: profile.regMarkOffsetMm } : null,
+        marks:
+          profile && profile.regMarkShape !== 'none'
+            ? { shape: profile.regMarkShape, sizeMm: profile.regMarkSizeMm, offsetMm: profile.regMarkOffsetMm }
+            : null,
       },
     };
   }
@@ -102,7 +127,8 @@ export class SheetsService {
     const ids = [...new Set(doc.pieces.map((p) => p.artId))];
     if (ids.length === 0) return [];
     const found = await manager.getRepository(ArtItem).countBy({ id: In(ids), teamId });
-    if (found !== ids.length) throw validationError({ document: 'The sheet uses art this team does not have' }, 'The sheet uses art this team does not have.');
+    if (found !== ids.length)
+      throw validationError({ document: 'The sheet uses art this team does not have' }, 'The sheet uses art this team does not have.');
     return ids;
   }
 
@@ -118,12 +144,22 @@ export class SheetsService {
     const byId = (a: string, b: string) => (BigInt(a) < BigInt(b) ? -1 : 1);
     const gone = [...have].filter((id) => !want.has(id)).sort(byId);
     const added = [...want].filter((id) => !have.has(id)).sort(byId);
-    if (gone.length) await manager.query(`DELETE FROM sheet_art WHERE sheet_id = ? AND art_id IN (${gone.map(() => '?').join(',')})`, [sheetId, ...gone]);
-    if (added.length) await manager.query(`INSERT IGNORE INTO sheet_art (sheet_id, art_id) VALUES ${added.map(() => '(?, ?)').join(',')}`, added.flatMap((a) => [sheetId, a]));
+    if (gone.length)
+      await manager.query(`DELETE FROM sheet_art WHERE sheet_id = ? AND art_id IN (${gone.map(() => '?').join(',')})`, [sheetId, ...gone]);
+    if (added.length)
+      await manager.query(
+        `INSERT IGNORE INTO sheet_art (sheet_id, art_id) VALUES ${added.map(() => '(?, ?)').join(',')}`,
+        added.flatMap((a) => [sheetId, a]),
+      );
   }
 
-  async create(actor: Actor, input: { name: string; profileId?: string; unit?: 'in' | 'mm'; fromTemplateId?: string }): Promise<SheetDetail> {
-    const profile = input.profileId ? await this.profiles.find(actor.teamId, input.profileId) : await this.profiles.defaultFor(actor.teamId);
+  async create(
+    actor: Actor,
+    input: { name: string; profileId?: string; unit?: 'in' | 'mm'; fromTemplateId?: string },
+  ): Promise<SheetDetail> {
+    const profile = input.profileId
+      ? await this.profiles.find(actor.teamId, input.profileId)
+      : await this.profiles.defaultFor(actor.teamId);
     const template = input.fromTemplateId ? await this.find(actor.teamId, input.fromTemplateId) : null;
     if (template && !template.isTemplate) throw notFound('That template');
     const document = template ? migrateDocument(JSON.parse(template.document)) : emptyDocument(profile);
@@ -163,15 +199,22 @@ export class SheetsService {
     let replacedThumbnail: string | null = null;
     if (input.thumbnail) thumbnailKey = (await this.storage.put(await cleanThumbnail(input.thumbnail))).key;
     await inTransaction(this.dataSource, async (manager) => {
-      const sheet = await manager.getRepository(Sheet).findOne({ where: { id, teamId: actor.teamId }, lock: { mode: 'pessimistic_write' } });
+      const sheet = await manager
+        .getRepository(Sheet)
+        .findOne({ where: { id, teamId: actor.teamId }, lock: { mode: 'pessimistic_write' } });
       if (!sheet) throw notFound('That sheet');
       if (sheet.version !== input.version) {
         const who = sheet.updatedBy ? await manager.getRepository(User).findOneBy({ id: sheet.updatedBy }) : null;
-        const error = new AppError(409, 'version_conflict', `${who?.name ?? 'Someone'} saved this sheet since you opened it (version ${sheet.version}, yours ${input.version}).`);
+        const error = new AppError(
+          409,
+          'version_conflict',
+          `${who?.name ?? 'Someone'} saved this sheet since you opened it (version ${sheet.version}, yours ${input.version}).`,
+        );
         throw Object.assign(error, { fields: { version: String(sheet.version) } });
       }
       const changes: Partial<Sheet> = { version: sheet.version + 1, updatedBy: actor.userId };
-      for (const key of ['name', 'unit', 'status', 'forSale', 'notes', 'areaUsed'] as const) if (input[key] !== undefined) Object.assign(changes, { [key]: input[key] });
+      for (const key of ['name', 'unit', 'status', 'forSale', 'notes', 'areaUsed'] as const)
+        if (input[key] !== undefined) Object.assign(changes, { [key]: input[key] });
       if (thumbnailKey) changes.thumbnailKey = thumbnailKey;
       replacedThumbnail = thumbnailKey && sheet.thumbnailKey !== thumbnailKey ? sheet.thumbnailKey : null;
       if (input.document) {
@@ -192,7 +235,15 @@ export class SheetsService {
     const copyId = await inTransaction(this.dataSource, async (manager) => {
       const { id: _id, createdAt: _c, updatedAt: _u, ...rest } = source;
       const copy = await manager.save(
-        manager.create(Sheet, { ...rest, ownerId: actor.userId, name: input.name ?? `${source.name} (copy)`, version: 1, isTemplate: input.asTemplate, status: 'draft', updatedBy: actor.userId }),
+        manager.create(Sheet, {
+          ...rest,
+          ownerId: actor.userId,
+          name: input.name ?? `${source.name} (copy)`,
+          version: 1,
+          isTemplate: input.asTemplate,
+          status: 'draft',
+          updatedBy: actor.userId,
+        }),
       );
       await this.linkArt(manager, copy.id, [...new Set(migrateDocument(JSON.parse(source.document)).pieces.map((p) => p.artId))]);
       return copy.id;
@@ -236,7 +287,8 @@ export const THUMBNAIL_MAX_PX = 1024;
 /** The editor's thumbnail must decode as a PNG of at most 1024 px a side; it is stored re-encoded, so nothing else rides along. */
 async function cleanThumbnail(dataUrl: string): Promise<Buffer> {
   const bytes = Buffer.from(dataUrl.split(',')[1], 'base64');
-  const refuse = (why: string) => validationError({ thumbnail: why }, `The sheet preview was refused: ${why.toLowerCase()}. Nothing was saved.`);
+  const refuse = (why: string) =>
+    validationError({ thumbnail: why }, `The sheet preview was refused: ${why.toLowerCase()}. Nothing was saved.`);
   let meta: Metadata;
   try {
     meta = await sharp(bytes, { limitInputPixels: THUMBNAIL_MAX_PX * THUMBNAIL_MAX_PX }).metadata();
@@ -244,7 +296,8 @@ async function cleanThumbnail(dataUrl: string): Promise<Buffer> {
     throw refuse('It is not a PNG image');
   }
   if (meta.format !== 'png') throw refuse('It is not a PNG image');
-  if (!meta.width || !meta.height || meta.width > THUMBNAIL_MAX_PX || meta.height > THUMBNAIL_MAX_PX) throw refuse(`It is larger than ${THUMBNAIL_MAX_PX} px a side`);
+  if (!meta.width || !meta.height || meta.width > THUMBNAIL_MAX_PX || meta.height > THUMBNAIL_MAX_PX)
+    throw refuse(`It is larger than ${THUMBNAIL_MAX_PX} px a side`);
   try {
     return await sharp(bytes).png().toBuffer();
   } catch {

@@ -33,7 +33,9 @@ export class CostingService {
 
   async settings(teamId: string): Promise<ShopSettings> {
     const [row] = await this.dataSource.query('SELECT * FROM shop_settings WHERE team_id = ?', [teamId]);
-    return row ? { currency: row.currency, labourRatePerHour: Number(row.labour_rate), markupPercent: Number(row.markup_percent) } : DEFAULT_SETTINGS;
+    return row
+      ? { currency: row.currency, labourRatePerHour: Number(row.labour_rate), markupPercent: Number(row.markup_percent) }
+      : DEFAULT_SETTINGS;
   }
 
   async saveSettings(teamId: string, s: ShopSettings): Promise<ShopSettings> {
@@ -42,10 +44,18 @@ export class CostingService {
   }
 
   private async costingOf(teamId: string, sheetId: string): Promise<Costing> {
-    const [row] = await this.dataSource.query('SELECT stock_id, printer_id, cutter_id, labour_minutes FROM sheets WHERE id = ? AND team_id = ?', [sheetId, teamId]);
+    const [row] = await this.dataSource.query(
+      'SELECT stock_id, printer_id, cutter_id, labour_minutes FROM sheets WHERE id = ? AND team_id = ?',
+      [sheetId, teamId],
+    );
     if (!row) throw notFound('That sheet');
     const id = (v: unknown) => (v === null ? null : String(v));
-    return { stockId: id(row.stock_id), printerId: id(row.printer_id), cutterId: id(row.cutter_id), labourMinutes: Number(row.labour_minutes) };
+    return {
+      stockId: id(row.stock_id),
+      printerId: id(row.printer_id),
+      cutterId: id(row.cutter_id),
+      labourMinutes: Number(row.labour_minutes),
+    };
   }
 
   /** Chooses what a sheet is costed on. Not part of the document: no new version, no save conflict. */
@@ -59,23 +69,55 @@ export class CostingService {
     await owned('stock_items', c.stockId);
     await owned('machines', c.printerId, " AND kind = 'printer'");
     await owned('machines', c.cutterId, " AND kind = 'cutter'");
-    await this.dataSource.query('UPDATE sheets SET stock_id = ?, printer_id = ?, cutter_id = ?, labour_minutes = ? WHERE id = ?', [c.stockId, c.printerId, c.cutterId, c.labourMinutes, sheetId]);
+    await this.dataSource.query('UPDATE sheets SET stock_id = ?, printer_id = ?, cutter_id = ?, labour_minutes = ? WHERE id = ?', [
+      c.stockId,
+      c.printerId,
+      c.cutterId,
+      c.labourMinutes,
+      sheetId,
+    ]);
     return this.cost(teamId, sheetId);
   }
 
-  private async compute(teamId: string, analysis: SheetAnalysis, costing: Costing, settings: ShopSettings): Promise<Omit<SheetCostView, 'analysis'>> {
-    const [stock] = costing.stockId ? await this.dataSource.query('SELECT name, pack_price, sheets_per_pack FROM stock_items WHERE id = ? AND team_id = ?', [costing.stockId, teamId]) : [];
-    const [printer] = costing.printerId ? await this.dataSource.query('SELECT name, ink_full_page FROM machines WHERE id = ? AND team_id = ?', [costing.printerId, teamId]) : [];
-    const [blade] = costing.cutterId ? await this.dataSource.query('SELECT label, price, life_m FROM blades WHERE cutter_id = ? AND team_id = ? AND removed_on IS NULL ORDER BY id DESC LIMIT 1', [costing.cutterId, teamId]) : [];
+  private async compute(
+    teamId: string,
+    analysis: SheetAnalysis,
+    costing: Costing,
+    settings: ShopSettings,
+  ): Promise<Omit<SheetCostView, 'analysis'>> {
+    const [stock] = costing.stockId
+      ? await this.dataSource.query('SELECT name, pack_price, sheets_per_pack FROM stock_items WHERE id = ? AND team_id = ?', [
+          costing.stockId,
+          teamId,
+        ])
+      : [];
+    const [printer] = costing.printerId
+      ? await this.dataSource.query('SELECT name, ink_full_page FROM machines WHERE id = ? AND team_id = ?', [costing.printerId, teamId])
+      : [];
+    const [blade] = costing.cutterId
+      ? await this.dataSource.query(
+          'SELECT label, price, life_m FROM blades WHERE cutter_id = ? AND team_id = ? AND removed_on IS NULL ORDER BY id DESC LIMIT 1',
+          [costing.cutterId, teamId],
+        )
+      : [];
     const inputs: SheetCostView['inputs'] = {
-      stock: stock ? { name: stock.name, packPrice: Number(stock.pack_price), sheetsPerPack: stock.sheets_per_pack, perSheet: costPerSheet(Number(stock.pack_price), stock.sheets_per_pack) } : null,
+      stock: stock
+        ? {
+            name: stock.name,
+            packPrice: Number(stock.pack_price),
+            sheetsPerPack: stock.sheets_per_pack,
+            perSheet: costPerSheet(Number(stock.pack_price), stock.sheets_per_pack),
+          }
+        : null,
       printer: printer ? { name: printer.name, inkFullPage: Number(printer.ink_full_page ?? 0) } : null,
       blade: blade ? { label: blade.label, price: Number(blade.price), lifeM: Number(blade.life_m) } : null,
       labourRatePerHour: settings.labourRatePerHour,
       markupPercent: settings.markupPercent,
       currency: settings.currency,
     };
-    const missing = [!inputs.stock && 'stock', !inputs.printer && 'printer', !inputs.blade && 'cutter blade'].filter((m): m is string => !!m);
+    const missing = [!inputs.stock && 'stock', !inputs.printer && 'printer', !inputs.blade && 'cutter blade'].filter(
+      (m): m is string => !!m,
+    );
     const cost = sheetCost({
       stockPerSheet: inputs.stock?.perSheet ?? 0,
       coverage: analysis.coverage.total,
@@ -101,7 +143,16 @@ export class CostingService {
   /** Adds each sheet's cost from its last analysis (marked stale when the sheet changed since). */
   async attach(teamId: string, list: SheetSummary[]): Promise<SheetSummary[]> {
     if (list.length === 0) return list;
-    const rows: Array<{ id: string; version: number; analysis_json: string | null; analysis_version: number | null; stock_id: string | null; printer_id: string | null; cutter_id: string | null; labour_minutes: string }> = await this.dataSource.query(
+    const rows: Array<{
+      id: string;
+      version: number;
+      analysis_json: string | null;
+      analysis_version: number | null;
+      stock_id: string | null;
+      printer_id: string | null;
+      cutter_id: string | null;
+      labour_minutes: string;
+    }> = await this.dataSource.query(
       `SELECT id, version, analysis_json, analysis_version, stock_id, printer_id, cutter_id, labour_minutes FROM sheets WHERE team_id = ? AND id IN (${list.map(() => '?').join(',')})`,
       [teamId, ...list.map((s) => s.id)],
     );
@@ -115,8 +166,16 @@ export class CostingService {
         continue;
       }
       const id = (v: unknown) => (v === null ? null : String(v));
-      const { cost } = await this.compute(teamId, JSON.parse(r.analysis_json), { stockId: id(r.stock_id), printerId: id(r.printer_id), cutterId: id(r.cutter_id), labourMinutes: Number(r.labour_minutes) }, settings);
-      out.push({ ...s, cost: { sheet: cost.sheet, perSticker: cost.perSticker, currency: settings.currency, current: r.analysis_version === r.version } });
+      const { cost } = await this.compute(
+        teamId,
+        JSON.parse(r.analysis_json),
+        { stockId: id(r.stock_id), printerId: id(r.printer_id), cutterId: id(r.cutter_id), labourMinutes: Number(r.labour_minutes) },
+        settings,
+      );
+      out.push({
+        ...s,
+        cost: { sheet: cost.sheet, perSticker: cost.perSticker, currency: settings.currency, current: r.analysis_version === r.version },
+      });
     }
     return out;
   }

@@ -5,13 +5,36 @@ import { BLADE_NEAR_SHARE } from '../../../shared/schemas/shop';
 import { notFound, validationError } from '../../lib/errors';
 import { inTransaction } from '../../db/transaction';
 
-type MachineRow = { id: string; kind: 'printer' | 'cutter'; name: string; notes: string | null; ink_full_page: string | null; archived_at: Date | null };
-type BladeRow = { id: string; cutter_id: string; label: string; fitted_on: string | Date; removed_on: string | Date | null; cut_length_mm: number; life_m: string; price: string; note: string | null };
+type MachineRow = {
+  id: string;
+  kind: 'printer' | 'cutter';
+  name: string;
+  notes: string | null;
+  ink_full_page: string | null;
+  archived_at: Date | null;
+};
+type BladeRow = {
+  id: string;
+  cutter_id: string;
+  label: string;
+  fitted_on: string | Date;
+  removed_on: string | Date | null;
+  cut_length_mm: number;
+  life_m: string;
+  price: string;
+  note: string | null;
+};
 
-const isoDay = (d: string | Date | null) => (d === null ? null : typeof d === 'string' ? d.slice(0, 10) : `${d.getFullYear()}-${String(d.getMonth() + 1).padStart(2, '0')}-${String(d.getDate()).padStart(2, '0')}`);
+const isoDay = (d: string | Date | null) =>
+  d === null
+    ? null
+    : typeof d === 'string'
+      ? d.slice(0, 10)
+      : `${d.getFullYear()}-${String(d.getMonth() + 1).padStart(2, '0')}-${String(d.getDate()).padStart(2, '0')}`;
 
 export const bladeView = (b: BladeRow): BladeView => {
-  const cutLengthM = b.cut_length_mm / 1000, lifeM = Number(b.life_m);
+  const cutLengthM = b.cut_length_mm / 1000,
+    lifeM = Number(b.life_m);
   return {
     id: String(b.id),
     label: b.label,
@@ -30,11 +53,24 @@ export class MachinesService {
   constructor(private readonly dataSource: DataSource) {}
 
   async list(teamId: string): Promise<MachineView[]> {
-    const machines: MachineRow[] = await this.dataSource.query('SELECT * FROM machines WHERE team_id = ? AND archived_at IS NULL ORDER BY kind, name', [teamId]);
-    const blades: BladeRow[] = await this.dataSource.query('SELECT * FROM blades WHERE team_id = ? ORDER BY fitted_on DESC, id DESC', [teamId]);
+    const machines: MachineRow[] = await this.dataSource.query(
+      'SELECT * FROM machines WHERE team_id = ? AND archived_at IS NULL ORDER BY kind, name',
+      [teamId],
+    );
+    const blades: BladeRow[] = await this.dataSource.query('SELECT * FROM blades WHERE team_id = ? ORDER BY fitted_on DESC, id DESC', [
+      teamId,
+    ]);
     return machines.map((m) => {
       const own = blades.filter((b) => String(b.cutter_id) === String(m.id)).map(bladeView);
-      return { id: String(m.id), kind: m.kind, name: m.name, notes: m.notes ?? '', inkFullPage: m.ink_full_page === null ? null : Number(m.ink_full_page), blade: own.find((b) => b.removedOn === null) ?? null, blades: own };
+      return {
+        id: String(m.id),
+        kind: m.kind,
+        name: m.name,
+        notes: m.notes ?? '',
+        inkFullPage: m.ink_full_page === null ? null : Number(m.ink_full_page),
+        blade: own.find((b) => b.removedOn === null) ?? null,
+        blades: own,
+      };
     });
   }
 
@@ -45,14 +81,25 @@ export class MachinesService {
   }
 
   async create(teamId: string, input: z.infer<typeof machineInputSchema>): Promise<MachineView> {
-    const r = await this.dataSource.query('INSERT INTO machines (team_id, kind, name, notes, ink_full_page) VALUES (?,?,?,?,?)', [teamId, input.kind, input.name, input.notes || null, input.kind === 'printer' ? input.inkFullPage : null]);
+    const r = await this.dataSource.query('INSERT INTO machines (team_id, kind, name, notes, ink_full_page) VALUES (?,?,?,?,?)', [
+      teamId,
+      input.kind,
+      input.name,
+      input.notes || null,
+      input.kind === 'printer' ? input.inkFullPage : null,
+    ]);
     return this.get(teamId, String(r.insertId));
   }
 
   async update(teamId: string, id: string, input: z.infer<typeof machineInputSchema>): Promise<MachineView> {
     const machine = await this.get(teamId, id);
     if (machine.kind !== input.kind) throw validationError({ kind: 'A printer stays a printer and a cutter a cutter' });
-    await this.dataSource.query('UPDATE machines SET name = ?, notes = ?, ink_full_page = ? WHERE id = ?', [input.name, input.notes || null, input.kind === 'printer' ? input.inkFullPage : null, id]);
+    await this.dataSource.query('UPDATE machines SET name = ?, notes = ?, ink_full_page = ? WHERE id = ?', [
+      input.name,
+      input.notes || null,
+      input.kind === 'printer' ? input.inkFullPage : null,
+      id,
+    ]);
     return this.get(teamId, id);
   }
 
@@ -67,7 +114,10 @@ export class MachinesService {
     if (cutter.kind !== 'cutter') throw notFound('That cutter');
     await inTransaction(this.dataSource, async (manager) => {
       await manager.query('UPDATE blades SET removed_on = ? WHERE cutter_id = ? AND removed_on IS NULL', [fit.fittedOn, cutterId]);
-      await manager.query('INSERT INTO blades (team_id, cutter_id, label, fitted_on, life_m, price, note, fitted_by) VALUES (?,?,?,?,?,?,?,?)', [teamId, cutterId, fit.label, fit.fittedOn, fit.lifeM, fit.price, fit.note || null, userId]);
+      await manager.query(
+        'INSERT INTO blades (team_id, cutter_id, label, fitted_on, life_m, price, note, fitted_by) VALUES (?,?,?,?,?,?,?,?)',
+        [teamId, cutterId, fit.label, fit.fittedOn, fit.lifeM, fit.price, fit.note || null, userId],
+      );
     });
     return this.get(teamId, cutterId);
   }
@@ -81,7 +131,10 @@ export class MachinesService {
 
   /** The blade fitted in a cutter, locked for the rest of the transaction. */
   async fittedBlade(manager: EntityManager, cutterId: string): Promise<BladeRow | null> {
-    const [row] = await manager.query('SELECT * FROM blades WHERE cutter_id = ? AND removed_on IS NULL ORDER BY id DESC LIMIT 1 FOR UPDATE', [cutterId]);
+    const [row] = await manager.query(
+      'SELECT * FROM blades WHERE cutter_id = ? AND removed_on IS NULL ORDER BY id DESC LIMIT 1 FOR UPDATE',
+      [cutterId],
+    );
     return row ?? null;
   }
 }

@@ -39,13 +39,20 @@ export class RunsService {
     const id = await inTransaction(this.dataSource, async (manager) => {
       const stock = await this.stock.row(teamId, input.stockId, manager, true);
       // Retired things stay for the runs that used them, but take no new runs.
-      if (stock.archived_at) throw validationError({ stockId: 'This stock is retired: pick stock from the shelf' }, 'This stock is retired.');
-      if (input.printerId && (await this.machines.machineIn(manager, teamId, input.printerId, 'printer')).archived_at) throw validationError({ printerId: 'This printer is retired: pick another' }, 'This printer is retired.');
+      if (stock.archived_at)
+        throw validationError({ stockId: 'This stock is retired: pick stock from the shelf' }, 'This stock is retired.');
+      if (input.printerId && (await this.machines.machineIn(manager, teamId, input.printerId, 'printer')).archived_at)
+        throw validationError({ printerId: 'This printer is retired: pick another' }, 'This printer is retired.');
       let bladeId: string | null = null;
       if (input.cutterId) {
-        if ((await this.machines.machineIn(manager, teamId, input.cutterId, 'cutter')).archived_at) throw validationError({ cutterId: 'This cutter is retired: pick another' }, 'This cutter is retired.');
+        if ((await this.machines.machineIn(manager, teamId, input.cutterId, 'cutter')).archived_at)
+          throw validationError({ cutterId: 'This cutter is retired: pick another' }, 'This cutter is retired.');
         const blade = await this.machines.fittedBlade(manager, input.cutterId);
-        if (!blade) throw validationError({ cutterId: 'This cutter has no blade logged: fit one first' }, 'This cutter has no blade logged: fit one first.');
+        if (!blade)
+          throw validationError(
+            { cutterId: 'This cutter has no blade logged: fit one first' },
+            'This cutter has no blade logged: fit one first.',
+          );
         bladeId = String(blade.id);
       }
       if (stock.on_hand < input.copies && !input.confirmNegativeStock) throw stockShort(stock.on_hand, input.copies);
@@ -57,7 +64,24 @@ export class RunsService {
       };
       const r = await manager.query(
         'INSERT INTO print_runs (team_id, sheet_id, sheet_name, sheet_version, copies, wasted, stock_id, printer_id, cutter_id, blade_id, settings_json, result, notes, cut_length_mm, printed_on, created_by) VALUES (?,?,?,?,?,?,?,?,?,?,?,?,?,?,?,?)',
-        [teamId, sheet.id, sheet.name, sheet.version, input.copies, input.wasted ?? (input.result === 'good' ? 0 : input.copies), stock.id, input.printerId, input.cutterId, bladeId, JSON.stringify(settings), input.result, input.notes || null, runCut, input.printedOn ?? today(), userId],
+        [
+          teamId,
+          sheet.id,
+          sheet.name,
+          sheet.version,
+          input.copies,
+          input.wasted ?? (input.result === 'good' ? 0 : input.copies),
+          stock.id,
+          input.printerId,
+          input.cutterId,
+          bladeId,
+          JSON.stringify(settings),
+          input.result,
+          input.notes || null,
+          runCut,
+          input.printedOn ?? today(),
+          userId,
+        ],
       );
       return String(r.insertId);
     });
@@ -123,7 +147,11 @@ export class RunsService {
     await this.get(teamId, id);
     let jpeg: Buffer;
     try {
-      jpeg = await sharp(bytes, { limitInputPixels: PHOTO_MAX_PIXELS }).rotate().resize(1600, 1600, { fit: 'inside', withoutEnlargement: true }).jpeg({ quality: 82 }).toBuffer();
+      jpeg = await sharp(bytes, { limitInputPixels: PHOTO_MAX_PIXELS })
+        .rotate()
+        .resize(1600, 1600, { fit: 'inside', withoutEnlargement: true })
+        .jpeg({ quality: 82 })
+        .toBuffer();
     } catch {
       throw new AppError(422, 'unreadable_image', 'That file is not a photo we can read (JPEG, PNG or WebP, at most 40 megapixels).');
     }

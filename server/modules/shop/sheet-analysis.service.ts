@@ -25,12 +25,29 @@ import type { Sheet } from '../sheets/sheet.entity';
 export const ANALYSIS_DPI = 150;
 
 /** A placed piece with its cached outline, as the print-image renderer takes it. */
-export async function toExportPiece(storage: Storage, piece: SheetDocument['pieces'][number], outline: StoredOutline): Promise<ExportPiece> {
+export async function toExportPiece(
+  storage: Storage,
+  piece: SheetDocument['pieces'][number],
+  outline: StoredOutline,
+): Promise<ExportPiece> {
   const first = outline.pieces[0];
-  return { piece, name: '', cutLine: { points: first.cutLine.points, widthMm: first.widthMm, heightMm: first.heightMm }, raster: { png: await storage.get(first.pngKey), widthMm: first.widthMm, heightMm: first.heightMm } };
+  return {
+    piece,
+    name: '',
+    cutLine: { points: first.cutLine.points, widthMm: first.widthMm, heightMm: first.heightMm },
+    raster: { png: await storage.get(first.pngKey), widthMm: first.widthMm, heightMm: first.heightMm },
+  };
 }
 
-type Gathered = { doc: SheetDocument; outlines: Map<string, PreflightOutline>; stored: Map<string, StoredOutline>; names: Map<string, string>; licences: Map<string, string | null>; paperArea: number; limits: PreflightLimits };
+type Gathered = {
+  doc: SheetDocument;
+  outlines: Map<string, PreflightOutline>;
+  stored: Map<string, StoredOutline>;
+  names: Map<string, string>;
+  licences: Map<string, string | null>;
+  paperArea: number;
+  limits: PreflightLimits;
+};
 
 /**
  * What the server knows of a sheet version without exporting it: preflight findings, total cut
@@ -50,7 +67,9 @@ export class SheetAnalysisService {
     const profile = sheet.profileId ? await this.dataSource.getRepository(SheetProfile).findOneBy({ id: sheet.profileId }) : null;
     const limits = profileLimits(profile);
     const ids = [...new Set(doc.pieces.map((p) => p.artId))];
-    const arts = new Map((ids.length ? await this.dataSource.getRepository(ArtItem).findBy({ id: In(ids), teamId }) : []).map((a) => [a.id, a]));
+    const arts = new Map(
+      (ids.length ? await this.dataSource.getRepository(ArtItem).findBy({ id: In(ids), teamId }) : []).map((a) => [a.id, a]),
+    );
     const outlines = new Map<string, PreflightOutline>();
     const stored = new Map<string, StoredOutline>();
     const byQuery = new Map<string, StoredOutline>();
@@ -105,7 +124,12 @@ export class SheetAnalysisService {
     try {
       g = await this.gather(teamId, sheet, access);
     } catch (error) {
-      if ((error as AppError).code === 'outline_not_made') throw new AppError(409, 'not_analysed', 'This sheet has not been checked since its last change: it is checked when someone who can edit it opens it.');
+      if ((error as AppError).code === 'outline_not_made')
+        throw new AppError(
+          409,
+          'not_analysed',
+          'This sheet has not been checked since its last change: it is checked when someone who can edit it opens it.',
+        );
       throw error;
     }
     const rings = g.doc.pieces.filter((p) => g.outlines.has(p.id)).map((p) => placeCutLine(p, g.outlines.get(p.id)!));
@@ -118,7 +142,12 @@ export class SheetAnalysisService {
       findings: this.findings(g, sheet),
     };
     // Only if the sheet is still at that version: a save meanwhile makes this one stale.
-    await this.dataSource.query('UPDATE sheets SET analysis_json = ?, analysis_version = ? WHERE id = ? AND version = ?', [JSON.stringify(analysis), sheet.version, sheet.id, sheet.version]);
+    await this.dataSource.query('UPDATE sheets SET analysis_json = ?, analysis_version = ? WHERE id = ? AND version = ?', [
+      JSON.stringify(analysis),
+      sheet.version,
+      sheet.id,
+      sheet.version,
+    ]);
     return analysis;
   }
 

@@ -5,8 +5,22 @@ import { AppError, notFound } from '../../lib/errors';
 import { inTransaction } from '../../db/transaction';
 
 export type StockRow = {
-  id: string; name: string; finish: StockInput['finish']; paper: StockInput['paper']; paper_width_mm: string; paper_height_mm: string; pack_price: string; sheets_per_pack: number; on_hand: number;
-  printer_settings: string; cutter_settings: string; rating: number | null; food_safe: number; skin_safe: number; notes: string | null; archived_at: Date | null;
+  id: string;
+  name: string;
+  finish: StockInput['finish'];
+  paper: StockInput['paper'];
+  paper_width_mm: string;
+  paper_height_mm: string;
+  pack_price: string;
+  sheets_per_pack: number;
+  on_hand: number;
+  printer_settings: string;
+  cutter_settings: string;
+  rating: number | null;
+  food_safe: number;
+  skin_safe: number;
+  notes: string | null;
+  archived_at: Date | null;
 };
 
 export const stockView = (r: StockRow): StockView => ({
@@ -31,16 +45,37 @@ export const stockView = (r: StockRow): StockView => ({
 
 /** Refused unless confirmed: taking more sheets than the count says are on hand. */
 export const stockShort = (onHand: number, wanted: number) =>
-  new AppError(409, 'stock_short', `Only ${onHand} sheet${onHand === 1 ? '' : 's'} on hand and this takes ${wanted}. Confirm to go below zero (and recount the shelf).`);
+  new AppError(
+    409,
+    'stock_short',
+    `Only ${onHand} sheet${onHand === 1 ? '' : 's'} on hand and this takes ${wanted}. Confirm to go below zero (and recount the shelf).`,
+  );
 
-const columns = (s: StockInput) => [s.name, s.finish, s.paper, s.paperWidthMm, s.paperHeightMm, s.packPrice, s.sheetsPerPack, JSON.stringify(s.printerSettings), JSON.stringify(s.cutterSettings), s.rating, s.foodSafe, s.skinSafe, s.notes || null];
+const columns = (s: StockInput) => [
+  s.name,
+  s.finish,
+  s.paper,
+  s.paperWidthMm,
+  s.paperHeightMm,
+  s.packPrice,
+  s.sheetsPerPack,
+  JSON.stringify(s.printerSettings),
+  JSON.stringify(s.cutterSettings),
+  s.rating,
+  s.foodSafe,
+  s.skinSafe,
+  s.notes || null,
+];
 
 /** The team's printable stock: prices, sheets on hand and the settings that worked. */
 export class StockService {
   constructor(private readonly dataSource: DataSource) {}
 
   async list(teamId: string, includeArchived = false): Promise<StockView[]> {
-    const rows: StockRow[] = await this.dataSource.query(`SELECT * FROM stock_items WHERE team_id = ? ${includeArchived ? '' : 'AND archived_at IS NULL'} ORDER BY name`, [teamId]);
+    const rows: StockRow[] = await this.dataSource.query(
+      `SELECT * FROM stock_items WHERE team_id = ? ${includeArchived ? '' : 'AND archived_at IS NULL'} ORDER BY name`,
+      [teamId],
+    );
     return rows.map(stockView);
   }
 

@@ -27,7 +27,6 @@ type Deps = {
   csrfToken: (req: Request, overwrite?: boolean) => string;
 };
 
-
 export function teamsRouter({ dataSource, teams, auth, limits, csrfToken }: Deps): Router {
   const router = Router();
   const scoped = teamScope(dataSource);

@@ -209,9 +209,7 @@ export class TeamsService {
         .where('id = :id AND accepted_at IS NULL AND revoked_at IS NULL', { id: invite.id })
         .execute();
       if (spent.affected !== 1) throw tokenInvalid('invitation');
-      const user =
-        existing ??
-        (await createUserWithTeam(manager, { name: newAccount.name!, email: invite.email }, passwordHash!));
+      const user = existing ?? (await createUserWithTeam(manager, { name: newAccount.name!, email: invite.email }, passwordHash!));
       const already = await manager.findOneBy(Membership, { teamId: invite.teamId, userId: user.id });
       if (!already) await manager.save(manager.create(Membership, { teamId: invite.teamId, userId: user.id, role: invite.role }));
       return { user, teamId: invite.teamId };

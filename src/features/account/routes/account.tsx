@@ -46,10 +46,15 @@ function ProfileForm({ name, unit, email }: { name: string; unit: 'in' | 'mm'; e
       <TextField label="Name" autoComplete="name" {...form.bind('name')} />
       <SelectField
         label="Show sizes in"
-        options={[{ value: 'in', label: 'Inches (in)' }, { value: 'mm', label: 'Millimetres (mm)' }]}
+        options={[
+          { value: 'in', label: 'Inches (in)' },
+          { value: 'mm', label: 'Millimetres (mm)' },
+        ]}
         {...form.bind('unit')}
       />
-      <Button type="submit" busy={update.isPending}>Save profile</Button>
+      <Button type="submit" busy={update.isPending}>
+        Save profile
+      </Button>
     </form>
   );
 }
@@ -65,10 +70,20 @@ function PasswordForm() {
     <form onSubmit={onSubmit} noValidate className="flex flex-col gap-3 rounded-sticker border-2 border-paper-edge bg-white p-5">
       <h2 className="text-lg font-extrabold">Password</h2>
       <FormMessage>{form.formError}</FormMessage>
-      {change.isSuccess && <FormMessage tone="ok">Password changed. You stay signed in here; every other device is signed out.</FormMessage>}
+      {change.isSuccess && (
+        <FormMessage tone="ok">Password changed. You stay signed in here; every other device is signed out.</FormMessage>
+      )}
       <TextField label="Current password" type="password" autoComplete="current-password" {...form.bind('currentPassword')} />
-      <TextField label="New password" type="password" autoComplete="new-password" hint="At least 10 characters." {...form.bind('newPassword')} />
-      <Button type="submit" variant="quiet" busy={change.isPending}>Change password</Button>
+      <TextField
+        label="New password"
+        type="password"
+        autoComplete="new-password"
+        hint="At least 10 characters."
+        {...form.bind('newPassword')}
+      />
+      <Button type="submit" variant="quiet" busy={change.isPending}>
+        Change password
+      </Button>
     </form>
   );
 }
@@ -87,7 +102,9 @@ function NewTeamForm() {
       <p className="text-sm text-ink-soft">For a shop of two or three: one shared library, shared sheets, roles for each person.</p>
       <FormMessage>{form.formError}</FormMessage>
       <TextField label="Team name" {...form.bind('name')} />
-      <Button type="submit" variant="quiet" busy={create.isPending}>Create team</Button>
+      <Button type="submit" variant="quiet" busy={create.isPending}>
+        Create team
+      </Button>
     </form>
   );
 }
@@ -102,13 +119,20 @@ function SessionsPanel({ limits }: { limits: { idleSeconds: number; absoluteSeco
   const navigate = useNavigate();
   return (
     <section aria-labelledby="sessions-heading" className="flex flex-col gap-3 rounded-sticker border-2 border-paper-edge bg-white p-5">
-      <h2 id="sessions-heading" className="text-lg font-extrabold">Where you are signed in</h2>
+      <h2 id="sessions-heading" className="text-lg font-extrabold">
+        Where you are signed in
+      </h2>
       <p className="text-sm text-ink-soft">
-        A session ends after {days(limits.idleSeconds)} without use and {days(limits.absoluteSeconds)} after signing in. Left signed in
-        on a shop or market computer? End every session, this one included.
+        A session ends after {days(limits.idleSeconds)} without use and {days(limits.absoluteSeconds)} after signing in. Left signed in on a
+        shop or market computer? End every session, this one included.
       </p>
       <FormMessage>{signOut.error?.message}</FormMessage>
-      <Button type="button" variant="quiet" busy={signOut.isPending} onClick={() => signOut.mutate(undefined, { onSuccess: () => navigate('/sign-in') })}>
+      <Button
+        type="button"
+        variant="quiet"
+        busy={signOut.isPending}
+        onClick={() => signOut.mutate(undefined, { onSuccess: () => navigate('/sign-in') })}
+      >
         Sign out everywhere
       </Button>
     </section>

@@ -19,6 +19,5 @@ export const useRequestReset = () =>
 
 export const useResetPassword = (token: string) =>
   useMutation({
-    mutationFn: (input: ResetPasswordInput) =>
-      api<{ email: string }>('POST', `/auth/password-reset/${encodeURIComponent(token)}`, input),
+    mutationFn: (input: ResetPasswordInput) => api<{ email: string }>('POST', `/auth/password-reset/${encodeURIComponent(token)}`, input),
   });

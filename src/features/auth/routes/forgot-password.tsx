@@ -12,7 +12,14 @@ export function ForgotPasswordRoute() {
     await request.mutateAsync(data);
   });
   return (
-    <AuthLayout title="Reset your password" footer={<Link className="font-bold text-peel-deep underline" to="/sign-in">Back to sign-in</Link>}>
+    <AuthLayout
+      title="Reset your password"
+      footer={
+        <Link className="font-bold text-peel-deep underline" to="/sign-in">
+          Back to sign-in
+        </Link>
+      }
+    >
       {request.isSuccess ? (
         <FormMessage tone="ok">{request.data.message} The link works once, for one hour.</FormMessage>
       ) : (

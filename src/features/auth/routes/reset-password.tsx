@@ -13,14 +13,25 @@ export function ResetPasswordRoute() {
   const onSubmit = form.handleSubmit(async (data) => {
     await reset.mutateAsync(data);
   });
-  const back = <Link className="font-bold text-peel-deep underline" to="/sign-in">Go to sign-in</Link>;
+  const back = (
+    <Link className="font-bold text-peel-deep underline" to="/sign-in">
+      Go to sign-in
+    </Link>
+  );
 
-  if (check.isPending) return <AuthLayout title="Choose a new password"><p>Checking your link…</p></AuthLayout>;
+  if (check.isPending)
+    return (
+      <AuthLayout title="Choose a new password">
+        <p>Checking your link…</p>
+      </AuthLayout>
+    );
   if (check.isError)
     return (
       <AuthLayout title="This link no longer works" footer={back}>
         <FormMessage>{check.error.message}</FormMessage>
-        <Link className="mt-4 inline-block font-bold text-peel-deep underline" to="/forgot-password">Ask for a new link</Link>
+        <Link className="mt-4 inline-block font-bold text-peel-deep underline" to="/forgot-password">
+          Ask for a new link
+        </Link>
       </AuthLayout>
     );
   if (reset.isSuccess)
@@ -34,8 +45,17 @@ export function ResetPasswordRoute() {
       <form onSubmit={onSubmit} noValidate className="flex flex-col gap-4">
         <p className="text-sm text-ink-soft">For {check.data.email}</p>
         <FormMessage>{form.formError}</FormMessage>
-        <TextField label="New password" type="password" autoComplete="new-password" autoFocus hint="At least 10 characters." {...form.bind('password')} />
-        <Button type="submit" busy={reset.isPending}>Save new password</Button>
+        <TextField
+          label="New password"
+          type="password"
+          autoComplete="new-password"
+          autoFocus
+          hint="At least 10 characters."
+          {...form.bind('password')}
+        />
+        <Button type="submit" busy={reset.isPending}>
+          Save new password
+        </Button>
       </form>
     </AuthLayout>
   );

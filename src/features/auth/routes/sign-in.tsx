@@ -22,7 +22,10 @@ export function SignInRoute() {
       title="Welcome back to the workbench"
       footer={
         <>
-          New here? <Link className="font-bold text-peel-deep underline" to="/sign-up">Make an account</Link>
+          New here?{' '}
+          <Link className="font-bold text-peel-deep underline" to="/sign-up">
+            Make an account
+          </Link>
         </>
       }
     >

@@ -21,7 +21,10 @@ export function SignUpRoute() {
       title="Open your sticker studio"
       footer={
         <>
-          Already have an account? <Link className="font-bold text-peel-deep underline" to="/sign-in">Sign in</Link>
+          Already have an account?{' '}
+          <Link className="font-bold text-peel-deep underline" to="/sign-in">
+            Sign in
+          </Link>
         </>
       }
     >
@@ -29,13 +32,7 @@ export function SignUpRoute() {
         <FormMessage>{form.formError}</FormMessage>
         <TextField label="Your name" autoComplete="name" autoFocus {...form.bind('name')} />
         <TextField label="E-mail" type="email" autoComplete="email" {...form.bind('email')} />
-        <TextField
-          label="Password"
-          type="password"
-          autoComplete="new-password"
-          hint="At least 10 characters."
-          {...form.bind('password')}
-        />
+        <TextField label="Password" type="password" autoComplete="new-password" hint="At least 10 characters." {...form.bind('password')} />
         <Button type="submit" busy={signUp.isPending}>
           Create my studio
         </Button>

@@ -29,8 +29,12 @@ export function OutboxRoute() {
       <ul className="flex flex-col gap-2">
         {outbox.data?.messages.map((m) => (
           <li key={m.file} className="rounded-lg border-2 border-paper-edge bg-white p-3">
-            <a className="font-bold text-peel-deep underline" href={`/api/dev/outbox/${m.file}`}>{m.subject}</a>
-            <div className="text-sm text-ink-soft">to {m.to} · {m.date}</div>
+            <a className="font-bold text-peel-deep underline" href={`/api/dev/outbox/${m.file}`}>
+              {m.subject}
+            </a>
+            <div className="text-sm text-ink-soft">
+              to {m.to} · {m.date}
+            </div>
           </li>
         ))}
         {outbox.data?.messages.length === 0 && <li>The outbox is empty.</li>}

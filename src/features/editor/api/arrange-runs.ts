@@ -18,11 +18,29 @@ export class ServerArrangeRunner {
   start(request: { items: ArrangeItem[]; options: ArrangeOptions; locked: LockedPiece[] }, events: RunnerEvents) {
     this.ended = false;
     const { items, options, locked } = request;
-    const body = { items, options: { width: options.width, height: options.height, gap: options.gap ?? 0, margin: options.margin ?? 0, rotate: options.rotate, fill: options.fill, timeMs: options.timeMs, seed: options.seed, maxSheets: options.maxSheets }, locked };
+    const body = {
+      items,
+      options: {
+        width: options.width,
+        height: options.height,
+        gap: options.gap ?? 0,
+        margin: options.margin ?? 0,
+        rotate: options.rotate,
+        fill: options.fill,
+        timeMs: options.timeMs,
+        seed: options.seed,
+        maxSheets: options.maxSheets,
+      },
+      locked,
+    };
     const fail = (e: unknown) => {
       this.ended = true;
       // A refused field says more than "some fields need attention".
-      events.onError(e instanceof ApiError ? (Object.values(e.fields)[0] ?? e.message) : 'The server could not arrange this sheet; nothing was changed. Try again.');
+      events.onError(
+        e instanceof ApiError
+          ? (Object.values(e.fields)[0] ?? e.message)
+          : 'The server could not arrange this sheet; nothing was changed. Try again.',
+      );
     };
     api<ArrangeRunView>('POST', this.base, body).then((run) => {
       this.id = run.id;

@@ -39,7 +39,10 @@ function fetchOutline(teamId: string, key: string): Promise<PieceOutline> {
  * and is marked pending.
  */
 export function usePieceOutlines(teamId: string, pieces: Piece[], { minFeatureMm, bridgeWidthMm }: CutLimits) {
-  const wanted = useMemo(() => new Map(pieces.map((p) => [p.id, outlineKey(p, { minFeatureMm, bridgeWidthMm })])), [pieces, minFeatureMm, bridgeWidthMm]);
+  const wanted = useMemo(
+    () => new Map(pieces.map((p) => [p.id, outlineKey(p, { minFeatureMm, bridgeWidthMm })])),
+    [pieces, minFeatureMm, bridgeWidthMm],
+  );
   const [settled, setSettled] = useState(wanted);
   useEffect(() => {
     const handle = setTimeout(() => setSettled(wanted), 250);
@@ -47,7 +50,12 @@ export function usePieceOutlines(teamId: string, pieces: Piece[], { minFeatureMm
   }, [wanted]);
   const keys = useMemo(() => [...new Set(settled.values())], [settled]);
   const results = useQueries({
-    queries: keys.map((key) => ({ queryKey: ['teams', teamId, 'outline', key], queryFn: () => fetchOutline(teamId, key), staleTime: Infinity, retry: 1 })),
+    queries: keys.map((key) => ({
+      queryKey: ['teams', teamId, 'outline', key],
+      queryFn: () => fetchOutline(teamId, key),
+      staleTime: Infinity,
+      retry: 1,
+    })),
   });
   const byKey = new Map<string, PieceOutline>();
   keys.forEach((key, i) => results[i].data && byKey.set(key, results[i].data!));

@@ -13,7 +13,8 @@ export const sheetQueryOptions = (teamId: string, sheetId: string) =>
 
 export const useSheet = (teamId: string, sheetId: string) => useQuery(sheetQueryOptions(teamId, sheetId));
 
-export const saveSheet = (teamId: string, sheetId: string, input: SheetSaveInput) => api<SheetDetail>('PUT', `/teams/${teamId}/sheets/${sheetId}`, input);
+export const saveSheet = (teamId: string, sheetId: string, input: SheetSaveInput) =>
+  api<SheetDetail>('PUT', `/teams/${teamId}/sheets/${sheetId}`, input);
 
 /** "Keep mine as a copy": a new sheet holding this editor's document. */
 export async function saveAsCopy(teamId: string, name: string, unit: 'in' | 'mm', document: SheetDocument): Promise<string> {

@@ -4,16 +4,40 @@ import type { ActionContext } from './actions';
 import { ACTIONS, handleKey, runAction } from './actions';
 import { EditorStore } from './editor-store';
 
-const piece = (id: string, x: number): Piece => ({ id, artId: 'a', x, y: 30 + x / 2, rotation: 0, width: 30, border: 2, borderColour: '#ffffff', locked: false });
-const doc = (): SheetDocument => ({ schemaVersion: 1, printArea: { width: 171.45, height: 234.95 }, safeMargin: 3.175, minGap: 3.175, pieces: [piece('p1', 40), piece('p2', 70), piece('p3', 140)] });
+const piece = (id: string, x: number): Piece => ({
+  id,
+  artId: 'a',
+  x,
+  y: 30 + x / 2,
+  rotation: 0,
+  width: 30,
+  border: 2,
+  borderColour: '#ffffff',
+  locked: false,
+});
+const doc = (): SheetDocument => ({
+  schemaVersion: 1,
+  printArea: { width: 171.45, height: 234.95 },
+  safeMargin: 3.175,
+  minGap: 3.175,
+  pieces: [piece('p1', 40), piece('p2', 70), piece('p3', 140)],
+});
 
 function context(canEdit = true) {
   const store = new EditorStore(doc(), { name: 'Test', status: 'draft', forSale: false, unit: 'mm', notes: '' }, 1);
   const opened: string[] = [];
-  const ctx: ActionContext = { store, canEdit, unit: 'mm', halfSize: () => ({ w: 17, h: 17 }), drawnZoom: () => 0.8, open: (panel) => opened.push(panel) };
+  const ctx: ActionContext = {
+    store,
+    canEdit,
+    unit: 'mm',
+    halfSize: () => ({ w: 17, h: 17 }),
+    drawnZoom: () => 0.8,
+    open: (panel) => opened.push(panel),
+  };
   return { store, ctx, opened };
 }
-const key = (k: string, extra: Partial<KeyboardEvent> = {}) => ({ key: k, ctrlKey: false, metaKey: false, shiftKey: false, ...extra }) as KeyboardEvent;
+const key = (k: string, extra: Partial<KeyboardEvent> = {}) =>
+  ({ key: k, ctrlKey: false, metaKey: false, shiftKey: false, ...extra }) as KeyboardEvent;
 
 describe('the action registry', () => {
   it('says truly which actions make an undo step: each is run on three selected pieces', () => {

@@ -45,11 +45,18 @@ export function arrangeGroups(doc: SheetDocument, selection: ReadonlySet<string>
 /** A quantity as typed, or the reason it cannot be used (in the maker's words, naming the art). */
 export function parseQuantity(text: string, name: string): { value: number } | { error: string } {
   const value = Number(text.trim());
-  if (text.trim() === '' || !Number.isInteger(value) || value < 1 || value > MAX_QUANTITY) return { error: `${name}: give a whole number of stickers from 1 to ${MAX_QUANTITY}.` };
+  if (text.trim() === '' || !Number.isInteger(value) || value < 1 || value > MAX_QUANTITY)
+    return { error: `${name}: give a whole number of stickers from 1 to ${MAX_QUANTITY}.` };
   return { value };
 }
 
-export function planArrange(doc: SheetDocument, selection: ReadonlySet<string>, outlines: Map<string, { outline: PieceOutline | undefined }>, choice: ArrangeChoice, nameOf: (artId: string) => string = () => 'Piece') {
+export function planArrange(
+  doc: SheetDocument,
+  selection: ReadonlySet<string>,
+  outlines: Map<string, { outline: PieceOutline | undefined }>,
+  choice: ArrangeChoice,
+  nameOf: (artId: string) => string = () => 'Piece',
+) {
   const groups = arrangeGroups(doc, selection, choice.scope);
   const moving = new Set([...groups.values()].flat().map((p) => p.id));
   const fixed = doc.pieces.filter((p) => !moving.has(p.id));
@@ -60,18 +67,35 @@ export function planArrange(doc: SheetDocument, selection: ReadonlySet<string>, 
       groups.delete(key); // not measured yet: left where it is
       continue;
     }
-    items.push({ key, name: nameOf(pieces[0].artId), outline: { points: o.points, widthMm: o.widthMm, heightMm: o.heightMm }, count: choice.quantities?.[key] ?? pieces.length });
+    items.push({
+      key,
+      name: nameOf(pieces[0].artId),
+      outline: { points: o.points, widthMm: o.widthMm, heightMm: o.heightMm },
+      count: choice.quantities?.[key] ?? pieces.length,
+    });
   }
   const locked: LockedPiece[] = fixed.flatMap((p) => {
     const o = outlines.get(p.id)?.outline;
-    return o ? [{ key: p.id, x: p.x, y: p.y, rotation: p.rotation, outline: { points: o.points, widthMm: o.widthMm, heightMm: o.heightMm } }] : [];
+    return o
+      ? [{ key: p.id, x: p.x, y: p.y, rotation: p.rotation, outline: { points: o.points, widthMm: o.widthMm, heightMm: o.heightMm } }]
+      : [];
   });
   return {
     items,
     locked,
     groups,
     // Filling stays on this sheet; a quantity spreads over as few sheets as it needs.
-    options: { width: doc.printArea.width, height: doc.printArea.height, gap: doc.minGap, margin: doc.safeMargin, rotate: choice.rotate, fill: choice.fill, timeMs: choice.seconds * 1000, seed: choice.seed, maxSheets: choice.fill ? 1 : MAX_SHEETS },
+    options: {
+      width: doc.printArea.width,
+      height: doc.printArea.height,
+      gap: doc.minGap,
+      margin: doc.safeMargin,
+      rotate: choice.rotate,
+      fill: choice.fill,
+      timeMs: choice.seconds * 1000,
+      seed: choice.seed,
+      maxSheets: choice.fill ? 1 : MAX_SHEETS,
+    },
   };
 }
 
@@ -101,7 +125,9 @@ export function arrangeCommand(groups: Map<string, Piece[]>, result: ArrangeResu
 export function furtherSheets(doc: SheetDocument, groups: Map<string, Piece[]>, result: ArrangeResult): SheetDocument[] {
   const sheets: SheetDocument[] = [];
   for (let s = 1; s < result.sheets; s++) {
-    const pieces = result.placements.filter((pl) => pl.sheet === s).map((pl) => ({ ...groups.get(pl.key)![0], id: newPieceId(), x: pl.x, y: pl.y, rotation: pl.rotation, locked: false }));
+    const pieces = result.placements
+      .filter((pl) => pl.sheet === s)
+      .map((pl) => ({ ...groups.get(pl.key)![0], id: newPieceId(), x: pl.x, y: pl.y, rotation: pl.rotation, locked: false }));
     if (pieces.length) sheets.push({ ...doc, pieces });
   }
   return sheets;
@@ -113,18 +139,45 @@ export function furtherSheets(doc: SheetDocument, groups: Map<string, Piece[]>, 
  * piece whose outline is known by the sheet's gap and inside its margin; the centre when the sheet
  * is full.
  */
-export function firstFreeSpot(doc: SheetDocument, outlines: Map<string, { outline: PieceOutline | undefined }>, size: { widthMm: number; heightMm: number }): { x: number; y: number } {
+export function firstFreeSpot(
+  doc: SheetDocument,
+  outlines: Map<string, { outline: PieceOutline | undefined }>,
+  size: { widthMm: number; heightMm: number },
+): { x: number; y: number } {
   const centre = { x: doc.printArea.width / 2, y: doc.printArea.height / 2 };
-  const rect = (w: number, h: number) => ({ points: [{ x: 0, y: 0 }, { x: w, y: 0 }, { x: w, y: h }, { x: 0, y: h }], widthMm: w, heightMm: h });
+  const rect = (w: number, h: number) => ({
+    points: [
+      { x: 0, y: 0 },
+      { x: w, y: 0 },
+      { x: w, y: h },
+      { x: 0, y: h },
+    ],
+    widthMm: w,
+    heightMm: h,
+  });
   const locked: LockedPiece[] = doc.pieces.map((p) => {
     const o = outlines.get(p.id)?.outline;
     // A piece whose outline has not arrived yet stands in as the square of its width and border.
-    const outline = o ? { points: o.points, widthMm: o.widthMm, heightMm: o.heightMm } : rect(p.width + 2 * p.border, p.width + 2 * p.border);
+    const outline = o
+      ? { points: o.points, widthMm: o.widthMm, heightMm: o.heightMm }
+      : rect(p.width + 2 * p.border, p.width + 2 * p.border);
     return { key: p.id, x: p.x, y: p.y, rotation: p.rotation, outline };
   });
   const box = rect(size.widthMm, size.heightMm);
   try {
-    const result = arrange([{ key: 'new', outline: box, count: 1 }], { width: doc.printArea.width, height: doc.printArea.height, gap: doc.minGap, margin: doc.safeMargin, rotate: 'none', maxIterations: 1, maxSheets: 1 }, locked);
+    const result = arrange(
+      [{ key: 'new', outline: box, count: 1 }],
+      {
+        width: doc.printArea.width,
+        height: doc.printArea.height,
+        gap: doc.minGap,
+        margin: doc.safeMargin,
+        rotate: 'none',
+        maxIterations: 1,
+        maxSheets: 1,
+      },
+      locked,
+    );
     const spot = result.placements.find((p) => p.sheet === 0);
     return spot ? { x: spot.x, y: spot.y } : centre;
   } catch {

@@ -2,7 +2,16 @@ import { describe, expect, it } from 'vitest';
 import type { ArrangeResult } from '../../../../shared/arrange/nester';
 import { ArrangeRunner } from './arrange-runner';
 
-const result = (placed: number, sheets: number, area: number): ArrangeResult => ({ placements: [], sheets, requested: 10, placed, unplaced: [], areaUsed: [area], iterations: 1, ms: 5 });
+const result = (placed: number, sheets: number, area: number): ArrangeResult => ({
+  placements: [],
+  sheets,
+  requested: 10,
+  placed,
+  unplaced: [],
+  areaUsed: [area],
+  iterations: 1,
+  ms: 5,
+});
 
 /** A stand-in for a Web Worker: records what it was sent and lets the test answer for it. */
 class FakeWorker {
@@ -30,7 +39,10 @@ describe('several arrange workers at once', () => {
     FakeWorker.made = [];
     const seen: { done?: ArrangeResult; progress: number[]; error?: string } = { progress: [] };
     const runner = new ArrangeRunner(() => new FakeWorker() as unknown as Worker, threads);
-    runner.start({ items: [], options: { width: 100, height: 100, seed: 5 }, locked: [] }, { onDone: (r) => (seen.done = r), onProgress: (p) => seen.progress.push(p.placed), onError: (m) => (seen.error = m) });
+    runner.start(
+      { items: [], options: { width: 100, height: 100, seed: 5 }, locked: [] },
+      { onDone: (r) => (seen.done = r), onProgress: (p) => seen.progress.push(p.placed), onError: (m) => (seen.error = m) },
+    );
     return { runner, seen, workers: FakeWorker.made };
   };
 

@@ -16,7 +16,10 @@ export class ArrangeRunner {
   private finished = 0;
   private iterations: number[] = [];
 
-  constructor(private readonly spawn: () => Worker, private readonly threads: number) {}
+  constructor(
+    private readonly spawn: () => Worker,
+    private readonly threads: number,
+  ) {}
 
   start(request: { items: ArrangeItem[]; options: ArrangeOptions; locked: LockedPiece[] }, events: RunnerEvents) {
     this.stop();
@@ -30,7 +33,8 @@ export class ArrangeRunner {
         const message = event.data;
         if (message.type === 'best' || message.type === 'done') this.offer(message.result);
         if (message.type === 'progress') this.iterations[k] = message.progress.iteration;
-        if ((message.type === 'progress' || message.type === 'best') && this.best) events.onProgress(this.progressOf(message.progress?.elapsedMs ?? this.best.ms));
+        if ((message.type === 'progress' || message.type === 'best') && this.best)
+          events.onProgress(this.progressOf(message.progress?.elapsedMs ?? this.best.ms));
         if (message.type === 'error') {
           this.stop();
           events.onError(message.message);
@@ -69,6 +73,14 @@ export class ArrangeRunner {
 
   private progressOf(elapsedMs: number): ArrangeProgress & { threads: number } {
     const b = this.best!;
-    return { iteration: this.iterations.reduce((s, n) => s + n, 0), placed: b.placed, elapsedMs, sheets: b.sheets, areaUsed: b.areaUsed[0] ?? 0, length: b.length, threads: this.threads };
+    return {
+      iteration: this.iterations.reduce((s, n) => s + n, 0),
+      placed: b.placed,
+      elapsedMs,
+      sheets: b.sheets,
+      areaUsed: b.areaUsed[0] ?? 0,
+      length: b.length,
+      threads: this.threads,
+    };
   }
 }

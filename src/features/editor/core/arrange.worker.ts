@@ -7,7 +7,9 @@ export type ArrangeRequest = { items: ArrangeItem[]; options: ArrangeOptions; lo
 self.onmessage = (event: MessageEvent<ArrangeRequest>) => {
   const { items, options, locked } = event.data;
   try {
-    const result = arrange(items, { ...options, onBest: (best) => self.postMessage({ type: 'best', result: best }) }, locked, (progress) => self.postMessage({ type: 'progress', progress }));
+    const result = arrange(items, { ...options, onBest: (best) => self.postMessage({ type: 'best', result: best }) }, locked, (progress) =>
+      self.postMessage({ type: 'progress', progress }),
+    );
     self.postMessage({ type: 'done', result });
   } catch (error) {
     self.postMessage({ type: 'error', message: error instanceof ArrangeInputError ? error.message : 'Arranging failed.' });

@@ -31,7 +31,20 @@ export class EditorStore {
   readonly history = new History();
 
   constructor(doc: SheetDocument, meta: SheetMeta, version: number) {
-    this.state = { doc, meta, selection: new Set(), version, saved: { doc, meta }, save: 'saved', conflict: null, refusal: null, zoom: 'fit', pan: { x: 0, y: 0 }, showCutLines: true, helpOpen: false };
+    this.state = {
+      doc,
+      meta,
+      selection: new Set(),
+      version,
+      saved: { doc, meta },
+      save: 'saved',
+      conflict: null,
+      refusal: null,
+      zoom: 'fit',
+      pan: { x: 0, y: 0 },
+      showCutLines: true,
+      helpOpen: false,
+    };
   }
 
   getState = () => this.state;
@@ -113,7 +126,10 @@ export class EditorStore {
     const saved = sent;
     this.state = { ...this.state, saved, version };
     // A refusal the editor fixed by fitting pieces stays on show until dismissed; others are over.
-    this.set({ save: this.state.doc === sent.doc && this.state.meta === sent.meta ? 'saved' : 'unsaved', refusal: this.state.refusal?.fitted ? this.state.refusal : null });
+    this.set({
+      save: this.state.doc === sent.doc && this.state.meta === sent.meta ? 'saved' : 'unsaved',
+      refusal: this.state.refusal?.fitted ? this.state.refusal : null,
+    });
   }
 
   /**

@@ -19,7 +19,18 @@ type Props = {
 };
 
 /** One piece: its bordered raster with the cut line on top, in millimetres (the layer scales). */
-export const PieceNode = memo(function PieceNode({ piece, outline, pending, warn, showCutLine, draggable, onSelect, onDragStart, onDragMove, onDragEnd }: Props) {
+export const PieceNode = memo(function PieceNode({
+  piece,
+  outline,
+  pending,
+  warn,
+  showCutLine,
+  draggable,
+  onSelect,
+  onDragStart,
+  onDragMove,
+  onDragEnd,
+}: Props) {
   const image = useImage(outline?.pngUrl);
   // Until the first outline arrives, an estimate: the art's width plus the border, square.
   const w = outline ? outline.widthMm * (pending ? (piece.width + 2 * piece.border) / outline.widthMm : 1) : piece.width + 2 * piece.border;
@@ -42,7 +53,18 @@ export const PieceNode = memo(function PieceNode({ piece, outline, pending, warn
       {image ? (
         <Image image={image} x={-w / 2} y={-h / 2} width={w} height={h} />
       ) : (
-        <Rect x={-w / 2} y={-h / 2} width={w} height={h} cornerRadius={Math.min(w, h) / 6} fill="#ffffff" stroke="#b8c4c4" strokeWidth={1} strokeScaleEnabled={false} dash={[4, 4]} />
+        <Rect
+          x={-w / 2}
+          y={-h / 2}
+          width={w}
+          height={h}
+          cornerRadius={Math.min(w, h) / 6}
+          fill="#ffffff"
+          stroke="#b8c4c4"
+          strokeWidth={1}
+          strokeScaleEnabled={false}
+          dash={[4, 4]}
+        />
       )}
       {outline && showCutLine && (
         <Path

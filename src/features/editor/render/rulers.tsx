@@ -4,7 +4,25 @@ import type { LengthUnit } from '../../../../shared/units';
 export const RULER = 22;
 
 /** Rulers along the top and left in the sheet's unit, drawn in screen pixels. */
-export function Rulers({ width, height, originX, originY, pxPerMm, unit, sheetW, sheetH }: { width: number; height: number; originX: number; originY: number; pxPerMm: number; unit: LengthUnit; sheetW: number; sheetH: number }) {
+export function Rulers({
+  width,
+  height,
+  originX,
+  originY,
+  pxPerMm,
+  unit,
+  sheetW,
+  sheetH,
+}: {
+  width: number;
+  height: number;
+  originX: number;
+  originY: number;
+  pxPerMm: number;
+  unit: LengthUnit;
+  sheetW: number;
+  sheetH: number;
+}) {
   const unitMm = unit === 'in' ? 25.4 : 10;
   // Minor ticks: 1/8 in or 1 mm, dropped when they would crowd closer than 4 px.
   const minor = unit === 'in' ? 25.4 / 8 : 1;

@@ -40,7 +40,10 @@ export function SheetStage({ store, state, canEdit, outlines, warnIds, onDropArt
     return () => observer.disconnect();
   }, []);
 
-  const fitZoom = Math.min((size.width - RULER - 40) / mmToCssPx(doc.printArea.width), (size.height - RULER - 40) / mmToCssPx(doc.printArea.height));
+  const fitZoom = Math.min(
+    (size.width - RULER - 40) / mmToCssPx(doc.printArea.width),
+    (size.height - RULER - 40) / mmToCssPx(doc.printArea.height),
+  );
   const zoom = state.zoom === 'fit' ? Math.max(0.05, fitZoom) : state.zoom;
   useEffect(() => onZoom?.(zoom), [zoom, onZoom]);
   const pxPerMm = mmToCssPx(1, zoom);
@@ -66,13 +69,16 @@ export function SheetStage({ store, state, canEdit, outlines, warnIds, onDropArt
   };
 
   const onDragStart = (id: string) => {
-    dragStart.current = new Map(doc.pieces.filter((p) => store.getState().selection.has(p.id) || p.id === id).map((p) => [p.id, { x: p.x, y: p.y }]));
+    dragStart.current = new Map(
+      doc.pieces.filter((p) => store.getState().selection.has(p.id) || p.id === id).map((p) => [p.id, { x: p.x, y: p.y }]),
+    );
   };
   // Moving one selected piece moves the whole selection with it.
   const onDragMove = (id: string, node: Konva.Group) => {
     const start = dragStart.current.get(id);
     if (!start) return;
-    const dx = node.x() - start.x, dy = node.y() - start.y;
+    const dx = node.x() - start.x,
+      dy = node.y() - start.y;
     for (const [other, pos] of dragStart.current) {
       if (other === id) continue;
       stageRef.current?.findOne(`#${other}`)?.position({ x: pos.x + dx, y: pos.y + dy });
@@ -81,7 +87,8 @@ export function SheetStage({ store, state, canEdit, outlines, warnIds, onDropArt
   const onDragEnd = (id: string, node: Konva.Group) => {
     const start = dragStart.current.get(id);
     if (!start) return;
-    const dx = node.x() - start.x, dy = node.y() - start.y;
+    const dx = node.x() - start.x,
+      dy = node.y() - start.y;
     // A piece dropped far off the sheet stops at the edge of where pieces may sit.
     const positions = new Map([...dragStart.current].map(([pid, pos]) => [pid, clampToZone(doc, pos.x + dx, pos.y + dy)]));
     dragStart.current = new Map();
@@ -118,7 +125,12 @@ export function SheetStage({ store, state, canEdit, outlines, warnIds, onDropArt
       if (!piece) continue;
       const scale = Math.abs(node.scaleX());
       node.scale({ x: 1, y: 1 });
-      patches.set(piece.id, { x: node.x(), y: node.y(), rotation: normaliseDegrees(node.rotation()), width: Math.max(2, Math.round(piece.width * scale * 100) / 100) });
+      patches.set(piece.id, {
+        x: node.x(),
+        y: node.y(),
+        rotation: normaliseDegrees(node.rotation()),
+        width: Math.max(2, Math.round(piece.width * scale * 100) / 100),
+      });
     }
     store.dispatch(commands.patchPieces(doc, 'Transform', patches));
   };
@@ -139,8 +151,10 @@ export function SheetStage({ store, state, canEdit, outlines, warnIds, onDropArt
   };
   const onMouseUp = () => {
     if (!marquee) return;
-    const x0 = Math.min(marquee.x0, marquee.x1), x1 = Math.max(marquee.x0, marquee.x1);
-    const y0 = Math.min(marquee.y0, marquee.y1), y1 = Math.max(marquee.y0, marquee.y1);
+    const x0 = Math.min(marquee.x0, marquee.x1),
+      x1 = Math.max(marquee.x0, marquee.x1);
+    const y0 = Math.min(marquee.y0, marquee.y1),
+      y1 = Math.max(marquee.y0, marquee.y1);
     setMarquee(null);
     if (x1 - x0 < 0.5 && y1 - y0 < 0.5) return;
     const hits = doc.pieces.filter((p) => {
@@ -176,11 +190,39 @@ export function SheetStage({ store, state, canEdit, outlines, warnIds, onDropArt
       onDragOver={(e) => canEdit && e.preventDefault()}
       onDrop={onDrop}
     >
-      <Stage ref={stageRef} width={size.width} height={size.height} onMouseDown={onMouseDown} onMouseMove={onMouseMove} onMouseUp={onMouseUp} onWheel={onWheel}>
+      <Stage
+        ref={stageRef}
+        width={size.width}
+        height={size.height}
+        onMouseDown={onMouseDown}
+        onMouseMove={onMouseMove}
+        onMouseUp={onMouseUp}
+        onWheel={onWheel}
+      >
         <Layer>
           <Group ref={sheetRef} x={origin.x} y={origin.y} scaleX={pxPerMm} scaleY={pxPerMm}>
-            <Rect name="print-area" x={0} y={0} width={doc.printArea.width} height={doc.printArea.height} fill="#ffffff" shadowColor="#1f3a3d" shadowBlur={10} shadowOpacity={0.25} />
-            <Rect x={doc.safeMargin} y={doc.safeMargin} width={doc.printArea.width - 2 * doc.safeMargin} height={doc.printArea.height - 2 * doc.safeMargin} stroke="#9aa8a8" strokeWidth={1} strokeScaleEnabled={false} dash={[6, 4]} listening={false} />
+            <Rect
+              name="print-area"
+              x={0}
+              y={0}
+              width={doc.printArea.width}
+              height={doc.printArea.height}
+              fill="#ffffff"
+              shadowColor="#1f3a3d"
+              shadowBlur={10}
+              shadowOpacity={0.25}
+            />
+            <Rect
+              x={doc.safeMargin}
+              y={doc.safeMargin}
+              width={doc.printArea.width - 2 * doc.safeMargin}
+              height={doc.printArea.height - 2 * doc.safeMargin}
+              stroke="#9aa8a8"
+              strokeWidth={1}
+              strokeScaleEnabled={false}
+              dash={[6, 4]}
+              listening={false}
+            />
             {doc.pieces.map((piece) => {
               const o = outlines.get(piece.id);
               return (
@@ -200,7 +242,17 @@ export function SheetStage({ store, state, canEdit, outlines, warnIds, onDropArt
               );
             })}
             {marquee && (
-              <Rect x={Math.min(marquee.x0, marquee.x1)} y={Math.min(marquee.y0, marquee.y1)} width={Math.abs(marquee.x1 - marquee.x0)} height={Math.abs(marquee.y1 - marquee.y0)} fill="rgba(240,138,93,0.12)" stroke="#f08a5d" strokeWidth={1} strokeScaleEnabled={false} listening={false} />
+              <Rect
+                x={Math.min(marquee.x0, marquee.x1)}
+                y={Math.min(marquee.y0, marquee.y1)}
+                width={Math.abs(marquee.x1 - marquee.x0)}
+                height={Math.abs(marquee.y1 - marquee.y0)}
+                fill="rgba(240,138,93,0.12)"
+                stroke="#f08a5d"
+                strokeWidth={1}
+                strokeScaleEnabled={false}
+                listening={false}
+              />
             )}
           </Group>
           <Transformer
@@ -216,14 +268,26 @@ export function SheetStage({ store, state, canEdit, outlines, warnIds, onDropArt
           />
         </Layer>
         <Layer listening={false}>
-          <Rulers width={size.width} height={size.height} originX={origin.x} originY={origin.y} pxPerMm={pxPerMm} unit={state.meta.unit} sheetW={doc.printArea.width} sheetH={doc.printArea.height} />
+          <Rulers
+            width={size.width}
+            height={size.height}
+            originX={origin.x}
+            originY={origin.y}
+            pxPerMm={pxPerMm}
+            unit={state.meta.unit}
+            sheetW={doc.printArea.width}
+            sheetH={doc.printArea.height}
+          />
         </Layer>
       </Stage>
       <div className="pointer-events-none absolute bottom-2 right-3 rounded bg-white/80 px-2 text-xs font-bold" data-testid="zoom-readout">
         {Math.round(zoom * 100)} %
       </div>
       {liveWidth !== null && (
-        <div className="pointer-events-none absolute left-1/2 top-8 -translate-x-1/2 rounded bg-ink px-3 py-1 text-sm font-bold text-paper" role="status">
+        <div
+          className="pointer-events-none absolute left-1/2 top-8 -translate-x-1/2 rounded bg-ink px-3 py-1 text-sm font-bold text-paper"
+          role="status"
+        >
           Art width {formatLength(liveWidth, state.meta.unit)}
         </div>
       )}

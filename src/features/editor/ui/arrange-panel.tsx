@@ -6,7 +6,15 @@ import type { Command } from '../../../../shared/sheet/commands';
 import type { PieceOutline } from '../api/outlines';
 import type { SheetDocument } from '../../../../shared/sheet/document';
 import type { ArrangeChoice } from '../core/arrange-plan';
-import { arrangeCommand, arrangeGroups, defaultTurning, furtherSheets, MAX_QUANTITY, parseQuantity, planArrange } from '../core/arrange-plan';
+import {
+  arrangeCommand,
+  arrangeGroups,
+  defaultTurning,
+  furtherSheets,
+  MAX_QUANTITY,
+  parseQuantity,
+  planArrange,
+} from '../core/arrange-plan';
 import type { EditorStore } from '../core/editor-store';
 import { ArrangeRunner } from '../core/arrange-runner';
 import { ServerArrangeRunner } from '../api/arrange-runs';
@@ -37,11 +45,22 @@ export function ArrangePanel({ store, outlines, nameOf, onPreview, onFurtherShee
   const [choice, setChoice] = useState<ArrangeChoice>(() => {
     const s = store.getState();
     const scope = s.selection.size > 1 ? 'selection' : 'sheet';
-    return { scope, rotate: defaultTurning([...arrangeGroups(s.doc, s.selection, scope).values()].flat()), fill: false, seconds: 2, seed: 1 };
+    return {
+      scope,
+      rotate: defaultTurning([...arrangeGroups(s.doc, s.selection, scope).values()].flat()),
+      fill: false,
+      seconds: 2,
+      seed: 1,
+    };
   });
   const groups = useMemo(() => {
     const s = store.getState();
-    return [...arrangeGroups(s.doc, s.selection, choice.scope)].map(([key, pieces]) => ({ key, name: nameOf(pieces[0].artId), count: pieces.length, die: pieces.every((p) => p.cut === 'die') }));
+    return [...arrangeGroups(s.doc, s.selection, choice.scope)].map(([key, pieces]) => ({
+      key,
+      name: nameOf(pieces[0].artId),
+      count: pieces.length,
+      die: pieces.every((p) => p.cut === 'die'),
+    }));
     // Read when the panel opens or the scope changes, not after a kept layout has changed the sheet.
   }, [store, choice.scope]); // eslint-disable-line react-hooks/exhaustive-deps
   const [typed, setTyped] = useState<Record<string, string>>({});
@@ -59,7 +78,9 @@ export function ArrangePanel({ store, outlines, nameOf, onPreview, onFurtherShee
   const running = progress !== null && !result && !error;
 
   const state0 = store.getState();
-  const waiting = state0.doc.pieces.filter((p) => !p.locked && (choice.scope === 'sheet' || state0.selection.has(p.id)) && !outlines.get(p.id)?.outline).length;
+  const waiting = state0.doc.pieces.filter(
+    (p) => !p.locked && (choice.scope === 'sheet' || state0.selection.has(p.id)) && !outlines.get(p.id)?.outline,
+  ).length;
 
   const start = () => {
     setError(null);
@@ -75,7 +96,10 @@ export function ArrangePanel({ store, outlines, nameOf, onPreview, onFurtherShee
     }
     runner.current?.close();
     const threads = where === 'server' ? 0 : threadsFor(navigator.hardwareConcurrency || 2);
-    const r = where === 'server' ? new ServerArrangeRunner(serverRuns) : new ArrangeRunner(() => new Worker(new URL('../core/arrange.worker.ts', import.meta.url), { type: 'module' }), threads);
+    const r =
+      where === 'server'
+        ? new ServerArrangeRunner(serverRuns)
+        : new ArrangeRunner(() => new Worker(new URL('../core/arrange.worker.ts', import.meta.url), { type: 'module' }), threads);
     runner.current = r;
     best.current = null;
     setProgress({ iteration: 0, placed: 0, elapsedMs: 0, sheets: 1, areaUsed: 0, threads });
@@ -117,7 +141,9 @@ export function ArrangePanel({ store, outlines, nameOf, onPreview, onFurtherShee
       setMade(await onFurtherSheets(result.further));
       onPreview(null);
     } catch {
-      setError(`This sheet is arranged, but the ${result.further.length} new sheet${result.further.length === 1 ? '' : 's'} could not be saved (is the connection down?). Press “Make the new sheets” to try again; nothing here is lost.`);
+      setError(
+        `This sheet is arranged, but the ${result.further.length} new sheet${result.further.length === 1 ? '' : 's'} could not be saved (is the connection down?). Press “Make the new sheets” to try again; nothing here is lost.`,
+      );
     } finally {
       setMaking(false);
     }
@@ -132,7 +158,8 @@ export function ArrangePanel({ store, outlines, nameOf, onPreview, onFurtherShee
       setStopping(true);
       return;
     }
-    const b = best.current, summary = r?.stop();
+    const b = best.current,
+      summary = r?.stop();
     if (b && summary) finish(b.groups, b.doc, summary);
     else setProgress(null);
   };
@@ -144,31 +171,55 @@ export function ArrangePanel({ store, outlines, nameOf, onPreview, onFurtherShee
   };
 
   return (
-    <section role="dialog" aria-labelledby="arrange-title" className="absolute right-3 top-3 z-30 w-80 rounded-sticker border-2 border-peel bg-white p-4 text-sm shadow-lg">
-      <h2 id="arrange-title" className="mb-2 text-lg font-extrabold">Auto-arrange</h2>
+    <section
+      role="dialog"
+      aria-labelledby="arrange-title"
+      className="absolute right-3 top-3 z-30 w-80 rounded-sticker border-2 border-peel bg-white p-4 text-sm shadow-lg"
+    >
+      <h2 id="arrange-title" className="mb-2 text-lg font-extrabold">
+        Auto-arrange
+      </h2>
       <fieldset className="mb-2 flex flex-col gap-2" disabled={Boolean(result)}>
         <label className="flex items-center justify-between font-bold">
           Pieces
-          <select value={choice.scope} onChange={(e) => setChoice({ ...choice, scope: e.target.value as ArrangeChoice['scope'] })} className="rounded border-2 border-paper-edge px-1">
+          <select
+            value={choice.scope}
+            onChange={(e) => setChoice({ ...choice, scope: e.target.value as ArrangeChoice['scope'] })}
+            className="rounded border-2 border-paper-edge px-1"
+          >
             <option value="sheet">Whole sheet</option>
             <option value="selection">Selection only</option>
           </select>
         </label>
         <label className="flex items-center justify-between font-bold">
           Turning
-          <select value={typeof choice.rotate === 'object' ? ('step' in choice.rotate ? `step${choice.rotate.step}` : '90') : choice.rotate} onChange={(e) => setChoice({ ...choice, rotate: e.target.value === 'none' ? 'none' : e.target.value === '90' ? '90' : { step: Number(e.target.value.slice(4)) } })} className="rounded border-2 border-paper-edge px-1">
+          <select
+            value={typeof choice.rotate === 'object' ? ('step' in choice.rotate ? `step${choice.rotate.step}` : '90') : choice.rotate}
+            onChange={(e) =>
+              setChoice({
+                ...choice,
+                rotate: e.target.value === 'none' ? 'none' : e.target.value === '90' ? '90' : { step: Number(e.target.value.slice(4)) },
+              })
+            }
+            className="rounded border-2 border-paper-edge px-1"
+          >
             <option value="none">Keep upright</option>
             <option value="90">Quarter turns</option>
             <option value="step15">Any angle, 15° steps</option>
           </select>
         </label>
-        <label className="flex items-center gap-2 font-bold"><input type="checkbox" checked={choice.fill} onChange={(e) => setChoice({ ...choice, fill: e.target.checked })} />Fill the sheet with more copies</label>
+        <label className="flex items-center gap-2 font-bold">
+          <input type="checkbox" checked={choice.fill} onChange={(e) => setChoice({ ...choice, fill: e.target.checked })} />
+          Fill the sheet with more copies
+        </label>
         {!choice.fill && groups.length > 0 && (
           <div className="flex max-h-40 flex-col gap-1 overflow-y-auto" data-testid="arrange-quantities">
             <span className="font-bold">How many of each</span>
             {parsed.map((g) => (
               <label key={g.key} className="flex items-center justify-between gap-2">
-                <span className="truncate" title={g.name}>{g.name}</span>
+                <span className="truncate" title={g.name}>
+                  {g.name}
+                </span>
                 <input
                   type="number"
                   inputMode="numeric"
@@ -186,63 +237,136 @@ export function ArrangePanel({ store, outlines, nameOf, onPreview, onFurtherShee
         )}
         <label className="flex items-center justify-between font-bold">
           Run on
-          <select value={where} onChange={(e) => setWhere(e.target.value as 'here' | 'server')} className="rounded border-2 border-paper-edge px-1">
+          <select
+            value={where}
+            onChange={(e) => setWhere(e.target.value as 'here' | 'server')}
+            className="rounded border-2 border-paper-edge px-1"
+          >
             <option value="here">This computer</option>
             <option value="server">The shop’s server</option>
           </select>
         </label>
         <label className="flex items-center justify-between font-bold">
           Try for
-          <select value={choice.seconds} onChange={(e) => setChoice({ ...choice, seconds: Number(e.target.value) })} className="rounded border-2 border-paper-edge px-1">
-            {(where === 'server' ? [2, 10, 30, 60, 120] : [1, 2, 5, 10]).map((s) => <option key={s} value={s}>{s < 60 ? `${s} s` : `${s / 60} min`}</option>)}
+          <select
+            value={choice.seconds}
+            onChange={(e) => setChoice({ ...choice, seconds: Number(e.target.value) })}
+            className="rounded border-2 border-paper-edge px-1"
+          >
+            {(where === 'server' ? [2, 10, 30, 60, 120] : [1, 2, 5, 10]).map((s) => (
+              <option key={s} value={s}>
+                {s < 60 ? `${s} s` : `${s / 60} min`}
+              </option>
+            ))}
           </select>
         </label>
       </fieldset>
-      {!result && waiting > 0 && <p role="status" className="mb-2">Waiting for {waiting} outline{waiting === 1 ? '' : 's'}…</p>}
+      {!result && waiting > 0 && (
+        <p role="status" className="mb-2">
+          Waiting for {waiting} outline{waiting === 1 ? '' : 's'}…
+        </p>
+      )}
       <p className="mb-2 text-xs text-ink-soft">
-        {groups.length > 0 && groups.every((g) => g.die) ? 'Die-cut stickers are sold one by one, so they may turn a quarter to fit more.' : 'Kiss-cut sheets are sold whole, so their stickers stay upright unless you choose turning.'} Quarter turns and any angle may turn art upside down (180°).
+        {groups.length > 0 && groups.every((g) => g.die)
+          ? 'Die-cut stickers are sold one by one, so they may turn a quarter to fit more.'
+          : 'Kiss-cut sheets are sold whole, so their stickers stay upright unless you choose turning.'}{' '}
+        Quarter turns and any angle may turn art upside down (180°).
       </p>
       {quantityErrors.length > 0 && (
         <ul role="alert" className="mb-2 list-disc pl-4 font-semibold text-alarm">
-          {quantityErrors.map((m) => <li key={m}>{m}</li>)}
+          {quantityErrors.map((m) => (
+            <li key={m}>{m}</li>
+          ))}
         </ul>
       )}
       {progress && !result && (
         <p role="status" className="mb-2" data-testid="arrange-progress">
-          {progress.threads === 0 ? (stopping ? 'Stopping on the server…' : 'Arranging on the shop’s server…') : `Trying layouts on ${progress.threads} thread${progress.threads === 1 ? '' : 's'}… ${progress.iteration} tried;`} the best places {progress.placed} on {progress.sheets} sheet{progress.sheets === 1 ? '' : 's'}, {Math.round(progress.areaUsed * 100)} % of the print area.
+          {progress.threads === 0
+            ? stopping
+              ? 'Stopping on the server…'
+              : 'Arranging on the shop’s server…'
+            : `Trying layouts on ${progress.threads} thread${progress.threads === 1 ? '' : 's'}… ${progress.iteration} tried;`}{' '}
+          the best places {progress.placed} on {progress.sheets} sheet{progress.sheets === 1 ? '' : 's'},{' '}
+          {Math.round(progress.areaUsed * 100)} % of the print area.
         </p>
       )}
-      {error && <p role="alert" className="mb-2 font-semibold text-alarm">{error}</p>}
+      {error && (
+        <p role="alert" className="mb-2 font-semibold text-alarm">
+          {error}
+        </p>
+      )}
       {result && (
         <p role="status" className="mb-2" data-testid="arrange-summary">
           Preview: {result.summary.placements.filter((p) => p.sheet === 0).length} of {result.summary.requested} placed
-          {result.command.diff.added.length > 0 && `, ${result.command.diff.added.length} copies added`} · {Math.round(result.summary.areaUsed[0] * 100)} % of the print area.
+          {result.command.diff.added.length > 0 && `, ${result.command.diff.added.length} copies added`} ·{' '}
+          {Math.round(result.summary.areaUsed[0] * 100)} % of the print area.
           {result.summary.unplaced.length > 0 && ` ${result.summary.unplaced.map((u) => u.reason).join(' ')}`}
-          {result.further.length > 0 && ` The quantity needs ${result.further.length + 1} sheets: ${result.summary.placements.filter((p) => p.sheet > 0).length} more go on ${result.further.length} new sheet${result.further.length === 1 ? '' : 's'}, made when you keep this layout.`}
+          {result.further.length > 0 &&
+            ` The quantity needs ${result.further.length + 1} sheets: ${result.summary.placements.filter((p) => p.sheet > 0).length} more go on ${result.further.length} new sheet${result.further.length === 1 ? '' : 's'}, made when you keep this layout.`}
         </p>
       )}
       {made && (
         <div role="status" className="mb-2" data-testid="arrange-made">
-          <p className="font-bold">Made {made.length} new sheet{made.length === 1 ? '' : 's'}:</p>
+          <p className="font-bold">
+            Made {made.length} new sheet{made.length === 1 ? '' : 's'}:
+          </p>
           <ul className="list-disc pl-4">
-            {made.map((m) => <li key={m.id}><Link to={sheetLink(m.id)} className="underline">{m.name}</Link></li>)}
+            {made.map((m) => (
+              <li key={m.id}>
+                <Link to={sheetLink(m.id)} className="underline">
+                  {m.name}
+                </Link>
+              </li>
+            ))}
           </ul>
         </div>
       )}
       <div className="flex flex-wrap gap-2">
         {running ? (
-          <button type="button" onClick={stop} className="rounded-full bg-ink px-4 py-1 font-bold text-paper">Stop and keep the best so far</button>
+          <button type="button" onClick={stop} className="rounded-full bg-ink px-4 py-1 font-bold text-paper">
+            Stop and keep the best so far
+          </button>
         ) : made ? (
-          <button type="button" onClick={close} className="rounded-full bg-ink px-4 py-1 font-bold text-paper">Done</button>
+          <button type="button" onClick={close} className="rounded-full bg-ink px-4 py-1 font-bold text-paper">
+            Done
+          </button>
         ) : !result ? (
-          <button type="button" onClick={start} disabled={waiting > 0 || quantityErrors.length > 0} className="rounded-full bg-ink px-4 py-1 font-bold text-paper disabled:opacity-50">Arrange</button>
+          <button
+            type="button"
+            onClick={start}
+            disabled={waiting > 0 || quantityErrors.length > 0}
+            className="rounded-full bg-ink px-4 py-1 font-bold text-paper disabled:opacity-50"
+          >
+            Arrange
+          </button>
         ) : (
           <>
-            <button type="button" onClick={() => void keep()} disabled={making} className="rounded-full bg-ink px-4 py-1 font-bold text-paper disabled:opacity-50">{making ? 'Making sheets…' : kept ? 'Make the new sheets' : 'Keep this layout'}</button>
-            <button type="button" onClick={() => { setResult(null); onPreview(null); }} disabled={making || kept} className="rounded-full border-2 border-ink px-3 py-1 font-bold">Try again</button>
+            <button
+              type="button"
+              onClick={() => void keep()}
+              disabled={making}
+              className="rounded-full bg-ink px-4 py-1 font-bold text-paper disabled:opacity-50"
+            >
+              {making ? 'Making sheets…' : kept ? 'Make the new sheets' : 'Keep this layout'}
+            </button>
+            <button
+              type="button"
+              onClick={() => {
+                setResult(null);
+                onPreview(null);
+              }}
+              disabled={making || kept}
+              className="rounded-full border-2 border-ink px-3 py-1 font-bold"
+            >
+              Try again
+            </button>
           </>
         )}
-        {!made && <button type="button" onClick={close} disabled={making} className="rounded-full border-2 border-paper-edge px-3 py-1 font-bold">{kept ? 'Close' : result ? 'Discard' : 'Cancel'}</button>}
+        {!made && (
+          <button type="button" onClick={close} disabled={making} className="rounded-full border-2 border-paper-edge px-3 py-1 font-bold">
+            {kept ? 'Close' : result ? 'Discard' : 'Cancel'}
+          </button>
+        )}
       </div>
     </section>
   );

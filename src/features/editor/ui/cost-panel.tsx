@@ -22,11 +22,26 @@ export function CostPanel({ teamId, sheetId, version, canEdit }: { teamId: strin
       // The sheets table shows this cost too.
       void client.invalidateQueries({ queryKey: ['teams', teamId, 'sheets', 'list'] });
     });
-  const select = (label: string, value: string | null, options: Array<{ id: string; name: string }>, key: 'stockId' | 'printerId' | 'cutterId') => (
-    <label className="flex items-center justify-between gap-2">{label}
-      <select value={value ?? ''} disabled={!canEdit} onChange={(e) => choose({ [key]: e.target.value || null })} className="w-32 rounded border-2 border-paper-edge px-1">
+  const select = (
+    label: string,
+    value: string | null,
+    options: Array<{ id: string; name: string }>,
+    key: 'stockId' | 'printerId' | 'cutterId',
+  ) => (
+    <label className="flex items-center justify-between gap-2">
+      {label}
+      <select
+        value={value ?? ''}
+        disabled={!canEdit}
+        onChange={(e) => choose({ [key]: e.target.value || null })}
+        className="w-32 rounded border-2 border-paper-edge px-1"
+      >
         <option value="">None</option>
-        {options.map((o) => <option key={o.id} value={o.id}>{o.name}</option>)}
+        {options.map((o) => (
+          <option key={o.id} value={o.id}>
+            {o.name}
+          </option>
+        ))}
       </select>
     </label>
   );
@@ -37,24 +52,69 @@ export function CostPanel({ teamId, sheetId, version, canEdit }: { teamId: strin
       {select('Stock', costing.stockId, stock.data ?? [], 'stockId')}
       {select('Printer', costing.printerId, printers, 'printerId')}
       {select('Cutter', costing.cutterId, cutters, 'cutterId')}
-      <label className="flex items-center justify-between gap-2">Labour (min)
-        <input type="number" min={0} max={600} step={1} defaultValue={costing.labourMinutes} disabled={!canEdit} onBlur={(e) => Number(e.target.value) !== costing.labourMinutes && choose({ labourMinutes: Number(e.target.value) })} className="w-16 rounded border-2 border-paper-edge px-1 text-right" />
+      <label className="flex items-center justify-between gap-2">
+        Labour (min)
+        <input
+          type="number"
+          min={0}
+          max={600}
+          step={1}
+          defaultValue={costing.labourMinutes}
+          disabled={!canEdit}
+          onBlur={(e) => Number(e.target.value) !== costing.labourMinutes && choose({ labourMinutes: Number(e.target.value) })}
+          className="w-16 rounded border-2 border-paper-edge px-1 text-right"
+        />
       </label>
       <table className="mt-1 w-full">
         <tbody>
-          <tr><td>Stock{inputs.stock ? ` (${money(inputs.stock.packPrice)} / ${inputs.stock.sheetsPerPack})` : ''}</td><td className="text-right">{money(c.stock)}</td></tr>
-          <tr><td>Ink ({Math.round(analysis.coverage.total * 100)} % coverage{inputs.printer ? ` × ${money(inputs.printer.inkFullPage)} a full page` : ''})</td><td className="text-right">{money(c.ink)}</td></tr>
-          <tr><td>Blade ({(analysis.cutLengthMm / 1000).toFixed(2)} m of cut{inputs.blade ? ` of ${inputs.blade.lifeM} m` : ''})</td><td className="text-right">{money(c.blade)}</td></tr>
-          <tr><td>Labour</td><td className="text-right">{money(c.labour)}</td></tr>
-          <tr className="font-extrabold"><td>Per sheet</td><td className="text-right" data-testid="cost-sheet">{money(c.sheet)}</td></tr>
-          <tr><td>Per sticker ({analysis.pieces})</td><td className="text-right">{c.perSticker === null ? '—' : money(c.perSticker)}</td></tr>
-          <tr className="text-sage-deep"><td>Price at {inputs.markupPercent} % markup</td><td className="text-right">{money(c.suggestedSheet)}{c.suggestedSticker !== null ? ` · ${money(c.suggestedSticker)} each` : ''}</td></tr>
+          <tr>
+            <td>Stock{inputs.stock ? ` (${money(inputs.stock.packPrice)} / ${inputs.stock.sheetsPerPack})` : ''}</td>
+            <td className="text-right">{money(c.stock)}</td>
+          </tr>
+          <tr>
+            <td>
+              Ink ({Math.round(analysis.coverage.total * 100)} % coverage
+              {inputs.printer ? ` × ${money(inputs.printer.inkFullPage)} a full page` : ''})
+            </td>
+            <td className="text-right">{money(c.ink)}</td>
+          </tr>
+          <tr>
+            <td>
+              Blade ({(analysis.cutLengthMm / 1000).toFixed(2)} m of cut{inputs.blade ? ` of ${inputs.blade.lifeM} m` : ''})
+            </td>
+            <td className="text-right">{money(c.blade)}</td>
+          </tr>
+          <tr>
+            <td>Labour</td>
+            <td className="text-right">{money(c.labour)}</td>
+          </tr>
+          <tr className="font-extrabold">
+            <td>Per sheet</td>
+            <td className="text-right" data-testid="cost-sheet">
+              {money(c.sheet)}
+            </td>
+          </tr>
+          <tr>
+            <td>Per sticker ({analysis.pieces})</td>
+            <td className="text-right">{c.perSticker === null ? '—' : money(c.perSticker)}</td>
+          </tr>
+          <tr className="text-sage-deep">
+            <td>Price at {inputs.markupPercent} % markup</td>
+            <td className="text-right">
+              {money(c.suggestedSheet)}
+              {c.suggestedSticker !== null ? ` · ${money(c.suggestedSticker)} each` : ''}
+            </td>
+          </tr>
         </tbody>
       </table>
       {cost.isError && <p className="text-alarm">These figures could not be brought up to date; they are from an earlier version.</p>}
       {cost.isPlaceholderData && <p className="text-ink-faint">Updating for the latest edit…</p>}
       {missing.length > 0 && <p className="text-ink-faint">Not counted yet: {missing.join(', ')}.</p>}
-      {error && <p role="alert" className="text-alarm">{error}</p>}
+      {error && (
+        <p role="alert" className="text-alarm">
+          {error}
+        </p>
+      )}
     </div>
   );
 }

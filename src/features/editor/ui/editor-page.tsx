@@ -28,10 +28,27 @@ import type { SheetDocument } from '../../../../shared/sheet/document';
 import { pieceName } from '../../../../shared/sheet/document';
 import { formatLength } from '../../../../shared/units';
 
-const SAVE_TEXT = { saved: 'All changes saved', unsaved: 'Unsaved changes…', saving: 'Saving…', offline: 'Offline: will retry', conflict: 'Not saved: conflict', refused: 'Not saved: see why' } as const;
+const SAVE_TEXT = {
+  saved: 'All changes saved',
+  unsaved: 'Unsaved changes…',
+  saving: 'Saving…',
+  offline: 'Offline: will retry',
+  conflict: 'Not saved: conflict',
+  refused: 'Not saved: see why',
+} as const;
 
 export function EditorPage({ teamId, sheet, canEdit }: { teamId: string; sheet: SheetDetail; canEdit: boolean }) {
-  const store = useMemo(() => new EditorStore(sheet.document, { name: sheet.name, status: sheet.status, forSale: sheet.forSale, unit: sheet.unit, notes: sheet.notes }, sheet.version), [sheet.id]); // eslint-disable-line react-hooks/exhaustive-deps
+  // One store per sheet: a refetch of the same sheet must not throw away the edits in it.
+  const store = useMemo(
+    () =>
+      new EditorStore(
+        sheet.document,
+        { name: sheet.name, status: sheet.status, forSale: sheet.forSale, unit: sheet.unit, notes: sheet.notes },
+        sheet.version,
+      ),
+    // eslint-disable-next-line react-hooks/exhaustive-deps
+    [sheet.id],
+  );
   const state = useSyncExternalStore(store.subscribe, store.getState);
   const [arranging, setArranging] = useState(false);
   const [exporting, setExporting] = useState(false);
@@ -51,7 +68,10 @@ export function EditorPage({ teamId, sheet, canEdit }: { teamId: string; sheet: 
     const map = new Map<string, { widthMm: number; heightMm: number }>();
     for (const p of shown.pieces) {
       const o = outlines.get(p.id)?.outline;
-      map.set(p.id, o ? { widthMm: o.widthMm, heightMm: o.heightMm } : { widthMm: p.width + 2 * p.border, heightMm: p.width + 2 * p.border });
+      map.set(
+        p.id,
+        o ? { widthMm: o.widthMm, heightMm: o.heightMm } : { widthMm: p.width + 2 * p.border, heightMm: p.width + 2 * p.border },
+      );
     }
     return map;
   }, [shown.pieces, outlines]);
@@ -74,9 +94,20 @@ export function EditorPage({ teamId, sheet, canEdit }: { teamId: string; sheet: 
 
   const findings = useMemo(() => {
     const ready = new Map([...outlines].filter(([, o]) => o.outline && !o.pending).map(([id, o]) => [id, o.outline!]));
-    return preflight({ doc: shown, outlines: ready, unit, limits: sheet.limits, forSale: state.meta.forSale, licenceOf: (p) => artLicences.get(p.artId), name: (p) => name(p.id) });
+    return preflight({
+      doc: shown,
+      outlines: ready,
+      unit,
+      limits: sheet.limits,
+      forSale: state.meta.forSale,
+      licenceOf: (p) => artLicences.get(p.artId),
+      name: (p) => name(p.id),
+    });
   }, [shown, outlines, unit, state.meta.forSale]); // eslint-disable-line react-hooks/exhaustive-deps
-  const warnIds = useMemo(() => new Set([...findings.filter((f) => f.severity !== 'notice').flatMap((f) => f.pieceIds), ...(state.refusal?.pieceIds ?? [])]), [findings, state.refusal]);
+  const warnIds = useMemo(
+    () => new Set([...findings.filter((f) => f.severity !== 'notice').flatMap((f) => f.pieceIds), ...(state.refusal?.pieceIds ?? [])]),
+    [findings, state.refusal],
+  );
   const areaUsed = useCallback(() => {
     const total = shown.pieces.reduce((sum, p) => sum + (outlines.get(p.id)?.outline?.areaMm2 ?? 0), 0);
     return total / (shown.printArea.width * shown.printArea.height);
@@ -85,9 +116,18 @@ export function EditorPage({ teamId, sheet, canEdit }: { teamId: string; sheet: 
   // Area used and the thumbnail depend on outlines, which arrive after the pieces: once they have
   // all arrived and the saved figure is off, save once more (no document change, no undo step).
   const savedArea = useRef(sheet.areaUsed);
-  useAutosave(store, teamId, sheet.id, canEdit, sheetRef, areaUsed, (used) => {
-    savedArea.current = used;
-  }, (id) => name(id));
+  useAutosave(
+    store,
+    teamId,
+    sheet.id,
+    canEdit,
+    sheetRef,
+    areaUsed,
+    (used) => {
+      savedArea.current = used;
+    },
+    (id) => name(id),
+  );
   const allOutlined = !preview && state.doc.pieces.every((p) => outlines.get(p.id)?.outline && !outlines.get(p.id)?.pending);
   const currentArea = areaUsed();
   useEffect(() => {
@@ -97,7 +137,10 @@ export function EditorPage({ teamId, sheet, canEdit }: { teamId: string; sheet: 
     return () => clearTimeout(handle);
   }, [allOutlined, currentArea, canEdit, store]);
   // Leaving for another page of the app with unsaved work asks first (reloads are asked by the browser).
-  const blocker = useBlocker(({ currentLocation, nextLocation }) => canEdit && state.save !== 'saved' && state.save !== 'conflict' && currentLocation.pathname !== nextLocation.pathname);
+  const blocker = useBlocker(
+    ({ currentLocation, nextLocation }) =>
+      canEdit && state.save !== 'saved' && state.save !== 'conflict' && currentLocation.pathname !== nextLocation.pathname,
+  );
   useEffect(() => {
     if (blocker.state !== 'blocked') return;
     if (window.confirm('This sheet has changes that are not saved yet. Leave anyway?')) blocker.proceed();
@@ -119,7 +162,8 @@ export function EditorPage({ teamId, sheet, canEdit }: { teamId: string; sheet: 
     const piece = newPiece(art.artId, 0, 0, Math.round(defaultWidthMm(art) * 100) / 100);
     // Dropped at a point: there. Added from the panel: the first free spot for a sticker that size.
     const aspect = art.heightPx && art.widthPx ? art.heightPx / art.widthPx : 1;
-    const spot = at ?? firstFreeSpot(doc, outlines, { widthMm: piece.width + 2 * piece.border, heightMm: piece.width * aspect + 2 * piece.border });
+    const spot =
+      at ?? firstFreeSpot(doc, outlines, { widthMm: piece.width + 2 * piece.border, heightMm: piece.width * aspect + 2 * piece.border });
     store.dispatch(commands.addPieces([{ ...piece, x: spot.x, y: spot.y }]));
   };
   const onAddFromPanel = (item: ArtView) => {
@@ -130,7 +174,11 @@ export function EditorPage({ teamId, sheet, canEdit }: { teamId: string; sheet: 
 
   const reloadTheirs = async () => {
     const fresh = await client.fetchQuery({ ...sheetQueryOptions(teamId, sheet.id), staleTime: 0 });
-    store.load(fresh.document, { name: fresh.name, status: fresh.status, forSale: fresh.forSale, unit: fresh.unit, notes: fresh.notes }, fresh.version);
+    store.load(
+      fresh.document,
+      { name: fresh.name, status: fresh.status, forSale: fresh.forSale, unit: fresh.unit, notes: fresh.notes },
+      fresh.version,
+    );
   };
   const keepCopy = async () => {
     const s = store.getState();
@@ -148,85 +196,161 @@ export function EditorPage({ teamId, sheet, canEdit }: { teamId: string; sheet: 
   return (
     <div className="flex h-[calc(100vh-7.5rem)] min-h-[560px] flex-col gap-3">
       <div className="flex flex-wrap items-center gap-3">
-        <input aria-label="Sheet name" value={state.meta.name} disabled={!canEdit} onChange={(e) => store.setMeta({ name: e.target.value })} className="min-w-0 flex-1 rounded-lg border-2 border-transparent bg-transparent px-2 text-2xl font-extrabold hover:border-paper-edge focus:border-peel" />
-        <select aria-label="Status" value={state.meta.status} disabled={!canEdit} onChange={(e) => store.setMeta({ status: e.target.value as typeof state.meta.status })} className="rounded-lg border-2 border-paper-edge bg-white px-2 py-1 text-sm">
-          {SHEET_STATUSES.map((s) => <option key={s} value={s}>{SHEET_STATUS_LABELS[s]}</option>)}
+        <input
+          aria-label="Sheet name"
+          value={state.meta.name}
+          disabled={!canEdit}
+          onChange={(e) => store.setMeta({ name: e.target.value })}
+          className="min-w-0 flex-1 rounded-lg border-2 border-transparent bg-transparent px-2 text-2xl font-extrabold hover:border-paper-edge focus:border-peel"
+        />
+        <select
+          aria-label="Status"
+          value={state.meta.status}
+          disabled={!canEdit}
+          onChange={(e) => store.setMeta({ status: e.target.value as typeof state.meta.status })}
+          className="rounded-lg border-2 border-paper-edge bg-white px-2 py-1 text-sm"
+        >
+          {SHEET_STATUSES.map((s) => (
+            <option key={s} value={s}>
+              {SHEET_STATUS_LABELS[s]}
+            </option>
+          ))}
         </select>
-        <label className="flex items-center gap-1 text-sm font-bold"><input type="checkbox" checked={state.meta.forSale} disabled={!canEdit} onChange={(e) => store.setMeta({ forSale: e.target.checked })} />For sale</label>
-        <select aria-label="Unit" value={unit} onChange={(e) => store.setMeta({ unit: e.target.value as 'in' | 'mm' })} disabled={!canEdit} className="rounded-lg border-2 border-paper-edge bg-white px-2 py-1 text-sm">
+        <label className="flex items-center gap-1 text-sm font-bold">
+          <input
+            type="checkbox"
+            checked={state.meta.forSale}
+            disabled={!canEdit}
+            onChange={(e) => store.setMeta({ forSale: e.target.checked })}
+          />
+          For sale
+        </label>
+        <select
+          aria-label="Unit"
+          value={unit}
+          onChange={(e) => store.setMeta({ unit: e.target.value as 'in' | 'mm' })}
+          disabled={!canEdit}
+          className="rounded-lg border-2 border-paper-edge bg-white px-2 py-1 text-sm"
+        >
           <option value="in">in</option>
           <option value="mm">mm</option>
         </select>
-        <span role="status" data-testid="save-state" className={`rounded-full px-3 py-1 text-xs font-bold ${state.save === 'saved' ? 'bg-sage-light text-sage-deep' : state.save === 'conflict' || state.save === 'offline' || state.save === 'refused' ? 'bg-alarm-light text-alarm' : 'bg-paper-deep'}`}>
+        <span
+          role="status"
+          data-testid="save-state"
+          className={`rounded-full px-3 py-1 text-xs font-bold ${state.save === 'saved' ? 'bg-sage-light text-sage-deep' : state.save === 'conflict' || state.save === 'offline' || state.save === 'refused' ? 'bg-alarm-light text-alarm' : 'bg-paper-deep'}`}
+        >
           {canEdit ? SAVE_TEXT[state.save] : 'Read only: your role can view sheets'}
         </span>
       </div>
       {state.refusal && (
-        <div role="alert" data-testid="save-refusal" className="flex items-start gap-3 rounded-lg border-2 border-alarm bg-alarm-light px-3 py-2 text-sm text-alarm">
+        <div
+          role="alert"
+          data-testid="save-refusal"
+          className="flex items-start gap-3 rounded-lg border-2 border-alarm bg-alarm-light px-3 py-2 text-sm text-alarm"
+        >
           <p className="flex-1">
             <strong>Not saved as it was.</strong> {state.refusal.message}{' '}
-            {state.refusal.fitted ? 'Sheetsmith fitted it back within reach (it is selected now) so the rest of your work keeps saving; Undo shows what you had.' : 'Change it and the sheet saves again.'}
+            {state.refusal.fitted
+              ? 'Sheetsmith fitted it back within reach (it is selected now) so the rest of your work keeps saving; Undo shows what you had.'
+              : 'Change it and the sheet saves again.'}
           </p>
-          <button type="button" className="font-bold underline" onClick={() => store.dismissRefusal()}>Dismiss</button>
+          <button type="button" className="font-bold underline" onClick={() => store.dismissRefusal()}>
+            Dismiss
+          </button>
         </div>
       )}
       <Toolbar
         ctx={ctx}
         names={['undo', 'redo', 'zoom-fit', 'zoom-real', 'zoom-out', 'zoom-in', 'cut-lines', 'arrange', 'export', 'help']}
         open={[...(arranging ? ['arrange'] : []), ...(exporting ? ['export'] : [])]}
-        after={{ name: 'export', node: <span className="ml-auto text-xs text-ink-soft" data-testid="area-used">{shown.pieces.length} piece{shown.pieces.length === 1 ? '' : 's'} · {Math.round(areaUsed() * 100)} % of the print area{preview ? ' (preview)' : ''}</span> }}
+        after={{
+          name: 'export',
+          node: (
+            <span className="ml-auto text-xs text-ink-soft" data-testid="area-used">
+              {shown.pieces.length} piece{shown.pieces.length === 1 ? '' : 's'} · {Math.round(areaUsed() * 100)} % of the print area
+              {preview ? ' (preview)' : ''}
+            </span>
+          ),
+        }}
       />
       <div className="grid min-h-0 flex-1 gap-3 lg:grid-cols-[13rem_1fr_17rem]">
         <LibraryPanel teamId={teamId} canEdit={canEdit} onAdd={onAddFromPanel} />
         <div className="relative min-h-0 min-w-0">
-        <SheetStage
-          store={store}
-          state={preview ? { ...state, doc: preview } : state}
-          canEdit={canEdit && !preview}
-          outlines={outlines}
-          warnIds={warnIds}
-          stageRef={stageRef}
-          sheetRef={sheetRef}
-          onZoom={onZoom}
-          onDropArt={(data, at) => {
-            const art = JSON.parse(data) as { artId: string; widthPx: number; name?: string };
-            if (art.name) artNames.set(art.artId, art.name);
-            addArt(art, at);
-          }}
-        />
-        {exporting && <ExportPanel teamId={teamId} sheetId={sheet.id} unsaved={state.save !== 'saved'} findings={findings} areaText={`${formatLength(state.doc.printArea.width, unit)} × ${formatLength(state.doc.printArea.height, unit)}`} printing={sheet.printing} formatLength={(mm) => formatLength(mm, unit)} onClose={() => setExporting(false)} />}
-        {arranging && (
-          <ArrangePanel
+          <SheetStage
             store={store}
+            state={preview ? { ...state, doc: preview } : state}
+            canEdit={canEdit && !preview}
             outlines={outlines}
-            nameOf={(id) => artNames.get(id) ?? 'Piece'}
-            onPreview={setPreview}
-            onFurtherSheets={async (docs) => {
-              const s = store.getState();
-              const made: Array<{ id: string; name: string }> = [];
-              for (const [i, doc] of docs.entries()) {
-                const name = `${s.meta.name.slice(0, 100)} · sheet ${i + 2} of ${docs.length + 1}`;
-                made.push({ id: await saveAsCopy(teamId, name, s.meta.unit, doc), name });
-              }
-              return made;
+            warnIds={warnIds}
+            stageRef={stageRef}
+            sheetRef={sheetRef}
+            onZoom={onZoom}
+            onDropArt={(data, at) => {
+              const art = JSON.parse(data) as { artId: string; widthPx: number; name?: string };
+              if (art.name) artNames.set(art.artId, art.name);
+              addArt(art, at);
             }}
-            sheetLink={(id) => `/t/${teamId}/sheets/${id}`}
-            serverRuns={`/teams/${teamId}/sheets/${sheet.id}/arrange-runs`}
-            onClose={() => setArranging(false)}
           />
-        )}
+          {exporting && (
+            <ExportPanel
+              teamId={teamId}
+              sheetId={sheet.id}
+              unsaved={state.save !== 'saved'}
+              findings={findings}
+              areaText={`${formatLength(state.doc.printArea.width, unit)} × ${formatLength(state.doc.printArea.height, unit)}`}
+              printing={sheet.printing}
+              formatLength={(mm) => formatLength(mm, unit)}
+              onClose={() => setExporting(false)}
+            />
+          )}
+          {arranging && (
+            <ArrangePanel
+              store={store}
+              outlines={outlines}
+              nameOf={(id) => artNames.get(id) ?? 'Piece'}
+              onPreview={setPreview}
+              onFurtherSheets={async (docs) => {
+                const s = store.getState();
+                const made: Array<{ id: string; name: string }> = [];
+                for (const [i, doc] of docs.entries()) {
+                  const name = `${s.meta.name.slice(0, 100)} · sheet ${i + 2} of ${docs.length + 1}`;
+                  made.push({ id: await saveAsCopy(teamId, name, s.meta.unit, doc), name });
+                }
+                return made;
+              }}
+              sheetLink={(id) => `/t/${teamId}/sheets/${id}`}
+              serverRuns={`/teams/${teamId}/sheets/${sheet.id}/arrange-runs`}
+              onClose={() => setArranging(false)}
+            />
+          )}
         </div>
-        <aside className="flex min-h-0 flex-col gap-4 overflow-auto rounded-sticker border-2 border-paper-edge bg-white p-3" aria-label="Selection and checks">
+        <aside
+          className="flex min-h-0 flex-col gap-4 overflow-auto rounded-sticker border-2 border-paper-edge bg-white p-3"
+          aria-label="Selection and checks"
+        >
           <section aria-labelledby="sel-title">
-            <h2 id="sel-title" className="mb-2 text-sm font-extrabold uppercase tracking-wide text-ink-faint">Selection</h2>
+            <h2 id="sel-title" className="mb-2 text-sm font-extrabold uppercase tracking-wide text-ink-faint">
+              Selection
+            </h2>
             <Inspector ctx={ctx} pieces={selectedPieces} sizes={sizes} />
           </section>
           <details>
             <summary className="cursor-pointer text-sm font-extrabold uppercase tracking-wide text-ink-faint">Notes</summary>
-            <textarea aria-label="Sheet notes" value={state.meta.notes} disabled={!canEdit} onChange={(e) => store.setMeta({ notes: e.target.value })} rows={4} className="mt-2 w-full rounded border-2 border-paper-edge px-2 py-1 text-sm" placeholder="Stock, printer settings, who it is for…" />
+            <textarea
+              aria-label="Sheet notes"
+              value={state.meta.notes}
+              disabled={!canEdit}
+              onChange={(e) => store.setMeta({ notes: e.target.value })}
+              rows={4}
+              className="mt-2 w-full rounded border-2 border-paper-edge px-2 py-1 text-sm"
+              placeholder="Stock, printer settings, who it is for…"
+            />
           </details>
           <section aria-labelledby="preflight-title">
-            <h2 id="preflight-title" className="mb-2 text-sm font-extrabold uppercase tracking-wide text-ink-faint">Preflight</h2>
+            <h2 id="preflight-title" className="mb-2 text-sm font-extrabold uppercase tracking-wide text-ink-faint">
+              Preflight
+            </h2>
             <PreflightPanel findings={findings} onSelect={(ids) => store.select(ids)} />
           </section>
           <details>
@@ -237,13 +361,24 @@ export function EditorPage({ teamId, sheet, canEdit }: { teamId: string; sheet: 
       </div>
       {state.helpOpen && <HelpPanel onClose={() => store.setView({ helpOpen: false })} />}
       {state.save === 'conflict' && (
-        <div role="alertdialog" aria-modal="true" aria-labelledby="conflict-title" className="fixed inset-0 z-50 flex items-center justify-center bg-ink/40 p-4">
+        <div
+          role="alertdialog"
+          aria-modal="true"
+          aria-labelledby="conflict-title"
+          className="fixed inset-0 z-50 flex items-center justify-center bg-ink/40 p-4"
+        >
           <div className="w-full max-w-md rounded-sticker bg-white p-6">
-            <h2 id="conflict-title" className="mb-2 text-xl font-extrabold">Someone else saved this sheet</h2>
+            <h2 id="conflict-title" className="mb-2 text-xl font-extrabold">
+              Someone else saved this sheet
+            </h2>
             <p className="mb-4 text-sm text-ink-soft">{state.conflict} Your changes are still here; nothing was overwritten.</p>
             <div className="flex flex-wrap gap-2">
-              <button type="button" className="rounded-full bg-ink px-4 py-2 font-bold text-paper" onClick={() => void keepCopy()}>Keep mine as a copy</button>
-              <button type="button" className="rounded-full border-2 border-ink px-4 py-2 font-bold" onClick={() => void reloadTheirs()}>Load their version</button>
+              <button type="button" className="rounded-full bg-ink px-4 py-2 font-bold text-paper" onClick={() => void keepCopy()}>
+                Keep mine as a copy
+              </button>
+              <button type="button" className="rounded-full border-2 border-ink px-4 py-2 font-bold" onClick={() => void reloadTheirs()}>
+                Load their version
+              </button>
             </div>
           </div>
         </div>

@@ -17,14 +17,24 @@ export function LibraryPanel({ teamId, canEdit, onAdd }: { teamId: string; canEd
   });
   return (
     <aside aria-label="Art to place" className="flex min-h-0 flex-col gap-2 rounded-sticker border-2 border-paper-edge bg-white p-3">
-      <input type="search" value={q} onChange={(e) => setQ(e.target.value)} placeholder="Find art" aria-label="Find art to place" className="rounded-lg border-2 border-paper-edge px-2 py-1 text-sm" />
+      <input
+        type="search"
+        value={q}
+        onChange={(e) => setQ(e.target.value)}
+        placeholder="Find art"
+        aria-label="Find art to place"
+        className="rounded-lg border-2 border-paper-edge px-2 py-1 text-sm"
+      />
       <ul className="grid min-h-0 grid-cols-2 gap-2 overflow-auto" data-testid="library-panel">
         {art.data?.items.map((item) => (
           <li
             key={item.id}
             draggable={canEdit}
             onDragStart={(e) => {
-              e.dataTransfer.setData('application/x-sheetsmith-art', JSON.stringify({ artId: item.id, widthPx: item.widthPx, name: item.name }));
+              e.dataTransfer.setData(
+                'application/x-sheetsmith-art',
+                JSON.stringify({ artId: item.id, widthPx: item.widthPx, name: item.name }),
+              );
               e.dataTransfer.effectAllowed = 'copy';
             }}
             className="flex cursor-grab flex-col items-center rounded-lg border border-paper-edge p-1 text-center text-xs"
@@ -33,7 +43,12 @@ export function LibraryPanel({ teamId, canEdit, onAdd }: { teamId: string; canEd
             <img src={item.thumbnailUrl} alt="" className="h-16 w-16 object-contain" draggable={false} />
             <span className="w-full truncate">{item.name}</span>
             {canEdit && (
-              <button type="button" className="font-bold text-peel-deep underline" onClick={() => onAdd(item)} aria-label={`Add ${item.name} to the sheet`}>
+              <button
+                type="button"
+                className="font-bold text-peel-deep underline"
+                onClick={() => onAdd(item)}
+                aria-label={`Add ${item.name} to the sheet`}
+              >
                 Add
               </button>
             )}

@@ -14,7 +14,17 @@ const PLAIN = 'rounded border-2 border-paper-edge bg-white px-2 py-1 font-bold d
  * Actions that need the right to edit are not shown to those without it; `open` marks panels
  * already open. `between` goes after the named action.
  */
-export function Toolbar({ ctx, names, open = [], after }: { ctx: ActionContext; names: string[]; open?: string[]; after?: { name: string; node: ReactNode } }) {
+export function Toolbar({
+  ctx,
+  names,
+  open = [],
+  after,
+}: {
+  ctx: ActionContext;
+  names: string[];
+  open?: string[];
+  after?: { name: string; node: ReactNode };
+}) {
   return (
     <div className="flex flex-wrap items-center gap-1 text-sm" role="toolbar" aria-label="Sheet tools">
       {names.map((name) => {
@@ -27,7 +37,15 @@ export function Toolbar({ ctx, names, open = [], after }: { ctx: ActionContext; 
             {action.short ?? action.label}
           </label>
         ) : (
-          <button key={name} type="button" className={LOOKS[name] ?? PLAIN} disabled={!enabled(action, ctx) || open.includes(name)} onClick={() => runAction(name, ctx)} title={title} aria-label={action.short && action.short.length < 3 ? action.label : undefined}>
+          <button
+            key={name}
+            type="button"
+            className={LOOKS[name] ?? PLAIN}
+            disabled={!enabled(action, ctx) || open.includes(name)}
+            onClick={() => runAction(name, ctx)}
+            title={title}
+            aria-label={action.short && action.short.length < 3 ? action.label : undefined}
+          >
             {action.short ?? action.label}
           </button>
         );

@@ -13,7 +13,14 @@ function thumbnail(sheet: Konva.Group | null, width: number, height: number): st
   const scale = sheet.scaleX();
   const pos = sheet.getAbsolutePosition();
   try {
-    return sheet.getStage()?.toDataURL({ x: pos.x, y: pos.y, width: width * scale, height: height * scale, pixelRatio: 160 / (width * scale), mimeType: 'image/png' });
+    return sheet.getStage()?.toDataURL({
+      x: pos.x,
+      y: pos.y,
+      width: width * scale,
+      height: height * scale,
+      pixelRatio: 160 / (width * scale),
+      mimeType: 'image/png',
+    });
   } catch {
     return undefined;
   }
@@ -56,7 +63,11 @@ export function useAutosave(
       // The same rules the server applies, checked here first: no round trip to be refused.
       const problems = documentProblems(sent.doc);
       if (problems.length > 0) {
-        refuse(sent, problems[0].message(sent.meta.unit, names.current?.(problems[0].pieceId)), problems.map((p) => p.pieceId));
+        refuse(
+          sent,
+          problems[0].message(sent.meta.unit, names.current?.(problems[0].pieceId)),
+          problems.map((p) => p.pieceId),
+        );
         return;
       }
       running.current = true;
@@ -74,7 +85,8 @@ export function useAutosave(
         saved.current(used);
       } catch (error) {
         if (error instanceof ApiError && error.status === 409) store.saveFailed(false, error.message);
-        else if (error instanceof ApiError && (error.status === 400 || error.status === 422)) refuse(sent, error.message, refusedPieceIds(error.fields, sent.doc));
+        else if (error instanceof ApiError && (error.status === 400 || error.status === 422))
+          refuse(sent, error.message, refusedPieceIds(error.fields, sent.doc));
         else store.saveFailed(!(error instanceof ApiError) || error.status === 0);
       } finally {
         running.current = false;

@@ -51,7 +51,9 @@ export const useBulkArt = (teamId: string) =>
   useLibraryMutation(teamId, (action: BulkAction) => api<{ changed: number }>('POST', `/teams/${teamId}/art/bulk`, action));
 
 export const useDeleteArt = (teamId: string) =>
-  useLibraryMutation(teamId, ({ artId, confirm }: { artId: string; confirm?: boolean }) => api<void>('DELETE', `/teams/${teamId}/art/${artId}${confirm ? '?confirm=1' : ''}`));
+  useLibraryMutation(teamId, ({ artId, confirm }: { artId: string; confirm?: boolean }) =>
+    api<void>('DELETE', `/teams/${teamId}/art/${artId}${confirm ? '?confirm=1' : ''}`),
+  );
 
 /** Runs a delete; when the server says sheets use the art, asks the user and repeats with confirm. */
 export async function deleteWithQuestion(run: (confirm: boolean) => Promise<unknown>): Promise<boolean> {
@@ -81,6 +83,9 @@ export const useAttachProof = (teamId: string, target: { artId: string } | { col
   useLibraryMutation(teamId, (file: File) => {
     const form = new FormData();
     form.set('file', file, file.name);
-    const path = 'artId' in target ? `/teams/${teamId}/art/${target.artId}/licence-proof` : `/teams/${teamId}/collections/${target.collectionId}/licence-proof`;
+    const path =
+      'artId' in target
+        ? `/teams/${teamId}/art/${target.artId}/licence-proof`
+        : `/teams/${teamId}/collections/${target.collectionId}/licence-proof`;
     return apiUpload<unknown>(path, form);
   });

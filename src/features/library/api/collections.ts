@@ -24,10 +24,14 @@ function useCollectionMutation<I, O>(teamId: string, fn: (input: I) => Promise<O
 export type CollectionChanges = { name?: string; membersCanAdd?: boolean; archived?: boolean; licence?: LicenceInput | null };
 
 export const useCreateCollection = (teamId: string) =>
-  useCollectionMutation(teamId, (input: { name: string; membersCanAdd?: boolean }) => api<CollectionView>('POST', `/teams/${teamId}/collections`, input));
+  useCollectionMutation(teamId, (input: { name: string; membersCanAdd?: boolean }) =>
+    api<CollectionView>('POST', `/teams/${teamId}/collections`, input),
+  );
 
 export const useUpdateCollection = (teamId: string) =>
-  useCollectionMutation(teamId, ({ id, ...changes }: CollectionChanges & { id: string }) => api<CollectionView>('PATCH', `/teams/${teamId}/collections/${id}`, changes));
+  useCollectionMutation(teamId, ({ id, ...changes }: CollectionChanges & { id: string }) =>
+    api<CollectionView>('PATCH', `/teams/${teamId}/collections/${id}`, changes),
+  );
 
 export const useReorderCollections = (teamId: string) =>
   useCollectionMutation(teamId, (ids: string[]) => api('PUT', `/teams/${teamId}/collections/order`, { ids }));

@@ -11,14 +11,22 @@ export const outlinePreviewQueryOptions = (teamId: string, artId: string, p: Pre
   queryOptions({
     queryKey: ['teams', teamId, 'art', 'outline-preview', artId, p],
     queryFn: () => {
-      const search = new URLSearchParams({ width: '3in', border: '0.125in', dpi: '100', background: p.background, backgroundTolerance: String(p.backgroundTolerance), widenNecks: String(p.widenNecks) });
+      const search = new URLSearchParams({
+        width: '3in',
+        border: '0.125in',
+        dpi: '100',
+        background: p.background,
+        backgroundTolerance: String(p.backgroundTolerance),
+        widenNecks: String(p.widenNecks),
+      });
       return api<OutlinePreview>('GET', `/teams/${teamId}/art/${artId}/outline?${search}`);
     },
     placeholderData: keepPreviousData,
     staleTime: Infinity,
   });
 
-export const useOutlinePreview = (teamId: string, artId: string, p: PreviewParams) => useQuery(outlinePreviewQueryOptions(teamId, artId, p));
+export const useOutlinePreview = (teamId: string, artId: string, p: PreviewParams) =>
+  useQuery(outlinePreviewQueryOptions(teamId, artId, p));
 
 /** The address of the tinted picture of what removal takes (see the background-removal route). */
 export const removalPreviewUrl = (teamId: string, artId: string, p: Pick<PreviewParams, 'background' | 'backgroundTolerance'>) =>

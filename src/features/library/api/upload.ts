@@ -36,7 +36,11 @@ export async function uploadArt(
         return;
       }
       const parsed = apiErrorSchema.safeParse(body);
-      reject(parsed.success ? new ApiError(xhr.status, parsed.data.error.code, parsed.data.error.message) : new ApiError(xhr.status, 'unknown', `Upload failed (${xhr.status}).`));
+      reject(
+        parsed.success
+          ? new ApiError(xhr.status, parsed.data.error.code, parsed.data.error.message)
+          : new ApiError(xhr.status, 'unknown', `Upload failed (${xhr.status}).`),
+      );
     };
     xhr.send(form);
   });

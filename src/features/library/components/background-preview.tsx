@@ -11,7 +11,8 @@ const hex = (r: number, g: number, b: number) => `#${[r, g, b].map((v) => v.toSt
 type Mode = ArtView['background']['mode'];
 
 /** A mode's starting tolerance: the art's saved one for its saved mode, else the mode's own default (none carries over). */
-const toleranceFor = (art: ArtView, mode: Mode) => (mode === art.background.mode ? art.background.tolerance : mode === 'colour' ? DEFAULT_TOLERANCE.colour : DEFAULT_TOLERANCE.auto);
+const toleranceFor = (art: ArtView, mode: Mode) =>
+  mode === art.background.mode ? art.background.tolerance : mode === 'colour' ? DEFAULT_TOLERANCE.colour : DEFAULT_TOLERANCE.auto;
 
 /**
  * Before, what is removed and after, for the outline engine's background removal: the tolerance is a
@@ -60,7 +61,9 @@ export function BackgroundPreview({ teamId, art, canEdit }: { teamId: string; ar
 
   return (
     <section aria-labelledby="bg-title" className="rounded-sticker border-2 border-paper-edge bg-white p-5">
-      <h2 id="bg-title" className="text-lg font-extrabold">Background</h2>
+      <h2 id="bg-title" className="text-lg font-extrabold">
+        Background
+      </h2>
       <p className="mb-3 text-sm text-ink-soft">
         {art.hasTransparency
           ? 'This art has transparency, so its outline follows it. You can still remove a colour.'
@@ -86,15 +89,24 @@ export function BackgroundPreview({ teamId, art, canEdit }: { teamId: string; ar
               className="max-h-72 w-full rounded-lg object-contain"
             />
             <p className="mt-1 text-xs text-ink-soft">
-              <span className="mr-1 inline-block h-3 w-3 rounded-sm bg-[#78a0c8] align-middle" aria-hidden="true" />background removed
-              <span className="ml-3 mr-1 inline-block h-3 w-3 rounded-sm bg-[#c80078] align-middle" aria-hidden="true" />art taken with it
+              <span className="mr-1 inline-block h-3 w-3 rounded-sm bg-[#78a0c8] align-middle" aria-hidden="true" />
+              background removed
+              <span className="ml-3 mr-1 inline-block h-3 w-3 rounded-sm bg-[#c80078] align-middle" aria-hidden="true" />
+              art taken with it
             </p>
           </figure>
         )}
         <figure>
-          <figcaption className="mb-1 text-sm font-bold">After: the sticker with a 1/8 in border {preview.isFetching && '· updating…'}</figcaption>
+          <figcaption className="mb-1 text-sm font-bold">
+            After: the sticker with a 1/8 in border {preview.isFetching && '· updating…'}
+          </figcaption>
           {preview.data?.pieces[0] ? (
-            <img src={preview.data.pieces[0].pngUrl} alt={`${art.name} as a sticker`} data-testid="after-preview" className="max-h-72 w-full rounded-lg bg-[#9aa8a8] object-contain p-2" />
+            <img
+              src={preview.data.pieces[0].pngUrl}
+              alt={`${art.name} as a sticker`}
+              data-testid="after-preview"
+              className="max-h-72 w-full rounded-lg bg-[#9aa8a8] object-contain p-2"
+            />
           ) : (
             <div className="flex h-72 items-center justify-center rounded-lg bg-paper text-sm">{preview.isError ? '' : 'Working…'}</div>
           )}
@@ -104,7 +116,9 @@ export function BackgroundPreview({ teamId, art, canEdit }: { teamId: string; ar
       {cautions.length > 0 && (
         <ul data-testid="outline-cautions" className="mt-3 flex flex-col gap-1 text-sm">
           {cautions.map((w) => (
-            <li key={`${w.code}-${w.message}`} className="rounded-lg bg-alarm-light px-3 py-1 font-semibold text-alarm">{w.message}</li>
+            <li key={`${w.code}-${w.message}`} className="rounded-lg bg-alarm-light px-3 py-1 font-semibold text-alarm">
+              {w.message}
+            </li>
           ))}
         </ul>
       )}
@@ -129,9 +143,22 @@ export function BackgroundPreview({ teamId, art, canEdit }: { teamId: string; ar
           {mode !== 'keep' && (
             <label className="flex items-center gap-2 font-bold">
               Tolerance
-              <input type="range" min={0} max={120} value={tolerance} onChange={(e) => setTolerance(Number(e.target.value))} aria-valuetext={`${tolerance}`} />
-              <span className="w-8 tabular-nums" data-testid="tolerance-value">{tolerance}</span>
-              <button type="button" className="text-xs underline" onClick={() => setTolerance(mode === 'colour' ? DEFAULT_TOLERANCE.colour : DEFAULT_TOLERANCE.auto)}>
+              <input
+                type="range"
+                min={0}
+                max={120}
+                value={tolerance}
+                onChange={(e) => setTolerance(Number(e.target.value))}
+                aria-valuetext={`${tolerance}`}
+              />
+              <span className="w-8 tabular-nums" data-testid="tolerance-value">
+                {tolerance}
+              </span>
+              <button
+                type="button"
+                className="text-xs underline"
+                onClick={() => setTolerance(mode === 'colour' ? DEFAULT_TOLERANCE.colour : DEFAULT_TOLERANCE.auto)}
+              >
                 Default ({mode === 'colour' ? DEFAULT_TOLERANCE.colour : DEFAULT_TOLERANCE.auto})
               </button>
             </label>
@@ -147,7 +174,11 @@ export function BackgroundPreview({ teamId, art, canEdit }: { teamId: string; ar
           >
             Use for this art
           </button>
-          {save.isSuccess && <span role="status" className="text-sage-deep">Saved: sheets use this setting.</span>}
+          {save.isSuccess && (
+            <span role="status" className="text-sage-deep">
+              Saved: sheets use this setting.
+            </span>
+          )}
           {save.isError && <FormMessage>{save.error.message}</FormMessage>}
         </div>
       )}

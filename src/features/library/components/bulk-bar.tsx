@@ -4,7 +4,17 @@ import { ApiError } from '../../../lib/api-client';
 import { deleteWithQuestion, useBulkArt } from '../api/art';
 
 /** Actions on every selected item at once. */
-export function BulkBar({ teamId, ids, collections, onDone }: { teamId: string; ids: string[]; collections: CollectionView[]; onDone: () => void }) {
+export function BulkBar({
+  teamId,
+  ids,
+  collections,
+  onDone,
+}: {
+  teamId: string;
+  ids: string[];
+  collections: CollectionView[];
+  onDone: () => void;
+}) {
   const bulk = useBulkArt(teamId);
   const [keyword, setKeyword] = useState('');
   const [target, setTarget] = useState('');
@@ -20,17 +30,58 @@ export function BulkBar({ teamId, ids, collections, onDone }: { teamId: string; 
     }
   };
   return (
-    <section aria-label="Actions on the selected art" className="sticky top-0 z-20 mb-4 flex flex-wrap items-center gap-2 rounded-sticker border-2 border-peel bg-peel-light p-3 text-sm">
+    <section
+      aria-label="Actions on the selected art"
+      className="sticky top-0 z-20 mb-4 flex flex-wrap items-center gap-2 rounded-sticker border-2 border-peel bg-peel-light p-3 text-sm"
+    >
       <strong>{ids.length} selected</strong>
-      <input value={keyword} onChange={(e) => setKeyword(e.target.value)} placeholder="keyword" aria-label="Keyword for the selected art" className="rounded border-2 border-paper-edge px-2 py-1" />
-      <button type="button" disabled={!keyword.trim()} className="rounded-full bg-ink px-3 py-1 font-bold text-paper disabled:opacity-50" onClick={() => run({ action: 'addKeyword', ids, keyword }, `Added “${keyword}”.`)}>Add keyword</button>
-      <button type="button" disabled={!keyword.trim()} className="rounded-full border-2 border-ink px-3 py-1 font-bold disabled:opacity-50" onClick={() => run({ action: 'removeKeyword', ids, keyword }, `Removed “${keyword}”.`)}>Remove keyword</button>
-      <select value={target} onChange={(e) => setTarget(e.target.value)} aria-label="Move to collection" className="rounded border-2 border-paper-edge bg-white px-2 py-1">
+      <input
+        value={keyword}
+        onChange={(e) => setKeyword(e.target.value)}
+        placeholder="keyword"
+        aria-label="Keyword for the selected art"
+        className="rounded border-2 border-paper-edge px-2 py-1"
+      />
+      <button
+        type="button"
+        disabled={!keyword.trim()}
+        className="rounded-full bg-ink px-3 py-1 font-bold text-paper disabled:opacity-50"
+        onClick={() => run({ action: 'addKeyword', ids, keyword }, `Added “${keyword}”.`)}
+      >
+        Add keyword
+      </button>
+      <button
+        type="button"
+        disabled={!keyword.trim()}
+        className="rounded-full border-2 border-ink px-3 py-1 font-bold disabled:opacity-50"
+        onClick={() => run({ action: 'removeKeyword', ids, keyword }, `Removed “${keyword}”.`)}
+      >
+        Remove keyword
+      </button>
+      <select
+        value={target}
+        onChange={(e) => setTarget(e.target.value)}
+        aria-label="Move to collection"
+        className="rounded border-2 border-paper-edge bg-white px-2 py-1"
+      >
         <option value="">Move to…</option>
         <option value="none">No collection</option>
-        {collections.filter((c) => !c.archived).map((c) => <option key={c.id} value={c.id}>{c.name}</option>)}
+        {collections
+          .filter((c) => !c.archived)
+          .map((c) => (
+            <option key={c.id} value={c.id}>
+              {c.name}
+            </option>
+          ))}
       </select>
-      <button type="button" disabled={!target} className="rounded-full border-2 border-ink px-3 py-1 font-bold disabled:opacity-50" onClick={() => run({ action: 'move', ids, collectionId: target === 'none' ? null : target }, 'Moved.')}>Move</button>
+      <button
+        type="button"
+        disabled={!target}
+        className="rounded-full border-2 border-ink px-3 py-1 font-bold disabled:opacity-50"
+        onClick={() => run({ action: 'move', ids, collectionId: target === 'none' ? null : target }, 'Moved.')}
+      >
+        Move
+      </button>
       <button
         type="button"
         className="ml-auto rounded-full bg-alarm px-3 py-1 font-bold text-white"
@@ -48,7 +99,11 @@ export function BulkBar({ teamId, ids, collections, onDone }: { teamId: string; 
       >
         Delete
       </button>
-      {message && <p role="status" className="w-full font-semibold">{message}</p>}
+      {message && (
+        <p role="status" className="w-full font-semibold">
+          {message}
+        </p>
+      )}
     </section>
   );
 }

@@ -46,7 +46,13 @@ export function CollectionsSidebar({ teamId, collections, selected, onSelect, ca
           <span className="text-xs opacity-70">{c.artCount}</span>
         </button>
         {canManage && (
-          <button type="button" className="rounded px-2 text-ink-soft hover:bg-paper-deep" aria-label={`Settings of ${c.name}`} aria-expanded={editing === c.id} onClick={() => setEditing(editing === c.id ? null : c.id)}>
+          <button
+            type="button"
+            className="rounded px-2 text-ink-soft hover:bg-paper-deep"
+            aria-label={`Settings of ${c.name}`}
+            aria-expanded={editing === c.id}
+            onClick={() => setEditing(editing === c.id ? null : c.id)}
+          >
             ⚙
           </button>
         )}
@@ -62,17 +68,46 @@ export function CollectionsSidebar({ teamId, collections, selected, onSelect, ca
               void run(() => update.mutateAsync({ id: c.id, name: value }));
             }}
           >
-            <input name="name" defaultValue={c.name} aria-label="Collection name" className="min-w-0 flex-1 rounded border-2 border-paper-edge px-2 py-1" />
-            <button type="submit" className="rounded bg-ink px-2 font-bold text-paper">Rename</button>
+            <input
+              name="name"
+              defaultValue={c.name}
+              aria-label="Collection name"
+              className="min-w-0 flex-1 rounded border-2 border-paper-edge px-2 py-1"
+            />
+            <button type="submit" className="rounded bg-ink px-2 font-bold text-paper">
+              Rename
+            </button>
           </form>
           <label className="flex items-center gap-2">
-            <input type="checkbox" checked={c.membersCanAdd} onChange={(e) => void run(() => update.mutateAsync({ id: c.id, membersCanAdd: e.target.checked }))} />
+            <input
+              type="checkbox"
+              checked={c.membersCanAdd}
+              onChange={(e) => void run(() => update.mutateAsync({ id: c.id, membersCanAdd: e.target.checked }))}
+            />
             Members may add art
           </label>
           <div className="flex flex-wrap gap-2">
-            <button type="button" className="rounded border-2 border-paper-edge px-2" onClick={() => move(c.id, -1)} aria-label={`Move ${c.name} up`}>↑ Up</button>
-            <button type="button" className="rounded border-2 border-paper-edge px-2" onClick={() => move(c.id, 1)} aria-label={`Move ${c.name} down`}>↓ Down</button>
-            <button type="button" className="rounded border-2 border-paper-edge px-2" onClick={() => void run(() => update.mutateAsync({ id: c.id, archived: !c.archived }))}>
+            <button
+              type="button"
+              className="rounded border-2 border-paper-edge px-2"
+              onClick={() => move(c.id, -1)}
+              aria-label={`Move ${c.name} up`}
+            >
+              ↑ Up
+            </button>
+            <button
+              type="button"
+              className="rounded border-2 border-paper-edge px-2"
+              onClick={() => move(c.id, 1)}
+              aria-label={`Move ${c.name} down`}
+            >
+              ↓ Down
+            </button>
+            <button
+              type="button"
+              className="rounded border-2 border-paper-edge px-2"
+              onClick={() => void run(() => update.mutateAsync({ id: c.id, archived: !c.archived }))}
+            >
               {c.archived ? 'Restore' : 'Archive'}
             </button>
           </div>
@@ -87,10 +122,24 @@ export function CollectionsSidebar({ teamId, collections, selected, onSelect, ca
       <h2 className="px-1 text-xs font-extrabold uppercase tracking-wide text-ink-faint">Collections</h2>
       <ul className="flex flex-col gap-1">
         <li>
-          <button type="button" className={itemClass(selected === undefined)} onClick={() => onSelect(undefined)} aria-pressed={selected === undefined}>All art</button>
+          <button
+            type="button"
+            className={itemClass(selected === undefined)}
+            onClick={() => onSelect(undefined)}
+            aria-pressed={selected === undefined}
+          >
+            All art
+          </button>
         </li>
         <li>
-          <button type="button" className={itemClass(selected === 'none')} onClick={() => onSelect('none')} aria-pressed={selected === 'none'}>Not in a collection</button>
+          <button
+            type="button"
+            className={itemClass(selected === 'none')}
+            onClick={() => onSelect('none')}
+            aria-pressed={selected === 'none'}
+          >
+            Not in a collection
+          </button>
         </li>
         {active.map(row)}
       </ul>
@@ -111,16 +160,38 @@ export function CollectionsSidebar({ teamId, collections, selected, onSelect, ca
             });
           }}
         >
-          <input value={name} onChange={(e) => setName(e.target.value)} placeholder="New collection" aria-label="New collection name" className="min-w-0 flex-1 rounded-lg border-2 border-paper-edge px-2 py-1 text-sm" />
-          <button type="submit" className="rounded-lg bg-ink px-3 text-sm font-bold text-paper">Add</button>
+          <input
+            value={name}
+            onChange={(e) => setName(e.target.value)}
+            placeholder="New collection"
+            aria-label="New collection name"
+            className="min-w-0 flex-1 rounded-lg border-2 border-paper-edge px-2 py-1 text-sm"
+          />
+          <button type="submit" className="rounded-lg bg-ink px-3 text-sm font-bold text-paper">
+            Add
+          </button>
         </form>
       )}
-      {error && <p role="alert" className="text-sm font-semibold text-alarm">{error}</p>}
+      {error && (
+        <p role="alert" className="text-sm font-semibold text-alarm">
+          {error}
+        </p>
+      )}
     </nav>
   );
 }
 
-function CollectionLicence({ teamId, collection, run, save }: { teamId: string; collection: CollectionView; run: (action: () => Promise<unknown>) => Promise<unknown>; save: (licence: LicenceInput | null) => Promise<unknown> }) {
+function CollectionLicence({
+  teamId,
+  collection,
+  run,
+  save,
+}: {
+  teamId: string;
+  collection: CollectionView;
+  run: (action: () => Promise<unknown>) => Promise<unknown>;
+  save: (licence: LicenceInput | null) => Promise<unknown>;
+}) {
   const proof = useAttachProof(teamId, { collectionId: collection.id });
   return (
     <LicenceForm

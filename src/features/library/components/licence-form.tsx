@@ -9,7 +9,7 @@ export function LicenceForm({
   hint,
   onProof,
 }: {
-  licence: Pick<LicenceView, 'kind' | 'source' | 'notes' | 'unitLimit'> & Partial<Pick<LicenceView, 'proofName' | 'proofUrl'>> | null;
+  licence: (Pick<LicenceView, 'kind' | 'source' | 'notes' | 'unitLimit'> & Partial<Pick<LicenceView, 'proofName' | 'proofUrl'>>) | null;
   onSave: (licence: LicenceInput | null) => Promise<unknown>;
   hint?: string;
   onProof?: (file: File) => Promise<unknown>;
@@ -42,31 +42,79 @@ export function LicenceForm({
     <fieldset className="flex flex-col gap-2 text-sm">
       <legend className="font-extrabold">Licence</legend>
       {hint && <p className="text-xs text-ink-faint">{hint}</p>}
-      <select aria-label="Licence kind" value={kind} onChange={(e) => setKind(e.target.value as LicenceKind | '')} className="w-full min-w-0 rounded border-2 border-paper-edge bg-white px-2 py-1">
+      <select
+        aria-label="Licence kind"
+        value={kind}
+        onChange={(e) => setKind(e.target.value as LicenceKind | '')}
+        className="w-full min-w-0 rounded border-2 border-paper-edge bg-white px-2 py-1"
+      >
         <option value="">No licence recorded</option>
-        {LICENCE_KINDS.map((k) => <option key={k} value={k}>{LICENCE_LABELS[k]}</option>)}
+        {LICENCE_KINDS.map((k) => (
+          <option key={k} value={k}>
+            {LICENCE_LABELS[k]}
+          </option>
+        ))}
       </select>
       {kind && (
         <>
-          <input aria-label="Where the art came from" placeholder="Source (shop, designer, link)" value={source} onChange={(e) => setSource(e.target.value)} className="w-full min-w-0 rounded border-2 border-paper-edge px-2 py-1" />
+          <input
+            aria-label="Where the art came from"
+            placeholder="Source (shop, designer, link)"
+            value={source}
+            onChange={(e) => setSource(e.target.value)}
+            className="w-full min-w-0 rounded border-2 border-paper-edge px-2 py-1"
+          />
           {kind === 'commercial_limited' && (
             <>
-              <input aria-label="Units allowed" inputMode="numeric" placeholder="Units allowed" value={unitLimit} onChange={(e) => setUnitLimit(e.target.value)} aria-invalid={errors.unitLimit ? true : undefined} className="w-full min-w-0 rounded border-2 border-paper-edge px-2 py-1" />
-              {errors.unitLimit && <p role="alert" className="font-semibold text-alarm">{errors.unitLimit}</p>}
+              <input
+                aria-label="Units allowed"
+                inputMode="numeric"
+                placeholder="Units allowed"
+                value={unitLimit}
+                onChange={(e) => setUnitLimit(e.target.value)}
+                aria-invalid={errors.unitLimit ? true : undefined}
+                className="w-full min-w-0 rounded border-2 border-paper-edge px-2 py-1"
+              />
+              {errors.unitLimit && (
+                <p role="alert" className="font-semibold text-alarm">
+                  {errors.unitLimit}
+                </p>
+              )}
             </>
           )}
-          <textarea aria-label="Licence notes" placeholder="Notes" value={notes} onChange={(e) => setNotes(e.target.value)} rows={2} className="w-full min-w-0 rounded border-2 border-paper-edge px-2 py-1" />
+          <textarea
+            aria-label="Licence notes"
+            placeholder="Notes"
+            value={notes}
+            onChange={(e) => setNotes(e.target.value)}
+            rows={2}
+            className="w-full min-w-0 rounded border-2 border-paper-edge px-2 py-1"
+          />
         </>
       )}
       {licence?.kind && onProof && (
         <label className="flex flex-col gap-1">
           <span className="font-bold">Proof (receipt, licence text)</span>
-          {licence.proofUrl && <a href={licence.proofUrl} className="text-peel-deep underline">{licence.proofName}</a>}
+          {licence.proofUrl && (
+            <a href={licence.proofUrl} className="text-peel-deep underline">
+              {licence.proofName}
+            </a>
+          )}
           <input type="file" aria-label="Attach a licence proof" onChange={(e) => e.target.files?.[0] && void onProof(e.target.files[0])} />
         </label>
       )}
-      <button type="button" onClick={() => void save()} className="self-start rounded-full border-2 border-paper-edge px-3 py-1 font-bold hover:border-ink">Save licence</button>
-      {saved && <p role="status" className="text-sage-deep">Licence saved.</p>}
+      <button
+        type="button"
+        onClick={() => void save()}
+        className="self-start rounded-full border-2 border-paper-edge px-3 py-1 font-bold hover:border-ink"
+      >
+        Save licence
+      </button>
+      {saved && (
+        <p role="status" className="text-sage-deep">
+          Licence saved.
+        </p>
+      )}
     </fieldset>
   );
 }

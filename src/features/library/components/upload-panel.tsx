@@ -6,7 +6,14 @@ import { ApiError } from '../../../lib/api-client';
 import { useInvalidateLibrary } from '../api/art';
 import { uploadArt } from '../api/upload';
 
-type Job = { id: number; file: File; progress: number; state: 'waiting' | 'sending' | 'done' | 'failed'; results: UploadResult[]; error?: string };
+type Job = {
+  id: number;
+  file: File;
+  progress: number;
+  state: 'waiting' | 'sending' | 'done' | 'failed';
+  results: UploadResult[];
+  error?: string;
+};
 
 const STATUS_TEXT: Record<UploadResult['status'], string> = {
   stored: 'Added',
@@ -58,12 +65,16 @@ export function UploadPanel({ teamId, collections, onClose }: { teamId: string; 
   };
 
   const overall = jobs.length ? jobs.reduce((sum, j) => sum + j.progress, 0) / jobs.length : 0;
-  const counts = jobs.flatMap((j) => j.results).reduce<Record<string, number>>((acc, r) => ({ ...acc, [r.status]: (acc[r.status] ?? 0) + 1 }), {});
+  const counts = jobs
+    .flatMap((j) => j.results)
+    .reduce<Record<string, number>>((acc, r) => ({ ...acc, [r.status]: (acc[r.status] ?? 0) + 1 }), {});
 
   return (
     <section aria-labelledby="upload-title" className="mb-6 rounded-sticker border-2 border-paper-edge bg-white p-5">
       <div className="mb-3 flex items-center justify-between">
-        <h2 id="upload-title" className="text-lg font-extrabold">Add art</h2>
+        <h2 id="upload-title" className="text-lg font-extrabold">
+          Add art
+        </h2>
         <button type="button" className="font-bold text-ink-soft underline" onClick={onClose} disabled={busy}>
           Close
         </button>
@@ -80,11 +91,19 @@ export function UploadPanel({ teamId, collections, onClose }: { teamId: string; 
         </label>
         <label className="flex flex-col gap-1 text-sm font-bold">
           Put into collection
-          <select value={collectionId} onChange={(e) => setCollectionId(e.target.value)} className="rounded-lg border-2 border-paper-edge bg-white px-3 py-2 font-normal">
+          <select
+            value={collectionId}
+            onChange={(e) => setCollectionId(e.target.value)}
+            className="rounded-lg border-2 border-paper-edge bg-white px-3 py-2 font-normal"
+          >
             <option value="">No collection</option>
-            {collections.filter((c) => !c.archived).map((c) => (
-              <option key={c.id} value={c.id}>{c.name}</option>
-            ))}
+            {collections
+              .filter((c) => !c.archived)
+              .map((c) => (
+                <option key={c.id} value={c.id}>
+                  {c.name}
+                </option>
+              ))}
           </select>
         </label>
       </div>
@@ -103,9 +122,19 @@ export function UploadPanel({ teamId, collections, onClose }: { teamId: string; 
         className={`flex cursor-pointer flex-col items-center justify-center gap-1 rounded-sticker border-2 border-dashed p-8 text-center transition ${dragging ? 'border-peel bg-peel-light' : 'border-ink-faint/40 bg-paper'}`}
       >
         <span className="text-lg font-extrabold">Drop PNG, JPEG, WebP or zipped packs here</span>
-        <span className="text-sm text-ink-soft">or click to choose files · folders inside a zip become keywords · SVG is not supported yet</span>
+        <span className="text-sm text-ink-soft">
+          or click to choose files · folders inside a zip become keywords · SVG is not supported yet
+        </span>
       </div>
-      <input ref={picker} type="file" multiple accept={ACCEPT} className="sr-only" data-testid="upload-input" onChange={(e) => e.target.files && void start([...e.target.files])} />
+      <input
+        ref={picker}
+        type="file"
+        multiple
+        accept={ACCEPT}
+        className="sr-only"
+        data-testid="upload-input"
+        onChange={(e) => e.target.files && void start([...e.target.files])}
+      />
 
       {jobs.length > 0 && (
         <div className="mt-4 flex flex-col gap-3">
@@ -117,7 +146,8 @@ export function UploadPanel({ teamId, collections, onClose }: { teamId: string; 
             <progress className="h-3 w-full accent-sage" max={1} value={overall} aria-label="Overall upload progress" />
             {!busy && (
               <p className="mt-1 text-sm text-ink-soft" data-testid="upload-summary" role="status">
-                {counts.stored ?? 0} added · {counts.duplicate ?? 0} already in the library · {(counts.rejected ?? 0) + jobs.filter((j) => j.state === 'failed').length} refused · {counts.skipped ?? 0} skipped
+                {counts.stored ?? 0} added · {counts.duplicate ?? 0} already in the library ·{' '}
+                {(counts.rejected ?? 0) + jobs.filter((j) => j.state === 'failed').length} refused · {counts.skipped ?? 0} skipped
               </p>
             )}
           </div>
@@ -134,7 +164,8 @@ export function UploadPanel({ teamId, collections, onClose }: { teamId: string; 
                   <ul className="mt-1 text-xs">
                     {job.results.map((r) => (
                       <li key={r.file} className={r.status === 'rejected' ? 'text-alarm' : 'text-ink-soft'}>
-                        {r.file}: {STATUS_TEXT[r.status]}{r.reason ? ` (${r.reason})` : ''}
+                        {r.file}: {STATUS_TEXT[r.status]}
+                        {r.reason ? ` (${r.reason})` : ''}
                       </li>
                     ))}
                   </ul>
@@ -142,7 +173,11 @@ export function UploadPanel({ teamId, collections, onClose }: { teamId: string; 
               </li>
             ))}
           </ul>
-          {!busy && <Button variant="quiet" onClick={() => setJobs([])}>Clear the list</Button>}
+          {!busy && (
+            <Button variant="quiet" onClick={() => setJobs([])}>
+              Clear the list
+            </Button>
+          )}
         </div>
       )}
     </section>

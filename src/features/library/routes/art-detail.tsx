@@ -35,13 +35,17 @@ export function ArtDetailRoute() {
   if (art.isError) return <FormMessage>{art.error.message}</FormMessage>;
   const item = art.data;
   const unit = me?.user.unit ?? 'in';
-  const size = (p: { widthMm: number; heightMm: number }) => `${formatLength(p.widthMm, unit, unit === 'in' ? 2 : 0)} × ${formatLength(p.heightMm, unit, unit === 'in' ? 2 : 0)}`;
+  const size = (p: { widthMm: number; heightMm: number }) =>
+    `${formatLength(p.widthMm, unit, unit === 'in' ? 2 : 0)} × ${formatLength(p.heightMm, unit, unit === 'in' ? 2 : 0)}`;
   const edit = can('library.contribute');
-
 
   return (
     <>
-      <p className="mb-2 text-sm"><Link to=".." relative="path" className="font-bold text-peel-deep underline">← Art library</Link></p>
+      <p className="mb-2 text-sm">
+        <Link to=".." relative="path" className="font-bold text-peel-deep underline">
+          ← Art library
+        </Link>
+      </p>
       <PageTitle title={item.name} />
       <FormMessage>{error}</FormMessage>
       {saved && <FormMessage tone="ok">Saved.</FormMessage>}
@@ -51,12 +55,26 @@ export function ArtDetailRoute() {
           <section className="rounded-sticker border-2 border-paper-edge bg-white p-5 text-sm">
             <h2 className="mb-2 text-lg font-extrabold">About this art</h2>
             <dl className="grid grid-cols-[auto_1fr] gap-x-3 gap-y-1">
-              <dt className="font-bold">Pixels</dt><dd>{item.widthPx} × {item.heightPx} ({item.format.toUpperCase()})</dd>
-              <dt className="font-bold">Largest at 300 DPI</dt><dd>{size(item.largestPrint.at300)}</dd>
-              <dt className="font-bold">Largest at 150 DPI</dt><dd>{size(item.largestPrint.at150)}</dd>
-              <dt className="font-bold">Transparency</dt><dd>{item.hasTransparency ? 'Yes' : 'No'}</dd>
-              <dt className="font-bold">Licence</dt><dd>{item.licence ? `${LICENCE_LABELS[item.licence.kind]}${item.licence.inheritedFrom ? ` (from the pack ${item.licence.inheritedFrom.name})` : ''}` : 'Not recorded'}</dd>
-              <dt className="font-bold">Added by</dt><dd>{item.uploadedBy.name}, {new Date(item.createdAt).toLocaleDateString()}</dd>
+              <dt className="font-bold">Pixels</dt>
+              <dd>
+                {item.widthPx} × {item.heightPx} ({item.format.toUpperCase()})
+              </dd>
+              <dt className="font-bold">Largest at 300 DPI</dt>
+              <dd>{size(item.largestPrint.at300)}</dd>
+              <dt className="font-bold">Largest at 150 DPI</dt>
+              <dd>{size(item.largestPrint.at150)}</dd>
+              <dt className="font-bold">Transparency</dt>
+              <dd>{item.hasTransparency ? 'Yes' : 'No'}</dd>
+              <dt className="font-bold">Licence</dt>
+              <dd>
+                {item.licence
+                  ? `${LICENCE_LABELS[item.licence.kind]}${item.licence.inheritedFrom ? ` (from the pack ${item.licence.inheritedFrom.name})` : ''}`
+                  : 'Not recorded'}
+              </dd>
+              <dt className="font-bold">Added by</dt>
+              <dd>
+                {item.uploadedBy.name}, {new Date(item.createdAt).toLocaleDateString()}
+              </dd>
             </dl>
           </section>
           {edit && (
@@ -69,42 +87,81 @@ export function ArtDetailRoute() {
                 const changes: ArtUpdateInput = {};
                 const name = String(form.get('name') ?? '').trim();
                 if (name !== item.name) changes.name = name;
-                const keywords = String(form.get('keywords') ?? '').split(',').map((k) => k.trim()).filter(Boolean);
+                const keywords = String(form.get('keywords') ?? '')
+                  .split(',')
+                  .map((k) => k.trim())
+                  .filter(Boolean);
                 if (keywords.join('\u0000') !== item.keywords.join('\u0000')) changes.keywords = keywords;
                 if (collections.data) {
                   const chosen = form.getAll('collectionIds').map(String).sort();
-                  if (chosen.join(',') !== item.collections.map((c) => c.id).sort().join(',')) changes.collectionIds = chosen;
+                  if (
+                    chosen.join(',') !==
+                    item.collections
+                      .map((c) => c.id)
+                      .sort()
+                      .join(',')
+                  )
+                    changes.collectionIds = chosen;
                 }
                 if (Object.keys(changes).length === 0) return setSaved(true);
                 void run(() => update.mutateAsync(changes));
               }}
             >
               <h2 className="text-lg font-extrabold">Details</h2>
-              <label className="flex flex-col gap-1 font-bold">Name<input name="name" defaultValue={item.name} className="rounded border-2 border-paper-edge px-2 py-1 font-normal" /></label>
-              <label className="flex flex-col gap-1 font-bold">Keywords (comma between)<input name="keywords" defaultValue={item.keywords.join(', ')} className="rounded border-2 border-paper-edge px-2 py-1 font-normal" /></label>
+              <label className="flex flex-col gap-1 font-bold">
+                Name
+                <input name="name" defaultValue={item.name} className="rounded border-2 border-paper-edge px-2 py-1 font-normal" />
+              </label>
+              <label className="flex flex-col gap-1 font-bold">
+                Keywords (comma between)
+                <input
+                  name="keywords"
+                  defaultValue={item.keywords.join(', ')}
+                  className="rounded border-2 border-paper-edge px-2 py-1 font-normal"
+                />
+              </label>
               <fieldset className="flex flex-col gap-1" aria-describedby="collections-hint">
                 <legend className="font-bold">Collections</legend>
                 {/* Shown only once the list is here: a half-loaded list must never read as "in none". */}
                 {collections.data ? (
-                  collections.data.filter((c) => !c.archived || item.collections.some((m) => m.id === c.id)).map((c) => (
-                    <label key={c.id} className="flex items-center gap-2">
-                      <input type="checkbox" name="collectionIds" value={c.id} defaultChecked={item.collections.some((m) => m.id === c.id)} />
-                      {c.name}
-                    </label>
-                  ))
+                  collections.data
+                    .filter((c) => !c.archived || item.collections.some((m) => m.id === c.id))
+                    .map((c) => (
+                      <label key={c.id} className="flex items-center gap-2">
+                        <input
+                          type="checkbox"
+                          name="collectionIds"
+                          value={c.id}
+                          defaultChecked={item.collections.some((m) => m.id === c.id)}
+                        />
+                        {c.name}
+                      </label>
+                    ))
                 ) : (
-                  <p className="text-ink-soft" data-testid="collections-loading">Loading collections…</p>
+                  <p className="text-ink-soft" data-testid="collections-loading">
+                    Loading collections…
+                  </p>
                 )}
-                <p id="collections-hint" className="text-xs text-ink-soft">Art can be in several collections. Its licence stays with the art{item.licence?.inheritedFrom ? ` (from its pack, ${item.licence.inheritedFrom.name})` : ''}, whichever collections it is in.</p>
+                <p id="collections-hint" className="text-xs text-ink-soft">
+                  Art can be in several collections. Its licence stays with the art
+                  {item.licence?.inheritedFrom ? ` (from its pack, ${item.licence.inheritedFrom.name})` : ''}, whichever collections it is
+                  in.
+                </p>
               </fieldset>
-              <Button type="submit" busy={update.isPending}>Save details</Button>
+              <Button type="submit" busy={update.isPending}>
+                Save details
+              </Button>
             </form>
           )}
           {can('library.manage') && (
             <section className="rounded-sticker border-2 border-paper-edge bg-white p-5">
               <LicenceForm
                 licence={item.licence && !item.licence.inheritedFrom ? item.licence : null}
-                hint={item.licence?.inheritedFrom ? `Now from the pack it came in, ${item.licence.inheritedFrom.name}. A licence set here overrides it.` : undefined}
+                hint={
+                  item.licence?.inheritedFrom
+                    ? `Now from the pack it came in, ${item.licence.inheritedFrom.name}. A licence set here overrides it.`
+                    : undefined
+                }
                 onSave={(licence) => run(() => update.mutateAsync({ licence }))}
                 onProof={(file) => run(() => proof.mutateAsync(file))}
               />
@@ -116,7 +173,8 @@ export function ArtDetailRoute() {
               onClick={() => {
                 if (!window.confirm(`Remove “${item.name}” from the library?`)) return;
                 void run(async () => {
-                  if (await deleteWithQuestion((confirm) => remove.mutateAsync({ artId: item.id, confirm }))) navigate('..', { relative: 'path' });
+                  if (await deleteWithQuestion((confirm) => remove.mutateAsync({ artId: item.id, confirm })))
+                    navigate('..', { relative: 'path' });
                 });
               }}
             >

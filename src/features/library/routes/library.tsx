@@ -67,12 +67,13 @@ export function LibraryRoute() {
   const items = list.data?.items ?? [];
   const total = list.data?.total ?? 0;
   const pages = Math.max(1, Math.ceil(total / PAGE_SIZE));
-  const toggle = (id: string) => setSelected((s) => {
-    const next = new Set(s);
-    if (next.has(id)) next.delete(id);
-    else next.add(id);
-    return next;
-  });
+  const toggle = (id: string) =>
+    setSelected((s) => {
+      const next = new Set(s);
+      if (next.has(id)) next.delete(id);
+      else next.add(id);
+      return next;
+    });
 
   return (
     <>
@@ -81,26 +82,61 @@ export function LibraryRoute() {
       </PageTitle>
       {uploading && <UploadPanel teamId={teamId!} collections={collections.data ?? []} onClose={() => setUploading(false)} />}
       <div className="grid gap-6 lg:grid-cols-[15rem_1fr]">
-        <CollectionsSidebar teamId={teamId!} collections={collections.data ?? []} selected={filters.collectionId} onSelect={(id) => setParam({ collectionId: id })} canManage={can('library.manage')} />
+        <CollectionsSidebar
+          teamId={teamId!}
+          collections={collections.data ?? []}
+          selected={filters.collectionId}
+          onSelect={(id) => setParam({ collectionId: id })}
+          canManage={can('library.manage')}
+        />
         <div className="min-w-0">
           <div className="mb-4 flex flex-wrap items-end gap-2" role="search">
             <label className="flex min-w-[14rem] flex-1 flex-col text-sm font-bold">
               Find art
-              <input type="search" value={text} onChange={(e) => setText(e.target.value)} placeholder="name, keyword or collection — e.g. tulips, sun-flower" className="rounded-lg border-2 border-paper-edge px-3 py-2 font-normal" />
+              <input
+                type="search"
+                value={text}
+                onChange={(e) => setText(e.target.value)}
+                placeholder="name, keyword or collection — e.g. tulips, sun-flower"
+                className="rounded-lg border-2 border-paper-edge px-3 py-2 font-normal"
+              />
             </label>
-            <select aria-label="Licence" className={select} value={filters.licence ?? ''} onChange={(e) => setParam({ licence: e.target.value })}>
+            <select
+              aria-label="Licence"
+              className={select}
+              value={filters.licence ?? ''}
+              onChange={(e) => setParam({ licence: e.target.value })}
+            >
               <option value="">Any licence</option>
-              {LICENCE_KINDS.map((k) => <option key={k} value={k}>{LICENCE_LABELS[k]}</option>)}
+              {LICENCE_KINDS.map((k) => (
+                <option key={k} value={k}>
+                  {LICENCE_LABELS[k]}
+                </option>
+              ))}
               <option value="none">No licence recorded</option>
             </select>
-            <select aria-label="Transparency" className={select} value={filters.transparency ?? ''} onChange={(e) => setParam({ transparency: e.target.value })}>
+            <select
+              aria-label="Transparency"
+              className={select}
+              value={filters.transparency ?? ''}
+              onChange={(e) => setParam({ transparency: e.target.value })}
+            >
               <option value="">With or without transparency</option>
               <option value="yes">Has transparency</option>
               <option value="no">No transparency</option>
             </select>
-            <select aria-label="Uploaded by" className={select} value={filters.uploadedBy ?? ''} onChange={(e) => setParam({ uploadedBy: e.target.value })}>
+            <select
+              aria-label="Uploaded by"
+              className={select}
+              value={filters.uploadedBy ?? ''}
+              onChange={(e) => setParam({ uploadedBy: e.target.value })}
+            >
               <option value="">Anyone</option>
-              {members.data?.map((m) => <option key={m.userId} value={m.userId}>{m.name}</option>)}
+              {members.data?.map((m) => (
+                <option key={m.userId} value={m.userId}>
+                  {m.name}
+                </option>
+              ))}
             </select>
             <label className="flex flex-col text-xs font-bold">
               Added from
@@ -110,7 +146,15 @@ export function LibraryRoute() {
               to
               <input type="date" className={select} value={filters.to ?? ''} onChange={(e) => setParam({ to: e.target.value })} />
             </label>
-            <select aria-label="Sort by" className={select} value={`${filters.sort}:${filters.dir}`} onChange={(e) => { const [sort, dir] = e.target.value.split(':'); setParam({ sort, dir }); }}>
+            <select
+              aria-label="Sort by"
+              className={select}
+              value={`${filters.sort}:${filters.dir}`}
+              onChange={(e) => {
+                const [sort, dir] = e.target.value.split(':');
+                setParam({ sort, dir });
+              }}
+            >
               <option value="created:desc">Newest first</option>
               <option value="created:asc">Oldest first</option>
               <option value="name:asc">Name A–Z</option>
@@ -119,8 +163,22 @@ export function LibraryRoute() {
               <option value="size:desc">Largest file</option>
             </select>
             <div role="group" aria-label="View" className="flex overflow-hidden rounded-lg border-2 border-paper-edge text-sm font-bold">
-              <button type="button" aria-pressed={view === 'grid'} className={`px-3 py-1 ${view === 'grid' ? 'bg-ink text-paper' : 'bg-white'}`} onClick={() => setParam({ view: undefined, page: params.get('page') ?? undefined })}>Grid</button>
-              <button type="button" aria-pressed={view === 'table'} className={`px-3 py-1 ${view === 'table' ? 'bg-ink text-paper' : 'bg-white'}`} onClick={() => setParam({ view: 'table', page: params.get('page') ?? undefined })}>Table</button>
+              <button
+                type="button"
+                aria-pressed={view === 'grid'}
+                className={`px-3 py-1 ${view === 'grid' ? 'bg-ink text-paper' : 'bg-white'}`}
+                onClick={() => setParam({ view: undefined, page: params.get('page') ?? undefined })}
+              >
+                Grid
+              </button>
+              <button
+                type="button"
+                aria-pressed={view === 'table'}
+                className={`px-3 py-1 ${view === 'table' ? 'bg-ink text-paper' : 'bg-white'}`}
+                onClick={() => setParam({ view: 'table', page: params.get('page') ?? undefined })}
+              >
+                Table
+              </button>
             </div>
           </div>
           {can('library.contribute') && selected.size > 0 && (
@@ -132,10 +190,23 @@ export function LibraryRoute() {
           </p>
           {!list.isPending && total === 0 ? (
             <EmptyState title={filters.q ? 'Nothing matches' : 'Your shelf is empty'}>
-              {filters.q ? 'Try a shorter word, the singular, or another keyword.' : can('library.contribute') ? 'Add art: single images or a whole zipped pack at once.' : 'Teammates have not added art yet.'}
+              {filters.q
+                ? 'Try a shorter word, the singular, or another keyword.'
+                : can('library.contribute')
+                  ? 'Add art: single images or a whole zipped pack at once.'
+                  : 'Teammates have not added art yet.'}
             </EmptyState>
           ) : view === 'grid' ? (
-            <ArtGrid items={items} unit={me?.user.unit ?? 'in'} selected={selected} onToggle={toggle} onToggleAll={() => undefined} sort={filters.sort!} dir={filters.dir!} onSort={() => undefined} />
+            <ArtGrid
+              items={items}
+              unit={me?.user.unit ?? 'in'}
+              selected={selected}
+              onToggle={toggle}
+              onToggleAll={() => undefined}
+              sort={filters.sort!}
+              dir={filters.dir!}
+              onSort={() => undefined}
+            />
           ) : (
             <ArtTable
               items={items}
@@ -150,9 +221,15 @@ export function LibraryRoute() {
           )}
           {pages > 1 && (
             <nav aria-label="Pages" className="mt-4 flex items-center justify-center gap-3">
-              <Button variant="quiet" disabled={filters.page! <= 1} onClick={() => setParam({ page: String(filters.page! - 1) })}>Previous</Button>
-              <span className="text-sm font-bold">Page {filters.page} of {pages}</span>
-              <Button variant="quiet" disabled={filters.page! >= pages} onClick={() => setParam({ page: String(filters.page! + 1) })}>Next</Button>
+              <Button variant="quiet" disabled={filters.page! <= 1} onClick={() => setParam({ page: String(filters.page! - 1) })}>
+                Previous
+              </Button>
+              <span className="text-sm font-bold">
+                Page {filters.page} of {pages}
+              </span>
+              <Button variant="quiet" disabled={filters.page! >= pages} onClick={() => setParam({ page: String(filters.page! + 1) })}>
+                Next
+              </Button>
             </nav>
           )}
         </div>

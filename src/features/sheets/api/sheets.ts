@@ -15,7 +15,10 @@ export const sheetsQueryOptions = (teamId: string, filters: SheetFilters) =>
 
 /** Polls while an export is running so its progress shows in the list. */
 export const useSheets = (teamId: string, filters: SheetFilters) =>
-  useQuery({ ...sheetsQueryOptions(teamId, filters), refetchInterval: (q) => (q.state.data?.some((s) => s.lastExport?.status === 'running') ? 1000 : false) });
+  useQuery({
+    ...sheetsQueryOptions(teamId, filters),
+    refetchInterval: (q) => (q.state.data?.some((s) => s.lastExport?.status === 'running') ? 1000 : false),
+  });
 
 export const profilesQueryOptions = (teamId: string) =>
   queryOptions({
@@ -31,16 +34,31 @@ function useSheetsMutation<I, O>(teamId: string, fn: (input: I) => Promise<O>) {
 }
 
 export const useCreateSheet = (teamId: string) =>
-  useSheetsMutation(teamId, (input: { name: string; profileId?: string; fromTemplateId?: string; unit?: 'in' | 'mm' }) => api<SheetDetail>('POST', `/teams/${teamId}/sheets`, input));
+  useSheetsMutation(teamId, (input: { name: string; profileId?: string; fromTemplateId?: string; unit?: 'in' | 'mm' }) =>
+    api<SheetDetail>('POST', `/teams/${teamId}/sheets`, input),
+  );
 export const useDuplicateSheet = (teamId: string) =>
-  useSheetsMutation(teamId, ({ id, ...body }: { id: string; name?: string; asTemplate?: boolean }) => api<SheetDetail>('POST', `/teams/${teamId}/sheets/${id}/duplicate`, body));
-export const useDeleteSheet = (teamId: string) => useSheetsMutation(teamId, (id: string) => api<void>('DELETE', `/teams/${teamId}/sheets/${id}`));
+  useSheetsMutation(teamId, ({ id, ...body }: { id: string; name?: string; asTemplate?: boolean }) =>
+    api<SheetDetail>('POST', `/teams/${teamId}/sheets/${id}/duplicate`, body),
+  );
+export const useDeleteSheet = (teamId: string) =>
+  useSheetsMutation(teamId, (id: string) => api<void>('DELETE', `/teams/${teamId}/sheets/${id}`));
 
 function useProfileMutation<I, O>(teamId: string, fn: (input: I) => Promise<O>) {
   const client = useQueryClient();
   return useMutation({ mutationFn: fn, onSettled: () => void client.invalidateQueries({ queryKey: ['teams', teamId, 'sheet-profiles'] }) });
 }
-export type ProfileForm = Omit<ProfileInput, 'paperWidthMm' | 'paperHeightMm' | 'areaXMm' | 'areaYMm'> & { paperWidthMm?: number; paperHeightMm?: number; areaXMm?: number; areaYMm?: number };
-export const useCreateProfile = (teamId: string) => useProfileMutation(teamId, (input: ProfileForm) => api<ProfileView>('POST', `/teams/${teamId}/sheet-profiles`, input));
-export const useUpdateProfile = (teamId: string) => useProfileMutation(teamId, ({ id, ...input }: ProfileForm & { id: string }) => api<ProfileView>('PUT', `/teams/${teamId}/sheet-profiles/${id}`, input));
-export const useMakeDefaultProfile = (teamId: string) => useProfileMutation(teamId, (id: string) => api<ProfileView>('POST', `/teams/${teamId}/sheet-profiles/${id}/default`));
+export type ProfileForm = Omit<ProfileInput, 'paperWidthMm' | 'paperHeightMm' | 'areaXMm' | 'areaYMm'> & {
+  paperWidthMm?: number;
+  paperHeightMm?: number;
+  areaXMm?: number;
+  areaYMm?: number;
+};
+export const useCreateProfile = (teamId: string) =>
+  useProfileMutation(teamId, (input: ProfileForm) => api<ProfileView>('POST', `/teams/${teamId}/sheet-profiles`, input));
+export const useUpdateProfile = (teamId: string) =>
+  useProfileMutation(teamId, ({ id, ...input }: ProfileForm & { id: string }) =>
+    api<ProfileView>('PUT', `/teams/${teamId}/sheet-profiles/${id}`, input),
+  );
+export const useMakeDefaultProfile = (teamId: string) =>
+  useProfileMutation(teamId, (id: string) => api<ProfileView>('POST', `/teams/${teamId}/sheet-profiles/${id}/default`));

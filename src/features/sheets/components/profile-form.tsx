@@ -31,14 +31,29 @@ function draftFrom(unit: LengthUnit, p?: ProfileView) {
 }
 
 /** Adds a sheet profile (no `profile`) or edits one; sheets already made keep their print area. */
-export function ProfileForm({ profile, unit, onSave, onCancel }: { profile?: ProfileView; unit: LengthUnit; onSave: (body: ProfileBody) => Promise<unknown>; onCancel?: () => void }) {
+export function ProfileForm({
+  profile,
+  unit,
+  onSave,
+  onCancel,
+}: {
+  profile?: ProfileView;
+  unit: LengthUnit;
+  onSave: (body: ProfileBody) => Promise<unknown>;
+  onCancel?: () => void;
+}) {
   const [form, setForm] = useState(() => draftFrom(unit, profile));
   const [errors, setErrors] = useState<Record<string, string>>({});
   const [message, setMessage] = useState<{ text: string; tone: 'ok' | 'error' } | null>(null);
   const field = (key: keyof typeof form, label: string) => (
     <label className="flex flex-col gap-1 text-xs font-bold">
       {label}
-      <input value={form[key]} onChange={(e) => setForm({ ...form, [key]: e.target.value })} className="w-24 rounded border-2 border-paper-edge px-2 py-1 font-normal" inputMode="decimal" />
+      <input
+        value={form[key]}
+        onChange={(e) => setForm({ ...form, [key]: e.target.value })}
+        className="w-24 rounded border-2 border-paper-edge px-2 py-1 font-normal"
+        inputMode="decimal"
+      />
     </label>
   );
   const submit = async () => {
@@ -47,7 +62,8 @@ export function ProfileForm({ profile, unit, onSave, onCancel }: { profile?: Pro
     const mm = (v: string) => toMm(Number(v), unit);
     // An unchanged paper and print area keeps its place (a profile may have been placed off-centre through the API).
     const start = profile && draftFrom(unit, profile);
-    const samePlace = start && (['paper', 'paperWidth', 'paperHeight', 'areaWidth', 'areaHeight'] as const).every((k) => form[k] === start[k]);
+    const samePlace =
+      start && (['paper', 'paperWidth', 'paperHeight', 'areaWidth', 'areaHeight'] as const).every((k) => form[k] === start[k]);
     try {
       await onSave({
         ...(samePlace && { areaXMm: profile.areaXMm, areaYMm: profile.areaYMm }),
@@ -74,12 +90,29 @@ export function ProfileForm({ profile, unit, onSave, onCancel }: { profile?: Pro
     }
   };
   return (
-    <form aria-label={profile ? `Edit ${profile.name}` : 'Add a profile'} onSubmit={(e) => { e.preventDefault(); void submit(); }}>
+    <form
+      aria-label={profile ? `Edit ${profile.name}` : 'Add a profile'}
+      onSubmit={(e) => {
+        e.preventDefault();
+        void submit();
+      }}
+    >
       <div className="mt-2 flex flex-wrap items-end gap-2">
-        <label className="flex flex-col gap-1 text-xs font-bold">Name<input value={form.name} onChange={(e) => setForm({ ...form, name: e.target.value })} className="rounded border-2 border-paper-edge px-2 py-1 font-normal" /></label>
+        <label className="flex flex-col gap-1 text-xs font-bold">
+          Name
+          <input
+            value={form.name}
+            onChange={(e) => setForm({ ...form, name: e.target.value })}
+            className="rounded border-2 border-paper-edge px-2 py-1 font-normal"
+          />
+        </label>
         <label className="flex flex-col gap-1 text-xs font-bold">
           Paper
-          <select value={form.paper} onChange={(e) => setForm({ ...form, paper: e.target.value as typeof form.paper })} className="rounded border-2 border-paper-edge bg-white px-2 py-1 font-normal">
+          <select
+            value={form.paper}
+            onChange={(e) => setForm({ ...form, paper: e.target.value as typeof form.paper })}
+            className="rounded border-2 border-paper-edge bg-white px-2 py-1 font-normal"
+          >
             <option value="letter">{PAPER_SIZES.letter.label}</option>
             <option value="a4">{PAPER_SIZES.a4.label}</option>
             <option value="custom">Custom</option>
@@ -96,21 +129,48 @@ export function ProfileForm({ profile, unit, onSave, onCancel }: { profile?: Pro
         {field('bridge', `Bridge width (${unit})`)}
         <label className="flex flex-col gap-1 text-xs font-bold">
           Cut layer colour name
-          <input value={form.spot} onChange={(e) => setForm({ ...form, spot: e.target.value })} className="w-28 rounded border-2 border-paper-edge px-2 py-1 font-normal" />
+          <input
+            value={form.spot}
+            onChange={(e) => setForm({ ...form, spot: e.target.value })}
+            className="w-28 rounded border-2 border-paper-edge px-2 py-1 font-normal"
+          />
         </label>
         <label className="flex flex-col gap-1 text-xs font-bold">
           Registration marks
-          <select value={form.marks} onChange={(e) => setForm({ ...form, marks: e.target.value as RegMarkShape })} className="rounded border-2 border-paper-edge bg-white px-2 py-1 font-normal">
-            {REG_MARK_SHAPES.map((s) => <option key={s} value={s}>{REG_MARK_LABELS[s]}</option>)}
+          <select
+            value={form.marks}
+            onChange={(e) => setForm({ ...form, marks: e.target.value as RegMarkShape })}
+            className="rounded border-2 border-paper-edge bg-white px-2 py-1 font-normal"
+          >
+            {REG_MARK_SHAPES.map((s) => (
+              <option key={s} value={s}>
+                {REG_MARK_LABELS[s]}
+              </option>
+            ))}
           </select>
         </label>
         {form.marks !== 'none' && field('markSize', `Mark size (${unit})`)}
         {form.marks !== 'none' && field('markOffset', `Mark offset (${unit})`)}
-        <button type="submit" className="rounded-full bg-ink px-4 py-1 font-bold text-paper">{profile ? 'Save profile' : 'Add profile'}</button>
-        {onCancel && <button type="button" className="font-bold underline" onClick={onCancel}>Cancel</button>}
+        <button type="submit" className="rounded-full bg-ink px-4 py-1 font-bold text-paper">
+          {profile ? 'Save profile' : 'Add profile'}
+        </button>
+        {onCancel && (
+          <button type="button" className="font-bold underline" onClick={onCancel}>
+            Cancel
+          </button>
+        )}
       </div>
-      <p className="mt-1 text-xs text-ink-faint">The print area is centred on the paper. Common practice for home cutters: 6.75 × 9.25 in on Letter, gaps of at least 1/8 in. Parts of the art the border joins get bridges at least the bridge width (common practice: 3 mm). Registration marks are for cutters that read marks printed with the art; most cutters' own software adds its own, so leave them off unless your machine's manual asks for printed marks.{profile ? ' Sheets already made keep their print area; preflight uses the new smallest sizes.' : ''}</p>
-      {Object.values(errors).map((e) => <p key={e} role="alert" className="font-semibold text-alarm">{e}</p>)}
+      <p className="mt-1 text-xs text-ink-faint">
+        The print area is centred on the paper. Common practice for home cutters: 6.75 × 9.25 in on Letter, gaps of at least 1/8 in. Parts
+        of the art the border joins get bridges at least the bridge width (common practice: 3 mm). Registration marks are for cutters that
+        read marks printed with the art; most cutters' own software adds its own, so leave them off unless your machine's manual asks for
+        printed marks.{profile ? ' Sheets already made keep their print area; preflight uses the new smallest sizes.' : ''}
+      </p>
+      {Object.values(errors).map((e) => (
+        <p key={e} role="alert" className="font-semibold text-alarm">
+          {e}
+        </p>
+      ))}
       {message && !Object.keys(errors).length && <FormMessage tone={message.tone}>{message.text}</FormMessage>}
     </form>
   );

@@ -34,20 +34,45 @@ type Draft = ReturnType<typeof draftFrom>;
 
 /** The request body for POST/PUT /stock (the server validates it; the count on hand only counts on create). */
 const bodyOf = (d: Draft, unit: LengthUnit) => ({
-  name: d.name, finish: d.finish, paper: d.paper,
-  ...(d.paper === 'custom' && { paperWidthMm: parseLength(d.paperWidth, unit) ?? undefined, paperHeightMm: parseLength(d.paperHeight, unit) ?? undefined }),
-  packPrice: d.packPrice, sheetsPerPack: d.sheetsPerPack, onHand: d.onHand,
+  name: d.name,
+  finish: d.finish,
+  paper: d.paper,
+  ...(d.paper === 'custom' && {
+    paperWidthMm: parseLength(d.paperWidth, unit) ?? undefined,
+    paperHeightMm: parseLength(d.paperHeight, unit) ?? undefined,
+  }),
+  packPrice: d.packPrice,
+  sheetsPerPack: d.sheetsPerPack,
+  onHand: d.onHand,
   printerSettings: { paperSetting: d.paperSetting, quality: d.quality, colour: d.colour, other: d.printerOther },
   cutterSettings: { material: d.material, pressure: d.pressure, passes: d.passes, blade: d.blade },
   rating: d.rating === '' ? null : d.rating,
-  foodSafe: d.foodSafe, skinSafe: d.skinSafe, notes: d.notes,
+  foodSafe: d.foodSafe,
+  skinSafe: d.skinSafe,
+  notes: d.notes,
 });
 
 /** The server's field paths that are not the form's own key's name. */
-const FIELD_OF: Record<string, keyof Draft> = { paperWidthMm: 'paperWidth', paperHeightMm: 'paperHeight', 'printerSettings.other': 'printerOther' };
+const FIELD_OF: Record<string, keyof Draft> = {
+  paperWidthMm: 'paperWidth',
+  paperHeightMm: 'paperHeight',
+  'printerSettings.other': 'printerOther',
+};
 
 /** Adds stock (no `stock`) or edits it; every field the shelf keeps, grouped as the maker thinks of them. */
-export function StockForm({ stock, currency, unit, onSave, onCancel }: { stock?: StockView; currency: string; unit: LengthUnit; onSave: (body: ReturnType<typeof bodyOf>) => Promise<unknown>; onCancel?: () => void }) {
+export function StockForm({
+  stock,
+  currency,
+  unit,
+  onSave,
+  onCancel,
+}: {
+  stock?: StockView;
+  currency: string;
+  unit: LengthUnit;
+  onSave: (body: ReturnType<typeof bodyOf>) => Promise<unknown>;
+  onCancel?: () => void;
+}) {
   const [d, setD] = useState(() => draftFrom(unit, stock));
   const { error, fields, busy, run } = useAction();
   // Every refused field at once, each beside its input (the server's paths named as the form's keys).
@@ -61,13 +86,26 @@ export function StockForm({ stock, currency, unit, onSave, onCancel }: { stock?:
     <div className="flex flex-col gap-1 text-xs font-bold">
       <label className="flex flex-col gap-1">
         {label}
-        <input value={String(d[key])} onChange={(e) => setD({ ...d, [key]: e.target.value })} aria-invalid={fieldErrors[key] ? true : undefined} aria-describedby={fieldErrors[key] ? `${formKey}-${key}-error` : undefined} className={`${input} ${w} ${fieldErrors[key] ? 'border-alarm' : ''}`} />
+        <input
+          value={String(d[key])}
+          onChange={(e) => setD({ ...d, [key]: e.target.value })}
+          aria-invalid={fieldErrors[key] ? true : undefined}
+          aria-describedby={fieldErrors[key] ? `${formKey}-${key}-error` : undefined}
+          className={`${input} ${w} ${fieldErrors[key] ? 'border-alarm' : ''}`}
+        />
       </label>
-      {fieldErrors[key] && <span id={`${formKey}-${key}-error`} data-testid={`error-${key}`} className={`${w} min-w-28 font-semibold text-alarm`}>{fieldErrors[key]}</span>}
+      {fieldErrors[key] && (
+        <span id={`${formKey}-${key}-error`} data-testid={`error-${key}`} className={`${w} min-w-28 font-semibold text-alarm`}>
+          {fieldErrors[key]}
+        </span>
+      )}
     </div>
   );
   const tick = (key: 'foodSafe' | 'skinSafe', label: string) => (
-    <label className="flex items-center gap-1 text-xs font-bold"><input type="checkbox" checked={d[key]} onChange={(e) => setD({ ...d, [key]: e.target.checked })} />{label}</label>
+    <label className="flex items-center gap-1 text-xs font-bold">
+      <input type="checkbox" checked={d[key]} onChange={(e) => setD({ ...d, [key]: e.target.checked })} />
+      {label}
+    </label>
   );
   const submit = () =>
     run(async () => {
@@ -75,11 +113,34 @@ export function StockForm({ stock, currency, unit, onSave, onCancel }: { stock?:
       if (!stock) setD({ ...draftFrom(unit), finish: d.finish, paper: d.paper });
     });
   return (
-    <form aria-label={stock ? `Edit ${stock.name}` : 'Add stock'} className="flex flex-col gap-2 rounded-lg bg-paper p-3" onSubmit={(e) => { e.preventDefault(); void submit(); }}>
+    <form
+      aria-label={stock ? `Edit ${stock.name}` : 'Add stock'}
+      className="flex flex-col gap-2 rounded-lg bg-paper p-3"
+      onSubmit={(e) => {
+        e.preventDefault();
+        void submit();
+      }}
+    >
       <div className="flex flex-wrap items-end gap-2">
         {text('name', 'Name', 'w-44')}
-        <label className="flex flex-col gap-1 text-xs font-bold">Finish<select value={d.finish} onChange={(e) => setD({ ...d, finish: e.target.value as Draft['finish'] })} className={input}>{STOCK_FINISHES.map((f) => <option key={f} value={f}>{FINISH_LABELS[f]}</option>)}</select></label>
-        <label className="flex flex-col gap-1 text-xs font-bold">Paper<select value={d.paper} onChange={(e) => setD({ ...d, paper: e.target.value as Draft['paper'] })} className={input}><option value="letter">Letter</option><option value="a4">A4</option><option value="custom">Other size</option></select></label>
+        <label className="flex flex-col gap-1 text-xs font-bold">
+          Finish
+          <select value={d.finish} onChange={(e) => setD({ ...d, finish: e.target.value as Draft['finish'] })} className={input}>
+            {STOCK_FINISHES.map((f) => (
+              <option key={f} value={f}>
+                {FINISH_LABELS[f]}
+              </option>
+            ))}
+          </select>
+        </label>
+        <label className="flex flex-col gap-1 text-xs font-bold">
+          Paper
+          <select value={d.paper} onChange={(e) => setD({ ...d, paper: e.target.value as Draft['paper'] })} className={input}>
+            <option value="letter">Letter</option>
+            <option value="a4">A4</option>
+            <option value="custom">Other size</option>
+          </select>
+        </label>
         {d.paper === 'custom' && text('paperWidth', `Width (${unit})`, 'w-20')}
         {d.paper === 'custom' && text('paperHeight', `Height (${unit})`, 'w-20')}
         {text('packPrice', `Pack price (${currency})`, 'w-20')}
@@ -104,12 +165,27 @@ export function StockForm({ stock, currency, unit, onSave, onCancel }: { stock?:
       <div className="flex flex-wrap items-end gap-3">
         {tick('foodSafe', 'Maker rates it food-safe')}
         {tick('skinSafe', 'Maker rates it skin-safe')}
-        <label className="flex grow flex-col gap-1 text-xs font-bold">Notes<input value={d.notes} onChange={(e) => setD({ ...d, notes: e.target.value })} className={`${input} w-full`} /></label>
+        <label className="flex grow flex-col gap-1 text-xs font-bold">
+          Notes
+          <input value={d.notes} onChange={(e) => setD({ ...d, notes: e.target.value })} className={`${input} w-full`} />
+        </label>
       </div>
       <div className="flex items-center gap-3">
-        <button type="submit" disabled={busy} className="rounded-full bg-ink px-4 py-1 font-bold text-paper disabled:opacity-60">{busy ? 'Saving…' : stock ? 'Save stock' : 'Add stock'}</button>
-        {onCancel && <button type="button" className="font-bold underline" onClick={onCancel}>Cancel</button>}
-        {error && <p role="alert" className="font-semibold text-alarm">{Object.keys(fields).length > 1 ? `${Object.keys(fields).length} fields need a change: see the notes beside them.` : (Object.values(fields)[0] ?? error)}</p>}
+        <button type="submit" disabled={busy} className="rounded-full bg-ink px-4 py-1 font-bold text-paper disabled:opacity-60">
+          {busy ? 'Saving…' : stock ? 'Save stock' : 'Add stock'}
+        </button>
+        {onCancel && (
+          <button type="button" className="font-bold underline" onClick={onCancel}>
+            Cancel
+          </button>
+        )}
+        {error && (
+          <p role="alert" className="font-semibold text-alarm">
+            {Object.keys(fields).length > 1
+              ? `${Object.keys(fields).length} fields need a change: see the notes beside them.`
+              : (Object.values(fields)[0] ?? error)}
+          </p>
+        )}
       </div>
     </form>
   );

@@ -16,23 +16,72 @@ function ShopRates({ teamId, canManage }: { teamId: string; canManage: boolean }
   const { error, run } = useAction({ preferField: true });
   const [saved, setSaved] = useState(false);
   useEffect(() => {
-    if (settings.data) setForm({ currency: settings.data.currency, labourRatePerHour: String(settings.data.labourRatePerHour), markupPercent: String(settings.data.markupPercent) });
+    if (settings.data)
+      setForm({
+        currency: settings.data.currency,
+        labourRatePerHour: String(settings.data.labourRatePerHour),
+        markupPercent: String(settings.data.markupPercent),
+      });
   }, [settings.data]);
   const field = (key: keyof typeof form, label: string) => (
-    <label className="flex flex-col text-xs font-bold">{label}<input value={form[key]} disabled={!canManage} onChange={(e) => { setSaved(false); setForm({ ...form, [key]: e.target.value }); }} className="w-24 rounded border-2 border-paper-edge px-2 py-1 font-normal" /></label>
+    <label className="flex flex-col text-xs font-bold">
+      {label}
+      <input
+        value={form[key]}
+        disabled={!canManage}
+        onChange={(e) => {
+          setSaved(false);
+          setForm({ ...form, [key]: e.target.value });
+        }}
+        className="w-24 rounded border-2 border-paper-edge px-2 py-1 font-normal"
+      />
+    </label>
   );
   return (
     <section aria-labelledby="rates-title" className="rounded-sticker border-2 border-paper-edge bg-white p-4 text-sm">
-      <h2 id="rates-title" className="mb-2 text-lg font-extrabold">Shop rates</h2>
+      <h2 id="rates-title" className="mb-2 text-lg font-extrabold">
+        Shop rates
+      </h2>
       <div className="flex flex-wrap items-end gap-2">
         {field('currency', 'Currency sign')}
         {field('labourRatePerHour', 'Labour per hour')}
         {field('markupPercent', 'Markup (%)')}
-        {canManage && <button type="button" className="rounded-full bg-ink px-4 py-1 font-bold text-paper" onClick={() => void run(async () => { client.setQueryData(settingsQueryOptions(teamId).queryKey, await shopApi.saveSettings(teamId, { currency: form.currency, labourRatePerHour: Number(form.labourRatePerHour), markupPercent: Number(form.markupPercent) })); setSaved(true); })}>Save rates</button>}
-        {saved && <span role="status" className="text-sage-deep">Saved.</span>}
+        {canManage && (
+          <button
+            type="button"
+            className="rounded-full bg-ink px-4 py-1 font-bold text-paper"
+            onClick={() =>
+              void run(async () => {
+                client.setQueryData(
+                  settingsQueryOptions(teamId).queryKey,
+                  await shopApi.saveSettings(teamId, {
+                    currency: form.currency,
+                    labourRatePerHour: Number(form.labourRatePerHour),
+                    markupPercent: Number(form.markupPercent),
+                  }),
+                );
+                setSaved(true);
+              })
+            }
+          >
+            Save rates
+          </button>
+        )}
+        {saved && (
+          <span role="status" className="text-sage-deep">
+            Saved.
+          </span>
+        )}
       </div>
-      <p className="mt-1 text-xs text-ink-faint">A sheet's cost is its stock, ink from the print's coverage, its share of blade wear and labour; the price adds the markup. Each sheet shows its figures in the editor.</p>
-      {error && <p role="alert" className="text-alarm">{error}</p>}
+      <p className="mt-1 text-xs text-ink-faint">
+        A sheet's cost is its stock, ink from the print's coverage, its share of blade wear and labour; the price adds the markup. Each
+        sheet shows its figures in the editor.
+      </p>
+      {error && (
+        <p role="alert" className="text-alarm">
+          {error}
+        </p>
+      )}
     </section>
   );
 }
@@ -47,7 +96,9 @@ export function PrintRoomRoute() {
   const rights = { teamId, currency, canManage: can('shop.manage'), canRecord: can('shop.record') };
   return (
     <div className="flex flex-col gap-4">
-      <PageTitle title="Print room"><p className="text-sm text-ink-soft">What you print on, what you cut with, and how each run came out.</p></PageTitle>
+      <PageTitle title="Print room">
+        <p className="text-sm text-ink-soft">What you print on, what you cut with, and how each run came out.</p>
+      </PageTitle>
       <RunLog teamId={teamId} canRecord={rights.canRecord} />
       <StockShelf {...rights} unit={me?.user.unit ?? 'in'} />
       <div className="grid items-start gap-4 xl:grid-cols-[3fr_2fr]">

@@ -25,8 +25,7 @@ function useTeamMutation<I>(teamId: string, fn: (input: I) => Promise<unknown>) 
   });
 }
 
-export const useRenameTeam = (teamId: string) =>
-  useTeamMutation(teamId, (name: string) => api('PATCH', `/teams/${teamId}`, { name }));
+export const useRenameTeam = (teamId: string) => useTeamMutation(teamId, (name: string) => api('PATCH', `/teams/${teamId}`, { name }));
 export const useInvite = (teamId: string) =>
   useTeamMutation(teamId, (input: CreateInviteInput) => api('POST', `/teams/${teamId}/invites`, input));
 export const useRevokeInvite = (teamId: string) =>
@@ -37,7 +36,6 @@ export const useChangeRole = (teamId: string) =>
   );
 export const useRemoveMember = (teamId: string) =>
   useTeamMutation(teamId, (userId: string) => api('DELETE', `/teams/${teamId}/members/${userId}`));
-
 
 export const invitePreviewQueryOptions = (token: string) =>
   queryOptions({

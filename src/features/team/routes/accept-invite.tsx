@@ -21,10 +21,22 @@ export function AcceptInviteRoute() {
   const form = useZodForm(newAccountSchema, { name: '', password: '' });
   const next = `/invite/${token}`;
 
-  if (preview.isPending) return <AuthLayout title="Team invitation"><p>Opening your invitation…</p></AuthLayout>;
+  if (preview.isPending)
+    return (
+      <AuthLayout title="Team invitation">
+        <p>Opening your invitation…</p>
+      </AuthLayout>
+    );
   if (preview.isError)
     return (
-      <AuthLayout title="This invitation no longer works" footer={<Link className="font-bold underline" to="/">Go to Sheetsmith</Link>}>
+      <AuthLayout
+        title="This invitation no longer works"
+        footer={
+          <Link className="font-bold underline" to="/">
+            Go to Sheetsmith
+          </Link>
+        }
+      >
         <FormMessage>{preview.error.message}</FormMessage>
       </AuthLayout>
     );
@@ -44,7 +56,9 @@ export function AcceptInviteRoute() {
     return (
       <AuthLayout title={title}>
         {intro}
-        <FormMessage>You are signed in as {me.user.email}. Sign out, then open this link again to accept as {invite.email}.</FormMessage>
+        <FormMessage>
+          You are signed in as {me.user.email}. Sign out, then open this link again to accept as {invite.email}.
+        </FormMessage>
       </AuthLayout>
     );
   if (me || invite.accountExists)
@@ -53,7 +67,9 @@ export function AcceptInviteRoute() {
         {intro}
         <FormMessage>{accept.error?.message}</FormMessage>
         {me ? (
-          <Button busy={accept.isPending} onClick={() => join({}).catch(() => undefined)}>Accept and join</Button>
+          <Button busy={accept.isPending} onClick={() => join({}).catch(() => undefined)}>
+            Accept and join
+          </Button>
         ) : (
           <Link className="font-bold text-peel-deep underline" to={`/sign-in?next=${encodeURIComponent(next)}`}>
             Sign in as {invite.email} to accept
@@ -67,8 +83,16 @@ export function AcceptInviteRoute() {
       <form onSubmit={form.handleSubmit(join)} noValidate className="flex flex-col gap-4">
         <FormMessage>{form.formError}</FormMessage>
         <TextField label="Your name" autoComplete="name" autoFocus {...form.bind('name')} />
-        <TextField label="Choose a password" type="password" autoComplete="new-password" hint="At least 10 characters." {...form.bind('password')} />
-        <Button type="submit" busy={accept.isPending}>Create account and join</Button>
+        <TextField
+          label="Choose a password"
+          type="password"
+          autoComplete="new-password"
+          hint="At least 10 characters."
+          {...form.bind('password')}
+        />
+        <Button type="submit" busy={accept.isPending}>
+          Create account and join
+        </Button>
       </form>
     </AuthLayout>
   );

@@ -30,17 +30,25 @@ export function TeamRoute() {
   const manage = can('team.members');
   const assignable = role ? assignableRoles(role) : [];
 
-
   return (
     <>
       <PageTitle title={detail.name} />
       <FormMessage>{actionError}</FormMessage>
       <div className="grid gap-6 lg:grid-cols-[2fr_1fr]">
         <section aria-labelledby="members-title" className="rounded-sticker border-2 border-paper-edge bg-white p-5">
-          <h2 id="members-title" className="mb-3 text-lg font-extrabold">Members</h2>
+          <h2 id="members-title" className="mb-3 text-lg font-extrabold">
+            Members
+          </h2>
           <table className="w-full text-left text-sm">
             <thead className="text-ink-faint">
-              <tr><th className="py-2">Name</th><th>E-mail</th><th>Role</th><th><span className="sr-only">Actions</span></th></tr>
+              <tr>
+                <th className="py-2">Name</th>
+                <th>E-mail</th>
+                <th>Role</th>
+                <th>
+                  <span className="sr-only">Actions</span>
+                </th>
+              </tr>
             </thead>
             <tbody>
               {detail.members.map((member) => {
@@ -48,17 +56,26 @@ export function TeamRoute() {
                 const editable = manage && !self && assignable.includes(member.role);
                 return (
                   <tr key={member.userId} className="border-t border-paper-deep">
-                    <td className="py-2 font-bold">{member.name}{self && ' (you)'}</td>
+                    <td className="py-2 font-bold">
+                      {member.name}
+                      {self && ' (you)'}
+                    </td>
                     <td>{member.email}</td>
                     <td>
                       {editable ? (
                         <select
                           aria-label={`Role of ${member.name}`}
                           value={member.role}
-                          onChange={(event) => run(() => changeRole.mutateAsync({ userId: member.userId, role: event.target.value as Role }))}
+                          onChange={(event) =>
+                            run(() => changeRole.mutateAsync({ userId: member.userId, role: event.target.value as Role }))
+                          }
                           className="rounded border-2 border-paper-edge bg-paper px-2 py-1"
                         >
-                          {roleOptions(assignable).map((o) => <option key={o.value} value={o.value}>{o.label}</option>)}
+                          {roleOptions(assignable).map((o) => (
+                            <option key={o.value} value={o.value}>
+                              {o.label}
+                            </option>
+                          ))}
                         </select>
                       ) : (
                         ROLE_LABELS[member.role]
@@ -92,8 +109,14 @@ export function TeamRoute() {
               <ul className="flex flex-col gap-2 text-sm">
                 {detail.invites.map((invite) => (
                   <li key={invite.id} className="flex items-center justify-between rounded-lg bg-paper px-3 py-2">
-                    <span>{invite.email} · {ROLE_LABELS[invite.role]} · expires {new Date(invite.expiresAt).toLocaleDateString()}</span>
-                    <button type="button" className="font-bold text-alarm underline" onClick={() => run(() => revokeInvite.mutateAsync(invite.id))}>
+                    <span>
+                      {invite.email} · {ROLE_LABELS[invite.role]} · expires {new Date(invite.expiresAt).toLocaleDateString()}
+                    </span>
+                    <button
+                      type="button"
+                      className="font-bold text-alarm underline"
+                      onClick={() => run(() => revokeInvite.mutateAsync(invite.id))}
+                    >
                       Withdraw
                     </button>
                   </li>
@@ -133,7 +156,9 @@ function InviteForm({ teamId, roles }: { teamId: string; roles: Role[] }) {
       {sent && <FormMessage tone="ok">Invitation sent to {sent}. The link works once, for 7 days.</FormMessage>}
       <TextField label="Their e-mail" type="email" {...form.bind('email')} />
       <SelectField label="Role" options={roleOptions(roles)} {...form.bind('role')} />
-      <Button type="submit" busy={invite.isPending}>Send invitation</Button>
+      <Button type="submit" busy={invite.isPending}>
+        Send invitation
+      </Button>
     </form>
   );
 }
@@ -147,7 +172,9 @@ function RenameForm({ teamId, name }: { teamId: string; name: string }) {
       <h2 className="text-lg font-extrabold">Team name</h2>
       <FormMessage>{form.formError}</FormMessage>
       <TextField label="Name" {...form.bind('name')} />
-      <Button type="submit" variant="quiet" busy={rename.isPending}>Rename</Button>
+      <Button type="submit" variant="quiet" busy={rename.isPending}>
+        Rename
+      </Button>
     </form>
   );
 }
@@ -156,12 +183,20 @@ function RenameForm({ teamId, name }: { teamId: string; name: string }) {
 function RoleTable() {
   return (
     <section aria-labelledby="roles-title" className="rounded-sticker border-2 border-paper-edge bg-white p-5 text-sm">
-      <h2 id="roles-title" className="mb-3 text-lg font-extrabold">What each role may do</h2>
+      <h2 id="roles-title" className="mb-3 text-lg font-extrabold">
+        What each role may do
+      </h2>
       <table className="w-full">
         <thead>
           <tr>
-            <th className="text-left"><span className="sr-only">Permission</span></th>
-            {ROLES.map((r) => <th key={r} className="px-1 text-xs">{ROLE_LABELS[r]}</th>)}
+            <th className="text-left">
+              <span className="sr-only">Permission</span>
+            </th>
+            {ROLES.map((r) => (
+              <th key={r} className="px-1 text-xs">
+                {ROLE_LABELS[r]}
+              </th>
+            ))}
           </tr>
         </thead>
         <tbody>
