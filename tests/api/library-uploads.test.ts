@@ -1,0 +1,164 @@
+import path from 'node:path';
+import { zipSync } from 'fflate';
+import JSZip from 'jszip';
+import sharp from 'sharp';
+import { describe, expect, it } from 'vitest';
+import { ArtItem } from '../../server/modules/art/art-item.entity';
+import { LocalDiskStorage } from '../../server/storage/local-disk';
+import { env } from '../../server/config/env';
+import { svgArt } from '../helpers/art';
+import { Client, makeTeamWithRoles, useTestApp } from '../helpers/app';
+import { uploadFile, storedFileCount } from '../helpers/library';
+import { pngHeaderClaiming } from '../helpers/png';
+
+// This file's own storage folder, so other suites running alongside never change its file counts.
+const storageDir = path.join(env.dataDir, 'storage-library-uploads-test');
+const storage = new LocalDiskStorage(storageDir);
+
+const t = useTestApp({
+  pool: true,
+  extra: () => ({
+    storage,
+    packLimits: { maxEntries: 50, maxTotalBytes: 3 * 1024 * 1024, maxEntryBytes: 20 * 1024 * 1024, maxRatio: 200 },
+  }),
+});
+
+const shape = (i: number) =>
+  svgArt(160, 160, `<circle cx="80" cy="80" r="${30 + i}" fill="#${(0x224466 + i * 0x101010).toString(16).slice(-6)}"/>`);
+
+async function signedIn(email: string) {
+  const client = new Client(t.sheetsmith.app);
+  await client.signIn(email);
+  return client;
+}
+
+async function setup() {
+  const { team, users } = await makeTeamWithRoles(t.db);
+  const owner = await signedIn(users.owner.email);
+  const admin = await signedIn(users.admin.email);
+  const member = await signedIn(users.member.email);
+  const viewer = await signedIn(users.viewer.email);
+  return { team, users, owner, admin, member, viewer };
+}
+
+describe('zip packs', () => {
+  it('unpacks images, skips and reports the rest, turns folders into keywords; a reference unzip sees the same entries', async () => {
+    const { team, member } = await setup();
+    const files: Record<string, Uint8Array> = {
+      'Garden_Pack/Tulips/red-tulip.png': await shape(60),
+      'Garden_Pack/Tulips/pink-tulip.png': await shape(61),
+      'Garden_Pack/bee.jpg': await sharp(await shape(62))
+        .flatten({ background: '#ffffff' })
+        .jpeg()
+        .toBuffer(),
+      'Garden_Pack/readme.txt': new TextEncoder().encode('Thanks for downloading!'),
+      'Garden_Pack/extras.zip': zipSync({ 'inner.png': await shape(63) }),
+      '__MACOSX/Garden_Pack/._bee.jpg': new Uint8Array([0, 5, 22, 7]),
+      'Garden_Pack/copy-of-red-tulip.png': await shape(60),
+    };
+    const zip = Buffer.from(zipSync(files));
+    // The reference: JSZip (an independent unzip package, test-only) lists the same file entries.
+    const reference = Object.values((await JSZip.loadAsync(zip)).files)
+      .filter((f) => !f.dir)
+      .map((f) => f.name)
+      .sort();
+    expect(reference).toEqual(Object.keys(files).sort());
+
+    const res = await uploadFile(member, team.id, zip, 'garden.zip', { keywords: 'spring' });
+    expect(res.status).toBe(201);
+    const byFile = Object.fromEntries(res.body.results.map((r: { file: string; status: string }) => [r.file, r.status]));
+    expect(Object.keys(byFile).sort()).toEqual(reference);
+    expect(byFile).toEqual({
+      'Garden_Pack/Tulips/red-tulip.png': 'stored',
+      'Garden_Pack/Tulips/pink-tulip.png': 'stored',
+      'Garden_Pack/bee.jpg': 'stored',
+      'Garden_Pack/readme.txt': 'skipped',
+      'Garden_Pack/extras.zip': 'skipped',
+      '__MACOSX/Garden_Pack/._bee.jpg': 'skipped',
+      'Garden_Pack/copy-of-red-tulip.png': 'duplicate',
+    });
+    const tulip = res.body.results.find((r: { file: string }) => r.file === 'Garden_Pack/Tulips/red-tulip.png').item;
+    expect(tulip.keywords).toEqual(expect.arrayContaining(['garden', 'spring', 'tulip']));
+    expect((await member.get(`/api/teams/${team.id}/art?q=tulips`)).body.total).toBe(2);
+    const again = await uploadFile(member, team.id, zip, 'garden.zip');
+    expect(again.body.results.filter((r: { status: string }) => r.status === 'stored')).toEqual([]);
+    expect(await t.db.getRepository(ArtItem).countBy({ teamId: team.id })).toBe(3);
+  });
+});
+
+describe('bad uploads: a clear message each, and nothing half-stored', () => {
+  const encrypt = (zip: Uint8Array) => {
+    // Set bit 0 (encrypted) of the general purpose flags in every local and central header
+    // (APPNOTE.TXT §4.3.7 and §4.3.12, flags at offsets 6 and 8).
+    const out = Buffer.from(zip);
+    for (let i = 0; i < out.length - 4; i++) {
+      const sig = out.readUInt32LE(i);
+      if (sig === 0x04034b50) out[i + 6] |= 1;
+      if (sig === 0x02014b50) out[i + 8] |= 1;
+    }
+    return out;
+  };
+  const noise = async (seed: number) => {
+    const raw = Buffer.alloc(700 * 700 * 4);
+    let s = seed;
+    for (let i = 0; i < raw.length; i++) raw[i] = (s = (s * 1103515245 + 12345) & 0x7fffffff) >> 16;
+    return sharp(raw, { raw: { width: 700, height: 700, channels: 4 } })
+      .png({ compressionLevel: 0 })
+      .toBuffer();
+  };
+
+  const cases: Array<[string, () => Promise<[Buffer, string]>, number, RegExp]> = [
+    ['a corrupt image', async () => [(await shape(70)).subarray(0, 200), 'broken.png'], 422, /damaged or cut short/],
+    ['a text file renamed to .png', async () => [Buffer.from('just words, honestly'), 'words.png'], 415, /not an image/],
+    [
+      'an image over the pixel limit',
+      async () => [pngHeaderClaiming(30000, 30000), 'huge.png'],
+      422,
+      /30000 × 30000 px; the limit is 50 megapixels/,
+    ],
+    [
+      'a zip with ../ entries',
+      async () => [Buffer.from(zipSync({ 'ok.png': await shape(71), '../escape.png': await shape(72) })), 'evil.zip'],
+      422,
+      /"\.\.\/escape\.png"\) whose path points outside the zip's own folder/,
+    ],
+    [
+      'a zip bomb (compression ratio)',
+      async () => [
+        Buffer.from(zipSync({ 'good.png': await shape(73), 'bomb.png': new Uint8Array(12 * 1024 * 1024) }, { level: 9 })),
+        'bomb.zip',
+      ],
+      422,
+      /looks like a zip bomb/,
+    ],
+    [
+      'a zip over the total size',
+      async () => [
+        Buffer.from(zipSync({ 'a.png': await noise(1), 'b.png': await noise(2), 'c.png': await noise(3) }, { level: 0 })),
+        'big.zip',
+      ],
+      422,
+      /more than 3 MB in all/,
+    ],
+    ['an encrypted zip', async () => [encrypt(zipSync({ 'secret.png': await shape(74) })), 'locked.zip'], 422, /password-protected/],
+    [
+      'a 60 MB file over the upload limit',
+      async () => [Buffer.alloc(60 * 1024 * 1024, 7), 'enormous.png'],
+      413,
+      /^That file is larger than the 50 MB limit for this upload\.$/,
+    ],
+  ];
+
+  for (const [label, make, status, message] of cases) {
+    it(label, async () => {
+      const { team, member } = await setup();
+      const filesBefore = await storedFileCount(storageDir);
+      const [file, name] = await make();
+      const res = await uploadFile(member, team.id, file, name);
+      expect(res.status).toBe(status);
+      expect(res.body.error.message).toMatch(message);
+      expect(await t.db.getRepository(ArtItem).countBy({ teamId: team.id })).toBe(0);
+      expect(await storedFileCount(storageDir)).toBe(filesBefore);
+    });
+  }
+});
