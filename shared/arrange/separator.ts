@@ -10,6 +10,7 @@
 // After rounds without a new least overlap it returns to the best state seen and counts a strike.
 import RBush from 'rbush';
 import { overlapDepth } from './collide';
+import { bestSpot } from './moves';
 import type { Variant } from './shapes';
 
 export type LayoutPiece = { variants: Variant[]; v: number; x: number; y: number; fixed?: boolean };
@@ -186,62 +187,8 @@ export class Layout {
 
   /** Piece i moved to its least weighted overlap among sampled spots, refined by coordinate descent. */
   relocate(i: number, random: () => number, uniform = this.uniformSamples) {
-    const p = this.pieces[i];
-    let best = { v: p.v, x: p.x, y: p.y, c: this.cost(i, p.v, p.x, p.y) };
-    const consider = (v: number, x: number, y: number) => {
-      const c = this.cost(i, v, x, y, best.c);
-      if (c < best.c) best = { v, x, y, c };
-    };
-    const variants = p.variants.length;
-    for (let k = 0; k < uniform && best.c > 0; k++) {
-      const v = Math.floor(random() * variants),
-        r = this.range(i, v);
-      if (r) consider(v, r.x0 + random() * (r.x1 - r.x0), r.y0 + random() * (r.y1 - r.y0));
-    }
-    const s = p.variants[p.v],
-      w = s.bx1 - s.bx0,
-      h = s.by1 - s.by0;
-    for (let k = 0; k < this.nearSamples && best.c > 0; k++) {
-      const v = random() < 0.8 ? p.v : Math.floor(random() * variants),
-        r = this.range(i, v);
-      if (!r) continue;
-      const x = Math.min(r.x1, Math.max(r.x0, p.x + (random() - 0.5) * w)),
-        y = Math.min(r.y1, Math.max(r.y0, p.y + (random() - 0.5) * h));
-      consider(v, x, y);
-    }
-    if (best.c > 0) best = this.descend(i, best, Math.max(w, h));
+    const best = bestSpot(this, i, random, uniform, this.nearSamples);
     this.moveTo(i, best.v, best.x, best.y);
-  }
-
-  /** Coordinate descent: steps along x and y, larger after a gain, halved after none. */
-  private descend(i: number, start: { v: number; x: number; y: number; c: number }, size: number) {
-    const r = this.range(i, start.v)!;
-    let { x, y, c } = start;
-    let step = size * 0.1;
-    const floor = size * 0.002;
-    let guard = 0;
-    while (step > floor && c > 0 && guard++ < 200) {
-      let gained = false;
-      for (const [dx, dy] of [
-        [step, 0],
-        [-step, 0],
-        [0, step],
-        [0, -step],
-      ]) {
-        const nx = Math.min(r.x1, Math.max(r.x0, x + dx)),
-          ny = Math.min(r.y1, Math.max(r.y0, y + dy));
-        const nc = this.cost(i, start.v, nx, ny, c);
-        if (nc < c) {
-          x = nx;
-          y = ny;
-          c = nc;
-          gained = true;
-          break;
-        }
-      }
-      step = gained ? step * 1.5 : step / 2;
-    }
-    return { v: start.v, x, y, c };
   }
 
   /** Guided local search weights: overlapping pairs grow (deeper ones more), the rest decay to 1. */

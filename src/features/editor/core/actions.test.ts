@@ -1,7 +1,8 @@
 import { describe, expect, it } from 'vitest';
 import type { Piece, SheetDocument } from '../../../../shared/sheet/document';
 import type { ActionContext } from './actions';
-import { ACTIONS, handleKey, runAction } from './actions';
+import { ACTIONS } from './actions';
+import { handleKey, runAction } from './run-action';
 import { EditorStore } from './editor-store';
 
 const piece = (id: string, x: number): Piece => ({

@@ -11,7 +11,7 @@ import { rotatedHalfSize } from '../../../../shared/sheet/placement';
 import { usePieceOutlines } from '../api/outlines';
 import { saveAsCopy, sheetQueryOptions } from '../api/sheet';
 import type { ActionContext } from '../core/actions';
-import { handleKey, newPiece } from '../core/actions';
+import { handleKey, newPiece } from '../core/run-action';
 import { Toolbar } from './toolbar';
 import { firstFreeSpot } from '../core/arrange-plan';
 import { EditorStore } from '../core/editor-store';

@@ -5,7 +5,7 @@ import type { LengthUnit } from '../../../../shared/units';
 import { formatLength, fromMm, toMm } from '../../../../shared/units';
 import { maxArtWidthMm, MAX_ROTATION_DEG } from '../../../../shared/sheet/bounds';
 import type { ActionContext } from '../core/actions';
-import { runAction } from '../core/actions';
+import { runAction } from '../core/run-action';
 
 function LengthInput({
   label,

@@ -1,6 +1,6 @@
 import type { ReactNode } from 'react';
 import type { ActionContext } from '../core/actions';
-import { actionNamed, enabled, runAction } from '../core/actions';
+import { actionNamed, enabled, runAction } from '../core/run-action';
 
 const LOOKS: Record<string, string> = {
   arrange: 'ml-2 rounded-full bg-peel px-3 py-1 font-bold text-ink disabled:opacity-60',
