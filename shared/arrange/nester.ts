@@ -18,12 +18,10 @@
 // can make room for it, or the last sheet emptied into the others (sheet-search.ts). It is anytime:
 // progress reports the best so far, `shouldStop` ends it early, and a seed makes it repeatable.
 import type { Ring } from '../geometry/polygon';
-import { area } from '../geometry/polygon';
-import { Board } from './board';
-import { checkInput, rotationsOf } from './input';
+import { checkInput } from './input';
+import type { Gene, Shape } from './decoder';
+import { decode, prepare } from './decoder';
 import { seeded } from './prng';
-import type { ShapeMask } from './raster';
-import { shapeMask } from './raster';
 import { sheetPhase, stripPhase } from './overlap-phase';
 
 export type Outline = { points: Ring; widthMm: number; heightMm: number };
@@ -76,24 +74,6 @@ export { ArrangeInputError } from './input';
 
 export { rotationsOf } from './input';
 
-type Shape = { item: ArrangeItem; masks: ShapeMask[]; areaMm2: number };
-
-function prepare(items: ArrangeItem[], opts: { gap: number; cell: number; rotate: RotateMode }): Map<string, Shape> {
-  const shapes = new Map<string, Shape>();
-  for (const item of items) {
-    // The raster is only a quick filter and never refuses a spot the exact test would take: a mask
-    // cell is marked only when its centre lies within half the gap of the cut line, so two masks
-    // share a cell only when their cut lines are within the gap of each other (triangle inequality).
-    // It may take spots that are a little too close; the exact polygon test has the last word.
-    const masks = rotationsOf(item.rotate ?? opts.rotate).map((r) => shapeMask(item.outline, r, opts.cell, opts.gap / 2));
-    shapes.set(item.key, { item, masks, areaMm2: area(item.outline.points) });
-  }
-  return shapes;
-}
-
-/** One piece of the sequence: which item, and which of its rotations to try first (-1: all, best spot). */
-type Gene = { key: string; turn: number };
-
 /** Arranges the pieces; problems with single pieces are reported in `unplaced`, naming the piece. */
 export function arrange(
   items: ArrangeItem[],
@@ -142,67 +122,7 @@ export function arrange(
       shapes.get(b.key)!.areaMm2 - shapes.get(a.key)!.areaMm2,
   );
 
-  const lockedBoard = (board: Board) => {
-    for (const l of locked) {
-      const turned = shapeMask(l.outline, l.rotation, o.cell, o.gap / 2);
-      const ring = turned.ring.map((p) => ({ x: p.x + l.x, y: p.y + l.y }));
-      board.place(turned, l.x, l.y, ring, area(l.outline.points));
-    }
-  };
-
-  const run = (genes: Gene[]) => {
-    const boards: Board[] = [];
-    const newBoard = () => {
-      const board = new Board(o);
-      if (boards.length === 0) lockedBoard(board);
-      boards.push(board);
-      return board;
-    };
-    newBoard();
-    const placements: Placement[] = [];
-    const left: string[] = [];
-    const chosen: number[] = [];
-    for (const gene of genes) {
-      const shape = shapes.get(gene.key)!;
-      const masks = gene.turn < 0 || gene.turn >= shape.masks.length ? shape.masks : [shape.masks[gene.turn]];
-      let done = false;
-      for (let s = 0; s < (o.fill || o.strip ? 1 : o.maxSheets) && !done; s++) {
-        const board = boards[s] ?? newBoard();
-        // The gene's rotation first; any other if it does not fit there.
-        const spot = board.find(masks) ?? (masks.length < shape.masks.length ? board.find(shape.masks) : null);
-        if (spot) {
-          board.place(spot.mask, spot.x, spot.y, spot.ring, shape.areaMm2);
-          placements.push({ key: gene.key, sheet: s, x: spot.x, y: spot.y, rotation: spot.mask.rotation });
-          chosen.push(shape.masks.indexOf(spot.mask));
-          done = true;
-        }
-      }
-      if (!done) {
-        left.push(gene.key);
-        chosen.push(gene.turn);
-      }
-    }
-    if (o.fill) {
-      // Fill the sheet: repeat the set round-robin, keeping the mix balanced, until nothing more fits.
-      let active = [...new Set(genes.map((g) => g.key))];
-      while (active.length) {
-        const still: string[] = [];
-        for (const key of active) {
-          const shape = shapes.get(key)!;
-          const spot = boards[0].find(shape.masks);
-          if (!spot) continue;
-          boards[0].place(spot.mask, spot.x, spot.y, spot.ring, shape.areaMm2);
-          placements.push({ key, sheet: 0, x: spot.x, y: spot.y, rotation: spot.mask.rotation });
-          still.push(key);
-        }
-        active = still;
-      }
-    }
-    const used = boards.filter((b, i) => i === 0 || placements.some((p) => p.sheet === i));
-    // The rotations the decoder settled on become the genes' own, so the search builds on them.
-    const settled = genes.map((g, i) => ({ key: g.key, turn: chosen[i] }));
-    return { placements, left, boards: used, genes: settled };
-  };
+  const run = (genes: Gene[]) => decode(genes, shapes, o, locked);
 
   type Layout = ReturnType<typeof run>;
   // More pieces, then fewer sheets, then (strip) a shorter strip or (sheets) pieces packed higher up.
