@@ -8,14 +8,14 @@ import type { RemovalPlan } from './background';
 import { detectBackground, parseHex, removeBackground } from './background';
 import { bridgeIslands } from './bridge';
 import { clearComponents, fillHoles, labelComponents, labelRuns } from './components';
-import type { Component } from './components';
 import { decodeArt } from './decode';
-import { distanceTransform, squaredDistanceTransform } from '../../../shared/geometry/distance-transform';
+import { squaredDistanceTransform } from '../../../shared/geometry/distance-transform';
 import { OutlineInputError } from './errors';
-import { erode, findNarrowParts, findNecks, findSlots, thinResidue } from './necks';
 import { composeSticker, encodePng } from './raster';
 import type { Frame } from './raster';
 import { simplifyRing, traceOuterRings } from './trace';
+import { isFlat, joinParts, splitSpecks, unionBox, widenNarrowParts } from './shape-steps';
+import { tearWarnings } from './tear-warnings';
 
 export type OutlineLimits = { maxInputPixels: number; maxOutputPixels: number };
 export const DEFAULT_LIMITS: OutlineLimits = { maxInputPixels: 50_000_000, maxOutputPixels: 40_000_000 };
@@ -25,33 +25,6 @@ export type OutlinePiece = OutlinePieceData & { png: Buffer };
 export type OutlineResult = OutlineData<OutlinePiece>;
 
 const PAD = 2;
-
-/** True when (nearly) every pixel is within tolerance of the colour. */
-function isFlat(rgba: Buffer, colour: { r: number; g: number; b: number }, tolerance: number): boolean {
-  let near = 0;
-  const total = rgba.length / 4;
-  for (let i = 0; i < rgba.length; i += 4) {
-    if (Math.hypot(rgba[i] - colour.r, rgba[i + 1] - colour.g, rgba[i + 2] - colour.b) <= tolerance) near++;
-  }
-  return near >= 0.99 * total;
-} // working margin (px) so traced rings never touch the canvas edge
-
-function unionBox(components: Component[]): Box {
-  const minX = Math.min(...components.map((c) => c.minX)),
-    minY = Math.min(...components.map((c) => c.minY));
-  const maxX = Math.max(...components.map((c) => c.maxX)),
-    maxY = Math.max(...components.map((c) => c.maxY));
-  return { x: minX, y: minY, width: maxX - minX + 1, height: maxY - minY + 1 };
-}
-
-/** Keeps components of at least `minArea` px (always the largest); returns kept and dropped. */
-function splitSpecks(components: Component[], minArea: number) {
-  const largest = components.reduce((a, b) => (b.area > a.area ? b : a));
-  const kept = components.filter((c) => c === largest || c.area >= minArea);
-  const keptLabels = new Set(kept.map((c) => c.label));
-  const droppedLabels = new Set(components.filter((c) => !keptLabels.has(c.label)).map((c) => c.label));
-  return { kept, dropped: droppedLabels.size, droppedLabels };
-}
 
 export async function outline(
   image: Buffer,
@@ -223,44 +196,7 @@ export async function outline(
           })();
     const points = scale(translate(ring, -frame.x, -frame.y), 1 / pxPerMm);
 
-    // Three ways a blade tears a sticker: a waist narrower than the smallest feature (an inward offset
-    // by half of it splits the shape), a thin spike (an opening by a disk that wide removes it; with a
-    // border at least half the smallest feature the shape is a union of such disks and has none),
-    // and a slot too narrow to cut (the same opening of the outside).
-    const where = (p: { x: number; y: number }) => ({ xMm: toMm(p.x - frame.x), yMm: toMm(p.y - frame.y) });
-    const at = (p: { xMm: number; yMm: number }) => `(${formatLength(p.xMm, 'mm')}, ${formatLength(p.yMm, 'mm')})`;
-    const waists = findNecks(filled, cw, ch, minFeaturePx);
-    const slack = minFeaturePx;
-    // A thin part that holds a waist is that waist: one warning for one place.
-    const spikes =
-      level >= minFeaturePx / 2
-        ? []
-        : findNarrowParts(filled, cw, ch, minFeaturePx).filter(
-            (t) =>
-              !waists.some(
-                (w) =>
-                  w.x >= t.box.minX - slack && w.x <= t.box.maxX + 1 + slack && w.y >= t.box.minY - slack && w.y <= t.box.maxY + 1 + slack,
-              ),
-          );
-    const necks = [...waists, ...spikes];
-    for (const neck of necks) {
-      const p = where(neck);
-      warnings.push({
-        code: 'narrow-neck',
-        severity: 'warning',
-        at: p,
-        message: `The cut line narrows below ${formatLength(options.minFeature, 'mm')} near ${at(p)} from the sticker's top-left corner: the blade may tear it. Widen the border, or let Sheetsmith widen narrow necks.`,
-      });
-    }
-    for (const slot of findSlots(filled, cw, ch, minFeaturePx)) {
-      const p = where(slot);
-      warnings.push({
-        code: 'narrow-slot',
-        severity: 'warning',
-        at: p,
-        message: `The cut line has a slot narrower than ${formatLength(options.minFeature, 'mm')} near ${at(p)} from the sticker's top-left corner: the blade cannot cut it cleanly. Widen the border to close it.`,
-      });
-    }
+    warnings.push(...tearWarnings(filled, cw, ch, { minFeaturePx, level, minFeatureMm: options.minFeature, toMm, frame }));
     const rgbaOut = composeSticker({
       frame,
       canvasWidth: cw,
@@ -298,40 +234,8 @@ export async function outline(
       // (a waist or a thin part under the smallest feature) gets art added around the part of the
       // cut shape thinner than the bridge width that holds it (what an opening by it removes),
       // until it is that wide; a closing then rounds the crevices where the widened part meets the rest.
-      const filledGrown = fillHoles(grown, cw, ch);
-      const narrow = [
-        ...findNecks(filledGrown, cw, ch, minFeaturePx),
-        ...(level >= minFeaturePx / 2 ? [] : findNarrowParts(filledGrown, cw, ch, minFeaturePx)),
-      ];
-      const residue = narrow.length ? thinResidue(grown, cw, ch, bridgePx / 2) : null;
-      const pieces = residue ? labelComponents(residue, cw, ch) : null;
-      const slack = Math.ceil(minFeaturePx) + 1;
-      const holding = new Set<number>();
-      for (const n of pieces ? narrow : []) {
-        // The residue component at (or within the smallest feature of) the narrow place.
-        for (let dy = -slack; dy <= slack; dy++) {
-          for (let dx = -slack; dx <= slack; dx++) {
-            const x = Math.floor(n.x) + dx,
-              y = Math.floor(n.y) + dy;
-            if (x >= 0 && y >= 0 && x < cw && y < ch && pieces!.labels[y * cw + x] > 0 && residue![y * cw + x])
-              holding.add(pieces!.labels[y * cw + x]);
-          }
-        }
-      }
-      const thin = holding.size;
-      if (residue && thin > 0) {
-        const target = new Uint8Array(cw * ch);
-        for (let i = 0; i < target.length; i++) if (residue[i] && holding.has(pieces!.labels[i])) target[i] = 1;
-        const reach = distanceTransform(target, cw, ch);
-        const grow = Math.max(1, bridgePx / 2 - (level - 0.5) + 1);
-        for (let i = 0; i < artMask.length; i++) if (reach[i] <= grow) artMask[i] = 1;
-        // Closing by a disc of the smallest feature, only around what was added: no new slots.
-        const rc = Math.max(1, minFeaturePx);
-        const toArt = distanceTransform(artMask, cw, ch);
-        const dilated = new Uint8Array(cw * ch);
-        for (let i = 0; i < dilated.length; i++) dilated[i] = toArt[i] <= rc ? 0 : 1; // the outside of the dilation
-        const toOutside = distanceTransform(dilated, cw, ch);
-        for (let i = 0; i < artMask.length; i++) if (!artMask[i] && toOutside[i] > rc && reach[i] <= grow + 2 * rc) artMask[i] = 1;
+      const thin = widenNarrowParts(artMask, grown, cw, ch, { minFeaturePx, bridgePx, level });
+      if (thin > 0) {
         squared = squaredDistanceTransform(artMask, cw, ch);
         for (let i = 0; i < grown.length; i++) grown[i] = squared[i] <= level2 ? 1 : 0;
         warnings.push({
@@ -392,39 +296,4 @@ export async function outline(
     borderMm: options.border,
     warnings,
   };
-}
-
-/**
- * Labels art pixels by the part of the sticker they belong to (1..count): the components of the
- * grown shape eroded by `r` px, merged where one connected piece of art spans several (a piece of
- * art's own thin waist is the maker's drawing, warned about, not bridged unless asked).
- */
-function joinParts(
-  artMask: Uint8Array,
-  grown: Uint8Array,
-  width: number,
-  height: number,
-  r: number,
-): { labels: Int32Array; count: number } {
-  const eroded = erode(grown, width, height, r);
-  const er = labelComponents(eroded, width, height);
-  const art = labelComponents(artMask, width, height);
-  const E = er.components.length;
-  const parent = Int32Array.from({ length: E + art.components.length + 1 }, (_, i) => i);
-  const find = (a: number): number => (parent[a] === a ? a : (parent[a] = find(parent[a])));
-  const union = (a: number, b: number) => {
-    const ra = find(a),
-      rb = find(b);
-    if (ra !== rb) parent[Math.max(ra, rb)] = Math.min(ra, rb);
-  };
-  for (let i = 0; i < artMask.length; i++) if (artMask[i] && er.labels[i] > 0) union(er.labels[i], E + art.labels[i]);
-  const ids = new Map<number, number>();
-  const labels = new Int32Array(artMask.length);
-  for (let i = 0; i < artMask.length; i++) {
-    if (!artMask[i]) continue;
-    const root = find(E + art.labels[i]);
-    if (!ids.has(root)) ids.set(root, ids.size + 1);
-    labels[i] = ids.get(root)!;
-  }
-  return { labels, count: ids.size };
 }
