@@ -110,9 +110,10 @@ export class JobQueues {
 
   /** The export job's state ('active', 'waiting', 'failed', …), or null when the queue has no such job. */
   async exportState(exportId: string): Promise<{ state: string; reason?: string } | null> {
+    const state = await this.exports.getJobState(`export-${exportId}`); // before the job, so a reason read after matches it
     const job = await this.exports.getJob(`export-${exportId}`);
-    if (!job) return null;
-    return { state: await job.getState(), reason: job.failedReason };
+    if (!job || state === 'unknown') return null;
+    return { state, reason: job.failedReason };
   }
 
   async removeExport(exportId: string) {

@@ -84,4 +84,23 @@ describe('arrange runs on the server', () => {
     expect((await viewer.post(base, request(500))).status).toBe(403);
     expect((await viewer.get(`${base}/${started.body.id}`)).status).toBe(200);
   }, 60_000);
+
+  // Seen in CI: a read at the moment the run ended answered "done" with no layout.
+  it('never reads as done without its layout, however often it is asked as it ends', async () => {
+    const { member, base } = await sheetFor();
+    const started = await member.post(base, request(800));
+    const url = `${base}/${started.body.id}`;
+    const seen: { state: string; result: unknown }[] = [];
+    const poll = async () => {
+      for (;;) {
+        const { body } = await member.get(url);
+        seen.push(body);
+        if (body.state === 'done' || body.state === 'failed' || seen.length > 20_000) return;
+      }
+    };
+    await Promise.all(Array.from({ length: 6 }, poll));
+    const done = seen.filter((b) => b.state === 'done');
+    expect(done.length).toBeGreaterThan(0);
+    expect(done.filter((b) => !b.result)).toHaveLength(0);
+  }, 60_000);
 });

@@ -23,8 +23,10 @@ export class ArrangeRunsService {
   }
 
   async get(teamId: string, sheetId: string, id: string): Promise<ArrangeRunView & { result: ArrangeResult | null }> {
+    // The state first, then the job: read the other way round, a run that ends in between reads as
+    // done with the result it had before it ended (none).
+    const state = await this.queues.arranges.getJobState(jobIdOf(id));
     const job = await this.job(teamId, sheetId, id);
-    const state = await job.getState();
     const progress = typeof job.progress === 'object' ? (job.progress as ArrangeRunView['progress']) : null;
     if (state === 'completed') return { id, state: 'done', progress, message: null, result: job.returnvalue as ArrangeResult };
     if (state === 'failed') {
