@@ -107,4 +107,12 @@ describe('import boundaries (ESLint)', () => {
       ),
     ).toEqual([]);
   });
+
+  it('refuses a file of more than 300 lines, and takes one of 300', async () => {
+    const lines = (n: number) => Array.from({ length: n }, (_, i) => `export const v${i} = ${i};`).join('\n') + '\n';
+    const lint = async (n: number) =>
+      (await eslint.lintText(lines(n), { filePath: 'server/lib/planted.ts' }))[0].messages.filter((m) => m.ruleId === 'max-lines');
+    expect(await lint(300)).toEqual([]);
+    expect((await lint(301))[0]?.message).toMatch(/too many lines \(301\)/i);
+  });
 });

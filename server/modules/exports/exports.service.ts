@@ -1,25 +1,18 @@
 import type { DataSource } from 'typeorm';
 import type { ExportJobView, ExportRequest } from '../../../shared/schemas/exports';
-import { PAPER_SIZES } from '../../../shared/schemas/sheets';
 import { documentProblems } from '../../../shared/sheet/bounds';
 import type { Log } from '../../lib/log';
 import { exportFileType, listZip, readFromZip } from '../../engine/export/bundle';
 import { exportFileLabel } from '../../../shared/schemas/exports';
-import { pieceOutlineOptions } from '../../../shared/sheet/outline-request';
-import { profileLimits } from '../../../shared/sheet/preflight';
 import { migrateDocument } from '../../../shared/sheet/document';
 import { ExportInputError, exportSheet } from '../../engine/export/export';
-import { exportPiece } from '../../engine/export/prepare';
-import type { ExportOptions } from '../../engine/export/types';
-import { DEFAULT_EXPORT_OPTIONS } from '../../engine/export/types';
 import type { OutlinePool } from '../../engine/outline/pool';
 import { OutlineInputError } from '../../engine/outline/errors';
 import type { ExportJobData, JobQueues } from '../../jobs/queues';
 import { AppError, notFound } from '../../lib/errors';
 import type { Storage } from '../../storage/storage';
-import { ArtItem } from '../art/art-item.entity';
 import type { SheetsService } from '../sheets/sheets.service';
-import { SheetProfile } from '../sheets/sheet-profile.entity';
+import { exportInput } from './export-input';
 import type { SheetAnalysisService } from '../shop/sheet-analysis.service';
 
 /** The row stopped being "running" under the job (the maker stopped it): the job ends quietly. */
@@ -190,44 +183,13 @@ export class ExportsService {
     const doc = migrateDocument(JSON.parse(row.document_json ?? sheet.document));
     const options = JSON.parse(row.options_json) as ExportRequest;
     const findings: string[] = row.findings_json ? JSON.parse(row.findings_json) : [];
-    const profile = sheet.profileId ? await this.dataSource.getRepository(SheetProfile).findOneBy({ id: sheet.profileId }) : null;
-    const arts = new Map(
-      (await this.dataSource.getRepository(ArtItem).findBy({ teamId }))
-        .filter((a) => doc.pieces.some((p) => p.artId === a.id))
-        .map((a) => [a.id, a]),
+    const { pieces, paper, resolved } = await exportInput(this.dataSource, this.storage, this.pool, sheet, doc, options, (done, of) =>
+      this.progress(id, 0.4 * (done / of), `Outlining piece ${done} of ${of}`),
     );
-    const bytes = new Map<string, Buffer>();
-    const pieces = [];
-    for (const [i, piece] of doc.pieces.entries()) {
-      const art = arts.get(piece.artId);
-      if (!art) throw new ExportInputError(`Piece ${i + 1} uses art that is no longer in the team.`);
-      if (!bytes.has(art.id)) bytes.set(art.id, await this.storage.get(art.storageKey));
-      // The same request the editor's outline was made from, at the export's resolution.
-      const request = pieceOutlineOptions(art, piece, { ...profileLimits(profile), dpi: options.dpi });
-      pieces.push(await exportPiece(piece, art.name, request, options.bleedMm, (o) => this.pool.run(bytes.get(art.id)!, o)));
-      await this.progress(id, 0.4 * ((i + 1) / doc.pieces.length), `Outlining piece ${i + 1} of ${doc.pieces.length}`);
-    }
-    const paper = profile
-      ? { paperWidthMm: profile.paperWidthMm, paperHeightMm: profile.paperHeightMm, areaXMm: profile.areaXMm, areaYMm: profile.areaYMm }
-      : {
-          paperWidthMm: PAPER_SIZES.letter.width,
-          paperHeightMm: PAPER_SIZES.letter.height,
-          areaXMm: (PAPER_SIZES.letter.width - doc.printArea.width) / 2,
-          areaYMm: (PAPER_SIZES.letter.height - doc.printArea.height) / 2,
-        };
     let last = 0;
     // Progress writes run one after another and are awaited before the job is marked done.
     let writes = Promise.resolve();
     let cancelled = false;
-    // The profile says how its cutter finds the print: the cut layer's spot colour and any printed marks.
-    const resolved: ExportOptions = {
-      ...options,
-      spotColour: options.spotColour ?? profile?.spotColour ?? DEFAULT_EXPORT_OPTIONS.spotColour,
-      marks:
-        profile && profile.regMarkShape !== 'none'
-          ? { shape: profile.regMarkShape, sizeMm: profile.regMarkSizeMm, offsetMm: profile.regMarkOffsetMm }
-          : null,
-    };
     const result = await exportSheet(
       { name: sheet.name, unit: sheet.unit, doc, pieces, paper, preflight: findings },
       resolved,

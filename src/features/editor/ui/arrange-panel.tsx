@@ -6,19 +6,13 @@ import type { Command } from '../../../../shared/sheet/commands';
 import type { PieceOutline } from '../api/outlines';
 import type { SheetDocument } from '../../../../shared/sheet/document';
 import type { ArrangeChoice } from '../core/arrange-plan';
-import {
-  arrangeCommand,
-  arrangeGroups,
-  defaultTurning,
-  furtherSheets,
-  MAX_QUANTITY,
-  parseQuantity,
-  planArrange,
-} from '../core/arrange-plan';
+import { arrangeCommand, arrangeGroups, defaultTurning, furtherSheets, parseQuantity, planArrange } from '../core/arrange-plan';
 import type { EditorStore } from '../core/editor-store';
 import { ArrangeRunner } from '../core/arrange-runner';
 import { ServerArrangeRunner } from '../api/arrange-runs';
 import { threadsFor } from '../../../../shared/arrange/portfolio';
+import { ArrangeOptions } from './arrange-options';
+import type { ArrangeWhere } from './arrange-options';
 
 type Props = {
   store: EditorStore;
@@ -41,7 +35,7 @@ type Runner = ArrangeRunner | ServerArrangeRunner;
  * a quantity needs, made as new sheets) or throws away.
  */
 export function ArrangePanel({ store, outlines, nameOf, onPreview, onFurtherSheets, sheetLink, serverRuns, onClose }: Props) {
-  const [where, setWhere] = useState<'here' | 'server'>('here');
+  const [where, setWhere] = useState<ArrangeWhere>('here');
   const [choice, setChoice] = useState<ArrangeChoice>(() => {
     const s = store.getState();
     const scope = s.selection.size > 1 ? 'selection' : 'sheet';
@@ -179,88 +173,16 @@ export function ArrangePanel({ store, outlines, nameOf, onPreview, onFurtherShee
       <h2 id="arrange-title" className="mb-2 text-lg font-extrabold">
         Auto-arrange
       </h2>
-      <fieldset className="mb-2 flex flex-col gap-2" disabled={Boolean(result)}>
-        <label className="flex items-center justify-between font-bold">
-          Pieces
-          <select
-            value={choice.scope}
-            onChange={(e) => setChoice({ ...choice, scope: e.target.value as ArrangeChoice['scope'] })}
-            className="rounded border-2 border-paper-edge px-1"
-          >
-            <option value="sheet">Whole sheet</option>
-            <option value="selection">Selection only</option>
-          </select>
-        </label>
-        <label className="flex items-center justify-between font-bold">
-          Turning
-          <select
-            value={typeof choice.rotate === 'object' ? ('step' in choice.rotate ? `step${choice.rotate.step}` : '90') : choice.rotate}
-            onChange={(e) =>
-              setChoice({
-                ...choice,
-                rotate: e.target.value === 'none' ? 'none' : e.target.value === '90' ? '90' : { step: Number(e.target.value.slice(4)) },
-              })
-            }
-            className="rounded border-2 border-paper-edge px-1"
-          >
-            <option value="none">Keep upright</option>
-            <option value="90">Quarter turns</option>
-            <option value="step15">Any angle, 15° steps</option>
-          </select>
-        </label>
-        <label className="flex items-center gap-2 font-bold">
-          <input type="checkbox" checked={choice.fill} onChange={(e) => setChoice({ ...choice, fill: e.target.checked })} />
-          Fill the sheet with more copies
-        </label>
-        {!choice.fill && groups.length > 0 && (
-          <div className="flex max-h-40 flex-col gap-1 overflow-y-auto" data-testid="arrange-quantities">
-            <span className="font-bold">How many of each</span>
-            {parsed.map((g) => (
-              <label key={g.key} className="flex items-center justify-between gap-2">
-                <span className="truncate" title={g.name}>
-                  {g.name}
-                </span>
-                <input
-                  type="number"
-                  inputMode="numeric"
-                  min={1}
-                  max={MAX_QUANTITY}
-                  aria-label={`Quantity of ${g.name}`}
-                  aria-invalid={'error' in g.q}
-                  value={typed[g.key] ?? String(g.count)}
-                  onChange={(e) => setTyped({ ...typed, [g.key]: e.target.value })}
-                  className={`w-20 rounded border-2 px-1 text-right ${'error' in g.q ? 'border-alarm' : 'border-paper-edge'}`}
-                />
-              </label>
-            ))}
-          </div>
-        )}
-        <label className="flex items-center justify-between font-bold">
-          Run on
-          <select
-            value={where}
-            onChange={(e) => setWhere(e.target.value as 'here' | 'server')}
-            className="rounded border-2 border-paper-edge px-1"
-          >
-            <option value="here">This computer</option>
-            <option value="server">The shop’s server</option>
-          </select>
-        </label>
-        <label className="flex items-center justify-between font-bold">
-          Try for
-          <select
-            value={choice.seconds}
-            onChange={(e) => setChoice({ ...choice, seconds: Number(e.target.value) })}
-            className="rounded border-2 border-paper-edge px-1"
-          >
-            {(where === 'server' ? [2, 10, 30, 60, 120] : [1, 2, 5, 10]).map((s) => (
-              <option key={s} value={s}>
-                {s < 60 ? `${s} s` : `${s / 60} min`}
-              </option>
-            ))}
-          </select>
-        </label>
-      </fieldset>
+      <ArrangeOptions
+        choice={choice}
+        setChoice={setChoice}
+        where={where}
+        setWhere={setWhere}
+        rows={parsed}
+        typed={typed}
+        setTyped={setTyped}
+        disabled={Boolean(result)}
+      />
       {!result && waiting > 0 && (
         <p role="status" className="mb-2">
           Waiting for {waiting} outline{waiting === 1 ? '' : 's'}…

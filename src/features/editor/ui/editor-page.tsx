@@ -1,62 +1,39 @@
 import type Konva from 'konva';
-import { useQueryClient } from '@tanstack/react-query';
-import { useCallback, useEffect, useMemo, useRef, useState, useSyncExternalStore } from 'react';
-import { useBlocker, useNavigate } from 'react-router';
+import { useCallback, useEffect, useMemo, useRef, useState } from 'react';
 import type { ArtView } from '../../../../shared/schemas/library';
 import type { SheetDetail } from '../../../../shared/schemas/sheets';
-import { SHEET_STATUS_LABELS, SHEET_STATUSES } from '../../../../shared/schemas/sheets';
 import { commands } from '../../../../shared/sheet/commands';
 import { preflight } from '../../../../shared/sheet/preflight';
 import { rotatedHalfSize } from '../../../../shared/sheet/placement';
 import { usePieceOutlines } from '../api/outlines';
-import { saveAsCopy, sheetQueryOptions } from '../api/sheet';
+import { saveAsCopy } from '../api/sheet';
 import type { ActionContext } from '../core/actions';
 import { handleKey, newPiece } from '../core/run-action';
 import { Toolbar } from './toolbar';
 import { firstFreeSpot } from '../core/arrange-plan';
-import { EditorStore } from '../core/editor-store';
 import { SheetStage } from '../render/sheet-stage';
 import { PreflightPanel } from './preflight-panel';
 import { CostPanel } from './cost-panel';
 import { HelpPanel } from './help-panel';
 import { Inspector } from './inspector';
 import { LibraryPanel, defaultWidthMm } from './library-panel';
-import { useAutosave } from './use-autosave';
+import { useEditorSession, useSheetSaving } from './use-editor-session';
+import { SheetHeader } from './sheet-header';
+import { ConflictDialog } from './conflict-dialog';
 import { ArrangePanel } from './arrange-panel';
 import { ExportPanel } from './export-panel';
 import type { SheetDocument } from '../../../../shared/sheet/document';
 import { pieceName } from '../../../../shared/sheet/document';
 import { formatLength } from '../../../../shared/units';
 
-const SAVE_TEXT = {
-  saved: 'All changes saved',
-  unsaved: 'Unsaved changes…',
-  saving: 'Saving…',
-  offline: 'Offline: will retry',
-  conflict: 'Not saved: conflict',
-  refused: 'Not saved: see why',
-} as const;
-
 export function EditorPage({ teamId, sheet, canEdit }: { teamId: string; sheet: SheetDetail; canEdit: boolean }) {
-  // One store per sheet: a refetch of the same sheet must not throw away the edits in it.
-  const store = useMemo(
-    () =>
-      new EditorStore(
-        sheet.document,
-        { name: sheet.name, status: sheet.status, forSale: sheet.forSale, unit: sheet.unit, notes: sheet.notes },
-        sheet.version,
-      ),
-    // eslint-disable-next-line react-hooks/exhaustive-deps
-    [sheet.id],
-  );
-  const state = useSyncExternalStore(store.subscribe, store.getState);
+  const session = useEditorSession(teamId, sheet, canEdit);
+  const { store, state } = session;
   const [arranging, setArranging] = useState(false);
   const [exporting, setExporting] = useState(false);
   const [preview, setPreview] = useState<SheetDocument | null>(null);
   const stageRef = useRef<Konva.Stage | null>(null);
   const sheetRef = useRef<Konva.Group | null>(null);
-  const client = useQueryClient();
-  const navigate = useNavigate();
   const [artNames] = useState(() => new Map<string, string>(Object.entries(sheet.artNames)));
   const [artLicences] = useState(() => new Map<string, string | null>(Object.entries(sheet.artLicences)));
   // While an arrange preview is shown, everything drawn and measured is the preview's.
@@ -113,39 +90,8 @@ export function EditorPage({ teamId, sheet, canEdit }: { teamId: string; sheet: 
     return total / (shown.printArea.width * shown.printArea.height);
   }, [shown, outlines]);
 
-  // Area used and the thumbnail depend on outlines, which arrive after the pieces: once they have
-  // all arrived and the saved figure is off, save once more (no document change, no undo step).
-  const savedArea = useRef(sheet.areaUsed);
-  useAutosave(
-    store,
-    teamId,
-    sheet.id,
-    canEdit,
-    sheetRef,
-    areaUsed,
-    (used) => {
-      savedArea.current = used;
-    },
-    (id) => name(id),
-  );
   const allOutlined = !preview && state.doc.pieces.every((p) => outlines.get(p.id)?.outline && !outlines.get(p.id)?.pending);
-  const currentArea = areaUsed();
-  useEffect(() => {
-    if (!canEdit || !allOutlined || Math.abs(currentArea - savedArea.current) < 0.002) return;
-    // Images need a moment to paint before the thumbnail is taken.
-    const handle = setTimeout(() => store.requestSave(), 600);
-    return () => clearTimeout(handle);
-  }, [allOutlined, currentArea, canEdit, store]);
-  // Leaving for another page of the app with unsaved work asks first (reloads are asked by the browser).
-  const blocker = useBlocker(
-    ({ currentLocation, nextLocation }) =>
-      canEdit && state.save !== 'saved' && state.save !== 'conflict' && currentLocation.pathname !== nextLocation.pathname,
-  );
-  useEffect(() => {
-    if (blocker.state !== 'blocked') return;
-    if (window.confirm('This sheet has changes that are not saved yet. Leave anyway?')) blocker.proceed();
-    else blocker.reset();
-  }, [blocker]);
+  useSheetSaving(session, teamId, sheet, canEdit, { sheetRef, areaUsed, allOutlined, name: (id) => name(id) });
 
   useEffect(() => {
     const onKey = (e: KeyboardEvent) => {
@@ -172,21 +118,6 @@ export function EditorPage({ teamId, sheet, canEdit }: { teamId: string; sheet: 
     addArt({ artId: item.id, widthPx: item.widthPx, heightPx: item.heightPx });
   };
 
-  const reloadTheirs = async () => {
-    const fresh = await client.fetchQuery({ ...sheetQueryOptions(teamId, sheet.id), staleTime: 0 });
-    store.load(
-      fresh.document,
-      { name: fresh.name, status: fresh.status, forSale: fresh.forSale, unit: fresh.unit, notes: fresh.notes },
-      fresh.version,
-    );
-  };
-  const keepCopy = async () => {
-    const s = store.getState();
-    const id = await saveAsCopy(teamId, `${s.meta.name} (my copy)`, s.meta.unit, s.doc);
-    store.load(s.doc, s.meta, s.version); // nothing left to save here; the copy has it
-    navigate(`/t/${teamId}/sheets/${id}`);
-  };
-
   const selectedPieces = state.doc.pieces.filter((p) => state.selection.has(p.id));
   // A declaration (hoisted): the preflight above names pieces through it during the same render.
   function name(id: string) {
@@ -195,71 +126,7 @@ export function EditorPage({ teamId, sheet, canEdit }: { teamId: string; sheet: 
 
   return (
     <div className="flex h-[calc(100vh-7.5rem)] min-h-[560px] flex-col gap-3">
-      <div className="flex flex-wrap items-center gap-3">
-        <input
-          aria-label="Sheet name"
-          value={state.meta.name}
-          disabled={!canEdit}
-          onChange={(e) => store.setMeta({ name: e.target.value })}
-          className="min-w-0 flex-1 rounded-lg border-2 border-transparent bg-transparent px-2 text-2xl font-extrabold hover:border-paper-edge focus:border-peel"
-        />
-        <select
-          aria-label="Status"
-          value={state.meta.status}
-          disabled={!canEdit}
-          onChange={(e) => store.setMeta({ status: e.target.value as typeof state.meta.status })}
-          className="rounded-lg border-2 border-paper-edge bg-white px-2 py-1 text-sm"
-        >
-          {SHEET_STATUSES.map((s) => (
-            <option key={s} value={s}>
-              {SHEET_STATUS_LABELS[s]}
-            </option>
-          ))}
-        </select>
-        <label className="flex items-center gap-1 text-sm font-bold">
-          <input
-            type="checkbox"
-            checked={state.meta.forSale}
-            disabled={!canEdit}
-            onChange={(e) => store.setMeta({ forSale: e.target.checked })}
-          />
-          For sale
-        </label>
-        <select
-          aria-label="Unit"
-          value={unit}
-          onChange={(e) => store.setMeta({ unit: e.target.value as 'in' | 'mm' })}
-          disabled={!canEdit}
-          className="rounded-lg border-2 border-paper-edge bg-white px-2 py-1 text-sm"
-        >
-          <option value="in">in</option>
-          <option value="mm">mm</option>
-        </select>
-        <span
-          role="status"
-          data-testid="save-state"
-          className={`rounded-full px-3 py-1 text-xs font-bold ${state.save === 'saved' ? 'bg-sage-light text-sage-deep' : state.save === 'conflict' || state.save === 'offline' || state.save === 'refused' ? 'bg-alarm-light text-alarm' : 'bg-paper-deep'}`}
-        >
-          {canEdit ? SAVE_TEXT[state.save] : 'Read only: your role can view sheets'}
-        </span>
-      </div>
-      {state.refusal && (
-        <div
-          role="alert"
-          data-testid="save-refusal"
-          className="flex items-start gap-3 rounded-lg border-2 border-alarm bg-alarm-light px-3 py-2 text-sm text-alarm"
-        >
-          <p className="flex-1">
-            <strong>Not saved as it was.</strong> {state.refusal.message}{' '}
-            {state.refusal.fitted
-              ? 'Sheetsmith fitted it back within reach (it is selected now) so the rest of your work keeps saving; Undo shows what you had.'
-              : 'Change it and the sheet saves again.'}
-          </p>
-          <button type="button" className="font-bold underline" onClick={() => store.dismissRefusal()}>
-            Dismiss
-          </button>
-        </div>
-      )}
+      <SheetHeader store={store} state={state} canEdit={canEdit} />
       <Toolbar
         ctx={ctx}
         names={['undo', 'redo', 'zoom-fit', 'zoom-real', 'zoom-out', 'zoom-in', 'cut-lines', 'arrange', 'export', 'help']}
@@ -360,29 +227,7 @@ export function EditorPage({ teamId, sheet, canEdit }: { teamId: string; sheet: 
         </aside>
       </div>
       {state.helpOpen && <HelpPanel onClose={() => store.setView({ helpOpen: false })} />}
-      {state.save === 'conflict' && (
-        <div
-          role="alertdialog"
-          aria-modal="true"
-          aria-labelledby="conflict-title"
-          className="fixed inset-0 z-50 flex items-center justify-center bg-ink/40 p-4"
-        >
-          <div className="w-full max-w-md rounded-sticker bg-white p-6">
-            <h2 id="conflict-title" className="mb-2 text-xl font-extrabold">
-              Someone else saved this sheet
-            </h2>
-            <p className="mb-4 text-sm text-ink-soft">{state.conflict} Your changes are still here; nothing was overwritten.</p>
-            <div className="flex flex-wrap gap-2">
-              <button type="button" className="rounded-full bg-ink px-4 py-2 font-bold text-paper" onClick={() => void keepCopy()}>
-                Keep mine as a copy
-              </button>
-              <button type="button" className="rounded-full border-2 border-ink px-4 py-2 font-bold" onClick={() => void reloadTheirs()}>
-                Load their version
-              </button>
-            </div>
-          </div>
-        </div>
-      )}
+      {state.save === 'conflict' && <ConflictDialog message={state.conflict} keepCopy={session.keepCopy} loadTheirs={session.loadTheirs} />}
     </div>
   );
 }

@@ -5,56 +5,10 @@ import type { PrintRunView, StockView } from '../../../../shared/schemas/shop';
 import { runsQueryOptions, sheetChoicesQueryOptions, shopApi, shopKeys, useMachines, useStock } from '../../../api/shop';
 import { ApiError, apiUpload } from '../../../lib/api-client';
 import { useAction } from '../../../hooks/use-action';
-import { cutterSettingsText, printerSettingsText } from '../settings-text';
+import { RunChart } from './run-chart';
+import { RunsTable } from './runs-table';
 
 const input = 'rounded border-2 border-paper-edge px-2 py-1';
-
-/** Cut length and wasted sheets per week, as bars: what the blade has been through and what went in the bin. */
-function RunChart({ runs }: { runs: PrintRunView[] }) {
-  const weeks = new Map<string, { cut: number; wasted: number }>();
-  for (const r of runs) {
-    const d = new Date(`${r.printedOn}T00:00:00Z`);
-    d.setUTCDate(d.getUTCDate() - ((d.getUTCDay() + 6) % 7)); // the Monday of its week
-    const key = d.toISOString().slice(0, 10);
-    const w = weeks.get(key) ?? { cut: 0, wasted: 0 };
-    weeks.set(key, { cut: w.cut + r.cutLengthM, wasted: w.wasted + r.wasted });
-  }
-  const rows = [...weeks].sort(([a], [b]) => a.localeCompare(b)).slice(-12);
-  if (rows.length === 0) return null;
-  const maxCut = Math.max(...rows.map(([, w]) => w.cut), 0.001),
-    maxWaste = Math.max(...rows.map(([, w]) => w.wasted), 1);
-  const bar = 40,
-    h = 90;
-  return (
-    <figure className="mb-3" aria-label="Cut length and wasted sheets by week">
-      <svg
-        width={rows.length * bar + 10}
-        height={h + 30}
-        role="img"
-        aria-label={`Bars for ${rows.length} week${rows.length === 1 ? '' : 's'}: metres cut and sheets wasted`}
-        data-testid="run-chart"
-      >
-        {rows.map(([week, w], i) => (
-          <g key={week} transform={`translate(${5 + i * bar},0)`}>
-            <rect x={4} y={h - (h * w.cut) / maxCut} width={14} height={(h * w.cut) / maxCut} className="fill-sage">
-              <title>{`${week}: ${w.cut.toFixed(1)} m cut`}</title>
-            </rect>
-            <rect x={20} y={h - (h * w.wasted) / maxWaste} width={14} height={(h * w.wasted) / maxWaste} className="fill-alarm">
-              <title>{`${week}: ${w.wasted} sheets wasted`}</title>
-            </rect>
-            <text x={2} y={h + 14} fontSize={9}>
-              {week.slice(5)}
-            </text>
-          </g>
-        ))}
-      </svg>
-      <figcaption className="text-xs text-ink-soft">
-        <span className="text-sage-deep">■</span> metres cut · <span className="text-alarm">■</span> sheets wasted, per week (up to{' '}
-        {maxCut.toFixed(1)} m and {maxWaste} sheets)
-      </figcaption>
-    </figure>
-  );
-}
 
 /** Record a print run and read the history: filters, chart and table. */
 export function RunLog({ teamId, canRecord }: { teamId: string; canRecord: boolean }) {
@@ -291,54 +245,7 @@ export function RunLog({ teamId, canRecord }: { teamId: string; canRecord: boole
         </label>
       </div>
       <RunChart runs={runs.data ?? []} />
-      <table className="w-full text-xs [&_td]:pr-3 [&_th]:pr-3" data-testid="runs-table">
-        <thead className="text-left text-ink-soft">
-          <tr>
-            <th>Date</th>
-            <th>Sheet</th>
-            <th>Copies</th>
-            <th>Wasted</th>
-            <th>Stock</th>
-            <th>Cutter / blade</th>
-            <th>Cut</th>
-            <th>Result</th>
-            <th>Notes</th>
-            <th>By</th>
-          </tr>
-        </thead>
-        <tbody>
-          {runs.data?.map((r) => (
-            <tr key={r.id} className="border-t border-paper-deep">
-              <td className="whitespace-nowrap py-1">{r.printedOn}</td>
-              <td>
-                {r.sheet.name} <span className="text-ink-faint">v{r.sheet.version}</span>
-              </td>
-              <td>{r.copies}</td>
-              <td>{r.wasted}</td>
-              <td>{r.stock?.name ?? '—'}</td>
-              <td>{r.cutter ? `${r.cutter.name}${r.blade ? ` / ${r.blade.label}` : ''}` : '—'}</td>
-              <td className="whitespace-nowrap">{r.cutLengthM.toFixed(2)} m</td>
-              <td className={r.result === 'good' ? 'text-sage-deep' : 'font-bold text-alarm'}>{RUN_RESULT_LABELS[r.result]}</td>
-              <td>
-                {r.notes}
-                {r.photoUrl && (
-                  <>
-                    {' '}
-                    <a href={r.photoUrl} className="underline" target="_blank" rel="noreferrer">
-                      photo
-                    </a>
-                  </>
-                )}
-                <details>
-                  <summary className="cursor-pointer text-ink-faint">settings</summary>
-                  {[printerSettingsText(r.printerSettings), cutterSettingsText(r.cutterSettings)].filter(Boolean).join(' · ')}
-                </details>
-              </td>
-              <td>{r.by}</td>
-            </tr>
-          ))}
-        </tbody>
-      </table>
+      <RunsTable runs={runs.data ?? []} />
       {runs.data?.length === 0 && <p className="mt-2 text-ink-faint">No runs match.</p>}
     </section>
   );
