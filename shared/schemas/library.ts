@@ -48,12 +48,14 @@ export const artListQuerySchema = z.object({
   uploadedBy: idSchema.optional(),
   from: z.iso.date({ error: 'Use a date like 2026-01-31' }).optional(),
   to: z.iso.date({ error: 'Use a date like 2026-01-31' }).optional(),
-  sort: z.enum(['created', 'name', 'size', 'pixels']).optional().default('created'),
+  sort: z.enum(['relevance', 'created', 'name', 'size', 'pixels']).optional().default('relevance'),
   dir: z.enum(['asc', 'desc']).optional().default('desc'),
   page: z.coerce.number().int().min(1).optional().default(1),
   pageSize: z.coerce.number().int().min(1).max(100).optional().default(24),
 });
 export type ArtListQuery = z.infer<typeof artListQuerySchema>;
+/** A page of search results; `suggestion` is the query with each unknown word replaced by the nearest known one. */
+export type ArtPage = { items: ArtView[]; total: number; page: number; pageSize: number; suggestion: string | null };
 
 /** A saved background setting; without a tolerance the mode's own default applies (none carries over from another mode). */
 export const backgroundSettingSchema = z

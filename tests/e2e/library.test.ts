@@ -69,6 +69,16 @@ describe('art library in Chromium', { timeout: BROWSER_TEST_TIMEOUT }, () => {
     await expect.poll(() => page.getByTestId('result-count').textContent()).toBe('6 pieces of art');
     await page.getByRole('searchbox').fill('Autumn-Fairs');
     await expect.poll(() => page.getByTestId('result-count').textContent()).toBe('12 pieces of art');
+    // A typo is forgiven, and the page says which word it took it for; a click searches for that.
+    await page.getByRole('searchbox').fill('hedgehgo');
+    await expect.poll(() => page.getByTestId('result-count').textContent()).toBe('6 pieces of art');
+    expect(await page.getByTestId('did-you-mean').textContent()).toBe('Including near spellings, such as hedgehog.');
+    await screenshot(page, 'library-typo-search');
+    await page.getByTestId('did-you-mean').getByRole('button', { name: 'hedgehog' }).click();
+    await expect.poll(() => page.getByRole('searchbox').inputValue()).toBe('hedgehog');
+    await expect.poll(() => page.getByTestId('did-you-mean').count()).toBe(0);
+    await page.getByRole('searchbox').fill('Autumn-Fairs');
+    await expect.poll(() => page.getByTestId('result-count').textContent()).toBe('12 pieces of art');
     await screenshot(page, 'library-grid-search');
 
     await page.getByRole('button', { name: 'Table' }).click();

@@ -14,6 +14,7 @@ import { actorOf, requirePermission, teamScope } from '../../middleware/auth';
 import { route } from '../../middleware/validate';
 import type { ArtService } from './art.service';
 import { searchArt } from './art-search';
+import { TeamVocabularies } from './vocabulary';
 import { z } from 'zod';
 
 /** Names of the team's sheets that use any of the art (sheets sit above art and are asked through this). */
@@ -31,6 +32,7 @@ export function artRouter({
   maxBytes: number;
 }): Router {
   const router = Router();
+  const vocabularies = new TeamVocabularies(dataSource);
   const scoped = teamScope(dataSource);
   const upload = singleUpload('file', { maxBytes, fields: 20, fieldBytes: 16 * 1024 });
   const proofUpload = singleUpload('file', PROOF_LIMITS);
@@ -42,7 +44,7 @@ export function artRouter({
     scoped,
     view,
     route({ params: teamParamsSchema, query: artListQuerySchema }, ({ query }, req) =>
-      searchArt(dataSource, req.membership!.teamId, query),
+      searchArt(dataSource, vocabularies, req.membership!.teamId, query),
     ),
   );
 

@@ -1,5 +1,6 @@
 import type { EntityManager } from 'typeorm';
 import { normaliseKeyword, searchTerms } from '../../../shared/search';
+import { vocabularyChanged } from './vocabulary';
 
 /** Keywords of many items at once: art id → sorted keywords. */
 export async function keywordsOf(manager: EntityManager, artIds: string[]): Promise<Map<string, string[]>> {
@@ -77,6 +78,7 @@ export async function refreshTerms(manager: EntityManager, artIds: string[]) {
     for (const term of sorted(old)) if (!want.has(term)) gone.push([id, term]);
     for (const term of sorted(want)) if (!old.has(term)) added.push([String(item.team_id), id, term]);
   }
+  if (gone.length || added.length) vocabularyChanged(new Set(items.map((i) => String(i.team_id))));
   for (let i = 0; i < gone.length; i += 500) {
     const batch = gone.slice(i, i + 500);
     await manager.query(`DELETE FROM art_terms WHERE (art_id, term) IN (${batch.map(() => '(?, ?)').join(',')})`, batch.flat());

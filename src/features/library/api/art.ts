@@ -1,8 +1,8 @@
 import { keepPreviousData, queryOptions, useMutation, useQuery, useQueryClient } from '@tanstack/react-query';
-import type { ArtListQuery, ArtUpdateInput, ArtView, BulkAction } from '../../../../shared/schemas/library';
+import type { ArtListQuery, ArtPage, ArtUpdateInput, ArtView, BulkAction } from '../../../../shared/schemas/library';
+export type { ArtPage };
 import { ApiError, api, apiUpload } from '../../../lib/api-client';
 
-export type ArtPage = { items: ArtView[]; total: number; page: number; pageSize: number };
 export type ArtFilters = Partial<Omit<ArtListQuery, 'page' | 'pageSize'>> & { page?: number; pageSize?: number };
 
 const toSearch = (filters: ArtFilters) => {

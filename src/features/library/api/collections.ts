@@ -1,14 +1,8 @@
-import { queryOptions, useMutation, useQuery, useQueryClient } from '@tanstack/react-query';
+import { useMutation, useQueryClient } from '@tanstack/react-query';
 import type { CollectionView, LicenceInput } from '../../../../shared/schemas/library';
 import { api } from '../../../lib/api-client';
 
-export const collectionsQueryOptions = (teamId: string) =>
-  queryOptions({
-    queryKey: ['teams', teamId, 'collections'],
-    queryFn: async () => (await api<{ collections: CollectionView[] }>('GET', `/teams/${teamId}/collections`)).collections,
-  });
-
-export const useCollections = (teamId: string) => useQuery(collectionsQueryOptions(teamId));
+export { collectionsQueryOptions, useCollections } from '../../../api/collections';
 
 function useCollectionMutation<I, O>(teamId: string, fn: (input: I) => Promise<O>) {
   const client = useQueryClient();

@@ -37,7 +37,7 @@ export function LibraryRoute() {
       uploadedBy: params.get('uploadedBy') ?? undefined,
       from: params.get('from') ?? undefined,
       to: params.get('to') ?? undefined,
-      sort: (params.get('sort') as ArtFilters['sort']) ?? 'created',
+      sort: (params.get('sort') as ArtFilters['sort']) ?? 'relevance',
       dir: (params.get('dir') as ArtFilters['dir']) ?? 'desc',
       page: Number(params.get('page') ?? 1),
       pageSize: PAGE_SIZE,
@@ -155,6 +155,7 @@ export function LibraryRoute() {
                 setParam({ sort, dir });
               }}
             >
+              <option value="relevance:desc">Best match</option>
               <option value="created:desc">Newest first</option>
               <option value="created:asc">Oldest first</option>
               <option value="name:asc">Name A–Z</option>
@@ -188,10 +189,19 @@ export function LibraryRoute() {
           <p className="mb-2 text-sm text-ink-soft" role="status" data-testid="result-count">
             {list.isPending ? 'Looking…' : `${total} piece${total === 1 ? '' : 's'} of art`}
           </p>
+          {!list.isPending && list.data?.suggestion && (
+            <p className="mb-2 text-sm" data-testid="did-you-mean">
+              {total > 0 ? 'Including near spellings, such as ' : 'Did you mean '}
+              <button type="button" className="font-bold underline" onClick={() => setText(list.data!.suggestion!)}>
+                {list.data.suggestion}
+              </button>
+              {total > 0 ? '.' : '?'}
+            </p>
+          )}
           {!list.isPending && total === 0 ? (
             <EmptyState title={filters.q ? 'Nothing matches' : 'Your shelf is empty'}>
               {filters.q
-                ? 'Try a shorter word, the singular, or another keyword.'
+                ? 'Try a shorter word or another keyword. Small typos are forgiven in words of four letters or more.'
                 : can('library.contribute')
                   ? 'Add art: single images or a whole zipped pack at once.'
                   : 'Teammates have not added art yet.'}

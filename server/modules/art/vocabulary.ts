@@ -1,0 +1,58 @@
+// Typo tolerance for the library search: every team's search terms (art_terms) in a radix tree
+// (MiniSearch's SearchableMap), from which a query word gets the stored terms within a few edits.
+// Levenshtein edits as the tree's fuzzy lookup counts them, plus a swap of two neighbouring
+// letters counted as one edit ("gohst" → "ghost"), as in Damerau's measure of spelling errors.
+// A team's tree is read once and kept: refreshTerms() in this process marks it stale, and
+// another process's changes are picked up after VOCABULARY_TTL_MS; exact and prefix matches never
+// depend on the tree (they are SQL), only the typo expansions do.
+import SearchableMap from 'minisearch/SearchableMap';
+import type { DataSource } from 'typeorm';
+
+export const VOCABULARY_TTL_MS = 30_000;
+
+/** Edits forgiven in a word: none under 4 letters, one up to 7, two from 8. */
+export const editsFor = (word: string) => (word.length >= 8 ? 2 : word.length >= 4 ? 1 : 0);
+
+/** Stored terms within `edits` of `word`, each with its distance (nearest first). */
+export function nearTerms(tree: SearchableMap<true>, word: string, edits: number): Map<string, number> {
+  const found = new Map<string, number>();
+  const offer = (term: string, distance: number) => {
+    if (distance <= edits && distance < (found.get(term) ?? Infinity)) found.set(term, distance);
+  };
+  if (edits <= 0) return found;
+  for (const [term, [, distance]] of tree.fuzzyGet(word, edits)) offer(term, distance);
+  for (let i = 0; i + 1 < word.length; i++) {
+    if (word[i] === word[i + 1]) continue;
+    const swapped = word.slice(0, i) + word[i + 1] + word[i] + word.slice(i + 2);
+    for (const [term, [, distance]] of tree.fuzzyGet(swapped, edits - 1)) offer(term, distance + 1);
+  }
+  return new Map([...found].sort((a, b) => a[1] - b[1] || a[0].localeCompare(b[0])));
+}
+
+const generations = new Map<string, number>();
+/** Marks teams' trees stale in this process (called when their terms change). */
+export function vocabularyChanged(teamIds: Iterable<string>) {
+  for (const id of teamIds) generations.set(id, (generations.get(id) ?? 0) + 1);
+}
+
+/** The teams' trees, read on first use and again once stale or older than the TTL. */
+export class TeamVocabularies {
+  private readonly trees = new Map<string, { tree: SearchableMap<true>; generation: number; at: number }>();
+
+  constructor(
+    private readonly dataSource: DataSource,
+    private readonly ttlMs = VOCABULARY_TTL_MS,
+  ) {}
+
+  async of(teamId: string): Promise<SearchableMap<true>> {
+    const generation = generations.get(teamId) ?? 0;
+    const kept = this.trees.get(teamId);
+    if (kept && kept.generation === generation && Date.now() - kept.at < this.ttlMs) return kept.tree;
+    // The (team_id, term) index answers this without reading the rows.
+    const rows: Array<{ term: string }> = await this.dataSource.query('SELECT DISTINCT term FROM art_terms WHERE team_id = ?', [teamId]);
+    const tree = new SearchableMap<true>();
+    for (const { term } of rows) tree.set(term, true);
+    this.trees.set(teamId, { tree, generation, at: Date.now() });
+    return tree;
+  }
+}
