@@ -10,7 +10,11 @@ import { uploadFile } from '../helpers/library';
 const t = useTestApp();
 
 const shape = (i: number) =>
-  svgArt(120, 120, `<rect x="${10 + i}" y="10" width="60" height="${40 + i}" fill="#${(0x336699 + i * 0x050505).toString(16).slice(-6)}"/>`);
+  svgArt(
+    120,
+    120,
+    `<rect x="${10 + i}" y="10" width="60" height="${40 + i}" fill="#${(0x336699 + i * 0x050505).toString(16).slice(-6)}"/>`,
+  );
 
 async function library(names: Array<[string, string?]>) {
   const { team, users } = await makeTeamWithRoles(t.db);
