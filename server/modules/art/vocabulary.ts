@@ -13,18 +13,32 @@ export const VOCABULARY_TTL_MS = 30_000;
 /** Edits forgiven in a word: none under 4 letters, one up to 7, two from 8. */
 export const editsFor = (word: string) => (word.length >= 8 ? 2 : word.length >= 4 ? 1 : 0);
 
-/** Stored terms within `edits` of `word`, each with its distance (nearest first). */
-export function nearTerms(tree: SearchableMap<true>, word: string, edits: number): Map<string, number> {
-  const found = new Map<string, number>();
-  const offer = (term: string, distance: number) => {
-    if (distance <= edits && distance < (found.get(term) ?? Infinity)) found.set(term, distance);
-  };
-  if (edits <= 0) return found;
-  for (const [term, [, distance]] of tree.fuzzyGet(word, edits)) offer(term, distance);
-  for (let i = 0; i + 1 < word.length; i++) {
+/** Words made from `word` by `count` swaps of neighbouring letters, no letter swapped twice. */
+function swaps(word: string, count: number, from = 0): string[] {
+  if (count === 0) return [word];
+  const out: string[] = [];
+  for (let i = from; i + 1 < word.length; i++) {
     if (word[i] === word[i + 1]) continue;
     const swapped = word.slice(0, i) + word[i + 1] + word[i] + word.slice(i + 2);
-    for (const [term, [, distance]] of tree.fuzzyGet(swapped, edits - 1)) offer(term, distance + 1);
+    out.push(...swaps(swapped, count - 1, i + 2));
+  }
+  return out;
+}
+
+/**
+ * Stored terms within `edits` of `word`, each with its distance (nearest first): the tree's
+ * Levenshtein lookup from the word itself and from each way of swapping up to `edits` pairs of
+ * neighbouring letters, a swap counted as one edit (the optimal string alignment distance).
+ */
+export function nearTerms(tree: SearchableMap<true>, word: string, edits: number): Map<string, number> {
+  const found = new Map<string, number>();
+  if (edits <= 0) return found;
+  for (let swapped = 0; swapped <= edits; swapped++) {
+    for (const variant of swaps(word, swapped)) {
+      for (const [term, [, distance]] of tree.fuzzyGet(variant, edits - swapped)) {
+        if (distance + swapped < (found.get(term) ?? Infinity)) found.set(term, distance + swapped);
+      }
+    }
   }
   return new Map([...found].sort((a, b) => a[1] - b[1] || a[0].localeCompare(b[0])));
 }
