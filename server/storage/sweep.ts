@@ -10,6 +10,7 @@ const KEY_COLUMNS: ReadonlyArray<[table: string, column: string]> = [
   ['art_items', 'storage_key'],
   ['art_items', 'thumbnail_key'],
   ['art_items', 'licence_proof_key'],
+  ['art_items', 'source_key'],
   ['collections', 'licence_proof_key'],
   ['sheets', 'thumbnail_key'],
   ['sheet_exports', 'zip_key'],

@@ -151,6 +151,8 @@ export type ArtView = {
   updatedAt: string;
   thumbnailUrl: string;
   fileUrl: string;
+  /** The vector original the art was drawn from (cleaned), when it came as SVG. */
+  source: { format: 'svg'; url: string } | null;
 };
 
 export type CollectionView = {

@@ -26,6 +26,8 @@ const hexColour = z
  * mode starts again from the new mode's default: a tolerance tuned for one never carries over.
  */
 export const DEFAULT_TOLERANCE = { auto: 32, colour: 24 } as const;
+/** Alpha (0–255) at or above which a pixel counts as art unless asked otherwise. */
+export const DEFAULT_ALPHA_THRESHOLD = 48;
 
 export const backgroundSchema = z
   .union([
@@ -49,7 +51,7 @@ export const outlineOptionsSchema = z
     borderColour: hexColour.default('#ffffff'),
     dpi: z.coerce.number().int().min(72, 'At least 72 DPI').max(1200, 'At most 1200 DPI').default(300),
     /** Alpha (0–255) at or above which a pixel counts as art. Soft watercolour edges fade below it. */
-    alphaThreshold: z.coerce.number().int().min(1).max(255).default(48),
+    alphaThreshold: z.coerce.number().int().min(1).max(255).default(DEFAULT_ALPHA_THRESHOLD),
     background: backgroundSchema,
     /** Tolerance (0–255, distance in RGB) for `auto` background removal. */
     backgroundTolerance: z.coerce.number().min(0).max(255).default(DEFAULT_TOLERANCE.auto),

@@ -86,6 +86,25 @@ describe('zip packs', () => {
   });
 });
 
+describe('nothing to cut inside a pack', () => {
+  it('refuses the empty images by name with the reason and stores the rest', async () => {
+    const { team, member } = await setup();
+    const clear = await sharp({ create: { width: 120, height: 90, channels: 4, background: { r: 0, g: 0, b: 0, alpha: 0 } } })
+      .png()
+      .toBuffer();
+    const zip = Buffer.from(zipSync({ 'pack/ghost.png': await shape(80), 'pack/layer-empty.png': clear }));
+    const res = await uploadFile(member, team.id, zip, 'pack.zip');
+    expect(res.status).toBe(201);
+    const byFile = Object.fromEntries(res.body.results.map((r: { file: string }) => [r.file, r]));
+    expect(byFile['pack/ghost.png'].status).toBe('stored');
+    expect(byFile['pack/layer-empty.png']).toMatchObject({
+      status: 'rejected',
+      reason: expect.stringMatching(/^Nothing to cut: every pixel/),
+    });
+    expect(await t.db.getRepository(ArtItem).countBy({ teamId: team.id })).toBe(1);
+  });
+});
+
 describe('bad uploads: a clear message each, and nothing half-stored', () => {
   const encrypt = (zip: Uint8Array) => {
     // Set bit 0 (encrypted) of the general purpose flags in every local and central header
@@ -139,6 +158,28 @@ describe('bad uploads: a clear message each, and nothing half-stored', () => {
       ],
       422,
       /more than 3 MB in all/,
+    ],
+    [
+      'a fully transparent PNG (nothing to cut)',
+      async () => [
+        await sharp({ create: { width: 200, height: 200, channels: 4, background: { r: 255, g: 0, b: 0, alpha: 0 } } })
+          .png()
+          .toBuffer(),
+        'blank.png',
+      ],
+      422,
+      /^Nothing to cut: every pixel of this image is transparent or nearly so\./,
+    ],
+    [
+      'a flat white JPEG, a background without its art (nothing to cut)',
+      async () => [
+        await sharp({ create: { width: 300, height: 200, channels: 3, background: '#ffffff' } })
+          .jpeg()
+          .toBuffer(),
+        'white.jpg',
+      ],
+      422,
+      /^Nothing to cut: this image is one flat colour \(#ffffff\) from edge to edge/,
     ],
     ['an encrypted zip', async () => [encrypt(zipSync({ 'secret.png': await shape(74) })), 'locked.zip'], 422, /password-protected/],
     [

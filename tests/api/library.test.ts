@@ -205,7 +205,15 @@ describe('search', () => {
   it('pages and sorts, and filters by transparency and uploader', async () => {
     const { team, users, owner, member } = await setup();
     for (const [i, name] of ['cherry', 'apple', 'banana'].entries()) await uploadFile(owner, team.id, await shape(20 + i), `${name}.png`);
+    // Opaque art: a flat sky with a sun on it (a flat colour alone would be refused: nothing to cut).
     const opaque = await sharp({ create: { width: 64, height: 64, channels: 3, background: '#abcdef' } })
+      .composite([
+        {
+          input: Buffer.from(
+            '<svg xmlns="http://www.w3.org/2000/svg" width="64" height="64"><circle cx="32" cy="32" r="14" fill="#f5c542"/></svg>',
+          ),
+        },
+      ])
       .jpeg()
       .toBuffer();
     await uploadFile(member, team.id, opaque, 'sky.jpg');

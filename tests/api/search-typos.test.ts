@@ -51,6 +51,14 @@ describe('search that forgives typos', () => {
     expect((await search('pmpkn')).names).toEqual([]); // 5 letters, 2 edits
   });
 
+  // Seen in the full suite: "batch1" found batch0 and batch2 as near spellings.
+  it('does not take numbered names for misspellings of each other', async () => {
+    const { search } = await library([['leaf batch1'], ['leaf batch2'], ['sticker v2'], ['sticker v3']]);
+    expect(await search('batch1')).toEqual({ names: ['leaf batch1'], suggestion: null });
+    expect(await search('batch7')).toEqual({ names: [], suggestion: null });
+    expect((await search('v3')).names).toEqual(['sticker v3']);
+  });
+
   it('says "did you mean" when nothing matches, reaching a little further than the search', async () => {
     const { search } = await library([['cat'], ['pumpkin'], ['sunflower']]);
     expect(await search('cta')).toEqual({ names: [], suggestion: 'cat' });

@@ -43,6 +43,11 @@ describe('storage hygiene', () => {
     const admin = new Client(t.sheetsmith.app);
     await admin.signIn(users.admin.email);
     const art = (await uploadFile(admin, team.id, await uniqueArt(), 'kept.png')).body.results[0].item;
+    // Vector art keeps its cleaned SVG beside the PNG drawn from it.
+    const vector = Buffer.from(
+      `<svg xmlns="http://www.w3.org/2000/svg" width="20mm" height="20mm" viewBox="0 0 10 10"><circle cx="5" cy="5" r="4" fill="#${randomBytes(3).toString('hex')}"/></svg>`,
+    );
+    const drawn = (await uploadFile(admin, team.id, vector, 'kept.svg')).body.results[0].item;
     await admin.send('patch', `/api/teams/${team.id}/art/${art.id}`, { licence: { kind: 'personal' } });
     await admin.agent
       .post(`/api/teams/${team.id}/art/${art.id}/licence-proof`)
@@ -69,7 +74,7 @@ describe('storage hygiene', () => {
       document: { ...sheet.document, pieces: [testPiece('s1', art.id, 40, 40)] },
     });
     const referenced = await keys();
-    expect(referenced.length).toBeGreaterThanOrEqual(6); // file, thumbnail, 2 proofs, outline PNG, sheet preview
+    expect(referenced.length).toBeGreaterThanOrEqual(9); // 2 files, 2 thumbnails, an SVG, 2 proofs, outline PNG, sheet preview
 
     // What a killed upload leaves: a whole file and a half-written one, no row for either.
     const orphan = (await storage.put(randomBytes(500))).key;
@@ -91,6 +96,7 @@ describe('storage hygiene', () => {
     expect((await admin.get(`/api/teams/${team.id}/art/${art.id}/licence-proof`)).status).toBe(200);
     expect((await admin.get(`/api/teams/${team.id}/collections/${collection.id}/licence-proof`)).status).toBe(200);
     expect((await admin.get(`/api/teams/${team.id}/sheets/${sheet.id}/thumbnail`)).status).toBe(200);
+    expect((await admin.get(drawn.source.url)).status).toBe(200);
   });
 
   it('a re-put renews a file, so the sweep never takes what a new row is about to use', async () => {

@@ -97,6 +97,29 @@ describe('art library in Chromium', { timeout: BROWSER_TEST_TIMEOUT }, () => {
     await page.close();
   });
 
+  it('uploads an SVG, draws it at its own size, and offers the cleaned original for download', async () => {
+    const { team, users } = await makeTeamWithRoles(t.db);
+    const dir = await mkdtemp(path.join(tmpdir(), 'sheetsmith-e2e-'));
+    const file = path.join(dir, 'lantern-badge.svg');
+    await writeFile(
+      file,
+      '<svg xmlns="http://www.w3.org/2000/svg" width="2in" height="1.5in" viewBox="0 0 200 150" onload="alert(1)"><script>alert(2)</script><rect x="10" y="10" width="180" height="130" rx="40" fill="#e9c46a"/><circle cx="100" cy="75" r="40" fill="#2a9d8f"/></svg>',
+    );
+    const page = await t.browser.newPage({ viewport: { width: 1280, height: 900 } });
+    await signIn(page, users.member.email);
+    await page.goto(`${t.served.url}/t/${team.id}/library`);
+    await page.getByRole('button', { name: 'Add art' }).click();
+    await page.locator('[data-testid="upload-input"]').setInputFiles(file);
+    await expect.poll(() => page.getByTestId('upload-summary').textContent(), { timeout: 30_000 }).toContain('1 added');
+    await page.getByRole('link', { name: 'lantern-badge' }).click();
+    await page.getByTestId('vector-source').waitFor();
+    expect(await page.getByTestId('vector-source').textContent()).toBe('Drawn at 300 DPI from an SVG · download the SVG');
+    // 2 × 1.5 in at 300 DPI.
+    expect(await page.getByText('600 × 450 (PNG)').count()).toBe(1);
+    await screenshot(page, 'library-svg-art');
+    await page.close();
+  });
+
   it('shows a viewer the library without upload or bulk actions', async () => {
     const { team, users } = await makeTeamWithRoles(t.db);
     const page = await t.browser.newPage({ viewport: { width: 1280, height: 800 } });

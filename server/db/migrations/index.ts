@@ -10,6 +10,7 @@ import { ArtInSeveralCollections1765497600000 } from './1765497600000-art-in-sev
 import { ExportFiles1765584000000 } from './1765584000000-export-files';
 import { CutBridgesAndMarks1765670400000 } from './1765670400000-cut-bridges-and-marks';
 import { ExportJobs1765756800000 } from './1765756800000-export-jobs';
+import { VectorArtSources1765843200000 } from './1765843200000-vector-art-sources';
 
 // Every migration, oldest first. A new one is appended here and never edited after it lands.
 export const migrations = [
@@ -25,4 +26,5 @@ export const migrations = [
   ExportFiles1765584000000,
   CutBridgesAndMarks1765670400000,
   ExportJobs1765756800000,
+  VectorArtSources1765843200000,
 ];

@@ -27,6 +27,13 @@ export class ArtItem {
   @Column({ name: 'storage_key', type: 'char', length: 64 })
   storageKey!: string;
 
+  /** The cleaned vector source the art was drawn from (SVG), kept beside the PNG; null for raster uploads. */
+  @Column({ name: 'source_key', type: 'char', length: 64, nullable: true })
+  sourceKey!: string | null;
+
+  @Column({ name: 'source_format', type: 'varchar', length: 10, nullable: true })
+  sourceFormat!: 'svg' | null;
+
   @Column({ name: 'thumbnail_key', type: 'char', length: 64, nullable: true })
   thumbnailKey!: string | null;
 

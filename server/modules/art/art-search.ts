@@ -71,7 +71,8 @@ export async function searchArt(
     if (!tree) continue;
     // Did you mean: a word that starts no stored term gets the nearest one, a little further afield than the search.
     const known = tree!.atPrefix(chunk.joined).size > 0 || chunk.parts.every((p) => tree!.atPrefix(p).size > 0);
-    const nearest = known ? undefined : [...nearTerms(tree!, chunk.joined, Math.max(2, editsFor(chunk.joined))).keys()][0];
+    const reach = /\d/.test(chunk.joined) ? 0 : Math.max(2, editsFor(chunk.joined));
+    const nearest = known ? undefined : [...nearTerms(tree, chunk.joined, reach).keys()][0];
     suggestion.push(nearest ?? chunk.joined);
     if (nearest) suggested = true;
   }

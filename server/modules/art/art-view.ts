@@ -54,6 +54,7 @@ export async function artViews(manager: EntityManager, items: ArtItem[]): Promis
       updatedAt: item.updatedAt.toISOString(),
       thumbnailUrl: `${base}/thumbnail`,
       fileUrl: `${base}/file`,
+      source: item.sourceFormat ? { format: item.sourceFormat, url: `${base}/source` } : null,
     };
   });
 }

@@ -116,18 +116,28 @@ export function artRouter({
     }),
   );
 
-  const sendStored = (kind: 'file' | 'thumbnail' | 'licence-proof') =>
+  const sendStored = (kind: 'file' | 'thumbnail' | 'licence-proof' | 'source') =>
     route({ params: artParamsSchema }, async ({ params }, req, res) => {
       const item = await art.find(req.membership!.teamId, params.artId);
-      const key = kind === 'file' ? item.storageKey : kind === 'thumbnail' ? item.thumbnailKey : item.licence.proofKey;
-      if (!key) throw notFound(kind === 'thumbnail' ? 'That thumbnail' : 'That licence proof');
+      const keys = { file: item.storageKey, thumbnail: item.thumbnailKey, 'licence-proof': item.licence.proofKey, source: item.sourceKey };
+      const key = keys[kind];
+      const missing = {
+        file: 'That file',
+        thumbnail: 'That thumbnail',
+        'licence-proof': 'That licence proof',
+        source: 'A vector original',
+      };
+      if (!key) throw notFound(missing[kind]);
       if (kind === 'licence-proof') res.attachment(item.licence.proofName ?? 'licence-proof');
+      // The vector original is always a download, never shown inline, so it cannot run in the app's origin.
+      else if (kind === 'source') res.attachment(`${item.name}.svg`).type('image/svg+xml');
       else res.type(kind === 'file' ? item.format : 'webp');
       res.set('Cache-Control', 'private, max-age=86400').send(await art.bytes(key));
     });
   router.get('/teams/:teamId/art/:artId/file', scoped, view, sendStored('file'));
   router.get('/teams/:teamId/art/:artId/thumbnail', scoped, view, sendStored('thumbnail'));
   router.get('/teams/:teamId/art/:artId/licence-proof', scoped, view, sendStored('licence-proof'));
+  router.get('/teams/:teamId/art/:artId/source', scoped, view, sendStored('source'));
 
   router.post(
     '/teams/:teamId/art/:artId/licence-proof',

@@ -19,7 +19,8 @@ import type { PackLimits } from './zip-pack';
 import { DEFAULT_PACK_LIMITS, readPack } from './zip-pack';
 
 import type { Actor } from '../../../shared/permissions';
-import { isZip, nameFrom, sniffArt } from './art-files';
+import { drawnArt, isZip, nameFrom, sniffArt } from './art-files';
+import type { ReadyArt } from './art-files';
 
 export class ArtService {
   constructor(
@@ -57,10 +58,11 @@ export class ArtService {
     const entries = zipped
       ? await readPack(file.buffer, this.packLimits)
       : { images: [{ path: file.originalname, folders: [], data: file.buffer }], skipped: [] };
-    if (!zipped) await sniffArt(file.buffer, this.maxPixels); // a single bad file is refused outright
+    // A single bad file is refused outright; inside a pack, each bad image is reported by name.
+    if (!zipped) await sniffArt((await drawnArt(file.buffer, this.maxPixels)).data, this.maxPixels);
 
     const results: UploadResult[] = entries.skipped.map((s) => ({ file: s.path, status: 'skipped', reason: s.reason }));
-    const fresh: Array<{ path: string; folders: string[]; data: Buffer; sha256: string; info: Awaited<ReturnType<typeof sniffArt>> }> = [];
+    const fresh: ReadyArt[] = [];
     const seen = new Map<string, string>();
     for (const entry of entries.images) {
       const sha256 = createHash('sha256').update(entry.data).digest('hex');
@@ -70,7 +72,9 @@ export class ArtService {
       }
       seen.set(sha256, entry.path);
       try {
-        fresh.push({ ...entry, sha256, info: await sniffArt(entry.data, this.maxPixels) });
+        // Vector art is drawn at the print DPI here; its identity stays the file's own bytes.
+        const { data, source } = await drawnArt(entry.data, this.maxPixels);
+        fresh.push({ ...entry, data, source, sha256, info: await sniffArt(data, this.maxPixels) });
       } catch (error) {
         results.push({ file: entry.path, status: 'rejected', reason: (error as Error).message });
       }
@@ -102,9 +106,11 @@ export class ArtService {
             }
             const storageKey = await put(entry.data);
             const thumbnailKey = await put(entry.info.thumbnail);
+            const sourceKey = entry.source === null ? null : await put(Buffer.from(entry.source));
+            const sourceFormat = entry.source === null ? null : ('svg' as const);
             let id: string;
             if (old) {
-              await manager.update(ArtItem, { id: old.id }, { deletedAt: null, storageKey, thumbnailKey });
+              await manager.update(ArtItem, { id: old.id }, { deletedAt: null, storageKey, thumbnailKey, sourceKey, sourceFormat });
               id = old.id;
             } else {
               const item = await manager.save(
@@ -115,6 +121,8 @@ export class ArtService {
                   sha256: entry.sha256,
                   storageKey,
                   thumbnailKey,
+                  sourceKey,
+                  sourceFormat,
                   format: entry.info.format,
                   sizeBytes: entry.data.length,
                   widthPx: entry.info.width,
@@ -164,8 +172,8 @@ export class ArtService {
       // Remove what this batch wrote, unless a concurrent upload has started using the same bytes.
       for (const key of written) {
         const [{ used }] = await this.dataSource.query(
-          'SELECT COUNT(*) AS used FROM art_items WHERE storage_key = ? OR thumbnail_key = ?',
-          [key, key],
+          'SELECT COUNT(*) AS used FROM art_items WHERE storage_key = ? OR thumbnail_key = ? OR source_key = ?',
+          [key, key, key],
         );
         if (Number(used) === 0) await this.storage.delete(key).catch(() => undefined);
       }

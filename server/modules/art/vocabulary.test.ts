@@ -46,7 +46,9 @@ describe('near terms', () => {
     expect(compared).toBeGreaterThan(300); // the check saw many near terms, not a run of empty sets
   });
 
-  it('forgives one edit in words of 4 to 7 letters, two from 8, none below 4', () => {
+  it('forgives one edit in words of 4 to 7 letters, two from 8, none below 4 or in words with a digit', () => {
     expect([3, 4, 7, 8, 12].map((n) => editsFor('x'.repeat(n)))).toEqual([0, 1, 1, 2, 2]);
+    expect(editsFor('batch1')).toBe(0); // numbered names are not misspelt: batch1 is not batch2
+    expect(editsFor('halloween2026')).toBe(0);
   });
 });

@@ -10,8 +10,11 @@ import type { DataSource } from 'typeorm';
 
 export const VOCABULARY_TTL_MS = 30_000;
 
-/** Edits forgiven in a word: none under 4 letters, one up to 7, two from 8. */
-export const editsFor = (word: string) => (word.length >= 8 ? 2 : word.length >= 4 ? 1 : 0);
+/**
+ * Edits forgiven in a word: none under 4 letters, one up to 7, two from 8. None in a word with a
+ * digit: "batch1" and "batch2", "v2" and "v3" are different things, not misspellings.
+ */
+export const editsFor = (word: string) => (/\d/.test(word) ? 0 : word.length >= 8 ? 2 : word.length >= 4 ? 1 : 0);
 
 /** Words made from `word` by `count` swaps of neighbouring letters, no letter swapped twice. */
 function swaps(word: string, count: number, from = 0): string[] {

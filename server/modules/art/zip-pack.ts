@@ -21,7 +21,7 @@ export const DEFAULT_PACK_LIMITS: PackLimits = {
 export type PackImage = { path: string; folders: string[]; data: Buffer };
 export type PackSkip = { path: string; reason: string };
 
-const IMAGE = /\.(png|jpe?g|webp)$/i;
+const IMAGE = /\.(png|jpe?g|webp|svg)$/i;
 const DAMAGED =
   'This zip could not be opened: it is damaged or was only partly downloaded. Download the pack again, or unzip it yourself and upload the images.';
 const refused = (message: string) => new AppError(422, 'zip_refused', `${message} Nothing from this zip was stored.`);
@@ -98,12 +98,8 @@ export async function readPack(
         skipped.push({ path, reason: 'Archives inside the zip are not opened. Upload that pack on its own.' });
         return next();
       }
-      if (/\.svg$/i.test(name)) {
-        skipped.push({ path, reason: 'SVG files are not supported yet. Export the art as PNG.' });
-        return next();
-      }
       if (!IMAGE.test(name)) {
-        skipped.push({ path, reason: 'Not an image (PNG, JPEG or WebP).' });
+        skipped.push({ path, reason: 'Not an image (PNG, JPEG, WebP or SVG).' });
         return next();
       }
       const declared = entry.uncompressedSize;

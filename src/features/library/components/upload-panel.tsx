@@ -22,7 +22,7 @@ const STATUS_TEXT: Record<UploadResult['status'], string> = {
   skipped: 'Skipped',
 };
 
-const ACCEPT = '.png,.jpg,.jpeg,.webp,.zip,image/png,image/jpeg,image/webp,application/zip';
+const ACCEPT = '.png,.jpg,.jpeg,.webp,.svg,.zip,image/png,image/jpeg,image/webp,image/svg+xml,application/zip';
 
 /** Drop or pick many images and zipped packs; each file uploads with its own progress bar. */
 export function UploadPanel({ teamId, collections, onClose }: { teamId: string; collections: CollectionView[]; onClose: () => void }) {
@@ -121,9 +121,9 @@ export function UploadPanel({ teamId, collections, onClose }: { teamId: string; 
         onDrop={onDrop}
         className={`flex cursor-pointer flex-col items-center justify-center gap-1 rounded-sticker border-2 border-dashed p-8 text-center transition ${dragging ? 'border-peel bg-peel-light' : 'border-ink-faint/40 bg-paper'}`}
       >
-        <span className="text-lg font-extrabold">Drop PNG, JPEG, WebP or zipped packs here</span>
+        <span className="text-lg font-extrabold">Drop PNG, JPEG, WebP, SVG or zipped packs here</span>
         <span className="text-sm text-ink-soft">
-          or click to choose files · folders inside a zip become keywords · SVG is not supported yet
+          or click to choose files · folders inside a zip become keywords · SVG is drawn at 300 DPI from its own size
         </span>
       </div>
       <input

@@ -59,6 +59,17 @@ export function ArtDetailRoute() {
               <dd>
                 {item.widthPx} × {item.heightPx} ({item.format.toUpperCase()})
               </dd>
+              {item.source && (
+                <>
+                  <dt className="font-bold">Vector original</dt>
+                  <dd data-testid="vector-source">
+                    Drawn at 300 DPI from an SVG ·{' '}
+                    <a href={item.source.url} className="font-bold underline" download>
+                      download the SVG
+                    </a>
+                  </dd>
+                </>
+              )}
               <dt className="font-bold">Largest at 300 DPI</dt>
               <dd>{size(item.largestPrint.at300)}</dd>
               <dt className="font-bold">Largest at 150 DPI</dt>
