@@ -65,6 +65,15 @@ export function formatLength(value: Mm | number, unit: LengthUnit, digits = unit
   return `${text} ${unit}`;
 }
 
+/**
+ * A small length (gaps, features, bridges) in the user's unit where thousandths of an inch read
+ * badly: under 0.1 in, two decimals with the millimetres beside ("0.04 in (1 mm)").
+ */
+export function formatFineLength(value: Mm | number, unit: LengthUnit): string {
+  if (unit === 'mm' || value >= MM_PER_INCH / 10) return formatLength(value, unit);
+  return `${formatLength(value, 'in', 2)} (${formatLength(value, 'mm', 2)})`;
+}
+
 /** CSS pixels for a length at a zoom where 1 = real size on a 96 DPI screen (CSS: 1in = 96px). */
 export function mmToCssPx(length: Mm | number, zoom = 1): number {
   return (length / MM_PER_INCH) * CSS_PX_PER_INCH * zoom;

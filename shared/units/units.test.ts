@@ -1,5 +1,5 @@
 import { describe, expect, it } from 'vitest';
-import { dpiToPixelsPerMetre, formatLength, inchToMm, mmToInch, mmToPixels, parseLength, toMm } from './index';
+import { dpiToPixelsPerMetre, formatFineLength, formatLength, inchToMm, mmToInch, mmToPixels, parseLength, toMm } from './index';
 
 describe('units', () => {
   it('uses the exact inch: 1 in = 25.4 mm (international yard and pound agreement, 1959)', () => {
@@ -33,5 +33,10 @@ describe('units', () => {
   it('formats in the user unit', () => {
     expect(formatLength(50.8, 'in')).toBe('2 in');
     expect(formatLength(3.175, 'mm')).toBe('3.2 mm');
+    // Small lengths: not "0.039 in" for 1 mm.
+    expect(formatFineLength(1, 'in')).toBe('0.04 in (1 mm)');
+    expect(formatFineLength(0.5, 'in')).toBe('0.02 in (0.5 mm)');
+    expect(formatFineLength(3.175, 'in')).toBe('0.125 in');
+    expect(formatFineLength(1, 'mm')).toBe('1 mm');
   });
 });

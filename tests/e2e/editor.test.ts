@@ -135,6 +135,9 @@ describe('sheet editor in Chromium', { timeout: BROWSER_TEST_TIMEOUT }, () => {
     await page.goto(`${t.served.url}/t/${team.id}/sheets/${sheet.id}`);
     await expect.poll(() => page.getByTestId('save-state').textContent()).toBe('Read only: your role can view sheets');
     expect(await page.getByRole('button', { name: 'Undo' }).count()).toBe(0);
+    // Nothing invites a viewer to do what the role cannot.
+    expect(await page.getByText('Select a piece to see its size.').count()).toBe(1);
+    expect(await page.getByText(/Drag art/).count()).toBe(0);
     const at = await screenOf(page, { x: 50, y: 50 });
     await page.mouse.move(at.x, at.y);
     await page.mouse.down();

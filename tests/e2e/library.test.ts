@@ -131,6 +131,29 @@ describe('art library in Chromium', { timeout: BROWSER_TEST_TIMEOUT }, () => {
     await page.close();
   });
 
+  it('offers a member "Remove from the library" on their own art only (the server refuses the rest)', async () => {
+    const { team, users } = await makeTeamWithRoles(t.db);
+    const [admin, member] = [new Client(t.served.url), new Client(t.served.url)];
+    await admin.signIn(users.admin.email);
+    await member.signIn(users.member.email);
+    const theirs = (
+      await uploadFile(admin, team.id, await svgArt(300, 300, '<circle cx="150" cy="150" r="120" fill="#7b2d26"/>'), 'acorn.png')
+    ).body.results[0].item;
+    const own = (
+      await uploadFile(member, team.id, await svgArt(300, 300, '<circle cx="150" cy="150" r="110" fill="#3d5a80"/>'), 'plum.png')
+    ).body.results[0].item;
+    const page = await t.browser.newPage({ viewport: { width: 1280, height: 800 } });
+    await signIn(page, users.member.email);
+    await page.goto(`${t.served.url}/t/${team.id}/library/${theirs.id}`);
+    await page.getByRole('heading', { name: 'acorn' }).waitFor();
+    await page.getByRole('button', { name: 'Save details' }).waitFor();
+    expect(await page.getByRole('button', { name: 'Remove from the library' }).count()).toBe(0);
+    await page.goto(`${t.served.url}/t/${team.id}/library/${own.id}`);
+    await page.getByRole('heading', { name: 'plum' }).waitFor();
+    await page.getByRole('button', { name: 'Remove from the library' }).waitFor();
+    await page.close();
+  });
+
   it('the art page keeps collection and licence through a keyword edit (even before the collection list loads) and when the art joins a second collection', async () => {
     const { team, users } = await makeTeamWithRoles(t.db);
     const admin = new Client(t.served.url);

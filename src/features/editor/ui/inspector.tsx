@@ -81,7 +81,13 @@ export function Inspector({
 }) {
   const { store, unit, canEdit } = ctx;
   if (pieces.length === 0)
-    return <p className="text-sm text-ink-soft">Select a piece to size it. Drag art from the left onto the sheet.</p>;
+    return (
+      <p className="text-sm text-ink-soft">
+        {ctx.canEdit
+          ? 'Select a piece to size it. Drag art from the left onto the sheet, or press Add under it.'
+          : 'Select a piece to see its size.'}
+      </p>
+    );
   const ids = pieces.map((p) => p.id);
   const first = pieces[0];
   const frame = sizes.get(first.id);

@@ -178,7 +178,8 @@ export function ArtDetailRoute() {
               />
             </section>
           )}
-          {edit && (
+          {/* Members remove only their own uploads; owners and admins any (the server's rule). */}
+          {edit && (can('library.manage') || item.uploadedBy.id === me?.user.id) && (
             <Button
               variant="danger"
               onClick={() => {

@@ -2,7 +2,7 @@ import { useState } from 'react';
 import type { ProfileView } from '../../../../shared/schemas/sheets';
 import { PAPER_SIZES, REG_MARK_LABELS } from '../../../../shared/schemas/sheets';
 import type { LengthUnit } from '../../../../shared/units';
-import { formatLength } from '../../../../shared/units';
+import { formatFineLength, formatLength } from '../../../../shared/units';
 import { useCreateProfile, useMakeDefaultProfile, useUpdateProfile } from '../api/sheets';
 import { ProfileForm } from './profile-form';
 
@@ -23,6 +23,7 @@ export function ProfilesPanel({
   const makeDefault = useMakeDefaultProfile(teamId);
   const [editing, setEditing] = useState<string | null>(null);
   const f = (n: number) => formatLength(n, unit, unit === 'in' ? 3 : 1);
+  const fine = (n: number) => formatFineLength(n, unit);
   return (
     <section aria-labelledby="profiles-title" className="rounded-sticker border-2 border-paper-edge bg-white p-5 text-sm">
       <h2 id="profiles-title" className="mb-2 text-lg font-extrabold">
@@ -36,8 +37,8 @@ export function ProfilesPanel({
             <div className="text-ink-soft">
               Print area {f(p.areaWidthMm)} × {f(p.areaHeightMm)} on{' '}
               {p.paper === 'custom' ? `${f(p.paperWidthMm)} × ${f(p.paperHeightMm)}` : PAPER_SIZES[p.paper].label} · margin{' '}
-              {f(p.safeMarginMm)} · gap {f(p.minGapMm)} · smallest sticker {f(p.smallestStickerMm)} · smallest feature {f(p.minFeatureMm)} ·
-              bridges {f(p.bridgeWidthMm)} · cut layer {p.spotColour}
+              {f(p.safeMarginMm)} · gap {fine(p.minGapMm)} · smallest sticker {f(p.smallestStickerMm)} · smallest feature{' '}
+              {fine(p.minFeatureMm)} · bridges {fine(p.bridgeWidthMm)} · cut layer {p.spotColour}
               {p.regMarkShape !== 'none' &&
                 ` · marks: ${REG_MARK_LABELS[p.regMarkShape].toLowerCase()} ${f(p.regMarkSizeMm)}, ${f(p.regMarkOffsetMm)} out`}
             </div>

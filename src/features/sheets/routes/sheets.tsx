@@ -160,7 +160,7 @@ export function SheetsRoute() {
                     <td>{SHEET_STATUS_LABELS[s.status]}</td>
                     <td>{new Date(s.updatedAt).toLocaleString()}</td>
                     <td>{s.owner.name}</td>
-                    <td className="text-xs">
+                    <td className="pr-4 text-xs">
                       {s.lastExport?.status === 'running' && (
                         <progress max={1} value={s.lastExport.progress} className="h-2 w-16" aria-label="Export progress" />
                       )}
