@@ -38,12 +38,15 @@ export type CostInputs = {
   labourRatePerHour: number;
   pieces: number;
   markupPercent: number;
+  /** The shop's waste allowance: misprints and spoiled sheets, a share of the materials of every sheet. */
+  wastePercent: number;
 };
 
 export type CostBreakdown = {
   stock: number;
   ink: number;
   blade: number;
+  waste: number;
   labour: number;
   sheet: number;
   perSticker: number | null;
@@ -51,19 +54,24 @@ export type CostBreakdown = {
   suggestedSticker: number | null;
 };
 
-/** Cost of one printed and cut sheet, per sticker, and a price at the maker's markup. */
+/**
+ * Cost of one printed and cut sheet, per sticker, and a price at the maker's markup. The waste
+ * allowance adds its share of the materials (stock, ink, blade), not of the labour.
+ */
 export function sheetCost(i: CostInputs): CostBreakdown {
   const stock = i.stockPerSheet;
   const ink = i.coverage * i.printAreaShare * i.inkFullPage;
   const blade = i.bladeLifeM > 0 ? (i.cutLengthMm / 1000 / i.bladeLifeM) * i.bladePrice : 0;
+  const waste = ((stock + ink + blade) * i.wastePercent) / 100;
   const labour = (i.labourMinutes / 60) * i.labourRatePerHour;
-  const sheet = stock + ink + blade + labour;
+  const sheet = stock + ink + blade + waste + labour;
   const factor = 1 + i.markupPercent / 100;
   const perSticker = i.pieces > 0 ? sheet / i.pieces : null;
   return {
     stock,
     ink,
     blade,
+    waste,
     labour,
     sheet,
     perSticker,

@@ -163,7 +163,7 @@ export type SheetSummary = {
   updatedAt: string;
   thumbnailUrl: string | null;
   /** Cost of one printed sheet from its last analysis; `current` is false when the sheet changed since. */
-  cost?: { sheet: number; perSticker: number | null; currency: string; current: boolean } | null;
+  cost?: { sheet: number; perSticker: number | null; currency: string; current: boolean; priced: boolean } | null;
   /** The newest export of any version: its state, and whether it matches the current version. */
   lastExport: { status: 'running' | 'done' | 'failed'; progress: number; current: boolean; downloadUrl: string | null } | null;
 };

@@ -18,6 +18,12 @@ export const shopSettingsSchema = z.object({
   currency: z.string().trim().min(1, 'Give a currency sign').max(4),
   labourRatePerHour: money('Labour rate', 10_000),
   markupPercent: z.coerce.number({ error: 'Markup: give a percentage' }).min(0, 'Markup: not below 0').max(10_000),
+  /** Misprints and spoiled sheets, as a share of the materials (stock, ink, blade) of every sheet. */
+  wastePercent: z.coerce
+    .number({ error: 'Waste allowance: give a percentage' })
+    .min(0, 'Waste allowance: not below 0')
+    .max(100, 'Waste allowance: at most 100 %')
+    .default(0),
 });
 export type ShopSettings = z.infer<typeof shopSettingsSchema>;
 
@@ -65,6 +71,13 @@ export const stockInputSchema = z
       .min(1, 'At least 1 sheet per pack')
       .max(100_000),
     onHand: z.coerce.number().int('Sheets on hand: a whole number').min(0, 'Sheets on hand: not below 0').max(1_000_000).default(0),
+    /** Say the stock is running low at this many sheets on hand or fewer; empty for never. */
+    lowAt: z
+      .preprocess(
+        (v) => (v === '' ? null : v),
+        z.coerce.number().int('Running low at: a whole number of sheets').min(0, 'Running low at: not below 0').max(1_000_000).nullable(),
+      )
+      .default(null),
     printerSettings: printerSettingsSchema.default({ paperSetting: '', quality: '', colour: '', other: '' }),
     cutterSettings: cutterSettingsSchema.default({ material: '', pressure: '', passes: 1, blade: '' }),
     rating: z.coerce.number().int().min(1, 'Rate 1 to 5').max(5, 'Rate 1 to 5').nullable().default(null),
@@ -99,6 +112,8 @@ export type StockView = Omit<StockInput, 'paperWidthMm' | 'paperHeightMm'> & {
   paperHeightMm: number;
   costPerSheet: number;
   archived: boolean;
+  /** On hand at or below its running-low mark. */
+  low: boolean;
 };
 
 export const machineInputSchema = z
@@ -119,12 +134,16 @@ export const bladeFitSchema = z.object({
   fittedOn: day,
   lifeM: z.coerce.number({ error: 'Replace at: give metres' }).min(1, 'Replace at: at least 1 m').max(1_000_000),
   price: money('Blade price', 10_000).default(0),
+  /** Replace by this date however little it has cut (blades dull and chip with age too); empty for no date. */
+  replaceBy: z.preprocess((v) => (v === '' ? null : v), day.nullable()).default(null),
   note: text(300).default(''),
 });
 export type BladeFit = z.infer<typeof bladeFitSchema>;
 
 /** Near its replacement length at 90 % (a margin of our own choosing), due at 100 %. */
 export const BLADE_NEAR_SHARE = 0.9;
+/** Near its replace-by date this many days before it (our own margin). */
+export const BLADE_NEAR_DAYS = 7;
 export type BladeView = {
   id: string;
   label: string;
@@ -134,7 +153,10 @@ export type BladeView = {
   lifeM: number;
   price: number;
   note: string;
+  replaceBy: string | null;
   wear: 'ok' | 'near' | 'due';
+  /** Why it is near or due, in a maker's words ("cut 96 of 100 m", "replace by 2026-12-01"). */
+  wearReason: string | null;
 };
 export type MachineView = {
   id: string;
@@ -236,8 +258,13 @@ export type SheetCostView = {
     blade: { label: string; price: number; lifeM: number } | null;
     labourRatePerHour: number;
     markupPercent: number;
+    wastePercent: number;
     currency: string;
   };
   cost: CostBreakdown;
   missing: string[];
+  /** Costed on a stock: without one there is no price to show. */
+  priced: boolean;
+  /** Where the choices came from when the sheet has none of its own: its last run, or the team's. */
+  defaultsFrom: 'sheet-run' | 'team-run' | null;
 };

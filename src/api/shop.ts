@@ -51,7 +51,9 @@ export const shopApi = {
   fitBlade: (teamId: string, cutterId: string, body: unknown) =>
     api<MachineView>('POST', `${base(teamId)}/machines/${cutterId}/blades`, body),
   recordRun: (teamId: string, body: unknown) => api<PrintRunView>('POST', `${base(teamId)}/print-runs`, body),
-  saveSettings: (teamId: string, body: ShopSettings) => api<ShopSettings>('PUT', `${base(teamId)}/shop-settings`, body),
+  /** The rates as typed: the server reads the numbers and names any that are not. */
+  saveSettings: (teamId: string, body: Record<keyof ShopSettings, string>) =>
+    api<ShopSettings>('PUT', `${base(teamId)}/shop-settings`, body),
   setCosting: (teamId: string, sheetId: string, body: unknown) =>
     api<SheetCostView>('PUT', `${base(teamId)}/sheets/${sheetId}/costing`, body),
 };

@@ -60,6 +60,10 @@ describe('print shop in Chromium', { timeout: BROWSER_TEST_TIMEOUT }, () => {
 
     // The cost section: pick the stock; the sheet's cost is the stock's 0.18 plus blade wear (no cutter yet: 0).
     await page.getByText('Cost', { exact: true }).click();
+    // No stock chosen and no run logged yet: no price rather than $0.00.
+    await expect.poll(() => page.getByTestId('cost-sheet').textContent(), { timeout: 15_000 }).toBe('Not priced yet: choose a stock.');
+    await page.getByTestId('cost-panel').scrollIntoViewIfNeeded();
+    await screenshot(page, 'editor-cost-not-priced');
     await page.getByTestId('cost-panel').getByLabel('Stock').selectOption({ label: 'Matte sticker paper' });
     await expect.poll(() => page.getByTestId('cost-sheet').textContent(), { timeout: 15_000 }).toBe('$0.18');
     await page.getByTestId('cost-panel').scrollIntoViewIfNeeded();

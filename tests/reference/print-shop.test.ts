@@ -74,7 +74,7 @@ describe('cost', () => {
 
   it('reproduces the worked example in README.md', () => {
     // README "What a sheet costs": 6.75 × 9.25 in print area on Letter, 24 % coverage, 20 stickers,
-    // 3 m of cut, a 9.00 blade replaced at 600 m, 6 minutes at 18.00 an hour, 150 % markup.
+    // 3 m of cut, a 9.00 blade replaced at 600 m, a 5 % waste allowance, 6 minutes at 18.00 an hour, 150 % markup.
     const printAreaShare = (inchToMm(6.75) * inchToMm(9.25)) / (inchToMm(8.5) * inchToMm(11));
     const cost = sheetCost({
       stockPerSheet: costPerSheet(18, 100),
@@ -88,16 +88,18 @@ describe('cost', () => {
       labourRatePerHour: 18,
       pieces: 20,
       markupPercent: 150,
+      wastePercent: 5,
     });
     expect(printAreaShare).toBeCloseTo(0.6678, 4);
     expect(cost.stock.toFixed(2)).toBe('0.18');
     expect(cost.ink.toFixed(4)).toBe('0.3205');
     expect(cost.blade.toFixed(3)).toBe('0.045');
+    expect(cost.waste.toFixed(4)).toBe('0.0273'); // materials only: labour carries no waste
     expect(cost.labour.toFixed(2)).toBe('1.80');
-    expect(cost.sheet.toFixed(2)).toBe('2.35');
-    expect(cost.perSticker!.toFixed(3)).toBe('0.117');
-    expect(cost.suggestedSheet.toFixed(2)).toBe('5.86');
-    expect(cost.suggestedSticker!.toFixed(2)).toBe('0.29');
+    expect(cost.sheet.toFixed(2)).toBe('2.37');
+    expect(cost.perSticker!.toFixed(3)).toBe('0.119');
+    expect(cost.suggestedSheet.toFixed(2)).toBe('5.93');
+    expect(cost.suggestedSticker!.toFixed(2)).toBe('0.30');
   });
 
   it('has no per-sticker figure for an empty sheet and no blade share without a blade life', () => {
@@ -113,6 +115,7 @@ describe('cost', () => {
       labourRatePerHour: 0,
       pieces: 0,
       markupPercent: 100,
+      wastePercent: 0,
     });
     expect(cost.perSticker).toBeNull();
     expect(cost.blade).toBe(0);

@@ -78,9 +78,10 @@ async function seedShop(dataSource: DataSource): Promise<number> {
     fittedOn: '2026-10-05',
     lifeM: 600,
     price: 9,
+    replaceBy: null,
     note: '',
   });
-  await saveShopSettings(dataSource, team.id, { currency: '$', labourRatePerHour: 18, markupPercent: 150 });
+  await saveShopSettings(dataSource, team.id, { currency: '$', labourRatePerHour: 18, markupPercent: 150, wastePercent: 5 });
   return 6;
 }
 

@@ -11,6 +11,7 @@ import { ExportFiles1765584000000 } from './1765584000000-export-files';
 import { CutBridgesAndMarks1765670400000 } from './1765670400000-cut-bridges-and-marks';
 import { ExportJobs1765756800000 } from './1765756800000-export-jobs';
 import { VectorArtSources1765843200000 } from './1765843200000-vector-art-sources';
+import { ShopAllowances1765929600000 } from './1765929600000-shop-allowances';
 
 // Every migration, oldest first. A new one is appended here and never edited after it lands.
 export const migrations = [
@@ -27,4 +28,5 @@ export const migrations = [
   CutBridgesAndMarks1765670400000,
   ExportJobs1765756800000,
   VectorArtSources1765843200000,
+  ShopAllowances1765929600000,
 ];

@@ -1,7 +1,7 @@
 import type { DataSource, EntityManager } from 'typeorm';
 import type { z } from 'zod';
 import type { BladeFit, BladeView, MachineView, machineInputSchema } from '../../../shared/schemas/shop';
-import { BLADE_NEAR_SHARE } from '../../../shared/schemas/shop';
+import { BLADE_NEAR_DAYS, BLADE_NEAR_SHARE } from '../../../shared/schemas/shop';
 import { notFound, validationError } from '../../lib/errors';
 import { inTransaction } from '../../db/transaction';
 
@@ -23,6 +23,7 @@ type BladeRow = {
   life_m: string;
   price: string;
   note: string | null;
+  replace_by: string | Date | null;
 };
 
 const isoDay = (d: string | Date | null) =>
@@ -32,9 +33,20 @@ const isoDay = (d: string | Date | null) =>
       ? d.slice(0, 10)
       : `${d.getFullYear()}-${String(d.getMonth() + 1).padStart(2, '0')}-${String(d.getDate()).padStart(2, '0')}`;
 
-export const bladeView = (b: BladeRow): BladeView => {
+/** A blade's wear by length (90 % of its replacement length: near; all of it: due) and by its replace-by date. */
+export const bladeView = (b: BladeRow, today = isoDay(new Date())!): BladeView => {
   const cutLengthM = b.cut_length_mm / 1000,
     lifeM = Number(b.life_m);
+  const replaceBy = isoDay(b.replace_by);
+  const daysLeft = replaceBy === null ? Infinity : (Date.parse(replaceBy) - Date.parse(today)) / 86_400_000;
+  const byLength = cutLengthM >= lifeM ? 'due' : cutLengthM >= BLADE_NEAR_SHARE * lifeM ? 'near' : 'ok';
+  const byDate = daysLeft <= 0 ? 'due' : daysLeft <= BLADE_NEAR_DAYS ? 'near' : 'ok';
+  const rank = { ok: 0, near: 1, due: 2 } as const;
+  const wear = rank[byLength] >= rank[byDate] ? byLength : byDate;
+  const reasons = [
+    byLength !== 'ok' && `cut ${cutLengthM.toFixed(1)} of ${lifeM} m`,
+    byDate !== 'ok' && (daysLeft <= 0 ? `replace-by date ${replaceBy} reached` : `replace by ${replaceBy}`),
+  ].filter((r): r is string => Boolean(r));
   return {
     id: String(b.id),
     label: b.label,
@@ -44,7 +56,9 @@ export const bladeView = (b: BladeRow): BladeView => {
     lifeM,
     price: Number(b.price),
     note: b.note ?? '',
-    wear: cutLengthM >= lifeM ? 'due' : cutLengthM >= BLADE_NEAR_SHARE * lifeM ? 'near' : 'ok',
+    replaceBy,
+    wear,
+    wearReason: reasons.length ? reasons.join('; ') : null,
   };
 };
 
@@ -61,7 +75,7 @@ export class MachinesService {
       teamId,
     ]);
     return machines.map((m) => {
-      const own = blades.filter((b) => String(b.cutter_id) === String(m.id)).map(bladeView);
+      const own = blades.filter((b) => String(b.cutter_id) === String(m.id)).map((b) => bladeView(b));
       return {
         id: String(m.id),
         kind: m.kind,
@@ -115,8 +129,8 @@ export class MachinesService {
     await inTransaction(this.dataSource, async (manager) => {
       await manager.query('UPDATE blades SET removed_on = ? WHERE cutter_id = ? AND removed_on IS NULL', [fit.fittedOn, cutterId]);
       await manager.query(
-        'INSERT INTO blades (team_id, cutter_id, label, fitted_on, life_m, price, note, fitted_by) VALUES (?,?,?,?,?,?,?,?)',
-        [teamId, cutterId, fit.label, fit.fittedOn, fit.lifeM, fit.price, fit.note || null, userId],
+        'INSERT INTO blades (team_id, cutter_id, label, fitted_on, life_m, price, note, fitted_by, replace_by) VALUES (?,?,?,?,?,?,?,?,?)',
+        [teamId, cutterId, fit.label, fit.fittedOn, fit.lifeM, fit.price, fit.note || null, userId, fit.replaceBy],
       );
     });
     return this.get(teamId, cutterId);

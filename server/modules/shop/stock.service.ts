@@ -14,6 +14,7 @@ export type StockRow = {
   pack_price: string;
   sheets_per_pack: number;
   on_hand: number;
+  low_at: number | null;
   printer_settings: string;
   cutter_settings: string;
   rating: number | null;
@@ -34,6 +35,8 @@ export const stockView = (r: StockRow): StockView => ({
   sheetsPerPack: r.sheets_per_pack,
   costPerSheet: costPerSheet(Number(r.pack_price), r.sheets_per_pack),
   onHand: r.on_hand,
+  lowAt: r.low_at,
+  low: r.low_at !== null && r.on_hand <= r.low_at,
   printerSettings: JSON.parse(r.printer_settings),
   cutterSettings: JSON.parse(r.cutter_settings),
   rating: r.rating,
@@ -65,6 +68,7 @@ const columns = (s: StockInput) => [
   s.foodSafe,
   s.skinSafe,
   s.notes || null,
+  s.lowAt,
 ];
 
 /** The team's printable stock: prices, sheets on hand and the settings that worked. */
@@ -91,7 +95,7 @@ export class StockService {
 
   async create(teamId: string, s: StockInput): Promise<StockView> {
     const r = await this.dataSource.query(
-      'INSERT INTO stock_items (name, finish, paper, paper_width_mm, paper_height_mm, pack_price, sheets_per_pack, printer_settings, cutter_settings, rating, food_safe, skin_safe, notes, on_hand, team_id) VALUES (?,?,?,?,?,?,?,?,?,?,?,?,?,?,?)',
+      'INSERT INTO stock_items (name, finish, paper, paper_width_mm, paper_height_mm, pack_price, sheets_per_pack, printer_settings, cutter_settings, rating, food_safe, skin_safe, notes, low_at, on_hand, team_id) VALUES (?,?,?,?,?,?,?,?,?,?,?,?,?,?,?,?)',
       [...columns(s), s.onHand, teamId],
     );
     return this.get(teamId, String(r.insertId));
@@ -101,7 +105,7 @@ export class StockService {
   async update(teamId: string, id: string, s: StockInput): Promise<StockView> {
     await this.row(teamId, id);
     await this.dataSource.query(
-      'UPDATE stock_items SET name=?, finish=?, paper=?, paper_width_mm=?, paper_height_mm=?, pack_price=?, sheets_per_pack=?, printer_settings=?, cutter_settings=?, rating=?, food_safe=?, skin_safe=?, notes=? WHERE id = ? AND team_id = ?',
+      'UPDATE stock_items SET name=?, finish=?, paper=?, paper_width_mm=?, paper_height_mm=?, pack_price=?, sheets_per_pack=?, printer_settings=?, cutter_settings=?, rating=?, food_safe=?, skin_safe=?, notes=?, low_at=? WHERE id = ? AND team_id = ?',
       [...columns(s), id, teamId],
     );
     return this.get(teamId, id);

@@ -13,7 +13,7 @@ export function CostPanel({ teamId, sheetId, version, canEdit }: { teamId: strin
   const { error, run } = useAction({ preferField: true });
   if (cost.isPending) return <p className="text-xs text-ink-faint">Working out the cost…</p>;
   if (!cost.data) return <p className="text-xs text-alarm">The cost could not be worked out.</p>;
-  const { costing, inputs, cost: c, analysis, missing } = cost.data;
+  const { costing, inputs, cost: c, analysis, missing, priced, defaultsFrom } = cost.data;
   const money = (v: number) => formatMoney(v, inputs.currency);
   const choose = (patch: Partial<typeof costing>) =>
     void run(async () => {
@@ -65,48 +65,66 @@ export function CostPanel({ teamId, sheetId, version, canEdit }: { teamId: strin
           className="w-16 rounded border-2 border-paper-edge px-1 text-right"
         />
       </label>
-      <table className="mt-1 w-full">
-        <tbody>
-          <tr>
-            <td>Stock{inputs.stock ? ` (${money(inputs.stock.packPrice)} / ${inputs.stock.sheetsPerPack})` : ''}</td>
-            <td className="text-right">{money(c.stock)}</td>
-          </tr>
-          <tr>
-            <td>
-              Ink ({Math.round(analysis.coverage.total * 100)} % coverage
-              {inputs.printer ? ` × ${money(inputs.printer.inkFullPage)} a full page` : ''})
-            </td>
-            <td className="text-right">{money(c.ink)}</td>
-          </tr>
-          <tr>
-            <td>
-              Blade ({(analysis.cutLengthMm / 1000).toFixed(2)} m of cut{inputs.blade ? ` of ${inputs.blade.lifeM} m` : ''})
-            </td>
-            <td className="text-right">{money(c.blade)}</td>
-          </tr>
-          <tr>
-            <td>Labour</td>
-            <td className="text-right">{money(c.labour)}</td>
-          </tr>
-          <tr className="font-extrabold">
-            <td>Per sheet</td>
-            <td className="text-right" data-testid="cost-sheet">
-              {money(c.sheet)}
-            </td>
-          </tr>
-          <tr>
-            <td>Per sticker ({analysis.pieces})</td>
-            <td className="text-right">{c.perSticker === null ? '—' : money(c.perSticker)}</td>
-          </tr>
-          <tr className="text-sage-deep">
-            <td>Price at {inputs.markupPercent} % markup</td>
-            <td className="text-right">
-              {money(c.suggestedSheet)}
-              {c.suggestedSticker !== null ? ` · ${money(c.suggestedSticker)} each` : ''}
-            </td>
-          </tr>
-        </tbody>
-      </table>
+      {defaultsFrom && (
+        <p className="text-ink-faint" data-testid="cost-defaults">
+          {defaultsFrom === 'sheet-run' ? 'Costed on what this sheet’s last run used.' : 'Costed on what the team’s last run used.'} Choose
+          here to cost it on something else.
+        </p>
+      )}
+      {!priced ? (
+        <p className="mt-1 font-bold text-ink-soft" data-testid="cost-sheet">
+          Not priced yet: choose a stock.
+        </p>
+      ) : (
+        <table className="mt-1 w-full">
+          <tbody>
+            <tr>
+              <td>Stock{inputs.stock ? ` (${money(inputs.stock.packPrice)} / ${inputs.stock.sheetsPerPack})` : ''}</td>
+              <td className="text-right">{money(c.stock)}</td>
+            </tr>
+            <tr>
+              <td>
+                Ink ({Math.round(analysis.coverage.total * 100)} % coverage
+                {inputs.printer ? ` × ${money(inputs.printer.inkFullPage)} a full page` : ''})
+              </td>
+              <td className="text-right">{money(c.ink)}</td>
+            </tr>
+            <tr>
+              <td>
+                Blade ({(analysis.cutLengthMm / 1000).toFixed(2)} m of cut{inputs.blade ? ` of ${inputs.blade.lifeM} m` : ''})
+              </td>
+              <td className="text-right">{money(c.blade)}</td>
+            </tr>
+            {inputs.wastePercent > 0 && (
+              <tr>
+                <td>Waste allowance ({inputs.wastePercent} % of the materials)</td>
+                <td className="text-right">{money(c.waste)}</td>
+              </tr>
+            )}
+            <tr>
+              <td>Labour</td>
+              <td className="text-right">{money(c.labour)}</td>
+            </tr>
+            <tr className="font-extrabold">
+              <td>Per sheet</td>
+              <td className="text-right" data-testid="cost-sheet">
+                {money(c.sheet)}
+              </td>
+            </tr>
+            <tr>
+              <td>Per sticker ({analysis.pieces})</td>
+              <td className="text-right">{c.perSticker === null ? '—' : money(c.perSticker)}</td>
+            </tr>
+            <tr className="text-sage-deep">
+              <td>Price at {inputs.markupPercent} % markup</td>
+              <td className="text-right">
+                {money(c.suggestedSheet)}
+                {c.suggestedSticker !== null ? ` · ${money(c.suggestedSticker)} each` : ''}
+              </td>
+            </tr>
+          </tbody>
+        </table>
+      )}
       {cost.isError && <p className="text-alarm">These figures could not be brought up to date; they are from an earlier version.</p>}
       {cost.isPlaceholderData && <p className="text-ink-faint">Updating for the latest edit…</p>}
       {missing.length > 0 && <p className="text-ink-faint">Not counted yet: {missing.join(', ')}.</p>}

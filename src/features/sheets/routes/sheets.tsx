@@ -153,9 +153,11 @@ export function SheetsRoute() {
                       data-testid="sheet-cost"
                       title={s.cost && !s.cost.current ? 'Worked out for an earlier version' : undefined}
                     >
-                      {s.cost
-                        ? `${s.cost.current ? '' : '≈ '}${s.cost.currency}${s.cost.sheet.toFixed(2)}${s.cost.perSticker !== null ? ` (${s.cost.currency}${s.cost.perSticker.toFixed(2)} each)` : ''}`
-                        : '—'}
+                      {s.cost && !s.cost.priced
+                        ? 'Not priced yet'
+                        : s.cost
+                          ? `${s.cost.current ? '' : '≈ '}${s.cost.currency}${s.cost.sheet.toFixed(2)}${s.cost.perSticker !== null ? ` (${s.cost.currency}${s.cost.perSticker.toFixed(2)} each)` : ''}`
+                          : '—'}
                     </td>
                     <td>{SHEET_STATUS_LABELS[s.status]}</td>
                     <td>{new Date(s.updatedAt).toLocaleString()}</td>

@@ -22,7 +22,7 @@ function BladeLine({
   onChanged: () => void;
 }) {
   const [fitting, setFitting] = useState(false);
-  const [fit, setFit] = useState({ label: '', fittedOn: today(), lifeM: '600', price: '' });
+  const [fit, setFit] = useState({ label: '', fittedOn: today(), lifeM: '600', price: '', replaceBy: '' });
   const { error, run } = useAction({ preferField: true });
   const b = cutter.blade;
   return (
@@ -31,7 +31,7 @@ function BladeLine({
         <>
           <p>
             <strong>{b.label}</strong>, fitted {b.fittedOn}: <span data-testid="blade-length">{b.cutLengthM.toFixed(2)} m</span> cut of{' '}
-            {b.lifeM} m
+            {b.lifeM} m{b.replaceBy ? `, or by ${b.replaceBy}` : ''}
           </p>
           <div className="h-2 w-full rounded bg-paper-deep" aria-hidden>
             <div className={`h-2 rounded ${WEAR[b.wear]}`} style={{ width: `${Math.min(100, (100 * b.cutLengthM) / b.lifeM)}%` }} />
@@ -39,8 +39,8 @@ function BladeLine({
           {b.wear !== 'ok' && (
             <p role="alert" className="font-bold text-alarm">
               {b.wear === 'due'
-                ? 'Past its replacement length: change the blade before the next run.'
-                : 'Nearly at its replacement length: have a new blade ready.'}
+                ? `Due for a change (${b.wearReason}): change the blade before the next run.`
+                : `Nearly due (${b.wearReason}): have a new blade ready.`}
             </p>
           )}
         </>
@@ -81,6 +81,15 @@ function BladeLine({
                 value={fit.lifeM}
                 onChange={(e) => setFit({ ...fit, lifeM: e.target.value })}
                 className={`${input} w-20 font-normal`}
+              />
+            </label>
+            <label className="flex flex-col font-bold">
+              or by (date, optional)
+              <input
+                type="date"
+                value={fit.replaceBy}
+                onChange={(e) => setFit({ ...fit, replaceBy: e.target.value })}
+                className={`${input} font-normal`}
               />
             </label>
             <label className="flex flex-col font-bold">

@@ -17,6 +17,7 @@ const draftFrom = (unit: LengthUnit, s?: StockView) => ({
   packPrice: s ? String(s.packPrice) : '',
   sheetsPerPack: s ? String(s.sheetsPerPack) : '',
   onHand: s ? String(s.onHand) : '0',
+  lowAt: s?.lowAt === null || s?.lowAt === undefined ? '' : String(s.lowAt),
   paperSetting: s?.printerSettings.paperSetting ?? '',
   quality: s?.printerSettings.quality ?? '',
   colour: s?.printerSettings.colour ?? '',
@@ -44,6 +45,7 @@ const bodyOf = (d: Draft, unit: LengthUnit) => ({
   packPrice: d.packPrice,
   sheetsPerPack: d.sheetsPerPack,
   onHand: d.onHand,
+  lowAt: d.lowAt,
   printerSettings: { paperSetting: d.paperSetting, quality: d.quality, colour: d.colour, other: d.printerOther },
   cutterSettings: { material: d.material, pressure: d.pressure, passes: d.passes, blade: d.blade },
   rating: d.rating === '' ? null : d.rating,
@@ -146,6 +148,7 @@ export function StockForm({
         {text('packPrice', `Pack price (${currency})`, 'w-20')}
         {text('sheetsPerPack', 'Sheets per pack', 'w-20')}
         {!stock && text('onHand', 'On hand', 'w-16')}
+        {text('lowAt', 'Running low at (sheets)', 'w-20')}
         {text('rating', 'Rating 1–5', 'w-12')}
       </div>
       <fieldset className="flex flex-wrap items-end gap-2">

@@ -119,11 +119,9 @@ export function StockShelf({
                     ({formatMoney(s.packPrice, currency)} / {s.sheetsPerPack})
                   </span>
                 </td>
-                <td
-                  data-testid="on-hand"
-                  className={s.onHand < 0 ? 'font-bold text-alarm' : s.onHand < 10 ? 'font-bold text-peel-deep' : ''}
-                >
+                <td data-testid="on-hand" className={s.onHand < 0 ? 'font-bold text-alarm' : s.low ? 'font-bold text-peel-deep' : ''}>
                   {s.onHand}
+                  {s.low && <span className="ml-1 text-xs">(running low: {s.lowAt} or fewer)</span>}
                 </td>
                 <td className="text-xs">
                   <button

@@ -7,12 +7,13 @@ import { useMe } from '../../auth/api/me';
 import { useTeamRole } from '../../auth/use-team-role';
 import { MachinesBench } from '../components/machines-bench';
 import { RunLog } from '../components/run-log';
+import { ShopReminders } from '../components/shop-reminders';
 import { StockShelf } from '../components/stock-shelf';
 
 function ShopRates({ teamId, canManage }: { teamId: string; canManage: boolean }) {
   const client = useQueryClient();
   const settings = useQuery(settingsQueryOptions(teamId));
-  const [form, setForm] = useState({ currency: '$', labourRatePerHour: '0', markupPercent: '100' });
+  const [form, setForm] = useState({ currency: '$', labourRatePerHour: '0', markupPercent: '100', wastePercent: '0' });
   const { error, run } = useAction({ preferField: true });
   const [saved, setSaved] = useState(false);
   useEffect(() => {
@@ -21,6 +22,7 @@ function ShopRates({ teamId, canManage }: { teamId: string; canManage: boolean }
         currency: settings.data.currency,
         labourRatePerHour: String(settings.data.labourRatePerHour),
         markupPercent: String(settings.data.markupPercent),
+        wastePercent: String(settings.data.wastePercent),
       });
   }, [settings.data]);
   const field = (key: keyof typeof form, label: string) => (
@@ -46,20 +48,14 @@ function ShopRates({ teamId, canManage }: { teamId: string; canManage: boolean }
         {field('currency', 'Currency sign')}
         {field('labourRatePerHour', 'Labour per hour')}
         {field('markupPercent', 'Markup (%)')}
+        {field('wastePercent', 'Waste allowance (%)')}
         {canManage && (
           <button
             type="button"
             className="rounded-full bg-ink px-4 py-1 font-bold text-paper"
             onClick={() =>
               void run(async () => {
-                client.setQueryData(
-                  settingsQueryOptions(teamId).queryKey,
-                  await shopApi.saveSettings(teamId, {
-                    currency: form.currency,
-                    labourRatePerHour: Number(form.labourRatePerHour),
-                    markupPercent: Number(form.markupPercent),
-                  }),
-                );
+                client.setQueryData(settingsQueryOptions(teamId).queryKey, await shopApi.saveSettings(teamId, form));
                 setSaved(true);
               })
             }
@@ -74,8 +70,8 @@ function ShopRates({ teamId, canManage }: { teamId: string; canManage: boolean }
         )}
       </div>
       <p className="mt-1 text-xs text-ink-faint">
-        A sheet's cost is its stock, ink from the print's coverage, its share of blade wear and labour; the price adds the markup. Each
-        sheet shows its figures in the editor.
+        A sheet's cost is its stock, ink from the print's coverage, its share of blade wear, the waste allowance on those (misprints and
+        spoiled sheets) and labour; the price adds the markup. Each sheet shows its figures in the editor.
       </p>
       {error && (
         <p role="alert" className="text-alarm">
@@ -99,6 +95,7 @@ export function PrintRoomRoute() {
       <PageTitle title="Print room">
         <p className="text-sm text-ink-soft">What you print on, what you cut with, and how each run came out.</p>
       </PageTitle>
+      <ShopReminders teamId={teamId} />
       <RunLog teamId={teamId} canRecord={rights.canRecord} />
       <StockShelf {...rights} unit={me?.user.unit ?? 'in'} />
       <div className="grid items-start gap-4 xl:grid-cols-[3fr_2fr]">
