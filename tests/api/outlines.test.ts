@@ -30,7 +30,7 @@ describe('art upload', () => {
     expect(await t.db.getRepository(ArtItem).countBy({ teamId: team.id })).toBe(1);
   });
 
-  it('refuses a viewer (403), a non-image named .png (415) and an SVG (415), storing nothing', async () => {
+  it('refuses a viewer (403), a non-image named .png (415) and an SVG with nothing drawn (422), storing nothing', async () => {
     const { team, users } = await makeTeamWithRoles(t.db);
     const viewer = new Client(t.sheetsmith.app);
     await viewer.signIn(users.viewer.email);
@@ -41,8 +41,8 @@ describe('art upload', () => {
     expect(fake.status).toBe(415);
     expect(fake.body.error.message).toMatch(/not an image/);
     const svg = await upload(member, team.id, Buffer.from('<svg xmlns="http://www.w3.org/2000/svg" width="9" height="9"/>'), 'logo.svg');
-    expect(svg.status).toBe(415);
-    expect(svg.body.error.message).toMatch(/SVG files are not supported yet/);
+    expect(svg.status).toBe(422);
+    expect(svg.body.error.message).toMatch(/^Nothing to cut: every pixel of this image is transparent/);
     expect(await t.db.getRepository(ArtItem).countBy({ teamId: team.id })).toBe(0);
   });
 });

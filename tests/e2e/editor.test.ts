@@ -50,6 +50,7 @@ describe('sheet editor in Chromium', { timeout: BROWSER_TEST_TIMEOUT }, () => {
     // Select the circle and type a width of 3 in: its cut line comes within 0.1 mm of the square's.
     const firstAt = await screenOf(page, { x: first.x, y: first.y });
     await page.mouse.click(firstAt.x, firstAt.y);
+    await page.getByRole('radio', { name: 'Art' }).click();
     const width = page.getByLabel('Art width (in)');
     await width.fill('3');
     await width.press('Enter');

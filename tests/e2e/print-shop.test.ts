@@ -53,7 +53,8 @@ describe('print shop in Chromium', { timeout: BROWSER_TEST_TIMEOUT }, () => {
 
     await list.locator('[data-code=low-resolution]').click();
     await expect.poll(() => page.getByText('One piece', { exact: true }).count()).toBe(1);
-    expect(await page.getByLabel('Art width (in)').inputValue()).toBe('1.181'); // the 30 mm berry
+    expect(await page.getByLabel('Sticker width (in)').inputValue()).toBe('1.431'); // the 30 mm berry with a 1/8 in border
+    expect(await page.getByText('art 1.181 in').count()).toBe(1);
     await list.locator('[data-code=too-close]').click();
     await expect.poll(() => page.getByText('2 pieces', { exact: true }).count()).toBe(1);
     await screenshot(page, 'preflight-pair-selected');

@@ -15,6 +15,7 @@ async function openWithSelected(page: Page, teamId: string, sheetId: string, ema
   await expect.poll(() => page.getByTestId('area-used').textContent(), { timeout: 20_000 }).toMatch(/^1 piece · [1-9]/);
   const at = await screenOf(page, piece);
   await page.mouse.click(at.x, at.y);
+  await page.getByRole('radio', { name: 'Art' }).click(); // these tests size by the art
   await expect.poll(() => page.getByLabel('Art width (in)').count()).toBe(1);
 }
 
@@ -108,6 +109,7 @@ describe('saves are never silent', { timeout: BROWSER_TEST_TIMEOUT }, () => {
     await expect.poll(() => page.getByTestId('preflight').textContent(), { timeout: 20_000 }).toMatch(/far outside the print area/);
     const at = await screenOf(page, { x: 60, y: 60 });
     await page.mouse.click(at.x, at.y);
+    await page.getByRole('radio', { name: 'Art' }).click();
     const width = page.getByLabel('Art width (in)');
     await width.fill('1.25');
     await width.press('Enter');
