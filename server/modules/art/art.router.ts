@@ -14,6 +14,8 @@ import { actorOf, requirePermission, teamScope } from '../../middleware/auth';
 import { route } from '../../middleware/validate';
 import type { ArtService } from './art.service';
 import { searchArt } from './art-search';
+import { madeArtSvg } from './made-art';
+import { madeArtSchema } from '../../../shared/schemas/made-art';
 import { TeamVocabularies } from './vocabulary';
 import { z } from 'zod';
 
@@ -58,6 +60,25 @@ export function artRouter({
       if (!req.file)
         throw new AppError(400, 'validation_failed', 'Attach an image or a zip in the "file" field.', { file: 'Choose a file to upload' });
       const results = await art.upload(actorOf(req), req.file, body);
+      res.status(results.some((r) => r.status === 'stored') ? 201 : 200);
+      return { results };
+    }),
+  );
+
+  // Stickers made from words or a shape: drawn as an SVG here and stored like an uploaded one.
+  router.post(
+    '/teams/:teamId/art/made/preview',
+    scoped,
+    contribute,
+    route({ params: teamParamsSchema, body: madeArtSchema }, ({ body }) => ({ svg: madeArtSvg(body) })),
+  );
+  router.post(
+    '/teams/:teamId/art/made',
+    scoped,
+    contribute,
+    route({ params: teamParamsSchema, body: madeArtSchema }, async ({ body }, req, res) => {
+      const file = { originalname: `${body.name}.svg`, buffer: Buffer.from(madeArtSvg(body)) };
+      const results = await art.upload(actorOf(req), file, { keywords: body.keywords, collectionId: body.collectionId });
       res.status(results.some((r) => r.status === 'stored') ? 201 : 200);
       return { results };
     }),
