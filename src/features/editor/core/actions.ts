@@ -2,6 +2,7 @@
 // entries. No React or Konva here.
 import type { Piece } from '../../../../shared/sheet/document';
 import { commands } from '../../../../shared/sheet/commands';
+import { labelGridForSelection } from '../../../../shared/sheet/label-grid';
 import type { EditorStore } from './editor-store';
 
 export type ActionContext = {
@@ -36,6 +37,7 @@ export type Action = {
 const mod = (e: KeyboardEvent) => e.ctrlKey || e.metaKey;
 const selected = (ctx: ActionContext) => [...ctx.store.getState().selection];
 const hasSelection = (ctx: ActionContext) => ctx.store.getState().selection.size > 0;
+const gridOf = (ctx: ActionContext) => labelGridForSelection(ctx.store.getState().doc, ctx.store.getState().selection, ctx.halfSize);
 /** Small and large nudges: 1/32 in and 1/4 in, or 0.5 mm and 5 mm. */
 const nudgeStep = (ctx: ActionContext, large: boolean) => (ctx.unit === 'in' ? (large ? 6.35 : 0.79375) : large ? 5 : 0.5);
 
@@ -102,6 +104,18 @@ export const ACTIONS: Action[] = [
     keyTest: (e) => mod(e) && e.key.toLowerCase() === 'd',
     predicate: hasSelection,
     perform: (c) => c.store.dispatch(commands.duplicatePieces(c.store.getState().doc, selected(c), 5)),
+  },
+  {
+    name: 'label-grid',
+    records: true,
+    label: 'Fill the sheet with this label (a grid at the sheet’s gap)',
+    short: 'Label grid',
+    edits: true,
+    predicate: (c) => gridOf(c) !== null,
+    perform: (c) => {
+      const grid = gridOf(c);
+      if (grid) c.store.dispatch(grid.command);
+    },
   },
   {
     name: 'rotate-cw',

@@ -3,7 +3,7 @@ import type { Piece } from '../../../../shared/sheet/document';
 import { formatLength } from '../../../../shared/units';
 import { MAX_ROTATION_DEG } from '../../../../shared/sheet/bounds';
 import type { ActionContext } from '../core/actions';
-import { runAction } from '../core/run-action';
+import { actionNamed, enabled, runAction } from '../core/run-action';
 import { LengthInput, PositionFields, SizeFields, common, useSizeBy } from './selection-fields';
 
 /** Size, rotation, border and lock of the selection, plus align and distribute. */
@@ -38,7 +38,8 @@ export function Inspector({
     <button
       key={name}
       type="button"
-      disabled={!canEdit}
+      disabled={!canEdit || !enabled(actionNamed(name), ctx)}
+      title={actionNamed(name).label}
       onClick={() => runAction(name, ctx)}
       className="rounded border-2 border-paper-edge px-2 py-1 text-xs font-bold hover:border-ink disabled:opacity-40"
     >
@@ -120,6 +121,7 @@ export function Inspector({
         {button('duplicate', 'Duplicate')}
         {button('lock', first.locked ? 'Unlock' : 'Lock')}
         {button('delete', 'Delete')}
+        {pieces.length === 1 && button('label-grid', 'Fill with labels')}
       </div>
       {pieces.length > 1 && (
         <div className="flex flex-wrap gap-1" aria-label="Align and distribute">

@@ -13,6 +13,7 @@ import { ArtGrid, ArtTable } from '../components/art-results';
 import { BulkBar } from '../components/bulk-bar';
 import { CollectionsSidebar } from '../components/collections-sidebar';
 import { UploadPanel } from '../components/upload-panel';
+import { MakePanel } from '../components/make-panel';
 
 const PAGE_SIZE = 24;
 const select = 'rounded-lg border-2 border-paper-edge bg-white px-2 py-1 text-sm';
@@ -22,6 +23,7 @@ export function LibraryRoute() {
   const { data: me } = useMe();
   const [params, setParams] = useSearchParams();
   const [uploading, setUploading] = useState(false);
+  const [making, setMaking] = useState(false);
   const [selected, setSelected] = useState<Set<string>>(new Set());
   const [text, setText] = useState(params.get('q') ?? '');
   const collections = useCollections(teamId!);
@@ -79,7 +81,15 @@ export function LibraryRoute() {
     <>
       <PageTitle title="Art library">
         {can('library.contribute') && !uploading && <Button onClick={() => setUploading(true)}>Add art</Button>}
+        {can('library.contribute') && !making && (
+          <Button variant="quiet" onClick={() => setMaking(true)}>
+            Make a sticker…
+          </Button>
+        )}
       </PageTitle>
+      {making && (
+        <MakePanel teamId={teamId!} unit={me?.user.unit ?? 'in'} collections={collections.data ?? []} onClose={() => setMaking(false)} />
+      )}
       {uploading && <UploadPanel teamId={teamId!} collections={collections.data ?? []} onClose={() => setUploading(false)} />}
       <div className="grid gap-6 lg:grid-cols-[15rem_1fr]">
         <CollectionsSidebar
