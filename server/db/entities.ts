@@ -9,6 +9,11 @@ import { Membership } from '../modules/accounts/membership.entity';
 import { Team } from '../modules/accounts/team.entity';
 import { PasswordReset } from '../modules/auth/password-reset.entity';
 import { User } from '../modules/accounts/user.entity';
+import { SheetExport } from '../modules/exports/sheet-export.entity';
+import { Blade, Machine } from '../modules/shop/machine.entity';
+import { PrintRun } from '../modules/shop/print-run.entity';
+import { ShopSettingsRow } from '../modules/shop/shop-settings.entity';
+import { StockItem } from '../modules/shop/stock-item.entity';
 
 export const entities = [
   User,
@@ -22,4 +27,10 @@ export const entities = [
   OutlineCacheEntry,
   SheetProfile,
   Sheet,
+  StockItem,
+  Machine,
+  Blade,
+  PrintRun,
+  ShopSettingsRow,
+  SheetExport,
 ];

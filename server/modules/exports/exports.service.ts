@@ -13,22 +13,11 @@ import { AppError, notFound } from '../../lib/errors';
 import type { Storage } from '../../storage/storage';
 import type { SheetsService } from '../sheets/sheets.service';
 import { exportInput } from './export-input';
+import { SheetExport } from './sheet-export.entity';
 import type { SheetAnalysisService } from '../shop/sheet-analysis.service';
 
 /** The row stopped being "running" under the job (the maker stopped it): the job ends quietly. */
 class ExportCancelled extends Error {}
-
-type Row = {
-  id: string;
-  sheet_version: number;
-  status: ExportJobView['status'];
-  progress: string;
-  step: string;
-  error: string | null;
-  zip_key: string | null;
-  files_json: string | null;
-  created_at: Date;
-};
 
 /**
  * Export jobs: the request answers at once and queues a BullMQ job; a worker (embedded in an app, or
@@ -47,24 +36,28 @@ export class ExportsService {
     private readonly queues: JobQueues,
   ) {}
 
-  private view(teamId: string, sheetId: string, r: Row): ExportJobView {
+  private get rows() {
+    return this.dataSource.getRepository(SheetExport);
+  }
+
+  private view(teamId: string, sheetId: string, r: SheetExport): ExportJobView {
     return {
-      id: String(r.id),
-      sheetVersion: r.sheet_version,
+      id: r.id,
+      sheetVersion: r.sheetVersion,
       status: r.status,
-      progress: Number(r.progress),
+      progress: r.progress,
       step: r.step,
       error: r.error,
       downloadUrl: r.status === 'done' ? `/api/teams/${teamId}/sheets/${sheetId}/exports/${r.id}/download` : null,
       files:
-        r.status === 'done' && r.files_json
-          ? (JSON.parse(r.files_json) as Array<{ name: string; size: number }>).map((f) => ({
+        r.status === 'done' && r.filesJson
+          ? (JSON.parse(r.filesJson) as Array<{ name: string; size: number }>).map((f) => ({
               ...f,
               label: exportFileLabel(f.name),
               url: `/api/teams/${teamId}/sheets/${sheetId}/exports/${r.id}/files/${encodeURIComponent(f.name)}`,
             }))
           : [],
-      createdAt: new Date(r.created_at).toISOString(),
+      createdAt: r.createdAt.toISOString(),
     };
   }
 
@@ -85,20 +78,20 @@ export class ExportsService {
         `Preflight found ${errors.length} error${errors.length === 1 ? '' : 's'}: ${errors.map((f) => f.message).join(' ')} Fix them, or confirm to export anyway.`,
       );
     }
-    const insert = await this.dataSource.query(
-      "INSERT INTO sheet_exports (team_id, sheet_id, sheet_version, status, options_json, document_json, findings_json, created_by, step, queue_prefix) VALUES (?, ?, ?, 'running', ?, ?, ?, ?, 'Waiting for a worker', ?)",
-      [
+    const { id } = await this.rows.save(
+      this.rows.create({
         teamId,
         sheetId,
-        sheet.version,
-        JSON.stringify(options),
-        JSON.stringify(doc),
-        JSON.stringify(findings.map((f) => `${f.severity.toUpperCase()}: ${f.message}`)),
-        userId,
-        this.queues.settings.prefix,
-      ],
+        sheetVersion: sheet.version,
+        status: 'running',
+        optionsJson: JSON.stringify(options),
+        documentJson: JSON.stringify(doc),
+        findingsJson: JSON.stringify(findings.map((f) => `${f.severity.toUpperCase()}: ${f.message}`)),
+        createdBy: userId,
+        step: 'Waiting for a worker',
+        queuePrefix: this.queues.settings.prefix,
+      }),
     );
-    const id = String(insert.insertId);
     try {
       await this.queues.addExport({ teamId, sheetId, exportId: id });
     } catch (error) {
@@ -110,11 +103,8 @@ export class ExportsService {
 
   /** Ends a running export as failed with a message for the maker; false when it had already ended. */
   async fail(id: string, message: string): Promise<boolean> {
-    const result = await this.dataSource.query(
-      "UPDATE sheet_exports SET status = 'failed', error = ?, step = 'Failed' WHERE id = ? AND status = 'running'",
-      [message.slice(0, 500), id],
-    );
-    return result.affectedRows > 0;
+    const result = await this.rows.update({ id, status: 'running' }, { status: 'failed', error: message.slice(0, 500), step: 'Failed' });
+    return (result.affected ?? 0) > 0;
   }
 
   /** The maker stops a running export: it ends at once; a worker already on it notices at its next step. */
@@ -129,12 +119,8 @@ export class ExportsService {
   /** Moves a running job on; throws Cancelled when the row is no longer running (stopped, or failed elsewhere). */
   private async progress(id: string, fraction: number, step: string) {
     // Only a running job moves: a late progress write never undoes "done" or "failed".
-    const result = await this.dataSource.query("UPDATE sheet_exports SET progress = ?, step = ? WHERE id = ? AND status = 'running'", [
-      Math.min(1, fraction).toFixed(3),
-      step,
-      id,
-    ]);
-    if (result.affectedRows === 0) throw new ExportCancelled();
+    const result = await this.rows.update({ id, status: 'running' }, { progress: Number(Math.min(1, fraction).toFixed(3)), step });
+    if (result.affected === 0) throw new ExportCancelled();
   }
 
   /**
@@ -143,12 +129,9 @@ export class ExportsService {
    */
   async process(data: ExportJobData, timeoutMs: number): Promise<void> {
     const { teamId, exportId: id } = data;
-    const [row] = await this.dataSource.query('SELECT * FROM sheet_exports WHERE id = ? AND team_id = ?', [id, teamId]);
+    const row = await this.rows.findOneBy({ id, teamId });
     if (!row || row.status !== 'running') return; // stopped, or finished by an earlier attempt
-    await this.dataSource.query(
-      "UPDATE sheet_exports SET attempts = attempts + 1, progress = 0, step = 'Starting' WHERE id = ? AND status = 'running'",
-      [id],
-    );
+    await this.rows.update({ id, status: 'running' }, { attempts: () => 'attempts + 1', progress: 0, step: 'Starting' });
     let timer: NodeJS.Timeout | undefined;
     const limit = new Promise<never>((_, reject) => {
       timer = setTimeout(
@@ -174,15 +157,12 @@ export class ExportsService {
     }
   }
 
-  private async run(
-    row: Row & { team_id: string; sheet_id: string; options_json: string; document_json: string | null; findings_json: string | null },
-  ) {
-    const id = String(row.id);
-    const teamId = String(row.team_id);
-    const sheet = await this.sheets.find(teamId, String(row.sheet_id));
-    const doc = migrateDocument(JSON.parse(row.document_json ?? sheet.document));
-    const options = JSON.parse(row.options_json) as ExportRequest;
-    const findings: string[] = row.findings_json ? JSON.parse(row.findings_json) : [];
+  private async run(row: SheetExport) {
+    const { id, teamId } = row;
+    const sheet = await this.sheets.find(teamId, row.sheetId);
+    const doc = migrateDocument(JSON.parse(row.documentJson ?? sheet.document));
+    const options = JSON.parse(row.optionsJson) as ExportRequest;
+    const findings: string[] = row.findingsJson ? JSON.parse(row.findingsJson) : [];
     const { pieces, paper, resolved } = await exportInput(this.dataSource, this.storage, this.pool, sheet, doc, options, (done, of) =>
       this.progress(id, 0.4 * (done / of), `Outlining piece ${done} of ${of}`),
     );
@@ -208,9 +188,9 @@ export class ExportsService {
     if (cancelled) throw new ExportCancelled();
     const { key } = await this.storage.put(result.zip);
     const files = JSON.stringify(await listZip(result.zip));
-    await this.dataSource.query(
-      "UPDATE sheet_exports SET status = 'done', progress = 1, step = 'Ready', zip_key = ?, zip_name = ?, files_json = ? WHERE id = ? AND status = 'running'",
-      [key, result.zipName, files, id],
+    await this.rows.update(
+      { id, status: 'running' },
+      { status: 'done', progress: 1, step: 'Ready', zipKey: key, zipName: result.zipName, filesJson: files },
     );
   }
 
@@ -222,15 +202,13 @@ export class ExportsService {
     // Only rows queued on this app's queue (or on none: rows from before the queue): another queue's
     // jobs are not ours to judge.
     const prefix = this.queues.settings.prefix;
-    const rows: Array<{ id: string }> = ids?.length
-      ? await this.dataSource.query(
-          `SELECT id FROM sheet_exports WHERE status = 'running' AND (queue_prefix = ? OR queue_prefix IS NULL) AND id IN (${ids.map(() => '?').join(',')})`,
-          [prefix, ...ids],
-        )
-      : await this.dataSource.query(
-          "SELECT id FROM sheet_exports WHERE status = 'running' AND (queue_prefix = ? OR queue_prefix IS NULL) AND created_at < NOW(3) - INTERVAL 5 SECOND LIMIT 500",
-          [prefix],
-        );
+    const query = this.rows
+      .createQueryBuilder('e')
+      .select('e.id', 'id')
+      .where("e.status = 'running' AND (e.queue_prefix = :prefix OR e.queue_prefix IS NULL)", { prefix });
+    if (ids?.length) query.andWhere('e.id IN (:...ids)', { ids });
+    else query.andWhere('e.created_at < NOW(3) - INTERVAL 5 SECOND').limit(500);
+    const rows = await query.getRawMany<{ id: string }>();
     let ended = 0;
     for (const { id } of rows) {
       const job = await this.queues.exportState(String(id)).catch(() => undefined);
@@ -250,35 +228,24 @@ export class ExportsService {
   }
 
   async get(teamId: string, sheetId: string, id: string): Promise<ExportJobView> {
-    let [row] = await this.dataSource.query('SELECT * FROM sheet_exports WHERE id = ? AND sheet_id = ? AND team_id = ?', [
-      id,
-      sheetId,
-      teamId,
-    ]);
+    let row = await this.rows.findOneBy({ id, sheetId, teamId });
     if (!row) throw notFound('That export');
-    if (row.status === 'running' && Date.now() - new Date(row.created_at).getTime() > 5000 && (await this.reconcile([String(id)])) > 0) {
-      [row] = await this.dataSource.query('SELECT * FROM sheet_exports WHERE id = ?', [id]);
-    }
+    if (row.status === 'running' && Date.now() - row.createdAt.getTime() > 5000 && (await this.reconcile([id])) > 0)
+      row = await this.rows.findOneByOrFail({ id });
     return this.view(teamId, sheetId, row);
   }
 
   /** The newest export of the sheet's current version, if any. */
   async latest(teamId: string, sheetId: string): Promise<ExportJobView | null> {
     const sheet = await this.sheets.find(teamId, sheetId);
-    const [row] = await this.dataSource.query(
-      'SELECT * FROM sheet_exports WHERE sheet_id = ? AND team_id = ? AND sheet_version = ? ORDER BY id DESC LIMIT 1',
-      [sheetId, teamId, sheet.version],
-    );
+    const row = await this.rows.findOne({ where: { sheetId, teamId, sheetVersion: sheet.version }, order: { id: 'DESC' } });
     return row ? this.view(teamId, sheetId, row) : null;
   }
 
   async download(teamId: string, sheetId: string, id: string): Promise<{ name: string; data: Buffer }> {
-    const [row] = await this.dataSource.query(
-      "SELECT zip_key, zip_name FROM sheet_exports WHERE id = ? AND sheet_id = ? AND team_id = ? AND status = 'done'",
-      [id, sheetId, teamId],
-    );
-    if (!row) throw notFound('That export');
-    return { name: row.zip_name, data: await this.storage.get(row.zip_key) };
+    const row = await this.rows.findOneBy({ id, sheetId, teamId, status: 'done' });
+    if (!row?.zipKey) throw notFound('That export');
+    return { name: row.zipName ?? 'export.zip', data: await this.storage.get(row.zipKey) };
   }
 
   /** One file of a finished bundle, the same bytes as in the zip. */

@@ -1,4 +1,5 @@
 import { Column, CreateDateColumn, Entity, PrimaryGeneratedColumn, UpdateDateColumn } from 'typeorm';
+import { decimal } from '../../db/columns';
 
 /** A sheet: its metadata and its document (JSON, see shared/sheet/document.ts), versioned for saves. */
 @Entity({ name: 'sheets' })
@@ -54,6 +55,26 @@ export class Sheet {
 
   @Column({ name: 'thumbnail_key', type: 'char', length: 64, nullable: true })
   thumbnailKey!: string | null;
+
+  /** What the sheet is costed on (the print room's choices; not part of the document, no new version). */
+  @Column({ name: 'stock_id', type: 'bigint', unsigned: true, nullable: true })
+  stockId!: string | null;
+
+  @Column({ name: 'printer_id', type: 'bigint', unsigned: true, nullable: true })
+  printerId!: string | null;
+
+  @Column({ name: 'cutter_id', type: 'bigint', unsigned: true, nullable: true })
+  cutterId!: string | null;
+
+  @Column({ name: 'labour_minutes', ...decimal(6, 1), default: 0 })
+  labourMinutes!: number;
+
+  /** The last analysis (shared/schemas/shop.ts SheetAnalysis as JSON) and the version it was made for. */
+  @Column({ name: 'analysis_json', type: 'mediumtext', nullable: true, select: false })
+  analysisJson!: string | null;
+
+  @Column({ name: 'analysis_version', type: 'int', unsigned: true, nullable: true })
+  analysisVersion!: number | null;
 
   @Column({ name: 'updated_by', type: 'bigint', unsigned: true, nullable: true })
   updatedBy!: string | null;

@@ -41,6 +41,8 @@ export class SheetsService {
       status: 'running' | 'done' | 'failed';
       progress: string;
     }> = await this.dataSource.query(
+      // Raw SQL on purpose: sheet_exports belongs to the exports module, which sits above sheets
+      // (modules depend one way), and the newest row per sheet is a grouped self-join.
       `SELECT e.id, e.sheet_id, e.sheet_version, e.status, e.progress FROM sheet_exports e
        JOIN (SELECT sheet_id, MAX(id) AS id FROM sheet_exports WHERE sheet_id IN (${rows.map(() => '?').join(',')}) GROUP BY sheet_id) last ON last.id = e.id`,
       rows.map((r) => r.id),

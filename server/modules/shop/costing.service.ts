@@ -1,29 +1,36 @@
 import type { DataSource } from 'typeorm';
+import { In, IsNull } from 'typeorm';
 import type { z } from 'zod';
 import type { SheetSummary } from '../../../shared/schemas/sheets';
 import type { costingInputSchema, SheetAnalysis, SheetCostView, ShopSettings } from '../../../shared/schemas/shop';
 import { costPerSheet, sheetCost } from '../../../shared/production/cost';
 import { notFound } from '../../lib/errors';
 import type { SheetsService } from '../sheets/sheets.service';
+import { Sheet } from '../sheets/sheet.entity';
+import { Blade, Machine } from './machine.entity';
+import { PrintRun } from './print-run.entity';
+import { ShopSettingsRow } from './shop-settings.entity';
+import { StockItem } from './stock-item.entity';
 import type { SheetAnalysisService } from './sheet-analysis.service';
 import type { OutlineAccess } from '../outlines/outline.service';
 
 type Costing = z.infer<typeof costingInputSchema>;
-const idOf = (v: unknown) => (v === null || v === undefined ? null : String(v));
-const ownCosting = (row: { stock_id: unknown; printer_id: unknown; cutter_id: unknown; labour_minutes: unknown }): Costing => ({
-  stockId: idOf(row.stock_id),
-  printerId: idOf(row.printer_id),
-  cutterId: idOf(row.cutter_id),
-  labourMinutes: Number(row.labour_minutes),
+const ownCosting = (sheet: Pick<Sheet, 'stockId' | 'printerId' | 'cutterId' | 'labourMinutes'>): Costing => ({
+  stockId: sheet.stockId,
+  printerId: sheet.printerId,
+  cutterId: sheet.cutterId,
+  labourMinutes: sheet.labourMinutes,
 });
 const DEFAULT_SETTINGS: ShopSettings = { currency: '$', labourRatePerHour: 0, markupPercent: 100, wastePercent: 0 };
 
 /** Stores a team's shop rates (used by the API and by the demo seed). */
 export async function saveShopSettings(dataSource: DataSource, teamId: string, s: ShopSettings): Promise<void> {
-  await dataSource.query(
-    'INSERT INTO shop_settings (team_id, currency, labour_rate, markup_percent, waste_percent) VALUES (?,?,?,?,?) ON DUPLICATE KEY UPDATE currency = VALUES(currency), labour_rate = VALUES(labour_rate), markup_percent = VALUES(markup_percent), waste_percent = VALUES(waste_percent)',
-    [teamId, s.currency, s.labourRatePerHour, s.markupPercent, s.wastePercent],
-  );
+  await dataSource
+    .getRepository(ShopSettingsRow)
+    .upsert(
+      { teamId, currency: s.currency, labourRate: s.labourRatePerHour, markupPercent: s.markupPercent, wastePercent: s.wastePercent },
+      ['teamId'],
+    );
 }
 
 /**
@@ -40,14 +47,9 @@ export class CostingService {
   ) {}
 
   async settings(teamId: string): Promise<ShopSettings> {
-    const [row] = await this.dataSource.query('SELECT * FROM shop_settings WHERE team_id = ?', [teamId]);
+    const row = await this.dataSource.getRepository(ShopSettingsRow).findOneBy({ teamId });
     return row
-      ? {
-          currency: row.currency,
-          labourRatePerHour: Number(row.labour_rate),
-          markupPercent: Number(row.markup_percent),
-          wastePercent: Number(row.waste_percent),
-        }
+      ? { currency: row.currency, labourRatePerHour: row.labourRate, markupPercent: row.markupPercent, wastePercent: row.wastePercent }
       : DEFAULT_SETTINGS;
   }
 
@@ -61,12 +63,19 @@ export class CostingService {
    * the team's last run used (the stock, printer and cutter the shop is using now).
    */
   private async runDefaults(teamId: string, sheetIds: string[]) {
-    const query = (where: string, params: unknown[], limit = '') =>
-      this.dataSource.query(
-        `SELECT r.sheet_id, r.stock_id, r.printer_id, r.cutter_id FROM print_runs r JOIN stock_items s ON s.id = r.stock_id
-         WHERE r.team_id = ? AND s.archived_at IS NULL AND ${where} ORDER BY r.printed_on DESC, r.id DESC ${limit}`,
-        [teamId, ...params],
-      ) as Promise<Array<{ sheet_id: string | null; stock_id: string; printer_id: string | null; cutter_id: string | null }>>;
+    const query = (sheetIds: string[] | null) => {
+      const q = this.dataSource
+        .getRepository(PrintRun)
+        .createQueryBuilder('r')
+        .innerJoin(StockItem, 's', 's.id = r.stock_id AND s.archived_at IS NULL')
+        .select(['r.sheet_id AS sheet_id', 'r.stock_id AS stock_id', 'r.printer_id AS printer_id', 'r.cutter_id AS cutter_id'])
+        .where('r.team_id = :teamId', { teamId })
+        .orderBy('r.printed_on', 'DESC')
+        .addOrderBy('r.id', 'DESC');
+      if (sheetIds) q.andWhere('r.sheet_id IN (:...sheetIds)', { sheetIds });
+      else q.limit(1);
+      return q.getRawMany<{ sheet_id: string | null; stock_id: string; printer_id: string | null; cutter_id: string | null }>();
+    };
     const pick = (r: { stock_id: string; printer_id: string | null; cutter_id: string | null }) => ({
       stockId: String(r.stock_id),
       printerId: r.printer_id === null ? null : String(r.printer_id),
@@ -74,9 +83,8 @@ export class CostingService {
     });
     const bySheet = new Map<string, ReturnType<typeof pick>>();
     if (sheetIds.length)
-      for (const r of await query(`r.sheet_id IN (${sheetIds.map(() => '?').join(',')})`, sheetIds))
-        if (!bySheet.has(String(r.sheet_id))) bySheet.set(String(r.sheet_id), pick(r));
-    const [latest] = await query('1 = 1', [], 'LIMIT 1');
+      for (const r of await query(sheetIds)) if (!bySheet.has(String(r.sheet_id))) bySheet.set(String(r.sheet_id), pick(r));
+    const [latest] = await query(null);
     return (sheetId: string, own: Costing): { costing: Costing; defaultsFrom: SheetCostView['defaultsFrom'] } => {
       if (own.stockId || own.printerId || own.cutterId) return { costing: own, defaultsFrom: null };
       const fromSheet = bySheet.get(sheetId);
@@ -87,32 +95,23 @@ export class CostingService {
   }
 
   private async costingOf(teamId: string, sheetId: string) {
-    const [row] = await this.dataSource.query(
-      'SELECT stock_id, printer_id, cutter_id, labour_minutes FROM sheets WHERE id = ? AND team_id = ?',
-      [sheetId, teamId],
-    );
-    if (!row) throw notFound('That sheet');
-    return (await this.runDefaults(teamId, [sheetId]))(sheetId, ownCosting(row));
+    const sheet = await this.dataSource.getRepository(Sheet).findOneBy({ id: sheetId, teamId });
+    if (!sheet) throw notFound('That sheet');
+    return (await this.runDefaults(teamId, [sheetId]))(sheetId, ownCosting(sheet));
   }
 
   /** Chooses what a sheet is costed on. Not part of the document: no new version, no save conflict. */
   async setCosting(teamId: string, sheetId: string, c: Costing): Promise<SheetCostView> {
     await this.sheets.find(teamId, sheetId);
-    const owned = async (table: string, id: string | null, extra = '') => {
-      if (id === null) return;
-      const [row] = await this.dataSource.query(`SELECT id FROM ${table} WHERE id = ? AND team_id = ?${extra}`, [id, teamId]);
-      if (!row) throw notFound(table === 'stock_items' ? 'That stock' : 'That machine');
-    };
-    await owned('stock_items', c.stockId);
-    await owned('machines', c.printerId, " AND kind = 'printer'");
-    await owned('machines', c.cutterId, " AND kind = 'cutter'");
-    await this.dataSource.query('UPDATE sheets SET stock_id = ?, printer_id = ?, cutter_id = ?, labour_minutes = ? WHERE id = ?', [
-      c.stockId,
-      c.printerId,
-      c.cutterId,
-      c.labourMinutes,
-      sheetId,
-    ]);
+    if (c.stockId && !(await this.dataSource.getRepository(StockItem).existsBy({ id: c.stockId, teamId }))) throw notFound('That stock');
+    for (const [id, kind] of [
+      [c.printerId, 'printer'],
+      [c.cutterId, 'cutter'],
+    ] as const)
+      if (id && !(await this.dataSource.getRepository(Machine).existsBy({ id, teamId, kind }))) throw notFound('That machine');
+    await this.dataSource
+      .getRepository(Sheet)
+      .update({ id: sheetId }, { stockId: c.stockId, printerId: c.printerId, cutterId: c.cutterId, labourMinutes: c.labourMinutes });
     return this.cost(teamId, sheetId);
   }
 
@@ -122,32 +121,24 @@ export class CostingService {
     costing: Costing,
     settings: ShopSettings,
   ): Promise<Omit<SheetCostView, 'analysis'>> {
-    const [stock] = costing.stockId
-      ? await this.dataSource.query('SELECT name, pack_price, sheets_per_pack FROM stock_items WHERE id = ? AND team_id = ?', [
-          costing.stockId,
-          teamId,
-        ])
-      : [];
-    const [printer] = costing.printerId
-      ? await this.dataSource.query('SELECT name, ink_full_page FROM machines WHERE id = ? AND team_id = ?', [costing.printerId, teamId])
-      : [];
-    const [blade] = costing.cutterId
-      ? await this.dataSource.query(
-          'SELECT label, price, life_m FROM blades WHERE cutter_id = ? AND team_id = ? AND removed_on IS NULL ORDER BY id DESC LIMIT 1',
-          [costing.cutterId, teamId],
-        )
-      : [];
+    const stock = costing.stockId ? await this.dataSource.getRepository(StockItem).findOneBy({ id: costing.stockId, teamId }) : null;
+    const printer = costing.printerId ? await this.dataSource.getRepository(Machine).findOneBy({ id: costing.printerId, teamId }) : null;
+    const blade = costing.cutterId
+      ? await this.dataSource
+          .getRepository(Blade)
+          .findOne({ where: { cutterId: costing.cutterId, teamId, removedOn: IsNull() }, order: { id: 'DESC' } })
+      : null;
     const inputs: SheetCostView['inputs'] = {
       stock: stock
         ? {
             name: stock.name,
-            packPrice: Number(stock.pack_price),
-            sheetsPerPack: stock.sheets_per_pack,
-            perSheet: costPerSheet(Number(stock.pack_price), stock.sheets_per_pack),
+            packPrice: stock.packPrice,
+            sheetsPerPack: stock.sheetsPerPack,
+            perSheet: costPerSheet(stock.packPrice, stock.sheetsPerPack),
           }
         : null,
-      printer: printer ? { name: printer.name, inkFullPage: Number(printer.ink_full_page ?? 0) } : null,
-      blade: blade ? { label: blade.label, price: Number(blade.price), lifeM: Number(blade.life_m) } : null,
+      printer: printer ? { name: printer.name, inkFullPage: printer.inkFullPage ?? 0 } : null,
+      blade: blade ? { label: blade.label, price: blade.price, lifeM: blade.lifeM } : null,
       labourRatePerHour: settings.labourRatePerHour,
       markupPercent: settings.markupPercent,
       wastePercent: settings.wastePercent,
@@ -183,40 +174,40 @@ export class CostingService {
   /** Adds each sheet's cost from its last analysis (marked stale when the sheet changed since). */
   async attach(teamId: string, list: SheetSummary[]): Promise<SheetSummary[]> {
     if (list.length === 0) return list;
-    const rows: Array<{
-      id: string;
-      version: number;
-      analysis_json: string | null;
-      analysis_version: number | null;
-      stock_id: string | null;
-      printer_id: string | null;
-      cutter_id: string | null;
-      labour_minutes: string;
-    }> = await this.dataSource.query(
-      `SELECT id, version, analysis_json, analysis_version, stock_id, printer_id, cutter_id, labour_minutes FROM sheets WHERE team_id = ? AND id IN (${list.map(() => '?').join(',')})`,
-      [teamId, ...list.map((s) => s.id)],
-    );
+    const rows = await this.dataSource.getRepository(Sheet).find({
+      where: { teamId, id: In(list.map((s) => s.id)) },
+      select: {
+        id: true,
+        version: true,
+        analysisJson: true,
+        analysisVersion: true,
+        stockId: true,
+        printerId: true,
+        cutterId: true,
+        labourMinutes: true,
+      },
+    });
     const settings = await this.settings(teamId);
     const defaults = await this.runDefaults(
       teamId,
       list.map((s) => s.id),
     );
-    const byId = new Map(rows.map((r) => [String(r.id), r]));
+    const byId = new Map(rows.map((r) => [r.id, r]));
     const out: SheetSummary[] = [];
     for (const s of list) {
       const r = byId.get(s.id);
-      if (!r?.analysis_json) {
+      if (!r?.analysisJson) {
         out.push({ ...s, cost: null });
         continue;
       }
-      const { cost, priced } = await this.compute(teamId, JSON.parse(r.analysis_json), defaults(s.id, ownCosting(r)).costing, settings);
+      const { cost, priced } = await this.compute(teamId, JSON.parse(r.analysisJson), defaults(s.id, ownCosting(r)).costing, settings);
       out.push({
         ...s,
         cost: {
           sheet: cost.sheet,
           perSticker: cost.perSticker,
           currency: settings.currency,
-          current: r.analysis_version === r.version,
+          current: r.analysisVersion === r.version,
           priced,
         },
       });

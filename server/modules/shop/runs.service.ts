@@ -11,6 +11,10 @@ import type { SheetAnalysisService } from './sheet-analysis.service';
 import type { StockService } from './stock.service';
 import { stockShort } from './stock.service';
 import { inTransaction } from '../../db/transaction';
+import { User } from '../accounts/user.entity';
+import { Blade, Machine } from './machine.entity';
+import { PrintRun } from './print-run.entity';
+import { StockItem } from './stock-item.entity';
 
 const today = () => new Date().toISOString().slice(0, 10);
 const PHOTO_MAX_PIXELS = 40_000_000;
@@ -39,13 +43,13 @@ export class RunsService {
     const id = await inTransaction(this.dataSource, async (manager) => {
       const stock = await this.stock.row(teamId, input.stockId, manager, true);
       // Retired things stay for the runs that used them, but take no new runs.
-      if (stock.archived_at)
+      if (stock.archivedAt)
         throw validationError({ stockId: 'This stock is retired: pick stock from the shelf' }, 'This stock is retired.');
-      if (input.printerId && (await this.machines.machineIn(manager, teamId, input.printerId, 'printer')).archived_at)
+      if (input.printerId && (await this.machines.machineIn(manager, teamId, input.printerId, 'printer')).archivedAt)
         throw validationError({ printerId: 'This printer is retired: pick another' }, 'This printer is retired.');
       let bladeId: string | null = null;
       if (input.cutterId) {
-        if ((await this.machines.machineIn(manager, teamId, input.cutterId, 'cutter')).archived_at)
+        if ((await this.machines.machineIn(manager, teamId, input.cutterId, 'cutter')).archivedAt)
           throw validationError({ cutterId: 'This cutter is retired: pick another' }, 'This cutter is retired.');
         const blade = await this.machines.fittedBlade(manager, input.cutterId);
         if (!blade)
@@ -55,61 +59,63 @@ export class RunsService {
           );
         bladeId = String(blade.id);
       }
-      if (stock.on_hand < input.copies && !input.confirmNegativeStock) throw stockShort(stock.on_hand, input.copies);
-      await manager.query('UPDATE stock_items SET on_hand = on_hand - ? WHERE id = ?', [input.copies, stock.id]);
-      if (bladeId) await manager.query('UPDATE blades SET cut_length_mm = cut_length_mm + ? WHERE id = ?', [runCut, bladeId]);
+      if (stock.onHand < input.copies && !input.confirmNegativeStock) throw stockShort(stock.onHand, input.copies);
+      await manager.getRepository(StockItem).decrement({ id: stock.id }, 'onHand', input.copies);
+      if (bladeId) await manager.getRepository(Blade).increment({ id: bladeId }, 'cutLengthMm', runCut);
       const settings = {
-        printer: input.printerSettings ?? printerSettingsSchema.parse(JSON.parse(stock.printer_settings)),
-        cutter: input.cutterSettings ?? cutterSettingsSchema.parse(JSON.parse(stock.cutter_settings)),
+        printer: input.printerSettings ?? printerSettingsSchema.parse(JSON.parse(stock.printerSettings)),
+        cutter: input.cutterSettings ?? cutterSettingsSchema.parse(JSON.parse(stock.cutterSettings)),
       };
-      const r = await manager.query(
-        'INSERT INTO print_runs (team_id, sheet_id, sheet_name, sheet_version, copies, wasted, stock_id, printer_id, cutter_id, blade_id, settings_json, result, notes, cut_length_mm, printed_on, created_by) VALUES (?,?,?,?,?,?,?,?,?,?,?,?,?,?,?,?)',
-        [
+      const runs = manager.getRepository(PrintRun);
+      const run = await runs.save(
+        runs.create({
           teamId,
-          sheet.id,
-          sheet.name,
-          sheet.version,
-          input.copies,
-          input.wasted ?? (input.result === 'good' ? 0 : input.copies),
-          stock.id,
-          input.printerId,
-          input.cutterId,
+          sheetId: sheet.id,
+          sheetName: sheet.name,
+          sheetVersion: sheet.version,
+          copies: input.copies,
+          wasted: input.wasted ?? (input.result === 'good' ? 0 : input.copies),
+          stockId: stock.id,
+          printerId: input.printerId,
+          cutterId: input.cutterId,
           bladeId,
-          JSON.stringify(settings),
-          input.result,
-          input.notes || null,
-          runCut,
-          input.printedOn ?? today(),
-          userId,
-        ],
+          settingsJson: JSON.stringify(settings),
+          result: input.result,
+          notes: input.notes || null,
+          cutLengthMm: runCut,
+          printedOn: input.printedOn ?? today(),
+          createdBy: userId,
+        }),
       );
-      return String(r.insertId);
+      return run.id;
     });
     return this.get(teamId, id);
   }
 
   async list(teamId: string, q: z.infer<typeof runListQuerySchema>): Promise<PrintRunView[]> {
-    const where = ['r.team_id = ?'];
-    const args: unknown[] = [teamId];
-    const filter = (value: unknown, sql: string) => {
-      if (!value) return;
-      where.push(sql);
-      args.push(value);
-    };
-    filter(q.from, 'r.printed_on >= ?');
-    filter(q.to, 'r.printed_on <= ?');
-    filter(q.result, 'r.result = ?');
-    filter(q.stockId, 'r.stock_id = ?');
-    filter(q.cutterId, 'r.cutter_id = ?');
-    filter(q.sheetId, 'r.sheet_id = ?');
-    const rows = await this.dataSource.query(
-      `SELECT r.*, DATE_FORMAT(r.printed_on, '%Y-%m-%d') AS day, s.name AS stock_name, p.name AS printer_name, c.name AS cutter_name, b.label AS blade_label, u.name AS by_name
-       FROM print_runs r
-       LEFT JOIN stock_items s ON s.id = r.stock_id LEFT JOIN machines p ON p.id = r.printer_id LEFT JOIN machines c ON c.id = r.cutter_id
-       LEFT JOIN blades b ON b.id = r.blade_id LEFT JOIN users u ON u.id = r.created_by
-       WHERE ${where.join(' AND ')} ORDER BY r.printed_on DESC, r.id DESC LIMIT 1000`,
-      args,
-    );
+    const query = this.dataSource
+      .getRepository(PrintRun)
+      .createQueryBuilder('r')
+      .leftJoin(StockItem, 's', 's.id = r.stock_id')
+      .leftJoin(Machine, 'p', 'p.id = r.printer_id')
+      .leftJoin(Machine, 'c', 'c.id = r.cutter_id')
+      .leftJoin(Blade, 'b', 'b.id = r.blade_id')
+      .leftJoin(User, 'u', 'u.id = r.created_by')
+      .select('r.*')
+      .addSelect("DATE_FORMAT(r.printed_on, '%Y-%m-%d')", 'day')
+      .addSelect('s.name', 'stock_name')
+      .addSelect('p.name', 'printer_name')
+      .addSelect('c.name', 'cutter_name')
+      .addSelect('b.label', 'blade_label')
+      .addSelect('u.name', 'by_name')
+      .where('r.team_id = :teamId', { teamId });
+    if (q.from) query.andWhere('r.printed_on >= :from', { from: q.from });
+    if (q.to) query.andWhere('r.printed_on <= :to', { to: q.to });
+    if (q.result) query.andWhere('r.result = :result', { result: q.result });
+    if (q.stockId) query.andWhere('r.stock_id = :stockId', { stockId: q.stockId });
+    if (q.cutterId) query.andWhere('r.cutter_id = :cutterId', { cutterId: q.cutterId });
+    if (q.sheetId) query.andWhere('r.sheet_id = :sheetId', { sheetId: q.sheetId });
+    const rows = await query.orderBy('r.printed_on', 'DESC').addOrderBy('r.id', 'DESC').limit(1000).getRawMany();
     return rows.map((r: Record<string, never>) => {
       const settings = JSON.parse(r.settings_json);
       const ref = (id: unknown, name: unknown) => (id === null ? null : { id: String(id), name: String(name ?? 'Removed') });
@@ -135,8 +141,7 @@ export class RunsService {
   }
 
   async get(teamId: string, id: string): Promise<PrintRunView> {
-    const [row] = await this.dataSource.query('SELECT printed_on FROM print_runs WHERE id = ? AND team_id = ?', [id, teamId]);
-    if (!row) throw notFound('That print run');
+    if (!(await this.dataSource.getRepository(PrintRun).existsBy({ id, teamId }))) throw notFound('That print run');
     const run = (await this.list(teamId, {})).find((r) => r.id === id);
     if (!run) throw notFound('That print run');
     return run;
@@ -156,13 +161,13 @@ export class RunsService {
       throw new AppError(422, 'unreadable_image', 'That file is not a photo we can read (JPEG, PNG or WebP, at most 40 megapixels).');
     }
     const { key } = await this.storage.put(jpeg);
-    await this.dataSource.query('UPDATE print_runs SET photo_key = ? WHERE id = ? AND team_id = ?', [key, id, teamId]);
+    await this.dataSource.getRepository(PrintRun).update({ id, teamId }, { photoKey: key });
     return this.get(teamId, id);
   }
 
   async photo(teamId: string, id: string): Promise<Buffer> {
-    const [row] = await this.dataSource.query('SELECT photo_key FROM print_runs WHERE id = ? AND team_id = ?', [id, teamId]);
-    if (!row?.photo_key) throw notFound('That photo');
-    return this.storage.get(row.photo_key);
+    const row = await this.dataSource.getRepository(PrintRun).findOneBy({ id, teamId });
+    if (!row?.photoKey) throw notFound('That photo');
+    return this.storage.get(row.photoKey);
   }
 }

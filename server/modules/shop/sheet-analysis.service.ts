@@ -19,7 +19,7 @@ import { effectiveLicenceKinds } from '../art/art-view';
 import type { OutlineAccess, OutlineService, StoredOutline } from '../outlines/outline.service';
 import { AppError } from '../../lib/errors';
 import { SheetProfile } from '../sheets/sheet-profile.entity';
-import type { Sheet } from '../sheets/sheet.entity';
+import { Sheet } from '../sheets/sheet.entity';
 
 /** The resolution of the piece images the editor's outline requests cache, so the one a sheet can be rendered at from them. */
 export const ANALYSIS_DPI = 150;
@@ -118,8 +118,10 @@ export class SheetAnalysisService {
 
   /** The analysis of the sheet's current version, computed once per version. */
   async analyse(teamId: string, sheet: Sheet, access: OutlineAccess = 'compute'): Promise<SheetAnalysis> {
-    const [row] = await this.dataSource.query('SELECT analysis_json, analysis_version FROM sheets WHERE id = ?', [sheet.id]);
-    if (row?.analysis_json && row.analysis_version === sheet.version) return JSON.parse(row.analysis_json);
+    const row = await this.dataSource
+      .getRepository(Sheet)
+      .findOne({ where: { id: sheet.id }, select: { id: true, analysisJson: true, analysisVersion: true } });
+    if (row?.analysisJson && row.analysisVersion === sheet.version) return JSON.parse(row.analysisJson);
     let g: Gathered;
     try {
       g = await this.gather(teamId, sheet, access);
@@ -142,12 +144,9 @@ export class SheetAnalysisService {
       findings: this.findings(g, sheet),
     };
     // Only if the sheet is still at that version: a save meanwhile makes this one stale.
-    await this.dataSource.query('UPDATE sheets SET analysis_json = ?, analysis_version = ? WHERE id = ? AND version = ?', [
-      JSON.stringify(analysis),
-      sheet.version,
-      sheet.id,
-      sheet.version,
-    ]);
+    await this.dataSource
+      .getRepository(Sheet)
+      .update({ id: sheet.id, version: sheet.version }, { analysisJson: JSON.stringify(analysis), analysisVersion: sheet.version });
     return analysis;
   }
 

@@ -1,0 +1,24 @@
+import { Column, Entity, PrimaryColumn, UpdateDateColumn } from 'typeorm';
+import { decimal } from '../../db/columns';
+
+/** A team's shop rates: currency, labour, markup and waste allowance. */
+@Entity({ name: 'shop_settings' })
+export class ShopSettingsRow {
+  @PrimaryColumn({ name: 'team_id', type: 'bigint', unsigned: true })
+  teamId!: string;
+
+  @Column({ type: 'varchar', length: 4, default: '$' })
+  currency!: string;
+
+  @Column({ name: 'labour_rate', ...decimal(10, 2), default: 0 })
+  labourRate!: number;
+
+  @Column({ name: 'markup_percent', ...decimal(7, 1), default: 100 })
+  markupPercent!: number;
+
+  @Column({ name: 'waste_percent', ...decimal(5, 1), default: 0 })
+  wastePercent!: number;
+
+  @UpdateDateColumn({ name: 'updated_at', type: 'datetime', precision: 3 })
+  updatedAt!: Date;
+}
