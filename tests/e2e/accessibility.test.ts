@@ -45,6 +45,7 @@ describe('accessibility in Chromium', () => {
           packPrice: 18,
           sheetsPerPack: 100,
           onHand: 20,
+          lowAt: 25, // running low: the print room's reminders show
         })
       ).body;
       const cutter = await benchCutter(owner, team.id);
@@ -67,6 +68,15 @@ describe('accessibility in Chromium', () => {
         const screens: Array<[string, string, () => Promise<unknown>]> = [
           ['library', `/t/${team.id}/library`, () => page.getByText('moon').first().waitFor()],
           ['art', `/t/${team.id}/library/${art.id}`, () => page.getByRole('heading', { name: 'moon' }).waitFor()],
+          [
+            'make a sticker',
+            `/t/${team.id}/library`,
+            async () => {
+              await page.getByRole('button', { name: 'Make a sticker…' }).click();
+              await page.getByLabel('Words (one line per line)').fill('Moon club');
+              await page.getByTestId('make-preview').waitFor({ timeout: 15_000 });
+            },
+          ],
           ['sheets', `/t/${team.id}/sheets`, () => page.getByRole('link', { name: 'Moons' }).waitFor()],
           [
             'editor',
@@ -82,6 +92,7 @@ describe('accessibility in Chromium', () => {
             `/t/${team.id}/print-room`,
             async () => {
               await page.getByTestId('runs-table').getByText('Moons').waitFor();
+              await page.getByTestId('reminders').waitFor();
               await page.getByRole('button', { name: 'New stock…' }).click(); // the forms are checked open
               await page.getByRole('form', { name: 'Log a print run' }).getByLabel('Stock').selectOption({ label: 'Matte sticker paper' });
               await page.getByText(/^Settings used/).click();
