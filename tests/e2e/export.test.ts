@@ -34,6 +34,15 @@ describe('export panel in Chromium', { timeout: BROWSER_TEST_TIMEOUT }, () => {
     ]);
     expect(download.suggestedFilename()).toBe('market-singles-print.png');
     await screenshot(page, 'export-panel-files');
+    // The sheets list at 1280 px: the export's Download link and the row's Duplicate apart, not run together.
+    await page.goto(`${t.served.url}/t/${team.id}/sheets`);
+    await page.getByRole('link', { name: 'Market singles' }).first().waitFor();
+    await screenshot(page, 'sheets-list-exported');
+    const row = page.getByRole('row').filter({ hasText: 'Market singles' });
+    // (The editor saved once more after the export, so the bundle is the older version's.)
+    const downloadBox = (await row.getByRole('link', { name: /^(Download|Older version)$/ }).boundingBox())!;
+    const duplicateBox = (await row.getByRole('button', { name: 'Duplicate' }).boundingBox())!;
+    expect(duplicateBox.x - (downloadBox.x + downloadBox.width)).toBeGreaterThanOrEqual(10);
     await page.close();
   });
 

@@ -111,7 +111,7 @@ export function SheetsRoute() {
               A sheet is one print-and-cut page: pieces with borders and cut lines inside your cutter’s print area.
             </EmptyState>
           ) : (
-            <table className="w-full rounded-sticker bg-white text-sm" data-testid="sheets-table">
+            <table className="w-full rounded-sticker bg-white text-sm [&_td]:pr-3 [&_th]:pr-3" data-testid="sheets-table">
               <thead className="text-left text-ink-soft">
                 <tr>
                   <th className="p-2">
@@ -160,9 +160,9 @@ export function SheetsRoute() {
                           : '—'}
                     </td>
                     <td>{SHEET_STATUS_LABELS[s.status]}</td>
-                    <td>{new Date(s.updatedAt).toLocaleString()}</td>
+                    <td>{new Date(s.updatedAt).toLocaleDateString()}</td>
                     <td>{s.owner.name}</td>
-                    <td className="pr-4 text-xs">
+                    <td className="text-xs">
                       {s.lastExport?.status === 'running' && (
                         <progress max={1} value={s.lastExport.progress} className="h-2 w-16" aria-label="Export progress" />
                       )}
