@@ -24,6 +24,10 @@ export const shopSettingsSchema = z.object({
     .min(0, 'Waste allowance: not below 0')
     .max(100, 'Waste allowance: at most 100 %')
     .default(0),
+  /** The team's usual stock, printer and cutter: sheets with no choice of their own are costed on them. */
+  defaultStockId: z.preprocess((v) => (v === '' ? null : v), idSchema.nullable()).default(null),
+  defaultPrinterId: z.preprocess((v) => (v === '' ? null : v), idSchema.nullable()).default(null),
+  defaultCutterId: z.preprocess((v) => (v === '' ? null : v), idSchema.nullable()).default(null),
 });
 export type ShopSettings = z.infer<typeof shopSettingsSchema>;
 
@@ -265,6 +269,6 @@ export type SheetCostView = {
   missing: string[];
   /** Costed on a stock: without one there is no price to show. */
   priced: boolean;
-  /** Where the choices came from when the sheet has none of its own: its last run, or the team's. */
-  defaultsFrom: 'sheet-run' | 'team-run' | null;
+  /** Where the choices came from when the sheet has none of its own: its last run, the team's usual ones, or the team's last run. */
+  defaultsFrom: 'sheet-run' | 'team-default' | 'team-run' | null;
 };

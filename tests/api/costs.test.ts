@@ -18,7 +18,7 @@ describe('costs', () => {
     expect(listed.cost).toMatchObject({ priced: false });
   });
 
-  it('default to what the sheet’s last run used, else the team’s last run; the sheet’s own choice wins', async () => {
+  it('default to what the sheet’s last run used, else the shop’s usual stock, else the team’s last run; the sheet’s own choice wins', async () => {
     const s = await makeShop(t, 2);
     const { stock, cutter } = await withCutter(s);
     const other = (await s.member.post(`${s.base}/sheets`, { name: 'Second sheet' })).body;
@@ -36,6 +36,20 @@ describe('costs', () => {
     const team = (await s.member.get(`${s.base}/sheets/${other.id}/cost`)).body;
     expect(team).toMatchObject({ defaultsFrom: 'team-run', costing: { stockId: stock.id } });
     const cheaper = (await s.owner.post(`${s.base}/stock`, { ...STOCK, name: 'Matte', finish: 'matte', packPrice: 9 })).body;
+    // The shop's usual stock comes before the team's last run (a sheet's own last run comes first).
+    const rates = { currency: '$', labourRatePerHour: 0, markupPercent: 100, wastePercent: 0 };
+    expect((await s.owner.send('put', `${s.base}/shop-settings`, { ...rates, defaultStockId: cheaper.id })).status).toBe(200);
+    expect((await s.member.get(`${s.base}/sheets/${other.id}/cost`)).body).toMatchObject({
+      defaultsFrom: 'team-default',
+      costing: { stockId: cheaper.id },
+    });
+    expect((await s.member.get(`${s.base}/sheets/${s.sheet.id}/cost`)).body).toMatchObject({
+      defaultsFrom: 'sheet-run',
+      costing: { stockId: stock.id },
+    });
+    const elsewhere = await makeShop(t, 1);
+    const theirs = (await elsewhere.owner.post(`${elsewhere.base}/stock`, STOCK)).body;
+    expect((await s.owner.send('put', `${s.base}/shop-settings`, { ...rates, defaultStockId: theirs.id })).status).toBe(404);
     const chosen = await s.member.send('put', `${s.base}/sheets/${other.id}/costing`, {
       stockId: cheaper.id,
       printerId: null,

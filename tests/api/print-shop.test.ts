@@ -61,7 +61,15 @@ describe('stock and machines', () => {
     );
     expect(
       (await s.owner.send('put', `${s.base}/shop-settings`, { currency: '€', labourRatePerHour: 10, markupPercent: 50 })).body,
-    ).toEqual({ currency: '€', labourRatePerHour: 10, markupPercent: 50, wastePercent: 0 }); // no allowance unless set
+    ).toEqual({
+      currency: '€',
+      labourRatePerHour: 10,
+      markupPercent: 50,
+      wastePercent: 0,
+      defaultStockId: null,
+      defaultPrinterId: null,
+      defaultCutterId: null,
+    }); // no allowance or usual stock unless set
   });
 
   it('answers 404 for another team’s stock, machines, runs and sheets, the same as for ones that do not exist', async () => {

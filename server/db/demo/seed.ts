@@ -15,6 +15,7 @@ import { createUserWithTeam } from '../../modules/accounts/create-account';
 import { stockInputSchema } from '../../../shared/schemas/shop';
 import { saveShopSettings } from '../../modules/shop/costing.service';
 import { MachinesService } from '../../modules/shop/machines.service';
+import { StockItem } from '../../modules/shop/stock-item.entity';
 import { StockService } from '../../modules/shop/stock.service';
 import { seedSheets } from './sheets';
 import { inTransaction } from '../transaction';
@@ -31,13 +32,12 @@ export async function seedDemo(dataSource: DataSource, storage?: Storage): Promi
 /** The invented shop's shelf and bench: two stocks, a printer, a cutter with its blade, shop rates. */
 async function seedShop(dataSource: DataSource): Promise<number> {
   const team = await demoTeam(dataSource);
-  const [{ n }] = await dataSource.query('SELECT COUNT(*) AS n FROM stock_items WHERE team_id = ?', [team.id]);
-  if (Number(n) > 0) return 0;
+  if ((await dataSource.getRepository(StockItem).countBy({ teamId: team.id })) > 0) return 0;
   const owner = await dataSource.getRepository(User).findOneByOrFail({ seedKey: demoUserKey('owner@demo.test') });
   const stock = new StockService(dataSource);
   const machines = new MachinesService(dataSource);
   const blank = { colour: '', other: '' };
-  await stock.create(
+  const usual = await stock.create(
     team.id,
     stockInputSchema.parse({
       name: 'Puddle glossy sticker paper',
@@ -66,7 +66,7 @@ async function seedShop(dataSource: DataSource): Promise<number> {
       cutterSettings: { material: 'Vinyl clear', pressure: '4', passes: 2, blade: 'depth 3' },
     }),
   );
-  await machines.create(team.id, { kind: 'printer', name: 'Studio inkjet', notes: '', inkFullPage: 2 });
+  const printer = await machines.create(team.id, { kind: 'printer', name: 'Studio inkjet', notes: '', inkFullPage: 2 });
   const cutter = await machines.create(team.id, {
     kind: 'cutter',
     name: 'Bench cutter',
@@ -81,7 +81,15 @@ async function seedShop(dataSource: DataSource): Promise<number> {
     replaceBy: null,
     note: '',
   });
-  await saveShopSettings(dataSource, team.id, { currency: '$', labourRatePerHour: 18, markupPercent: 150, wastePercent: 5 });
+  await saveShopSettings(dataSource, team.id, {
+    currency: '$',
+    labourRatePerHour: 18,
+    markupPercent: 150,
+    wastePercent: 5,
+    defaultStockId: usual.id,
+    defaultPrinterId: printer.id,
+    defaultCutterId: cutter.id,
+  });
   return 6;
 }
 

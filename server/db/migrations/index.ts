@@ -12,6 +12,7 @@ import { CutBridgesAndMarks1765670400000 } from './1765670400000-cut-bridges-and
 import { ExportJobs1765756800000 } from './1765756800000-export-jobs';
 import { VectorArtSources1765843200000 } from './1765843200000-vector-art-sources';
 import { ShopAllowances1765929600000 } from './1765929600000-shop-allowances';
+import { ShopDefaults1766016000000 } from './1766016000000-shop-defaults';
 
 // Every migration, oldest first. A new one is appended here and never edited after it lands.
 export const migrations = [
@@ -29,4 +30,5 @@ export const migrations = [
   ExportJobs1765756800000,
   VectorArtSources1765843200000,
   ShopAllowances1765929600000,
+  ShopDefaults1766016000000,
 ];

@@ -21,16 +21,31 @@ const ownCosting = (sheet: Pick<Sheet, 'stockId' | 'printerId' | 'cutterId' | 'l
   cutterId: sheet.cutterId,
   labourMinutes: sheet.labourMinutes,
 });
-const DEFAULT_SETTINGS: ShopSettings = { currency: '$', labourRatePerHour: 0, markupPercent: 100, wastePercent: 0 };
+const DEFAULT_SETTINGS: ShopSettings = {
+  currency: '$',
+  labourRatePerHour: 0,
+  markupPercent: 100,
+  wastePercent: 0,
+  defaultStockId: null,
+  defaultPrinterId: null,
+  defaultCutterId: null,
+};
 
 /** Stores a team's shop rates (used by the API and by the demo seed). */
 export async function saveShopSettings(dataSource: DataSource, teamId: string, s: ShopSettings): Promise<void> {
-  await dataSource
-    .getRepository(ShopSettingsRow)
-    .upsert(
-      { teamId, currency: s.currency, labourRate: s.labourRatePerHour, markupPercent: s.markupPercent, wastePercent: s.wastePercent },
-      ['teamId'],
-    );
+  await dataSource.getRepository(ShopSettingsRow).upsert(
+    {
+      teamId,
+      currency: s.currency,
+      labourRate: s.labourRatePerHour,
+      markupPercent: s.markupPercent,
+      wastePercent: s.wastePercent,
+      defaultStockId: s.defaultStockId,
+      defaultPrinterId: s.defaultPrinterId,
+      defaultCutterId: s.defaultCutterId,
+    },
+    ['teamId'],
+  );
 }
 
 /**
@@ -49,18 +64,34 @@ export class CostingService {
   async settings(teamId: string): Promise<ShopSettings> {
     const row = await this.dataSource.getRepository(ShopSettingsRow).findOneBy({ teamId });
     return row
-      ? { currency: row.currency, labourRatePerHour: row.labourRate, markupPercent: row.markupPercent, wastePercent: row.wastePercent }
+      ? {
+          currency: row.currency,
+          labourRatePerHour: row.labourRate,
+          markupPercent: row.markupPercent,
+          wastePercent: row.wastePercent,
+          defaultStockId: row.defaultStockId,
+          defaultPrinterId: row.defaultPrinterId,
+          defaultCutterId: row.defaultCutterId,
+        }
       : DEFAULT_SETTINGS;
   }
 
   async saveSettings(teamId: string, s: ShopSettings): Promise<ShopSettings> {
+    // The usual stock and machines must be the team's own (another team's id is a 404, as elsewhere).
+    if (s.defaultStockId && !(await this.dataSource.getRepository(StockItem).existsBy({ id: s.defaultStockId, teamId })))
+      throw notFound('That stock');
+    for (const [id, kind] of [
+      [s.defaultPrinterId, 'printer'],
+      [s.defaultCutterId, 'cutter'],
+    ] as const)
+      if (id && !(await this.dataSource.getRepository(Machine).existsBy({ id, teamId, kind }))) throw notFound('That machine');
     await saveShopSettings(this.dataSource, teamId, s);
     return this.settings(teamId);
   }
 
   /**
-   * What sheets that have chosen nothing are costed on: what each one's last run used, else what
-   * the team's last run used (the stock, printer and cutter the shop is using now).
+   * What sheets that have chosen nothing are costed on: what each one's last run used, else the
+   * team's usual stock, printer and cutter (shop rates), else what the team's last run used.
    */
   private async runDefaults(teamId: string, sheetIds: string[]) {
     const query = (sheetIds: string[] | null) => {
@@ -85,10 +116,16 @@ export class CostingService {
     if (sheetIds.length)
       for (const r of await query(sheetIds)) if (!bySheet.has(String(r.sheet_id))) bySheet.set(String(r.sheet_id), pick(r));
     const [latest] = await query(null);
+    const usual = await this.settings(teamId);
     return (sheetId: string, own: Costing): { costing: Costing; defaultsFrom: SheetCostView['defaultsFrom'] } => {
       if (own.stockId || own.printerId || own.cutterId) return { costing: own, defaultsFrom: null };
       const fromSheet = bySheet.get(sheetId);
       if (fromSheet) return { costing: { ...own, ...fromSheet }, defaultsFrom: 'sheet-run' };
+      if (usual.defaultStockId)
+        return {
+          costing: { ...own, stockId: usual.defaultStockId, printerId: usual.defaultPrinterId, cutterId: usual.defaultCutterId },
+          defaultsFrom: 'team-default',
+        };
       if (latest) return { costing: { ...own, ...pick(latest) }, defaultsFrom: 'team-run' };
       return { costing: own, defaultsFrom: null };
     };

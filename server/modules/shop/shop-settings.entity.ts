@@ -19,6 +19,16 @@ export class ShopSettingsRow {
   @Column({ name: 'waste_percent', ...decimal(5, 1), default: 0 })
   wastePercent!: number;
 
+  /** What sheets without their own choice (and no run of their own) are costed on. */
+  @Column({ name: 'default_stock_id', type: 'bigint', unsigned: true, nullable: true })
+  defaultStockId!: string | null;
+
+  @Column({ name: 'default_printer_id', type: 'bigint', unsigned: true, nullable: true })
+  defaultPrinterId!: string | null;
+
+  @Column({ name: 'default_cutter_id', type: 'bigint', unsigned: true, nullable: true })
+  defaultCutterId!: string | null;
+
   @UpdateDateColumn({ name: 'updated_at', type: 'datetime', precision: 3 })
   updatedAt!: Date;
 }

@@ -67,8 +67,12 @@ export function CostPanel({ teamId, sheetId, version, canEdit }: { teamId: strin
       </label>
       {defaultsFrom && (
         <p className="text-ink-faint" data-testid="cost-defaults">
-          {defaultsFrom === 'sheet-run' ? 'Costed on what this sheet’s last run used.' : 'Costed on what the team’s last run used.'} Choose
-          here to cost it on something else.
+          {defaultsFrom === 'sheet-run'
+            ? 'Costed on what this sheet’s last run used.'
+            : defaultsFrom === 'team-default'
+              ? 'Costed on the shop’s usual stock, printer and cutter.'
+              : 'Costed on what the team’s last run used.'}{' '}
+          Choose here to cost it on something else.
         </p>
       )}
       {!priced ? (

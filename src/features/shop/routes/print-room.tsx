@@ -1,6 +1,6 @@
 import { useQuery, useQueryClient } from '@tanstack/react-query';
 import { useEffect, useState } from 'react';
-import { settingsQueryOptions, shopApi } from '../../../api/shop';
+import { settingsQueryOptions, shopApi, useMachines, useStock } from '../../../api/shop';
 import { PageTitle } from '../../../components/page-title';
 import { useAction } from '../../../hooks/use-action';
 import { useMe } from '../../auth/api/me';
@@ -13,7 +13,17 @@ import { StockShelf } from '../components/stock-shelf';
 function ShopRates({ teamId, canManage }: { teamId: string; canManage: boolean }) {
   const client = useQueryClient();
   const settings = useQuery(settingsQueryOptions(teamId));
-  const [form, setForm] = useState({ currency: '$', labourRatePerHour: '0', markupPercent: '100', wastePercent: '0' });
+  const [form, setForm] = useState({
+    currency: '$',
+    labourRatePerHour: '0',
+    markupPercent: '100',
+    wastePercent: '0',
+    defaultStockId: '',
+    defaultPrinterId: '',
+    defaultCutterId: '',
+  });
+  const stock = useStock(teamId);
+  const machines = useMachines(teamId);
   const { error, run } = useAction({ preferField: true });
   const [saved, setSaved] = useState(false);
   useEffect(() => {
@@ -23,6 +33,9 @@ function ShopRates({ teamId, canManage }: { teamId: string; canManage: boolean }
         labourRatePerHour: String(settings.data.labourRatePerHour),
         markupPercent: String(settings.data.markupPercent),
         wastePercent: String(settings.data.wastePercent),
+        defaultStockId: settings.data.defaultStockId ?? '',
+        defaultPrinterId: settings.data.defaultPrinterId ?? '',
+        defaultCutterId: settings.data.defaultCutterId ?? '',
       });
   }, [settings.data]);
   const field = (key: keyof typeof form, label: string) => (
@@ -39,6 +52,31 @@ function ShopRates({ teamId, canManage }: { teamId: string; canManage: boolean }
       />
     </label>
   );
+  const usual = (
+    key: 'defaultStockId' | 'defaultPrinterId' | 'defaultCutterId',
+    label: string,
+    options: Array<{ id: string; name: string }>,
+  ) => (
+    <label className="flex flex-col text-xs font-bold">
+      {label}
+      <select
+        value={form[key]}
+        disabled={!canManage}
+        onChange={(e) => {
+          setSaved(false);
+          setForm({ ...form, [key]: e.target.value });
+        }}
+        className="w-40 rounded border-2 border-paper-edge px-2 py-1 font-normal"
+      >
+        <option value="">None</option>
+        {options.map((o) => (
+          <option key={o.id} value={o.id}>
+            {o.name}
+          </option>
+        ))}
+      </select>
+    </label>
+  );
   return (
     <section aria-labelledby="rates-title" className="rounded-sticker border-2 border-paper-edge bg-white p-4 text-sm">
       <h2 id="rates-title" className="mb-2 text-lg font-extrabold">
@@ -49,6 +87,17 @@ function ShopRates({ teamId, canManage }: { teamId: string; canManage: boolean }
         {field('labourRatePerHour', 'Labour per hour')}
         {field('markupPercent', 'Markup (%)')}
         {field('wastePercent', 'Waste allowance (%)')}
+        {usual('defaultStockId', 'Usual stock', stock.data ?? [])}
+        {usual(
+          'defaultPrinterId',
+          'Usual printer',
+          (machines.data ?? []).filter((m) => m.kind === 'printer'),
+        )}
+        {usual(
+          'defaultCutterId',
+          'Usual cutter',
+          (machines.data ?? []).filter((m) => m.kind === 'cutter'),
+        )}
         {canManage && (
           <button
             type="button"
@@ -71,7 +120,8 @@ function ShopRates({ teamId, canManage }: { teamId: string; canManage: boolean }
       </div>
       <p className="mt-1 text-xs text-ink-faint">
         A sheet's cost is its stock, ink from the print's coverage, its share of blade wear, the waste allowance on those (misprints and
-        spoiled sheets) and labour; the price adds the markup. Each sheet shows its figures in the editor.
+        spoiled sheets) and labour; the price adds the markup. Each sheet shows its figures in the editor; a sheet with no choice of its own
+        is costed on what its last run used, else on the usual stock, printer and cutter.
       </p>
       {error && (
         <p role="alert" className="text-alarm">
