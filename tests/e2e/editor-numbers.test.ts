@@ -61,4 +61,33 @@ describe('sizes and places by the numbers', { timeout: BROWSER_TEST_TIMEOUT }, (
     expect(Math.abs(pieces.find((p) => p.id === 'n2')!.y - (25.4 + 31.75 / 2))).toBeLessThan(25.4 / 300);
     await page.close();
   });
+
+  it('right click and Shift+F10 open a context menu of the registry’s actions, with their shortcuts', async () => {
+    const { team, users, client, art } = await teamWithShapes(t.db, t.served.url);
+    const { body: sheet } = await client.post(`/api/teams/${team.id}/sheets`, { name: 'Menu', unit: 'in' });
+    await placePieces(client, team.id, sheet, [testPiece('c1', art[0].id, 60, 60, { width: 38.1 })]);
+    const page = await t.browser.newPage({ viewport: { width: 1280, height: 900 } });
+    await signInThroughForm(page, t.served.url, users.member.email);
+    await page.goto(`${t.served.url}/t/${team.id}/sheets/${sheet.id}`);
+    await expect.poll(() => page.getByTestId('area-used').textContent(), { timeout: 20_000 }).toMatch(/^1 piece · [1-9]/);
+    const at = await screenOf(page, { x: 60, y: 60 });
+    await page.mouse.click(at.x, at.y);
+    await page.mouse.click(at.x, at.y, { button: 'right' });
+    const menu = page.getByRole('menu', { name: 'Selection actions' });
+    await menu.waitFor();
+    expect(await menu.getByRole('menuitem', { name: /^Duplicate/ }).textContent()).toBe('DuplicateCtrl/⌘ D');
+    await screenshot(page, 'editor-context-menu');
+    await menu.getByRole('menuitem', { name: /^Duplicate/ }).click();
+    await expect.poll(() => page.getByTestId('area-used').textContent()).toMatch(/^2 pieces/);
+    expect(await menu.count()).toBe(0);
+    // From the keyboard: Shift+F10, arrows, Escape; the first item has the focus.
+    await page.keyboard.press('Shift+F10');
+    await menu.waitFor();
+    expect(await page.evaluate(() => document.activeElement?.textContent)).toBe('DuplicateCtrl/⌘ D');
+    await page.keyboard.press('ArrowDown');
+    expect(await page.evaluate(() => document.activeElement?.textContent)).toBe('Rotate 90° clockwiseR');
+    await page.keyboard.press('Escape');
+    await expect.poll(() => menu.count()).toBe(0);
+    await page.close();
+  });
 });

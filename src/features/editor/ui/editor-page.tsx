@@ -20,6 +20,7 @@ import { LibraryPanel, defaultWidthMm } from './library-panel';
 import { useEditorSession, useSheetSaving } from './use-editor-session';
 import { SheetHeader } from './sheet-header';
 import { ConflictDialog } from './conflict-dialog';
+import { ContextMenu } from './context-menu';
 import { ArrangePanel } from './arrange-panel';
 import { ExportPanel } from './export-panel';
 import type { SheetDocument } from '../../../../shared/sheet/document';
@@ -32,6 +33,7 @@ export function EditorPage({ teamId, sheet, canEdit }: { teamId: string; sheet: 
   const [arranging, setArranging] = useState(false);
   const [exporting, setExporting] = useState(false);
   const [preview, setPreview] = useState<SheetDocument | null>(null);
+  const [menuAt, setMenuAt] = useState<{ x: number; y: number } | null>(null);
   const stageRef = useRef<Konva.Stage | null>(null);
   const sheetRef = useRef<Konva.Group | null>(null);
   const [artNames] = useState(() => new Map<string, string>(Object.entries(sheet.artNames)));
@@ -96,7 +98,13 @@ export function EditorPage({ teamId, sheet, canEdit }: { teamId: string; sheet: 
   useEffect(() => {
     const onKey = (e: KeyboardEvent) => {
       const target = e.target as HTMLElement;
-      if (target.closest('input, textarea, select, [contenteditable]')) return;
+      if (target.closest('input, textarea, select, [contenteditable], [role=menu]')) return;
+      // The context menu from the keyboard: the Menu key or Shift+F10, as desktop applications do.
+      if (e.key === 'ContextMenu' || (e.shiftKey && e.key === 'F10')) {
+        e.preventDefault();
+        setMenuAt({ x: 24, y: 24 });
+        return;
+      }
       if (handleKey(e, ctx)) e.preventDefault();
     };
     window.addEventListener('keydown', onKey);
@@ -143,7 +151,16 @@ export function EditorPage({ teamId, sheet, canEdit }: { teamId: string; sheet: 
       />
       <div className="grid min-h-0 flex-1 gap-3 lg:grid-cols-[13rem_1fr_17rem]">
         <LibraryPanel teamId={teamId} canEdit={canEdit} onAdd={onAddFromPanel} />
-        <div className="relative min-h-0 min-w-0">
+        <div
+          className="relative min-h-0 min-w-0"
+          onContextMenu={(e) => {
+            if (preview) return;
+            e.preventDefault();
+            const box = e.currentTarget.getBoundingClientRect();
+            setMenuAt({ x: e.clientX - box.left, y: e.clientY - box.top });
+          }}
+        >
+          {menuAt && <ContextMenu ctx={ctx} at={menuAt} onClose={() => setMenuAt(null)} />}
           <SheetStage
             store={store}
             state={preview ? { ...state, doc: preview } : state}
