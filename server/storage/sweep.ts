@@ -18,7 +18,11 @@ const KEY_COLUMNS: ReadonlyArray<[table: string, column: string]> = [
 ];
 const PNG_KEY = /"pngKey":"([0-9a-f]{64})"/g;
 
-/** Every key a row refers to, outline PNGs (inside the cached outline JSON) included. */
+/**
+ * Every key a row refers to, outline PNGs (inside the cached outline JSON) included. Raw SQL on
+ * purpose here and below: the sweep reads key columns of tables from every module by name
+ * (KEY_COLUMNS, fixed strings), below the modules, with no entity of its own.
+ */
 export async function referencedKeys(dataSource: DataSource): Promise<Set<string>> {
   const keys = new Set<string>();
   for (const [table, column] of KEY_COLUMNS) {

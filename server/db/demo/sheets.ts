@@ -5,6 +5,7 @@ import sharp from 'sharp';
 import type { DataSource } from 'typeorm';
 import { In } from 'typeorm';
 import { demoTeam, demoUserKey } from './accounts';
+import { Sheet } from '../../modules/sheets/sheet.entity';
 import { arrange } from '../../../shared/arrange/nester';
 import type { ArrangeItem } from '../../../shared/arrange/nester';
 import { printRunInputSchema } from '../../../shared/schemas/shop';
@@ -106,10 +107,9 @@ const BORDER_MM = inchToMm(0.125);
 export async function seedSheets(dataSource: DataSource, storage: Storage): Promise<number> {
   const team = await demoTeam(dataSource);
   // A demo sheet counts as there once saved with its pieces (version > 1); an interrupted seed's empty one is filled in.
-  const present: Array<{ id: string; name: string; version: number }> = await dataSource.query(
-    'SELECT id, name, version FROM sheets WHERE team_id = ?',
-    [team.id],
-  );
+  const present = await dataSource
+    .getRepository(Sheet)
+    .find({ where: { teamId: team.id }, select: { id: true, name: true, version: true } });
   const todo = SHEETS.filter((spec) => !present.some((p) => p.name === spec.name && p.version > 1));
   if (todo.length === 0) return 0;
   const pool = new OutlinePool({ maxInputPixels: env.OUTLINE_MAX_PIXELS, maxOutputPixels: env.OUTLINE_MAX_OUTPUT_PIXELS }, 1);

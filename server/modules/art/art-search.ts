@@ -93,6 +93,8 @@ export async function searchArt(
   const joined = { sql: joins.map((j) => j.sql).join(' '), params: joins.flatMap((j) => j.params) };
   const from = `FROM art_items a ${joined.sql} LEFT JOIN collections c ON c.id = a.pack_id WHERE ${filter.sql}`;
   const params = [...joined.params, ...filter.params];
+  // Raw SQL on purpose: one grouped subquery per query word, joined and scored, with optional filters;
+  // built here from parameterised parts (never from the maker's text), which the query builder cannot nest.
   const [{ total }] = await dataSource.query(`SELECT COUNT(*) AS total ${from}`, params);
   const dir = query.dir === 'asc' ? 'ASC' : 'DESC';
   const score = words.map((_, k) => `s${k}.score`).join(' + ');

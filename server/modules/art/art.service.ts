@@ -171,11 +171,10 @@ export class ArtService {
     } catch (error) {
       // Remove what this batch wrote, unless a concurrent upload has started using the same bytes.
       for (const key of written) {
-        const [{ used }] = await this.dataSource.query(
-          'SELECT COUNT(*) AS used FROM art_items WHERE storage_key = ? OR thumbnail_key = ? OR source_key = ?',
-          [key, key, key],
-        );
-        if (Number(used) === 0) await this.storage.delete(key).catch(() => undefined);
+        const used = await this.dataSource
+          .getRepository(ArtItem)
+          .count({ where: [{ storageKey: key }, { thumbnailKey: key }, { sourceKey: key }] });
+        if (used === 0) await this.storage.delete(key).catch(() => undefined);
       }
       throw error;
     }

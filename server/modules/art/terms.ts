@@ -1,3 +1,7 @@
+// Keywords and search terms of art. Raw SQL throughout, on purpose: art_keywords and art_terms are
+// plain (key, value) index tables with no entity, written as batched INSERT IGNORE and tuple-IN
+// deletes in a fixed order (parallel uploads into one team must not deadlock), which the query
+// builder cannot express.
 import type { EntityManager } from 'typeorm';
 import { normaliseKeyword, searchTerms } from '../../../shared/search';
 import { vocabularyChanged } from './vocabulary';

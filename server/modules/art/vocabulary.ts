@@ -65,7 +65,8 @@ export class TeamVocabularies {
     const generation = generations.get(teamId) ?? 0;
     const kept = this.trees.get(teamId);
     if (kept && kept.generation === generation && Date.now() - kept.at < this.ttlMs) return kept.tree;
-    // The (team_id, term) index answers this without reading the rows.
+    // Raw on purpose: art_terms is a plain index table with no entity; the (team_id, term) index
+    // answers this DISTINCT without reading the rows.
     const rows: Array<{ term: string }> = await this.dataSource.query('SELECT DISTINCT term FROM art_terms WHERE team_id = ?', [teamId]);
     const tree = new SearchableMap<true>();
     for (const { term } of rows) tree.set(term, true);

@@ -31,6 +31,8 @@ export class CollectionsService {
 
   async list(teamId: string, includeArchived = true): Promise<CollectionView[]> {
     const rows = await this.dataSource.getRepository(Collection).find({ where: { teamId }, order: { position: 'ASC', id: 'ASC' } });
+    // Raw SQL on purpose: art_collections and art_items belong to the art module, which sits above
+    // collections (modules depend one way); counted by table name here.
     const counts: Array<{ collection_id: string; n: string }> = await this.dataSource.query(
       'SELECT m.collection_id, COUNT(*) AS n FROM art_collections m JOIN art_items a ON a.id = m.art_id WHERE a.team_id = ? AND a.deleted_at IS NULL GROUP BY m.collection_id',
       [teamId],
@@ -62,9 +64,12 @@ export class CollectionsService {
 
   async create(teamId: string, input: { name: string; membersCanAdd: boolean; licence?: LicenceInput | null }) {
     await this.ensureUniqueName(teamId, input.name);
-    const [{ next }] = await this.dataSource.query('SELECT COALESCE(MAX(position), -1) + 1 AS next FROM collections WHERE team_id = ?', [
-      teamId,
-    ]);
+    const { next } = (await this.dataSource
+      .getRepository(Collection)
+      .createQueryBuilder('c')
+      .select('COALESCE(MAX(c.position), -1) + 1', 'next')
+      .where('c.team_id = :teamId', { teamId })
+      .getRawOne<{ next: string }>())!;
     const empty = { proofKey: null, proofName: null } as LicenceColumns;
     const saved = await this.dataSource.getRepository(Collection).save({
       teamId,
@@ -93,6 +98,7 @@ export class CollectionsService {
       if (Object.keys(changes).length) await manager.update(Collection, { id }, changes);
       if (input.name !== undefined && input.name !== collection.name) {
         // The collection's name is searchable through its art.
+        // Raw on purpose: art_collections belongs to the art module, above this one (see list()).
         const ids: Array<{ id: string }> = await manager.query('SELECT art_id AS id FROM art_collections WHERE collection_id = ?', [id]);
         await this.onRenamed(
           manager,

@@ -136,6 +136,8 @@ export class SheetsService {
    * are touched, in ascending id order, so parallel saves of different sheets rarely lock the same
    * index ranges (a blanket delete + insert deadlocked 12 of 20 parallel saves).
    */
+  // Raw SQL on purpose (here and in usingArt): sheet_art is a plain link table with no entity, written
+  // as an ordered diff with INSERT IGNORE.
   private async linkArt(manager: EntityManager, sheetId: string, artIds: string[]) {
     const rows: Array<{ art_id: string }> = await manager.query('SELECT art_id FROM sheet_art WHERE sheet_id = ?', [sheetId]);
     const have = new Set(rows.map((r) => String(r.art_id)));
