@@ -90,4 +90,27 @@ describe('sizes and places by the numbers', { timeout: BROWSER_TEST_TIMEOUT }, (
     await expect.poll(() => menu.count()).toBe(0);
     await page.close();
   });
+
+  it('Escape during a drag puts the piece back and records nothing', async () => {
+    const { team, users, client, art } = await teamWithShapes(t.db, t.served.url);
+    const { body: sheet } = await client.post(`/api/teams/${team.id}/sheets`, { name: 'Escape', unit: 'in' });
+    await placePieces(client, team.id, sheet, [testPiece('d1', art[0].id, 60, 60, { width: 38.1 })]);
+    const page = await t.browser.newPage({ viewport: { width: 1280, height: 900 } });
+    await signInThroughForm(page, t.served.url, users.member.email);
+    await page.goto(`${t.served.url}/t/${team.id}/sheets/${sheet.id}`);
+    await expect.poll(() => page.getByTestId('area-used').textContent(), { timeout: 20_000 }).toMatch(/^1 piece · [1-9]/);
+    const at = await screenOf(page, { x: 60, y: 60 });
+    await page.mouse.move(at.x, at.y);
+    await page.mouse.down();
+    await page.mouse.move(at.x + 120, at.y + 80, { steps: 6 });
+    await page.keyboard.press('Escape');
+    await page.mouse.up();
+    await page.waitForTimeout(1200); // longer than the autosave's quiet time
+    expect(await page.getByRole('button', { name: 'Undo' }).isDisabled()).toBe(true);
+    expect((await sheetOf(client, team.id, sheet.id)).document.pieces[0]).toMatchObject({ x: 60, y: 60 });
+    // The piece is drawn where it was: a click there still selects it.
+    await page.mouse.click(at.x, at.y);
+    await expect.poll(() => page.getByText('One piece', { exact: true }).count()).toBe(1);
+    await page.close();
+  });
 });

@@ -1,13 +1,13 @@
 import type Konva from 'konva';
-import { useEffect, useRef, useState } from 'react';
+import { useEffect, useMemo, useRef, useState } from 'react';
 import type { DragEvent } from 'react';
 import { Group, Layer, Rect, Stage, Transformer } from 'react-konva';
 import { commands } from '../../../../shared/sheet/commands';
 import { formatLength, mmToCssPx, normaliseDegrees } from '../../../../shared/units';
 import type { PieceOutline } from '../api/outlines';
 import type { EditorState, EditorStore } from '../core/editor-store';
+import { DragGesture } from '../core/drag-gesture';
 import { PieceNode } from './piece-node';
-import { clampToZone } from '../../../../shared/sheet/bounds';
 import { RULER, Rulers } from './rulers';
 
 type Props = {
@@ -30,7 +30,8 @@ export function SheetStage({ store, state, canEdit, outlines, warnIds, onDropArt
   const [size, setSize] = useState({ width: 800, height: 600 });
   const [marquee, setMarquee] = useState<{ x0: number; y0: number; x1: number; y1: number } | null>(null);
   const [liveWidth, setLiveWidth] = useState<number | null>(null);
-  const dragStart = useRef(new Map<string, { x: number; y: number }>());
+  // The drag itself (who moves, one undo step, Escape) lives in the editor core.
+  const drag = useMemo(() => new DragGesture(store), [store]);
   const { doc } = state;
 
   useEffect(() => {
@@ -68,47 +69,28 @@ export function SheetStage({ store, state, canEdit, outlines, warnIds, onDropArt
     else if (!current.has(id)) store.select([id]);
   };
 
-  const onDragStart = (id: string) => {
-    dragStart.current = new Map(
-      doc.pieces.filter((p) => store.getState().selection.has(p.id) || p.id === id).map((p) => [p.id, { x: p.x, y: p.y }]),
-    );
-  };
+  const onDragStart = (id: string) => drag.begin(id);
   // Moving one selected piece moves the whole selection with it.
   const onDragMove = (id: string, node: Konva.Group) => {
-    const start = dragStart.current.get(id);
-    if (!start) return;
-    const dx = node.x() - start.x,
-      dy = node.y() - start.y;
-    for (const [other, pos] of dragStart.current) {
-      if (other === id) continue;
-      stageRef.current?.findOne(`#${other}`)?.position({ x: pos.x + dx, y: pos.y + dy });
-    }
+    for (const [other, pos] of drag.positions(node.position())) if (other !== id) stageRef.current?.findOne(`#${other}`)?.position(pos);
   };
-  const onDragEnd = (id: string, node: Konva.Group) => {
-    const start = dragStart.current.get(id);
-    if (!start) return;
-    const dx = node.x() - start.x,
-      dy = node.y() - start.y;
-    // A piece dropped far off the sheet stops at the edge of where pieces may sit.
-    const positions = new Map([...dragStart.current].map(([pid, pos]) => [pid, clampToZone(doc, pos.x + dx, pos.y + dy)]));
-    dragStart.current = new Map();
-    store.dispatch(commands.placePieces(store.getState().doc, positions));
+  const onDragEnd = (_id: string, node: Konva.Group) => {
+    if (drag.active) drag.end(node.position());
   };
 
   // Escape during a drag puts everything back where it started.
   useEffect(() => {
     const onKey = (e: KeyboardEvent) => {
-      if (e.key !== 'Escape' || dragStart.current.size === 0) return;
-      for (const [pid, pos] of dragStart.current) {
+      if (e.key !== 'Escape' || !drag.active) return;
+      for (const [pid, pos] of drag.cancel()) {
         const node = stageRef.current?.findOne(`#${pid}`);
         node?.stopDrag();
         node?.position(pos);
       }
-      dragStart.current = new Map();
     };
     window.addEventListener('keydown', onKey, true);
     return () => window.removeEventListener('keydown', onKey, true);
-  }, [stageRef]);
+  }, [stageRef, drag]);
 
   // Live readout of the printed width while a corner handle is dragged.
   const onTransform = () => {
