@@ -2,13 +2,10 @@
 // (input fields, rendering, export). 1 in = 25.4 mm exactly (international yard and pound
 // agreement, 1959); CSS/SVG: 1in = 96px = 72pt (CSS Values and Units Level 3, §6.2).
 
-declare const brand: unique symbol;
-type Brand<T, B extends string> = T & { readonly [brand]: B };
-
-export type Mm = Brand<number, 'mm'>;
-export type Inch = Brand<number, 'in'>;
-export type Px = Brand<number, 'px'>;
-export type Degrees = Brand<number, 'deg'>;
+/** Names that say which unit a number is in (plain numbers: every length in the app is in mm). */
+export type Mm = number;
+export type Inch = number;
+export type Px = number;
 
 export type LengthUnit = 'mm' | 'in';
 export const LENGTH_UNITS: readonly LengthUnit[] = ['in', 'mm'];
@@ -20,24 +17,20 @@ export const normaliseDegrees = (degrees: number) => ((degrees % 360) + 360) % 3
 export const CSS_PX_PER_INCH = 96;
 export const PT_PER_INCH = 72;
 
-export const mm = (value: number) => value as Mm;
-export const inch = (value: number) => value as Inch;
-export const px = (value: number) => value as Px;
-
-export const inchToMm = (value: Inch | number): Mm => (value * MM_PER_INCH) as Mm;
-export const mmToInch = (value: Mm | number): Inch => (value / MM_PER_INCH) as Inch;
+export const inchToMm = (value: Inch): Mm => value * MM_PER_INCH;
+export const mmToInch = (value: Mm): Inch => value / MM_PER_INCH;
 
 export function toMm(value: number, unit: LengthUnit): Mm {
-  return unit === 'mm' ? (value as Mm) : inchToMm(value);
+  return unit === 'mm' ? value : inchToMm(value);
 }
 
-export function fromMm(value: Mm | number, unit: LengthUnit): number {
+export function fromMm(value: Mm, unit: LengthUnit): number {
   return unit === 'mm' ? value : mmToInch(value);
 }
 
 /** Pixels needed to print `length` at `dpi` dots per inch, rounded to whole pixels. */
-export function mmToPixels(length: Mm | number, dpi: number): Px {
-  return Math.round((length / MM_PER_INCH) * dpi) as Px;
+export function mmToPixels(length: Mm, dpi: number): Px {
+  return Math.round((length / MM_PER_INCH) * dpi);
 }
 
 /** PNG pHYs pixels per metre for a DPI (PNG spec §11.3.5.3, unit 1 = metre). */
@@ -53,13 +46,13 @@ export function parseLength(text: string, defaultUnit: LengthUnit = 'mm'): Mm | 
   if (!match) return null;
   const value = Number(match[1]);
   const unit = (match[2] ?? defaultUnit).toLowerCase();
-  if (unit === 'mm') return value as Mm;
-  if (unit === 'cm') return (value * 10) as Mm;
+  if (unit === 'mm') return value;
+  if (unit === 'cm') return value * 10;
   return inchToMm(value);
 }
 
 /** Formats a millimetre length in the user's unit, e.g. "2.25 in" or "57.2 mm". */
-export function formatLength(value: Mm | number, unit: LengthUnit, digits = unit === 'in' ? 3 : 1): string {
+export function formatLength(value: Mm, unit: LengthUnit, digits = unit === 'in' ? 3 : 1): string {
   const n = fromMm(value, unit);
   const text = Number(n.toFixed(digits)).toString();
   return `${text} ${unit}`;
@@ -69,12 +62,12 @@ export function formatLength(value: Mm | number, unit: LengthUnit, digits = unit
  * A small length (gaps, features, bridges) in the user's unit where thousandths of an inch read
  * badly: under 0.1 in, two decimals with the millimetres beside ("0.04 in (1 mm)").
  */
-export function formatFineLength(value: Mm | number, unit: LengthUnit): string {
+export function formatFineLength(value: Mm, unit: LengthUnit): string {
   if (unit === 'mm' || value >= MM_PER_INCH / 10) return formatLength(value, unit);
   return `${formatLength(value, 'in', 2)} (${formatLength(value, 'mm', 2)})`;
 }
 
 /** CSS pixels for a length at a zoom where 1 = real size on a 96 DPI screen (CSS: 1in = 96px). */
-export function mmToCssPx(length: Mm | number, zoom = 1): number {
+export function mmToCssPx(length: Mm, zoom = 1): number {
   return (length / MM_PER_INCH) * CSS_PX_PER_INCH * zoom;
 }

@@ -30,7 +30,7 @@ describe('sizes and places by the numbers', { timeout: BROWSER_TEST_TIMEOUT }, (
     await sticker.press('Enter');
     await expect.poll(() => page.getByText('art 1.75 in', { exact: true }).count()).toBe(1);
     // X: the sticker's left edge 0.5 in from the print area's edge (its centre at 0.5 + 2/2 in).
-    await expect.poll(() => page.getByLabel('X (in)').inputValue()).toBe(String(+((60 - 25.4) / 25.4).toFixed(3)));
+    await expect.poll(() => page.getByLabel('X (in)').inputValue(), { timeout: 15_000 }).toBe(String(+((60 - 25.4) / 25.4).toFixed(3)));
     await page.getByLabel('X (in)').fill('0.5');
     await page.getByLabel('X (in)').press('Enter');
     await screenshot(page, 'editor-size-by-sticker');

@@ -46,10 +46,14 @@ export function EditorPage({ teamId, sheet, canEdit }: { teamId: string; sheet: 
   const sizes = useMemo(() => {
     const map = new Map<string, { widthMm: number; heightMm: number }>();
     for (const p of shown.pieces) {
-      const o = outlines.get(p.id)?.outline;
+      const entry = outlines.get(p.id);
+      const o = entry?.outline;
+      // While a new outline is on its way, the frame is the new size at the old outline's proportions
+      // (art + a border each side), so sizes and X/Y read right at once, not a moment later.
+      const w = p.width + 2 * p.border;
       map.set(
         p.id,
-        o ? { widthMm: o.widthMm, heightMm: o.heightMm } : { widthMm: p.width + 2 * p.border, heightMm: p.width + 2 * p.border },
+        o && !entry.pending ? { widthMm: o.widthMm, heightMm: o.heightMm } : { widthMm: w, heightMm: o ? (w * o.heightMm) / o.widthMm : w },
       );
     }
     return map;
