@@ -189,6 +189,22 @@ describe('sheets', () => {
     expect((await member.get(`/api/teams/${team.id}/sheets/${sheet.id}`)).body.document).toEqual(theirs);
   });
 
+  // Seen in the browser: the editor's second save (area used and preview, once outlines arrive)
+  // made a new version, so an export taken just before read as "Older version" a moment later.
+  it('keeps the version for a save that brings only the area used and the preview', async () => {
+    const { team, member, art } = await setup();
+    const { body: sheet } = await member.post(`/api/teams/${team.id}/sheets`, { name: 'Steady' });
+    const doc = { ...sheet.document, pieces: [piece(art.id, 30)] };
+    const url = `/api/teams/${team.id}/sheets/${sheet.id}`;
+    expect((await member.send('put', url, { version: 1, document: doc })).body.version).toBe(2);
+    // As the editor sends it: the whole state, notes '' for none.
+    const again = await member.send('put', url, { version: 2, document: doc, name: 'Steady', notes: '', status: 'draft', areaUsed: 0.123 });
+    expect(again.status).toBe(200);
+    expect(again.body).toMatchObject({ version: 2, areaUsed: 0.123 });
+    expect((await member.send('put', url, { version: 2, document: doc, name: 'Steadier' })).body.version).toBe(3);
+    expect((await member.send('put', url, { version: 3, document: { ...doc, pieces: [] } })).body.version).toBe(4);
+  });
+
   it('refuses documents that break the schema or use another team’s art', async () => {
     const a = await setup();
     const b = await setup();

@@ -213,12 +213,18 @@ export class SheetsService {
         );
         throw Object.assign(error, { fields: { version: String(sheet.version) } });
       }
-      const changes: Partial<Sheet> = { version: sheet.version + 1, updatedBy: actor.userId };
+      // Only a change to what the maker made is a new version: a save that brings nothing but the area
+      // used and the preview (the editor's second save once outlines arrive) keeps the version, so an
+      // export made meanwhile stays the current one.
+      const stored = { name: sheet.name, unit: sheet.unit, status: sheet.status, forSale: sheet.forSale, notes: sheet.notes ?? '' };
+      const made = (['name', 'unit', 'status', 'forSale', 'notes'] as const).some((k) => input[k] !== undefined && input[k] !== stored[k]);
+      const newDocument = input.document !== undefined && JSON.stringify(input.document) !== sheet.document;
+      const changes: Partial<Sheet> = made || newDocument ? { version: sheet.version + 1, updatedBy: actor.userId } : {};
       for (const key of ['name', 'unit', 'status', 'forSale', 'notes', 'areaUsed'] as const)
         if (input[key] !== undefined) Object.assign(changes, { [key]: input[key] });
       if (thumbnailKey) changes.thumbnailKey = thumbnailKey;
       replacedThumbnail = thumbnailKey && sheet.thumbnailKey !== thumbnailKey ? sheet.thumbnailKey : null;
-      if (input.document) {
+      if (input.document && newDocument) {
         refuseOutOfBounds(input.document, input.unit ?? sheet.unit);
         changes.document = JSON.stringify(input.document);
         changes.pieceCount = input.document.pieces.length;
