@@ -1,45 +1,12 @@
-import path from 'node:path';
 import { zipSync } from 'fflate';
 import JSZip from 'jszip';
 import sharp from 'sharp';
 import { describe, expect, it } from 'vitest';
 import { ArtItem } from '../../server/modules/art/art-item.entity';
-import { LocalDiskStorage } from '../../server/storage/local-disk';
-import { env } from '../../server/config/env';
-import { svgArt } from '../helpers/art';
-import { Client, makeTeamWithRoles, useTestApp } from '../helpers/app';
-import { uploadFile, storedFileCount } from '../helpers/library';
+import { storedFileCount, uploadFile, useLibraryTestApp } from '../helpers/library';
 import { pngHeaderClaiming } from '../helpers/png';
 
-// This file's own storage folder, so other suites running alongside never change its file counts.
-const storageDir = path.join(env.dataDir, 'storage-library-uploads-test');
-const storage = new LocalDiskStorage(storageDir);
-
-const t = useTestApp({
-  pool: true,
-  extra: () => ({
-    storage,
-    packLimits: { maxEntries: 50, maxTotalBytes: 3 * 1024 * 1024, maxEntryBytes: 20 * 1024 * 1024, maxRatio: 200 },
-  }),
-});
-
-const shape = (i: number) =>
-  svgArt(160, 160, `<circle cx="80" cy="80" r="${30 + i}" fill="#${(0x224466 + i * 0x101010).toString(16).slice(-6)}"/>`);
-
-async function signedIn(email: string) {
-  const client = new Client(t.sheetsmith.app);
-  await client.signIn(email);
-  return client;
-}
-
-async function setup() {
-  const { team, users } = await makeTeamWithRoles(t.db);
-  const owner = await signedIn(users.owner.email);
-  const admin = await signedIn(users.admin.email);
-  const member = await signedIn(users.member.email);
-  const viewer = await signedIn(users.viewer.email);
-  return { team, users, owner, admin, member, viewer };
-}
+const { t, storageDir, setup, shape } = useLibraryTestApp('library-uploads-test');
 
 describe('zip packs', () => {
   it('unpacks images, skips and reports the rest, turns folders into keywords; a reference unzip sees the same entries', async () => {

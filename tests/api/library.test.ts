@@ -1,42 +1,9 @@
-import path from 'node:path';
 import sharp from 'sharp';
 import { describe, expect, it } from 'vitest';
 import { ArtItem } from '../../server/modules/art/art-item.entity';
-import { LocalDiskStorage } from '../../server/storage/local-disk';
-import { env } from '../../server/config/env';
-import { svgArt } from '../helpers/art';
-import { Client, makeTeamWithRoles, useTestApp } from '../helpers/app';
-import { uploadFile } from '../helpers/library';
+import { uploadFile, useLibraryTestApp } from '../helpers/library';
 
-// This file's own storage folder, so other suites running alongside never change its file counts.
-const storageDir = path.join(env.dataDir, 'storage-library-test');
-const storage = new LocalDiskStorage(storageDir);
-
-const t = useTestApp({
-  pool: true,
-  extra: () => ({
-    storage,
-    packLimits: { maxEntries: 50, maxTotalBytes: 3 * 1024 * 1024, maxEntryBytes: 20 * 1024 * 1024, maxRatio: 200 },
-  }),
-});
-
-const shape = (i: number) =>
-  svgArt(160, 160, `<circle cx="80" cy="80" r="${30 + i}" fill="#${(0x224466 + i * 0x101010).toString(16).slice(-6)}"/>`);
-
-async function signedIn(email: string) {
-  const client = new Client(t.sheetsmith.app);
-  await client.signIn(email);
-  return client;
-}
-
-async function setup() {
-  const { team, users } = await makeTeamWithRoles(t.db);
-  const owner = await signedIn(users.owner.email);
-  const admin = await signedIn(users.admin.email);
-  const member = await signedIn(users.member.email);
-  const viewer = await signedIn(users.viewer.email);
-  return { team, users, owner, admin, member, viewer };
-}
+const { t, storage, setup, shape } = useLibraryTestApp('library-test');
 
 describe('collections: who may do what', () => {
   it('owners and admins create, rename, archive and reorder; members and viewers may not', async () => {

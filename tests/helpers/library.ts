@@ -1,6 +1,9 @@
 import { readdir } from 'node:fs/promises';
 import path from 'node:path';
-import type { Client } from './app';
+import { env } from '../../server/config/env';
+import { LocalDiskStorage } from '../../server/storage/local-disk';
+import { svgArt } from './art';
+import { Client, makeTeamWithRoles, useTestApp } from './app';
 
 export async function uploadFile(client: Client, teamId: string, file: Buffer, name: string, fields: Record<string, string> = {}) {
   if (!client.csrf) await client.refreshCsrf();
@@ -19,4 +22,37 @@ export async function storedFileCount(root: string): Promise<number> {
     return n;
   };
   return walk(root);
+}
+
+/**
+ * One test app for a library test file, with the file's own storage folder (so other suites running
+ * alongside never change its file counts) and small pack limits; `setup()` makes a team with a
+ * signed-in client per role; `shape(i)` is a distinct circle per index (no two are the same image).
+ */
+export function useLibraryTestApp(label: string) {
+  const storageDir = path.join(env.dataDir, `storage-${label}`);
+  const storage = new LocalDiskStorage(storageDir);
+  const t = useTestApp({
+    pool: true,
+    extra: () => ({
+      storage,
+      packLimits: { maxEntries: 50, maxTotalBytes: 3 * 1024 * 1024, maxEntryBytes: 20 * 1024 * 1024, maxRatio: 200 },
+    }),
+  });
+  const signedIn = async (email: string) => {
+    const client = new Client(t.sheetsmith.app);
+    await client.signIn(email);
+    return client;
+  };
+  const setup = async () => {
+    const { team, users } = await makeTeamWithRoles(t.db);
+    const owner = await signedIn(users.owner.email);
+    const admin = await signedIn(users.admin.email);
+    const member = await signedIn(users.member.email);
+    const viewer = await signedIn(users.viewer.email);
+    return { team, users, owner, admin, member, viewer };
+  };
+  const shape = (i: number) =>
+    svgArt(160, 160, `<circle cx="80" cy="80" r="${30 + i}" fill="#${(0x224466 + i * 0x101010).toString(16).slice(-6)}"/>`);
+  return { t, storage, storageDir, setup, shape };
 }

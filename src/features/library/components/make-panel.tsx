@@ -8,6 +8,7 @@ import { fromMm, parseLength } from '../../../../shared/units';
 import { Button, FormMessage } from '../../../components/form';
 import { useAction } from '../../../hooks/use-action';
 import { api } from '../../../lib/api-client';
+import { CollectionSelect } from './collection-select';
 
 const input = 'rounded border-2 border-paper-edge px-2 py-1 font-normal';
 const label = 'flex flex-col text-xs font-bold';
@@ -167,16 +168,12 @@ export function MakePanel({
             {text('name', 'Name in the library', 'w-56')}
             <label className={label}>
               Put into collection
-              <select value={d.collectionId} onChange={(e) => setD({ ...d, collectionId: e.target.value })} className={input}>
-                <option value="">No collection</option>
-                {collections
-                  .filter((c) => !c.archived)
-                  .map((c) => (
-                    <option key={c.id} value={c.id}>
-                      {c.name}
-                    </option>
-                  ))}
-              </select>
+              <CollectionSelect
+                value={d.collectionId}
+                onChange={(collectionId) => setD({ ...d, collectionId })}
+                collections={collections}
+                className={input}
+              />
             </label>
             <Button type="submit" busy={busy}>
               Add to the library

@@ -5,6 +5,7 @@ import { Button } from '../../../components/form';
 import { ApiError } from '../../../lib/api-client';
 import { useInvalidateLibrary } from '../api/art';
 import { uploadArt } from '../api/upload';
+import { CollectionSelect } from './collection-select';
 
 type Job = {
   id: number;
@@ -91,20 +92,12 @@ export function UploadPanel({ teamId, collections, onClose }: { teamId: string; 
         </label>
         <label className="flex flex-col gap-1 text-sm font-bold">
           Put into collection
-          <select
+          <CollectionSelect
             value={collectionId}
-            onChange={(e) => setCollectionId(e.target.value)}
+            onChange={setCollectionId}
+            collections={collections}
             className="rounded-lg border-2 border-paper-edge bg-white px-3 py-2 font-normal"
-          >
-            <option value="">No collection</option>
-            {collections
-              .filter((c) => !c.archived)
-              .map((c) => (
-                <option key={c.id} value={c.id}>
-                  {c.name}
-                </option>
-              ))}
-          </select>
+          />
         </label>
       </div>
       <div
