@@ -1,5 +1,5 @@
 // One sheet (or strip) of the constructive decoder: an occupancy raster of every placed shape's
-// mask (each row's runs, prefix sums and longest free run) that finds candidate spots quickly, and
+// mask (each row's free intervals, free cells and longest free run) that finds candidate spots quickly, and
 // the placed cut lines themselves, which confirm every spot exactly.
 import type { Ring } from '../geometry/polygon';
 import { boundingBox } from '../geometry/polygon';
@@ -7,18 +7,32 @@ import { overlaps } from '../geometry/overlap';
 import { closerThan } from '../sheet/placement';
 import type { ShapeMask } from './raster';
 
+/** A free interval's end beyond either edge of the board: masks may hang off it (see `hang`). */
+const OPEN = 1 << 29;
+/** Side of the buckets that index placed cut lines for the exact checks (mm). */
+const BUCKET = 24;
+
 export type BoardOptions = { width: number; height: number; gap: number; margin: number; cell: number };
 
-/** One sheet's occupancy: blocked cells with per-row prefix sums, and the placed rings for exact checks. */
+/** One sheet's occupancy: blocked cells with each row's free intervals, and the placed rings for exact checks. */
 export class Board {
   readonly w: number;
   readonly h: number;
   private readonly grid: Uint8Array;
-  private readonly prefix: Int32Array;
+  /** Free cells of each row. */
+  private readonly freeCells: Int32Array;
   /** Longest free run of each row; a run at either edge counts the cells a mask may hang off the board. */
   private readonly freeRun: Int32Array;
   private readonly hang: number;
+  /** Free intervals of each row, [start, end] inclusive pairs; the first and last run on past the edges. */
+  private readonly free: Int32Array[];
+  /** Two scratch interval lists the row search intersects into (no allocation per spot). */
+  private scratch = [new Int32Array(64), new Int32Array(64)];
   readonly rings: Array<{ ring: Ring; box: ReturnType<typeof boundingBox> }> = [];
+  /** Placed rings by bucket of BUCKET mm (each listed in every bucket its box, grown by the gap, touches). */
+  private readonly buckets = new Map<number, number[]>();
+  private readonly seen: number[] = [];
+  private stamp = 0;
   usedArea = 0;
   /** Lowest extent of any placed cut line (mm). */
   bottom = 0;
@@ -27,10 +41,11 @@ export class Board {
     this.w = Math.ceil(opts.width / opts.cell);
     this.h = Math.ceil(opts.height / opts.cell);
     this.grid = new Uint8Array(this.w * this.h);
-    this.prefix = new Int32Array((this.w + 1) * this.h);
+    this.freeCells = new Int32Array(this.h).fill(this.w);
     this.freeRun = new Int32Array(this.h).fill(1 << 30);
     // A mask's grown rim (see shapeMask's pad) may lie off the board.
     this.hang = Math.ceil(Math.max(0, opts.gap / 2 - 0.25 * opts.cell) / opts.cell) + 2;
+    this.free = Array.from({ length: this.h }, () => Int32Array.of(-OPEN, OPEN));
   }
 
   /** Whether every row of the mask finds a free run as long as its own at row offset cy. */
@@ -42,47 +57,90 @@ export class Board {
     return true;
   }
 
-  /** The last blocked cell of row y in [a, b], or -1 (cells off the board count as free). */
-  private lastBlocked(y: number, a: number, b: number): number {
-    if (y < 0 || y >= this.h) return -1;
-    const lo = Math.max(0, a),
-      hi = Math.min(this.w - 1, b);
-    if (lo > hi) return -1;
-    const base = y * (this.w + 1),
-      top = this.prefix[base + hi + 1];
-    if (top - this.prefix[base + lo] === 0) return -1;
-    // The smallest t with prefix[t] = top: every cell from t on is free, so t - 1 is blocked.
-    let l = lo,
-      r = hi + 1;
-    while (l < r) {
-      const m = (l + r) >> 1;
-      if (this.prefix[base + m] === top) r = m;
-      else l = m + 1;
-    }
-    return l - 1;
-  }
-
-  /** 0 when the mask's cells are free at (cx, cy); else how many cells right the mask must move at least. */
-  rasterSkip(mask: ShapeMask, cx: number, cy: number): number {
-    for (const j of mask.order) {
-      const row = cy + mask.offsetY + j;
-      for (const [a, b] of mask.rows[j]) {
-        const k = this.lastBlocked(row, cx + mask.offsetX + a, cx + mask.offsetX + b);
-        if (k >= 0) return k - (cx + mask.offsetX + a) + 1;
+  private freeIntervals(row: number): Int32Array {
+    const out: number[] = [];
+    let start = -OPEN;
+    for (let i = 0; i < this.w; i++) {
+      if (this.grid[row * this.w + i]) {
+        if (start <= i - 1) out.push(start, i - 1);
+        start = i + 1;
       }
     }
-    return 0;
+    out.push(start, OPEN);
+    return Int32Array.from(out);
+  }
+
+  /**
+   * The offsets cx in [lo, hi] at which every run of the mask lies on free cells of row offset cy:
+   * the intersection over the mask's runs of the board rows' free intervals, each shrunk by the run.
+   * Rows go widest first, so most rows end empty after one or two runs. Returns the list and its length.
+   */
+  private freeOffsets(mask: ShapeMask, cy: number, lo: number, hi: number): { list: Int32Array; n: number } {
+    let cur = this.scratch[0],
+      n = 2;
+    cur[0] = lo;
+    cur[1] = hi;
+    for (const j of mask.order) {
+      const row = cy + mask.offsetY + j;
+      if (row < 0 || row >= this.h) continue;
+      const free = this.free[row];
+      if (free.length === 2) continue;
+      for (const [a, b] of mask.rows[j]) {
+        // Run [a, b] at offset cx covers cells cx + offsetX + a … cx + offsetX + b.
+        const da = mask.offsetX + a,
+          db = mask.offsetX + b;
+        let next = cur === this.scratch[0] ? this.scratch[1] : this.scratch[0];
+        if (next.length < n + free.length) {
+          next = new Int32Array(2 * (n + free.length));
+          this.scratch[cur === this.scratch[0] ? 1 : 0] = next;
+        }
+        let m = 0;
+        for (let p = 0, q = 0; p < n && q < free.length;) {
+          const s = Math.max(cur[p], free[q] - da),
+            e = Math.min(cur[p + 1], free[q + 1] - db);
+          if (s <= e) {
+            next[m++] = s;
+            next[m++] = e;
+          }
+          if (cur[p + 1] < free[q + 1] - db) p += 2;
+          else q += 2;
+        }
+        cur = next;
+        n = m;
+        if (n === 0) return { list: cur, n };
+      }
+    }
+    return { list: cur, n };
+  }
+
+  private bucketsOf(box: ReturnType<typeof boundingBox>, grow: number, each: (key: number) => void) {
+    const x0 = Math.floor((box.x - grow) / BUCKET),
+      x1 = Math.floor((box.x + box.width + grow) / BUCKET),
+      y0 = Math.floor((box.y - grow) / BUCKET),
+      y1 = Math.floor((box.y + box.height + grow) / BUCKET);
+    for (let by = y0; by <= y1; by++) for (let bx = x0; bx <= x1; bx++) each(by * 4096 + bx);
   }
 
   exactFree(ring: Ring, box = boundingBox(ring)): boolean {
     const gap = this.opts.gap;
-    for (const placed of this.rings) {
-      const b = placed.box;
-      if (box.x > b.x + b.width + gap || b.x > box.x + box.width + gap || box.y > b.y + b.height + gap || b.y > box.y + box.height + gap)
-        continue;
-      if (gap > 0 ? closerThan(ring, placed.ring, gap - 1e-6, box, b) : overlaps(ring, placed.ring)) return false;
-    }
-    return true;
+    const stamp = ++this.stamp;
+    let free = true;
+    this.bucketsOf(box, 0, (key) => {
+      if (!free) return;
+      for (const index of this.buckets.get(key) ?? []) {
+        if (this.seen[index] === stamp) continue;
+        this.seen[index] = stamp;
+        const placed = this.rings[index],
+          b = placed.box;
+        if (box.x > b.x + b.width + gap || b.x > box.x + box.width + gap || box.y > b.y + b.height + gap || b.y > box.y + box.height + gap)
+          continue;
+        if (gap > 0 ? closerThan(ring, placed.ring, gap - 1e-6, box, b) : overlaps(ring, placed.ring)) {
+          free = false;
+          return;
+        }
+      }
+    });
+    return free;
   }
 
   place(mask: ShapeMask, x: number, y: number, ring: Ring, areaMm2: number) {
@@ -96,23 +154,30 @@ export class Board {
           hi = Math.min(this.w - 1, cx + mask.offsetX + b);
         if (lo <= hi) this.grid.fill(1, row * this.w + lo, row * this.w + hi + 1);
       }
-      const base = row * (this.w + 1);
-      for (let i = 0; i < this.w; i++) this.prefix[base + i + 1] = this.prefix[base + i] + this.grid[row * this.w + i];
-      let longest = 0,
-        run = 0;
-      for (let i = 0; i < this.w; i++) {
-        run = this.grid[row * this.w + i] ? 0 : run + 1;
-        if (run > longest) longest = run;
+      const free = this.freeIntervals(row);
+      this.free[row] = free;
+      // Free cells, and the longest free run; runs at either edge go on past it for a mask allowed to hang off.
+      let cells = 0,
+        longest = 0;
+      for (let k = 0; k < free.length; k += 2) {
+        const s = Math.max(0, free[k]),
+          e = Math.min(this.w - 1, free[k + 1]);
+        const inside = Math.max(0, e - s + 1),
+          open = free[k] < 0 || free[k + 1] >= this.w ? this.hang : 0;
+        cells += inside;
+        longest = Math.max(longest, inside + open);
       }
-      // Runs at either edge go on past it for a mask allowed to hang off.
-      let lead = 0,
-        tail = 0;
-      while (lead < this.w && !this.grid[row * this.w + lead]) lead++;
-      while (tail < this.w && !this.grid[row * this.w + this.w - 1 - tail]) tail++;
-      this.freeRun[row] = Math.max(longest, lead + this.hang, tail + this.hang);
+      this.freeCells[row] = cells;
+      this.freeRun[row] = longest;
     }
     const box = boundingBox(ring);
-    this.rings.push({ ring, box });
+    const index = this.rings.push({ ring, box }) - 1;
+    this.seen.push(0);
+    this.bucketsOf(box, this.opts.gap, (key) => {
+      const list = this.buckets.get(key);
+      if (list) list.push(index);
+      else this.buckets.set(key, [index]);
+    });
     this.usedArea += areaMm2;
     this.bottom = Math.max(this.bottom, box.y + box.height);
   }
@@ -136,22 +201,28 @@ export class Board {
     // The mask's widest row needs that many free cells in the board row it lands on, less what may hang off the board.
     const widest = mask.order[0],
       need = mask.rows[widest].reduce((s, [a, b]) => s + b - a + 1, 0) - 2 * mask.pad;
+    const trial = mask.ring.map((p) => ({ x: p.x, y: p.y }));
     // `scanned`: the first row not yet known to be full for this mask.
     for (let cy = Math.max(yMin, from); cy <= yMax; cy++) {
       if (scoreOf(xMin, cy) >= limit) return { spot: null, scanned: cy };
       const row = cy + mask.offsetY + widest;
-      if (row >= 0 && row < this.h && this.w - this.prefix[row * (this.w + 1) + this.w] < need) continue;
+      if (row >= 0 && row < this.h && this.freeCells[row] < need) continue;
       if (!this.rowsCanTake(mask, cy)) continue;
-      for (let cx = xMin; cx <= xMax;) {
-        const skip = this.rasterSkip(mask, cx, cy);
-        if (skip > 0) {
-          cx += skip;
-          continue;
+      const { list, n } = this.freeOffsets(mask, cy, xMin, xMax);
+      // Copied: the exact checks below may not, but the next row's search reuses the scratch lists.
+      const spans = list.slice(0, n);
+      for (let k = 0; k < n; k += 2)
+        for (let cx = spans[k]; cx <= spans[k + 1]; cx++) {
+          // One ring moved from spot to spot (no garbage per try); the found one is copied.
+          for (let i = 0; i < trial.length; i++) {
+            trial[i].x = mask.ring[i].x + cx * cell;
+            trial[i].y = mask.ring[i].y + cy * cell;
+          }
+          if (this.exactFree(trial)) {
+            const ring = trial.map((p) => ({ x: p.x, y: p.y }));
+            return { spot: scoreOf(cx, cy) < limit ? { cx, cy, ring, score: scoreOf(cx, cy) } : null, scanned: cy };
+          }
         }
-        const ring = mask.ring.map((p) => ({ x: p.x + cx * cell, y: p.y + cy * cell }));
-        if (this.exactFree(ring)) return { spot: scoreOf(cx, cy) < limit ? { cx, cy, ring, score: scoreOf(cx, cy) } : null, scanned: cy };
-        cx++;
-      }
     }
     return { spot: null, scanned: Infinity };
   }

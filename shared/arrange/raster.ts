@@ -1,4 +1,3 @@
-import { squaredDistanceTransform } from '../geometry/distance-transform';
 import type { Ring } from '../geometry/polygon';
 
 /**
@@ -39,9 +38,9 @@ export function rotateRing(ring: Ring, centre: { x: number; y: number }, degrees
   });
 }
 
-/** Scanline fill: the cells (of `cell` mm, from `x0`,`y0` cells) whose centres are inside the ring. */
-function fillCentres(ring: Ring, cell: number, x0: number, y0: number, w: number, h: number): Uint8Array {
-  const filled = new Uint8Array(w * h);
+/** Scanline fill: per row (of `cell` mm, from `x0`,`y0` cells), the runs of cells whose centres are inside the ring. */
+function centreRuns(ring: Ring, cell: number, x0: number, y0: number, w: number, h: number): ShapeMask['rows'] {
+  const rows: ShapeMask['rows'] = [];
   const xs: number[] = [];
   for (let j = 0; j < h; j++) {
     const y = (y0 + j + 0.5) * cell;
@@ -52,18 +51,75 @@ function fillCentres(ring: Ring, cell: number, x0: number, y0: number, w: number
       if (a.y > y !== b.y > y) xs.push(a.x + ((y - a.y) * (b.x - a.x)) / (b.y - a.y));
     }
     xs.sort((p, q) => p - q);
+    const runs: Array<[number, number]> = [];
     for (let t = 0; t + 1 < xs.length; t += 2) {
       const from = Math.max(0, Math.ceil(xs[t] / cell - 0.5) - x0),
         to = Math.min(w - 1, Math.floor(xs[t + 1] / cell - 0.5) - x0);
-      for (let i = from; i <= to; i++) filled[j * w + i] = 1;
+      if (from > to) continue;
+      const last = runs[runs.length - 1];
+      // Pairs come in order; one that starts at or next to the previous run's end joins it.
+      if (last && from <= last[1] + 1) last[1] = Math.max(last[1], to);
+      else runs.push([from, to]);
     }
+    rows.push(runs);
   }
-  return filled;
+  return rows;
+}
+
+/**
+ * Grows runs by a disk: a cell is set when some set cell's centre is within √limit cells of its own.
+ * Row j takes the runs of each row j + dy widened by ⌊√(limit − dy²)⌋, merged (the same cells as an
+ * exact Euclidean distance transform thresholded at √limit, without visiting the empty ones).
+ */
+function dilateRows(rows: ShapeMask['rows'], w: number, limit: number): ShapeMask['rows'] {
+  const reach = Math.floor(Math.sqrt(limit));
+  const widen = Array.from({ length: reach + 1 }, (_, dy) => Math.floor(Math.sqrt(limit - dy * dy) + 1e-9));
+  const line = new Uint8Array(w);
+  return rows.map((_, j) => {
+    line.fill(0);
+    for (let dy = -reach; dy <= reach; dy++) {
+      const source = rows[j + dy];
+      if (!source) continue;
+      const r = widen[Math.abs(dy)];
+      for (const [a, b] of source) line.fill(1, Math.max(0, a - r), Math.min(w - 1, b + r) + 1);
+    }
+    const merged: Array<[number, number]> = [];
+    for (let i = 0; i < w; i++) {
+      if (!line[i]) continue;
+      const start = i;
+      while (i + 1 < w && line[i + 1]) i++;
+      merged.push([start, i]);
+    }
+    return merged;
+  });
+}
+
+/**
+ * The rows in the order a collision test tries them: the widest first (the likeliest to hit), then
+ * each time the row farthest from those already tried (wider on a tie). Neighbouring rows mostly
+ * hit or miss together, so spreading the probes finds a blocked spot in fewer of them.
+ */
+function probeOrder(rows: ShapeMask['rows'], widths: number[]): number[] {
+  const left = rows.map((_, j) => j).filter((j) => rows[j].length > 0);
+  if (left.length === 0) return [];
+  const first = left.reduce((m, j) => (widths[j] > widths[m] ? j : m), left[0]);
+  const order = [first];
+  const distance = new Map(left.map((j) => [j, Math.abs(j - first)]));
+  distance.delete(first);
+  while (distance.size) {
+    let pick = -1;
+    for (const [j, d] of distance)
+      if (pick < 0 || d > distance.get(pick)! || (d === distance.get(pick)! && widths[j] > widths[pick])) pick = j;
+    order.push(pick);
+    distance.delete(pick);
+    for (const [j, d] of distance) distance.set(j, Math.min(d, Math.abs(j - pick)));
+  }
+  return order;
 }
 
 /**
  * Rasterises a rotated cut line on cells of `cell` mm (cells whose centre is inside) and grows it by
- * `grow` mm with an exact Euclidean distance transform. The raster is a quick filter: it may miss a
+ * `grow` mm (a disk, exactly). The raster is a quick filter: it may miss a
  * sliver narrower than a cell, never a whole cell of the shape; the exact geometry has the last word.
  */
 export function shapeMask(
@@ -88,32 +144,12 @@ export function shapeMask(
     y0 = Math.floor(minY / cell) - pad;
   const w = Math.ceil(maxX / cell) + pad - x0 + 1,
     h = Math.ceil(maxY / cell) + pad - y0 + 1;
-  const filled = fillCentres(ring, cell, x0, y0, w, h);
-  let blocked = filled;
-  if (grow > 0) {
-    const d2 = squaredDistanceTransform(filled, w, h);
-    const limit = (grow / cell) ** 2;
-    blocked = new Uint8Array(w * h);
-    for (let i = 0; i < blocked.length; i++) blocked[i] = d2[i] <= limit ? 1 : 0;
-  }
-  const rows: ShapeMask['rows'] = [];
+  const inside = centreRuns(ring, cell, x0, y0, w, h);
+  const rows = grow > 0 ? dilateRows(inside, w, (grow / cell) ** 2) : inside;
   let cells = 0;
-  for (let j = 0; j < h; j++) {
-    const runs: Array<[number, number]> = [];
-    for (let i = 0; i < w; i++) {
-      if (!blocked[j * w + i]) continue;
-      const start = i;
-      while (i + 1 < w && blocked[j * w + i + 1]) i++;
-      runs.push([start, i]);
-      cells += i - start + 1;
-    }
-    rows.push(runs);
-  }
+  for (const runs of rows) for (const [a, b] of runs) cells += b - a + 1;
   const widths = rows.map((r) => r.reduce((s, [a, b]) => s + b - a + 1, 0));
   const longest = Int32Array.from(rows, (r) => r.reduce((m, [a, b]) => Math.max(m, b - a + 1), 0));
-  const order = rows
-    .map((_, j) => j)
-    .filter((j) => rows[j].length > 0)
-    .sort((a, b) => widths[b] - widths[a]);
+  const order = probeOrder(rows, widths);
   return { rotation, ring, minX, minY, maxX, maxY, offsetX: x0, offsetY: y0, rows, order, longest, cells, pad };
 }

@@ -105,6 +105,10 @@ export function cutLineDistance(a: Ring, b: Ring, stopBelow = Infinity): number 
   return best;
 }
 
+// Scratch edge lists for closerThan (grown when a ring has more edges).
+let nearA = new Int32Array(256),
+  nearB = new Int32Array(256);
+
 /**
  * Whether two cut lines come closer than `gap` (touching or crossing included): the yes/no form of
  * cutLineDistance, which stops at the first pair of edges that close, and compares only the edges of
@@ -113,27 +117,32 @@ export function cutLineDistance(a: Ring, b: Ring, stopBelow = Infinity): number 
 export function closerThan(a: Ring, b: Ring, gap: number, boxA = boundingBox(a), boxB = boundingBox(b)): boolean {
   if (boxGap(boxA, boxB) >= gap) return false;
   if (pointInRing(a[0], b) || pointInRing(b[0], a)) return true;
-  const near = (ring: Ring, box: Box) => {
-    const out: number[] = [];
+  // The edges near the other ring's box, into scratch lists reused across calls (this runs in the nester's inner loop).
+  const near = (ring: Ring, box: Box, out: Int32Array) => {
+    let n = 0;
     for (let i = 0; i < ring.length; i++) {
       const p = ring[i],
         q = ring[(i + 1) % ring.length];
       const gx = Math.max(0, box.x - Math.max(p.x, q.x), Math.min(p.x, q.x) - (box.x + box.width));
       const gy = Math.max(0, box.y - Math.max(p.y, q.y), Math.min(p.y, q.y) - (box.y + box.height));
-      if (gx < gap && gy < gap) out.push(i);
+      if (gx < gap && gy < gap) out[n++] = i;
     }
-    return out;
+    return n;
   };
-  const ea = near(a, boxB),
-    eb = near(b, boxA);
-  for (const i of ea) {
+  if (nearA.length < a.length) nearA = new Int32Array(2 * a.length);
+  if (nearB.length < b.length) nearB = new Int32Array(2 * b.length);
+  const na = near(a, boxB, nearA),
+    nb = near(b, boxA, nearB);
+  for (let s = 0; s < na; s++) {
+    const i = nearA[s];
     const a0 = a[i],
       a1 = a[(i + 1) % a.length];
     const ax0 = Math.min(a0.x, a1.x) - gap,
       ax1 = Math.max(a0.x, a1.x) + gap,
       ay0 = Math.min(a0.y, a1.y) - gap,
       ay1 = Math.max(a0.y, a1.y) + gap;
-    for (const j of eb) {
+    for (let t = 0; t < nb; t++) {
+      const j = nearB[t];
       const b0 = b[j],
         b1 = b[(j + 1) % b.length];
       if (Math.max(b0.x, b1.x) < ax0 || Math.min(b0.x, b1.x) > ax1 || Math.max(b0.y, b1.y) < ay0 || Math.min(b0.y, b1.y) > ay1) continue;
