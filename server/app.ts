@@ -48,6 +48,14 @@ import { SheetAnalysisService } from './modules/shop/sheet-analysis.service';
 import { shopRouter } from './modules/shop/shop.router';
 import { StockService } from './modules/shop/stock.service';
 import { createStorage } from './storage/create';
+import { createPayments } from './payments/client';
+import type { Payments } from './payments/client';
+import { OrdersService } from './modules/orders/orders.service';
+import { ProofsService } from './modules/orders/proofs.service';
+import { PaymentsService } from './modules/orders/payments.service';
+import { ordersRouter } from './modules/orders/orders.router';
+import { proofPageRouter } from './modules/orders/proof-page';
+import { paymentNoticesRoute } from './modules/orders/notices.route';
 import type { Storage } from './storage/storage';
 
 export type AppOptions = {
@@ -68,6 +76,8 @@ export type AppOptions = {
   rateLimitPrefix?: string;
   /** Separates job queues of apps sharing one Redis (tests give each app its own); QUEUE_PREFIX otherwise. */
   queuePrefix?: string;
+  /** The payments SDK client; made from the environment when not given. */
+  payments?: Payments;
 };
 
 export type SheetsmithApp = { app: express.Express; close: () => Promise<void> };
@@ -85,6 +95,7 @@ export function createApp({
   rateLimitPrefix = 'ss',
   queuePrefix = env.QUEUE_PREFIX,
   log = createLog(env),
+  payments = createPayments(env),
 }: AppOptions): SheetsmithApp {
   const app = express();
   app.disable('x-powered-by');
@@ -146,6 +157,12 @@ export function createApp({
   const machines = new MachinesService(dataSource);
   const runs = new RunsService(dataSource, storage, sheets, stock, machines, analysis);
   const costing = new CostingService(dataSource, sheets, analysis);
+  const orders = new OrdersService(dataSource, profiles, costing);
+  const proofs = new ProofsService(dataSource, orders, outlines, profiles, storage, mailer, env);
+  const orderPayments = new PaymentsService(dataSource, orders, payments, mailer, log);
+  // The payment service's notices come signed over the exact bytes: read raw, before any JSON parser.
+  app.post('/api/payments/notices', ...paymentNoticesRoute(orderPayments));
+  app.use(proofPageRouter({ proofs, payments: orderPayments, limits, appUrl: env.appUrl, paymentsOrigin: payments.checkoutOrigin }));
 
   const api = express.Router();
   api.use(noStore);
@@ -176,6 +193,7 @@ export function createApp({
   api.use(shopRouter({ dataSource, sheets, stock, machines, runs, costing, analysis }));
   api.use(collectionsRouter({ dataSource, collections }));
   api.use(outlinesRouter({ dataSource, art, outlines }));
+  api.use(ordersRouter({ dataSource, orders, proofs, payments: orderPayments, env }));
   // The outbox holds reset links: listed in development and on a laptop (demo mode: loopback only), never on a shop's server.
   if (mailer.outboxDir && (env.NODE_ENV !== 'production' || env.demoMode)) api.use(outboxRouter(mailer.outboxDir));
   extraApi?.(api);

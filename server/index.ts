@@ -6,6 +6,8 @@ import { DEMO_ACCOUNTS, DEMO_PASSWORD } from './db/demo/accounts';
 import { createLog } from './lib/log';
 import { createStorage } from './storage/create';
 import { sweepStorage } from './storage/sweep';
+import { startFakePayments } from './payments/fake-api';
+import type { FakePayments } from './payments/fake-api';
 
 const log = createLog(env);
 
@@ -13,6 +15,22 @@ async function main() {
   const dataSource = await createDataSource(env.DB_NAME, env, log).initialize();
   const storage = createStorage(env);
   const { app, close } = createApp({ env, dataSource, log, storage, clientDir: path.resolve('dist') });
+  // No payments key: the local payments fake takes the SDK's calls and sends its notices here.
+  let fakePayments: FakePayments | null = null;
+  if (!env.STRIPE_SECRET_KEY) {
+    const fakeUrl = new URL(env.PAYMENTS_FAKE_URL);
+    fakePayments = await startFakePayments({
+      host: fakeUrl.hostname,
+      port: Number(fakeUrl.port),
+      endpoints: [{ url: `${env.appUrl}/api/payments/notices`, secret: env.STRIPE_WEBHOOK_SECRET }],
+    }).catch((error: NodeJS.ErrnoException) => {
+      // Another app process of this install already runs it (several processes on one machine).
+      if (error.code !== 'EADDRINUSE') throw error;
+      log.info({ url: env.PAYMENTS_FAKE_URL }, 'payments fake already running');
+      return null;
+    });
+    if (fakePayments) log.info({ url: fakePayments.url }, 'local payments fake: test payments only, no real money');
+  }
   const server = app.listen(env.PORT, env.HOST);
   server.on('error', (error: NodeJS.ErrnoException) => {
     // Without this the process would print "running" and serve nothing.
@@ -53,6 +71,7 @@ async function main() {
     console.log(`\n[sheetsmith] ${signal}: finishing open requests and stopping`);
     server.close(async () => {
       await close().catch(() => undefined);
+      await fakePayments?.close().catch(() => undefined);
       await dataSource.destroy().catch(() => undefined);
       process.exit(0);
     });

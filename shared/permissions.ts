@@ -14,6 +14,10 @@ export const PERMISSIONS = {
   'sheets.edit': 'Create, edit and print sheets',
   'shop.record': 'Log print runs, change blades and count stock on hand',
   'shop.manage': 'Add and change stock, printers, cutters, prices and shop rates',
+  'orders.view': "See buyers' orders (prices too, unless the owner hides them from viewers)",
+  'orders.quote': 'Add buyers, write quotes, send proofs and move orders through production',
+  'orders.payments': 'Ask buyers for payment, refund, and cancel orders that have payments',
+  'orders.money': 'See prices, payments, costs and margins on orders',
 } as const;
 export type Permission = keyof typeof PERMISSIONS;
 
@@ -28,6 +32,10 @@ export const ROLE_PERMISSIONS: Record<Role, readonly Permission[]> = {
     'sheets.edit',
     'shop.record',
     'shop.manage',
+    'orders.view',
+    'orders.quote',
+    'orders.payments',
+    'orders.money',
   ],
   admin: [
     'team.view',
@@ -38,9 +46,14 @@ export const ROLE_PERMISSIONS: Record<Role, readonly Permission[]> = {
     'sheets.edit',
     'shop.record',
     'shop.manage',
+    'orders.view',
+    'orders.quote',
+    'orders.payments',
+    'orders.money',
   ],
-  member: ['team.view', 'library.contribute', 'sheets.edit', 'shop.record'],
-  viewer: ['team.view'],
+  member: ['team.view', 'library.contribute', 'sheets.edit', 'shop.record', 'orders.view', 'orders.quote', 'orders.money'],
+  // A viewer also sees order prices unless the owner turns that off (shop settings: viewersSeePrices).
+  viewer: ['team.view', 'orders.view'],
 };
 
 export const ROLE_LABELS: Record<Role, string> = {

@@ -56,6 +56,8 @@ const envSchema = z.object({
   LIMIT_RESETS_PER_HOUR: z.coerce.number().int().min(1).default(3),
   /** Invite e-mails per account per hour (three times as many per team per day; 3 per recipient per day). */
   LIMIT_INVITES_PER_HOUR: z.coerce.number().int().min(1).default(20),
+  /** Proof-page requests (pages, pictures, answers) per client address per hour. */
+  LIMIT_PROOF_REQUESTS_PER_HOUR: z.coerce.number().int().min(1).default(300),
   SMTP_HOST: z.string().default(''),
   SMTP_PORT: z.coerce.number().int().default(587),
   SMTP_USER: z.string().default(''),
@@ -113,6 +115,14 @@ const envSchema = z.object({
   S3_FORCE_PATH_STYLE: bool,
   /** A folder inside the bucket, so several deployments can share one. */
   S3_PREFIX: z.string().default(''),
+  /** The payments service's secret key; empty: the local payments fake (no real money, laptops and tests). */
+  STRIPE_SECRET_KEY: z.string().default(''),
+  /** The secret its webhook notices are signed with (the fake signs with this too). */
+  STRIPE_WEBHOOK_SECRET: z.string().default('whsec_sheetsmith_local_fake_payments'),
+  /** Where the local payments fake listens when no secret key is set (started by the app on a laptop). */
+  PAYMENTS_FAKE_URL: z.string().url().default('http://127.0.0.1:3012'),
+  /** Days a proof link stays open. */
+  PROOF_LINK_DAYS: z.coerce.number().int().min(1).max(90).default(14),
   /** An export running longer than this is stopped and ends failed. */
   EXPORT_TIMEOUT_SECONDS: z.coerce.number().int().min(5).default(900),
 });

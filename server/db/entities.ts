@@ -14,6 +14,10 @@ import { Blade, Machine } from '../modules/shop/machine.entity';
 import { PrintRun } from '../modules/shop/print-run.entity';
 import { ShopSettingsRow } from '../modules/shop/shop-settings.entity';
 import { StockItem } from '../modules/shop/stock-item.entity';
+import { Customer } from '../modules/orders/customer.entity';
+import { Order, OrderEvent, OrderLine } from '../modules/orders/order.entity';
+import { OrderProof } from '../modules/orders/proof.entity';
+import { OrderPayment, PaymentNotice } from '../modules/orders/payment.entity';
 
 export const entities = [
   User,
@@ -33,4 +37,11 @@ export const entities = [
   PrintRun,
   ShopSettingsRow,
   SheetExport,
+  Customer,
+  Order,
+  OrderLine,
+  OrderEvent,
+  OrderProof,
+  OrderPayment,
+  PaymentNotice,
 ];

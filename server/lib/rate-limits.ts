@@ -15,13 +15,19 @@ import { AppError } from './errors';
 export type LimitRule = { points: number; seconds: number; message: string };
 
 export type LimitName =
-  'signUpPerAddress' | 'resetPerEmail' | 'resetPerAddress' | 'invitePerAccount' | 'invitePerTeam' | 'invitePerRecipient';
+  | 'signUpPerAddress'
+  | 'resetPerEmail'
+  | 'resetPerAddress'
+  | 'invitePerAccount'
+  | 'invitePerTeam'
+  | 'invitePerRecipient'
+  | 'proofPerAddress';
 
 const HOUR = 60 * 60;
 const DAY = 24 * HOUR;
 
 export function limitRules(
-  env: Pick<Env, 'LIMIT_SIGNUPS_PER_HOUR' | 'LIMIT_RESETS_PER_HOUR' | 'LIMIT_INVITES_PER_HOUR'>,
+  env: Pick<Env, 'LIMIT_SIGNUPS_PER_HOUR' | 'LIMIT_RESETS_PER_HOUR' | 'LIMIT_INVITES_PER_HOUR' | 'LIMIT_PROOF_REQUESTS_PER_HOUR'>,
 ): Record<LimitName, LimitRule> {
   return {
     signUpPerAddress: { points: env.LIMIT_SIGNUPS_PER_HOUR, seconds: HOUR, message: 'Too many new accounts from your network' },
@@ -30,6 +36,8 @@ export function limitRules(
     invitePerAccount: { points: env.LIMIT_INVITES_PER_HOUR, seconds: HOUR, message: 'You have sent a lot of invites in the last hour' },
     invitePerTeam: { points: env.LIMIT_INVITES_PER_HOUR * 3, seconds: DAY, message: 'This team has sent a lot of invites today' },
     invitePerRecipient: { points: 3, seconds: DAY, message: 'That address has been invited several times today' },
+    // Proof pages need no account: every request from one address counts, so tokens cannot be tried in bulk.
+    proofPerAddress: { points: env.LIMIT_PROOF_REQUESTS_PER_HOUR, seconds: HOUR, message: 'Too many proof pages opened from your network' },
   };
 }
 

@@ -5,6 +5,7 @@ import type { CostBreakdown } from '../production/cost';
 import type { Finding } from '../sheet/preflight';
 import { PAPER_SIZES } from './sheets';
 import { idSchema } from './team';
+import { ORDER_CURRENCIES } from '../orders/money';
 
 const money = (label: string, max = 100_000) =>
   z.coerce
@@ -28,6 +29,10 @@ export const shopSettingsSchema = z.object({
   defaultStockId: z.preprocess((v) => (v === '' ? null : v), idSchema.nullable()).default(null),
   defaultPrinterId: z.preprocess((v) => (v === '' ? null : v), idSchema.nullable()).default(null),
   defaultCutterId: z.preprocess((v) => (v === '' ? null : v), idSchema.nullable()).default(null),
+  /** What buyers pay in (ISO 4217); kept as it is when not sent. */
+  currencyCode: z.enum(ORDER_CURRENCIES, { error: `Pick a currency: ${ORDER_CURRENCIES.join(', ')}` }).optional(),
+  /** Whether viewers see prices on orders; kept as it is when not sent. */
+  viewersSeePrices: z.boolean().optional(),
 });
 export type ShopSettings = z.infer<typeof shopSettingsSchema>;
 

@@ -52,7 +52,7 @@ export const shopApi = {
     api<MachineView>('POST', `${base(teamId)}/machines/${cutterId}/blades`, body),
   recordRun: (teamId: string, body: unknown) => api<PrintRunView>('POST', `${base(teamId)}/print-runs`, body),
   /** The rates as typed: the server reads the numbers and names any that are not. */
-  saveSettings: (teamId: string, body: Record<keyof ShopSettings, string>) =>
+  saveSettings: (teamId: string, body: Partial<Record<keyof ShopSettings, string | boolean>>) =>
     api<ShopSettings>('PUT', `${base(teamId)}/shop-settings`, body),
   setCosting: (teamId: string, sheetId: string, body: unknown) =>
     api<SheetCostView>('PUT', `${base(teamId)}/sheets/${sheetId}/costing`, body),

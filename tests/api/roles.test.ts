@@ -17,6 +17,10 @@ const EXPECTED: Record<Permission, Record<Role, boolean>> = {
   'sheets.edit': { owner: true, admin: true, member: true, viewer: false },
   'shop.record': { owner: true, admin: true, member: true, viewer: false },
   'shop.manage': { owner: true, admin: true, member: false, viewer: false },
+  'orders.view': { owner: true, admin: true, member: true, viewer: true },
+  'orders.quote': { owner: true, admin: true, member: true, viewer: false },
+  'orders.payments': { owner: true, admin: true, member: false, viewer: false },
+  'orders.money': { owner: true, admin: true, member: true, viewer: false },
 };
 const ROLE_LIST: Role[] = ['owner', 'admin', 'member', 'viewer'];
 

@@ -13,6 +13,7 @@ import { ExportJobs1765756800000 } from './1765756800000-export-jobs';
 import { VectorArtSources1765843200000 } from './1765843200000-vector-art-sources';
 import { ShopAllowances1765929600000 } from './1765929600000-shop-allowances';
 import { ShopDefaults1766016000000 } from './1766016000000-shop-defaults';
+import { CustomerOrders1766102400000 } from './1766102400000-customer-orders';
 
 // Every migration, oldest first. A new one is appended here and never edited after it lands.
 export const migrations = [
@@ -31,4 +32,5 @@ export const migrations = [
   VectorArtSources1765843200000,
   ShopAllowances1765929600000,
   ShopDefaults1766016000000,
+  CustomerOrders1766102400000,
 ];

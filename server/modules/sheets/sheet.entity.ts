@@ -69,6 +69,10 @@ export class Sheet {
   @Column({ name: 'labour_minutes', ...decimal(6, 1), default: 0 })
   labourMinutes!: number;
 
+  /** The buyer's order the sheet was made for, if any. */
+  @Column({ name: 'order_id', type: 'bigint', unsigned: true, nullable: true })
+  orderId!: string | null;
+
   /** The last analysis (shared/schemas/shop.ts SheetAnalysis as JSON) and the version it was made for. */
   @Column({ name: 'analysis_json', type: 'mediumtext', nullable: true, select: false })
   analysisJson!: string | null;

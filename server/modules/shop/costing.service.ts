@@ -29,6 +29,8 @@ const DEFAULT_SETTINGS: ShopSettings = {
   defaultStockId: null,
   defaultPrinterId: null,
   defaultCutterId: null,
+  currencyCode: 'USD',
+  viewersSeePrices: true,
 };
 
 /** Stores a team's shop rates (used by the API and by the demo seed). */
@@ -43,6 +45,8 @@ export async function saveShopSettings(dataSource: DataSource, teamId: string, s
       defaultStockId: s.defaultStockId,
       defaultPrinterId: s.defaultPrinterId,
       defaultCutterId: s.defaultCutterId,
+      currencyCode: s.currencyCode,
+      viewersSeePrices: s.viewersSeePrices,
     },
     ['teamId'],
   );
@@ -72,6 +76,8 @@ export class CostingService {
           defaultStockId: row.defaultStockId,
           defaultPrinterId: row.defaultPrinterId,
           defaultCutterId: row.defaultCutterId,
+          currencyCode: row.currencyCode as ShopSettings['currencyCode'],
+          viewersSeePrices: row.viewersSeePrices,
         }
       : DEFAULT_SETTINGS;
   }

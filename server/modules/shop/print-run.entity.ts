@@ -51,6 +51,10 @@ export class PrintRun {
   @Column({ name: 'photo_key', type: 'char', length: 64, nullable: true })
   photoKey!: string | null;
 
+  /** The buyer's order the run was printed for, if any. */
+  @Column({ name: 'order_id', type: 'bigint', unsigned: true, nullable: true })
+  orderId!: string | null;
+
   @Column({ name: 'cut_length_mm', type: 'double' })
   cutLengthMm!: number;
 

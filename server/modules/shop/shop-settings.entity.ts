@@ -29,6 +29,14 @@ export class ShopSettingsRow {
   @Column({ name: 'default_cutter_id', type: 'bigint', unsigned: true, nullable: true })
   defaultCutterId!: string | null;
 
+  /** ISO 4217 code buyers pay in (orders keep the one they were quoted in). */
+  @Column({ name: 'currency_code', type: 'char', length: 3, default: 'USD' })
+  currencyCode!: string;
+
+  /** Whether viewers see prices and payments on orders. */
+  @Column({ name: 'viewers_see_prices', type: 'boolean', default: true })
+  viewersSeePrices!: boolean;
+
   @UpdateDateColumn({ name: 'updated_at', type: 'datetime', precision: 3 })
   updatedAt!: Date;
 }
