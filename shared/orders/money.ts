@@ -56,6 +56,8 @@ export const orderTotal = (lines: PricedLine[]) => lines.reduce((sum, l) => sum 
  * balance (the total less what was paid, refunds not counted back in).
  */
 export function amountDue(totalMinor: number, paidMinor: number, depositPercent: number): { kind: 'deposit' | 'balance'; minor: number } {
-  if (paidMinor === 0 && depositPercent > 0 && depositPercent < 100) return { kind: 'deposit', minor: shareOf(totalMinor, depositPercent) };
+  const deposit = shareOf(totalMinor, depositPercent);
+  // A deposit that rounds to nothing is no deposit: the whole is due.
+  if (paidMinor === 0 && depositPercent > 0 && depositPercent < 100 && deposit > 0) return { kind: 'deposit', minor: deposit };
   return { kind: 'balance', minor: Math.max(0, totalMinor - paidMinor) };
 }
