@@ -56,6 +56,7 @@ import { PaymentsService } from './modules/orders/payments.service';
 import { ordersRouter } from './modules/orders/orders.router';
 import { proofPageRouter } from './modules/orders/proof-page';
 import { paymentNoticesRoute } from './modules/orders/notices.route';
+import { OrderProduction } from './modules/orders/production';
 import type { Storage } from './storage/storage';
 
 export type AppOptions = {
@@ -160,6 +161,11 @@ export function createApp({
   const orders = new OrdersService(dataSource, profiles, costing);
   const proofs = new ProofsService(dataSource, orders, outlines, profiles, storage, mailer, env);
   const orderPayments = new PaymentsService(dataSource, orders, payments, mailer, log);
+  const production = new OrderProduction(dataSource, orders, outlines, profiles, sheets, costing, {
+    seconds: 3,
+    threads: env.ARRANGE_THREADS || defaultThreads(),
+  });
+  orders.costOf = (teamId, orderId) => production.costMinor(teamId, orderId);
   // The payment service's notices come signed over the exact bytes: read raw, before any JSON parser.
   app.post('/api/payments/notices', ...paymentNoticesRoute(orderPayments));
   app.use(proofPageRouter({ proofs, payments: orderPayments, limits, appUrl: env.appUrl, paymentsOrigin: payments.checkoutOrigin }));
@@ -193,7 +199,7 @@ export function createApp({
   api.use(shopRouter({ dataSource, sheets, stock, machines, runs, costing, analysis }));
   api.use(collectionsRouter({ dataSource, collections }));
   api.use(outlinesRouter({ dataSource, art, outlines }));
-  api.use(ordersRouter({ dataSource, orders, proofs, payments: orderPayments, env }));
+  api.use(ordersRouter({ dataSource, orders, proofs, payments: orderPayments, production, env }));
   // The outbox holds reset links: listed in development and on a laptop (demo mode: loopback only), never on a shop's server.
   if (mailer.outboxDir && (env.NODE_ENV !== 'production' || env.demoMode)) api.use(outboxRouter(mailer.outboxDir));
   extraApi?.(api);

@@ -209,6 +209,8 @@ export const printRunInputSchema = z
     printedOn: day.optional(),
     /** Take the sheets even when stock on hand goes below zero (a count was off). */
     confirmNegativeStock: z.boolean().default(false),
+    /** The buyer's order this run was printed for, if any. */
+    orderId: idSchema.nullable().default(null),
   })
   .refine((r) => r.wasted === undefined || r.wasted <= r.copies, { message: 'Wasted sheets cannot exceed copies', path: ['wasted'] });
 export type PrintRunInput = z.infer<typeof printRunInputSchema>;
@@ -220,6 +222,7 @@ export const runListQuerySchema = z.object({
   stockId: idSchema.optional(),
   cutterId: idSchema.optional(),
   sheetId: idSchema.optional(),
+  orderId: idSchema.optional(),
 });
 
 export type PrintRunView = {
@@ -239,6 +242,7 @@ export type PrintRunView = {
   cutLengthM: number;
   printedOn: string;
   by: string;
+  orderId: string | null;
 };
 
 export const costingInputSchema = z.object({

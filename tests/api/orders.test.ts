@@ -200,7 +200,15 @@ describe('proof links and what they show', () => {
     const buyerSide = request(t.sheetsmith.app);
     const html = (await buyerSide.get(`/proof/${token}`)).text;
     expect(html).toContain('Order 1');
-    for (const secret of [s.team.name, 'Zephyrine Oddly', s.users.owner.email, s.users.member.email, s.users.viewer.email, 'Desk cutter', 'Standard blade'])
+    for (const secret of [
+      s.team.name,
+      'Zephyrine Oddly',
+      s.users.owner.email,
+      s.users.member.email,
+      s.users.viewer.email,
+      'Desk cutter',
+      'Standard blade',
+    ])
       expect(html).not.toContain(secret);
     expect(html).not.toMatch(/<script/i);
 
@@ -254,20 +262,27 @@ describe('bad input on orders', () => {
     const buyer = (await s.member.post(`${s.base}/customers`, { name: 'Robin Quill', email: uniqueEmail('buyer') })).body;
     const order = (await s.member.post(`${s.base}/orders`, { customerId: buyer.id })).body;
     const path = `${s.base}/orders/${order.id}`;
-    const line = (body: object) => s.member.post(`${path}/lines`, { kind: 'singles', artId: s.art.id, finishedWidthMm: 50, quantity: 10, stockId: stock.id, ...body });
+    const line = (body: object) =>
+      s.member.post(`${path}/lines`, { kind: 'singles', artId: s.art.id, finishedWidthMm: 50, quantity: 10, stockId: stock.id, ...body });
 
     const cases: Array<[object, number, string]> = [
       [{ quantity: -5 }, 400, 'Quantity: at least 1'],
       [{ quantity: 2.5 }, 400, 'Quantity: a whole number'],
       [{ unitPrice: 0.001 }, 400, 'Give the price in whole cents, like 1.25: 0.001 is not a price we can charge.'],
       [{ unitPrice: '-1' }, 400, 'Give the price in whole cents, like 1.25: -1 is not a price we can charge.'],
-      [{ finishedWidthMm: 200 }, 400, // In the member's unit (inches by default).
-        'moon at 7.874 in wide is 7.874 in tall with its border: larger than the print area of "Letter print-and-cut" (6.75 in × 9.25 in less the margin). Pick a smaller size.'],
+      [
+        { finishedWidthMm: 200 },
+        400, // In the member's unit (inches by default).
+        'moon at 7.874 in wide is 7.874 in tall with its border: larger than the print area of "Letter print-and-cut" (6.75 in × 9.25 in less the margin). Pick a smaller size.',
+      ],
     ];
     for (const [body, status, message] of cases) {
       const res = await line(body);
       expect({ body, status: res.status }).toEqual({ body, status });
-      expect({ body, said: Object.values(res.body.error.fields ?? {}).concat(res.body.error.message) }).toEqual({ body, said: expect.arrayContaining([message]) });
+      expect({ body, said: Object.values(res.body.error.fields ?? {}).concat(res.body.error.message) }).toEqual({
+        body,
+        said: expect.arrayContaining([message]),
+      });
     }
     // A proof of an order with no stickers on it yet.
     const empty = await s.member.post(`${path}/proofs`, {});
@@ -278,5 +293,80 @@ describe('bad input on orders', () => {
     expect(after.events).toHaveLength(1);
     // Sending a proof changed nothing and mailed nobody.
     await expect(lastMailTo(buyer.email)).rejects.toThrow(/no e-mail/);
+  });
+});
+
+describe('from order to production', () => {
+  it('lays an approved order out over the fewest sheets, logs runs against it and shows cost beside price', async () => {
+    const s = await makeShop(t, 1);
+    const { stock, cutter } = await withCutter(s);
+    const buyer = (await s.member.post(`${s.base}/customers`, { name: 'Robin Quill', email: uniqueEmail('buyer') })).body;
+    const order = (await s.member.post(`${s.base}/orders`, { customerId: buyer.id, depositPercent: 0 })).body;
+    const path = `${s.base}/orders/${order.id}`;
+    // 30 moons of 1.5 in: a grid of 38.1 mm squares holds 4 × 5 = 20 a sheet, so at least 2 sheets.
+    await s.member.post(`${path}/lines`, {
+      kind: 'singles',
+      artId: s.art.id,
+      finishedWidthMm: 38.1,
+      quantity: 30,
+      stockId: stock.id,
+      unitPrice: '0.50',
+    });
+    expect((await s.member.post(`${path}/sheets`)).status).toBe(409); // not approved yet
+    await s.member.post(`${path}/proofs`, {});
+    await request(t.sheetsmith.app)
+      .post(`/proof/${await proofToken(buyer.email)}/approve`)
+      .type('form')
+      .send({ name: 'Robin Quill' });
+
+    const made = await s.member.post(`${path}/sheets`);
+    expect(made.status).toBe(201);
+    expect(made.body).toMatchObject({ placed: 30, requested: 30 });
+    expect(made.body.sheetIds).toHaveLength(2);
+    expect(made.body.order.sheetIds).toEqual(made.body.sheetIds);
+    expect((await s.member.post(`${path}/sheets`)).status).toBe(409); // made once
+    let pieces = 0;
+    for (const [k, id] of made.body.sheetIds.entries()) {
+      const sheet = (await s.member.get(`${s.base}/sheets/${id}`)).body;
+      expect(sheet.name).toBe(`Order 1 · Robin Quill · sheet ${k + 1} of 2`);
+      pieces += sheet.document.pieces.length;
+      expect(sheet.document.pieces.every((p: { cut: string; artId: string }) => p.cut === 'die' && p.artId === s.art.id)).toBe(true);
+      // The sheet's own preflight (exact cut-line geometry) finds no crossing, crowding or stray piece.
+      const analysis = (await s.member.get(`${s.base}/sheets/${id}/analysis`)).body;
+      expect(analysis.findings.filter((f: { severity: string }) => f.severity === 'error')).toEqual([]);
+      expect(analysis.findings.map((f: { code: string }) => f.code)).not.toContain('too-close');
+    }
+    expect(pieces).toBe(30);
+
+    // A run logged against the order: its cost shows beside the price, and the margin.
+    const run = await s.member.post(`${s.base}/print-runs`, {
+      sheetId: made.body.sheetIds[0],
+      copies: 1,
+      stockId: stock.id,
+      cutterId: cutter.id,
+      result: 'good',
+      orderId: order.id,
+    });
+    expect(run.status).toBe(201);
+    expect(run.body.orderId).toBe(order.id);
+    // Another team's order cannot take this team's run.
+    const other = await makeShop(t, 1);
+    const theirBuyer = (await other.owner.post(`${other.base}/customers`, { name: 'X', email: uniqueEmail('x') })).body;
+    const theirs = (await other.owner.post(`${other.base}/orders`, { customerId: theirBuyer.id })).body;
+    const foreign = await s.member.post(`${s.base}/print-runs`, {
+      sheetId: made.body.sheetIds[0],
+      copies: 1,
+      stockId: stock.id,
+      result: 'good',
+      orderId: theirs.id,
+    });
+    expect(foreign.status).toBe(404);
+    expect(foreign.body.error.message).toBe('That order was not found.');
+    const cost = (await s.member.get(`${s.base}/sheets/${made.body.sheetIds[0]}/cost`)).body.cost.sheet;
+    const view = (await s.member.get(path)).body;
+    expect(view.totalMinor).toBe(1500);
+    expect(view.costMinor).toBe(Math.round(cost * 100));
+    expect(view.marginMinor).toBe(1500 - Math.round(cost * 100));
+    expect(view.events.at(-1).what).toBe('Made 2 sheets for 30 stickers');
   });
 });

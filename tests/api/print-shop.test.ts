@@ -69,7 +69,9 @@ describe('stock and machines', () => {
       defaultStockId: null,
       defaultPrinterId: null,
       defaultCutterId: null,
-    }); // no allowance or usual stock unless set
+      currencyCode: 'USD',
+      viewersSeePrices: true,
+    }); // no allowance or usual stock unless set; buyers pay in dollars and viewers see prices until the owner says otherwise
   });
 
   it('answers 404 for another team’s stock, machines, runs and sheets, the same as for ones that do not exist', async () => {

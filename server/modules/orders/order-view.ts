@@ -84,7 +84,12 @@ export async function lineViews(dataSource: DataSource, lines: OrderLine[], mone
   }));
 }
 
-export async function buildOrderView(dataSource: DataSource, order: Order, money: boolean): Promise<OrderView> {
+export async function buildOrderView(
+  dataSource: DataSource,
+  order: Order,
+  money: boolean,
+  costMinor: number | null = null,
+): Promise<OrderView> {
   const [customer, lines, events, proofs, payments, sheets] = await Promise.all([
     dataSource.getRepository(Customer).findOneByOrFail({ id: order.customerId }),
     dataSource.getRepository(OrderLine).find({ where: { orderId: order.id }, order: { position: 'ASC', id: 'ASC' } }),
@@ -107,8 +112,9 @@ export async function buildOrderView(dataSource: DataSource, order: Order, money
     paidMinor: money ? order.paidMinor : null,
     refundedMinor: money ? order.refundedMinor : null,
     dueMinor: money ? amountDue(total, order.paidMinor, order.depositPercent).minor : null,
-    costMinor: null,
-    marginMinor: null,
+    costMinor: money ? costMinor : null,
+    // What the order brings in, less refunds and what its print runs cost.
+    marginMinor: money && costMinor !== null ? total - order.refundedMinor - costMinor : null,
     proofs: proofs.map((p) => proofView(p, money)),
     payments: money
       ? payments.map((p) => ({

@@ -21,6 +21,7 @@ import { route } from '../../middleware/validate';
 import type { OrderActor, OrdersService } from './orders.service';
 import type { PaymentsService } from './payments.service';
 import type { ProofsService } from './proofs.service';
+import type { OrderProduction } from './production';
 
 const lineParams = orderParamsSchema.extend({ lineId: idSchema });
 const proofSendSchema = z.object({ message: z.string().trim().max(2000, 'Use at most 2000 characters').default('') });
@@ -31,6 +32,7 @@ export function ordersRouter(deps: {
   orders: OrdersService;
   proofs: ProofsService;
   payments: PaymentsService;
+  production: OrderProduction;
   env: Pick<Env, 'appUrl'>;
 }): Router {
   const { orders, proofs, payments } = deps;
@@ -123,6 +125,16 @@ export function ordersRouter(deps: {
         order: await orders.view(actor(req), params.orderId),
       }),
     ),
+  );
+  router.post(
+    '/teams/:teamId/orders/:orderId/sheets',
+    scoped,
+    quote,
+    requirePermission('sheets.edit'),
+    route({ params: orderParamsSchema }, async ({ params }, req, res) => {
+      const made = await deps.production.makeSheets(actor(req), params.orderId);
+      return created(res, { ...made, order: await orders.view(actor(req), params.orderId) });
+    }),
   );
   router.post(
     '/teams/:teamId/orders/:orderId/payment-link',

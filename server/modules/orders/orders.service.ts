@@ -217,9 +217,13 @@ export class OrdersService {
     return this.view(actor, orderId);
   }
 
+  /** What the order's print runs cost (set by the production side, which knows the runs). */
+  costOf: (teamId: string, orderId: string) => Promise<number | null> = async () => null;
+
   async view(actor: Pick<OrderActor, 'teamId' | 'role'>, orderId: string): Promise<OrderView> {
     const order = await this.order(actor.teamId, orderId);
-    return buildOrderView(this.dataSource, order, await this.seesMoney(actor));
+    const money = await this.seesMoney(actor);
+    return buildOrderView(this.dataSource, order, money, money ? await this.costOf(actor.teamId, orderId) : null);
   }
 
   /** Whether this member sees prices: the permission, or a viewer while the owner lets viewers see them. */

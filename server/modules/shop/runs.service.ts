@@ -59,6 +59,17 @@ export class RunsService {
           );
         bladeId = String(blade.id);
       }
+      // The orders module comes after this one (it prices from the shop), so its table is read by name here.
+      if (
+        input.orderId &&
+        !(await manager
+          .createQueryBuilder()
+          .select('o.id')
+          .from('orders', 'o')
+          .where('o.id = :id AND o.team_id = :teamId', { id: input.orderId, teamId })
+          .getRawOne())
+      )
+        throw notFound('That order');
       if (stock.onHand < input.copies && !input.confirmNegativeStock) throw stockShort(stock.onHand, input.copies);
       await manager.getRepository(StockItem).decrement({ id: stock.id }, 'onHand', input.copies);
       if (bladeId) await manager.getRepository(Blade).increment({ id: bladeId }, 'cutLengthMm', runCut);
@@ -85,6 +96,7 @@ export class RunsService {
           cutLengthMm: runCut,
           printedOn: input.printedOn ?? today(),
           createdBy: userId,
+          orderId: input.orderId,
         }),
       );
       return run.id;
@@ -115,6 +127,7 @@ export class RunsService {
     if (q.stockId) query.andWhere('r.stock_id = :stockId', { stockId: q.stockId });
     if (q.cutterId) query.andWhere('r.cutter_id = :cutterId', { cutterId: q.cutterId });
     if (q.sheetId) query.andWhere('r.sheet_id = :sheetId', { sheetId: q.sheetId });
+    if (q.orderId) query.andWhere('r.order_id = :orderId', { orderId: q.orderId });
     const rows = await query.orderBy('r.printed_on', 'DESC').addOrderBy('r.id', 'DESC').limit(1000).getRawMany();
     return rows.map((r: Record<string, never>) => {
       const settings = JSON.parse(r.settings_json);
@@ -136,6 +149,7 @@ export class RunsService {
         cutLengthM: Number(r.cut_length_mm) / 1000,
         printedOn: r.day,
         by: r.by_name ?? 'Former member',
+        orderId: r.order_id === null ? null : String(r.order_id),
       } satisfies PrintRunView;
     });
   }
