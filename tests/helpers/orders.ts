@@ -9,7 +9,10 @@ import type { FakePayments } from '../../server/payments/fake-api';
 import { startFakePayments } from '../../server/payments/fake-api';
 import { createPayments } from '../../server/payments/client';
 import type { Env } from '../../server/config/env';
-import { openDatabase, testApp } from './app';
+import { expect } from 'vitest';
+import { openDatabase, testApp, uniqueEmail } from './app';
+import { lastMailTo } from './outbox';
+import type { Shop } from './shop';
 
 export const NOTICE_SECRET = 'whsec_sheetsmith_order_tests';
 
@@ -34,3 +37,31 @@ export function useOrdersApp(overrides: Partial<Env> = {}) {
   });
   return t;
 }
+
+/** A shop with a stock, a buyer and an order of 50 × 3 in moons (priced from the stock) and 3 sheets at 5.93. */
+export async function quotedOrder(s: Shop, stockId: string) {
+  const buyer = (await s.member.post(`${s.base}/customers`, { name: 'Robin Quill', email: uniqueEmail('buyer') })).body;
+  const order = (await s.member.post(`${s.base}/orders`, { customerId: buyer.id, depositPercent: 50 })).body;
+  const singles = await s.member.post(`${s.base}/orders/${order.id}/lines`, {
+    kind: 'singles',
+    artId: s.art.id,
+    finishedWidthMm: 76.2,
+    quantity: 50,
+    stockId,
+  });
+  expect(singles.status).toBe(201);
+  const sheet = await s.member.post(`${s.base}/orders/${order.id}/lines`, {
+    kind: 'sheet',
+    sheetId: s.sheet.id,
+    quantity: 3,
+    unitPrice: '5.93',
+  });
+  expect(sheet.status).toBe(201);
+  return { buyer, order: sheet.body };
+}
+
+export const proofToken = async (email: string) => {
+  const mail = await lastMailTo(email);
+  const link = mail.links.find((l) => l.includes('/proof/'))!;
+  return link.split('/proof/')[1].replace(/[^A-Za-z0-9_-].*$/, '');
+};
