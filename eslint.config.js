@@ -10,7 +10,21 @@ import tseslint from 'typescript-eslint';
 
 const FEATURES = ['account', 'auth', 'dev', 'editor', 'library', 'sheets', 'shop', 'team'];
 /** Server modules from the bottom up: each may import those before it, never one after it. */
-const MODULES = ['accounts', 'auth', 'teams', 'collections', 'art', 'outlines', 'sheets', 'shop', 'exports', 'arrange', 'orders', 'health', 'dev'];
+const MODULES = [
+  'accounts',
+  'auth',
+  'teams',
+  'collections',
+  'art',
+  'outlines',
+  'sheets',
+  'shop',
+  'exports',
+  'arrange',
+  'orders',
+  'health',
+  'dev',
+];
 
 /** Zones for import-x/no-restricted-paths: files under `target` may not import from `from`. */
 const zones = [
