@@ -8,7 +8,7 @@ import importX from 'eslint-plugin-import-x';
 import reactHooks from 'eslint-plugin-react-hooks';
 import tseslint from 'typescript-eslint';
 
-const FEATURES = ['account', 'auth', 'dev', 'editor', 'library', 'sheets', 'shop', 'team'];
+const FEATURES = ['account', 'auth', 'dev', 'editor', 'library', 'orders', 'sheets', 'shop', 'team'];
 /** Server modules from the bottom up: each may import those before it, never one after it. */
 const MODULES = [
   'accounts',

@@ -7,7 +7,7 @@ import { teamPath } from './paths';
 const navClass = ({ isActive }: { isActive: boolean }) =>
   `rounded-full px-4 py-2 font-bold transition ${isActive ? 'bg-ink text-paper' : 'text-ink hover:bg-paper-deep'}`;
 
-/** The signed-in frame: logo, team switch, the three workspaces, account and sign-out. */
+/** The signed-in frame: logo, team switch, the workspaces, account and sign-out. */
 export function AppShell() {
   const { data: me } = useMe();
   const { teamId = me?.activeTeamId ?? '' } = useParams();
@@ -60,6 +60,9 @@ export function AppShell() {
             </NavLink>
             <NavLink to={teamPath(teamId, 'print-room')} className={navClass}>
               Print room
+            </NavLink>
+            <NavLink to={teamPath(teamId, 'orders')} className={navClass}>
+              Orders
             </NavLink>
             <NavLink to={teamPath(teamId, 'team')} className={navClass}>
               Team

@@ -1,6 +1,7 @@
 import type { Me } from '../../shared/schemas/auth';
 
-export const teamPath = (teamId: string, section: 'library' | 'sheets' | 'print-room' | 'team' = 'library') => `/t/${teamId}/${section}`;
+export const teamPath = (teamId: string, section: 'library' | 'sheets' | 'print-room' | 'orders' | 'team' = 'library') =>
+  `/t/${teamId}/${section}`;
 
 export const homePath = (me: Me) => (me.activeTeamId ? teamPath(me.activeTeamId) : '/account');
 

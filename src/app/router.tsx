@@ -12,6 +12,8 @@ import { LibraryRoute } from '../features/library/routes/library';
 import { ArtDetailRoute } from '../features/library/routes/art-detail';
 import { SheetsRoute } from '../features/sheets/routes/sheets';
 import { PrintRoomRoute } from '../features/shop/routes/print-room';
+import { OrdersRoute } from '../features/orders/routes/orders';
+import { OrderRoute } from '../features/orders/routes/order';
 import { AccountRoute } from '../features/account/routes/account';
 import { OutboxRoute } from '../features/dev/routes/outbox';
 import { AppShell } from './app-shell';
@@ -64,6 +66,8 @@ export const router = createBrowserRouter([
             lazy: () => import('../features/editor/routes/editor').then((m) => ({ Component: m.EditorRoute })),
           },
           { path: '/t/:teamId/print-room', element: <PrintRoomRoute /> },
+          { path: '/t/:teamId/orders', element: <OrdersRoute /> },
+          { path: '/t/:teamId/orders/:orderId', element: <OrderRoute /> },
           { path: '/t/:teamId/team', element: <TeamRoute /> },
         ],
       },

@@ -1,6 +1,7 @@
 import { mkdirSync } from 'node:fs';
 import type { AddressInfo } from 'node:net';
 import type { Server } from 'node:http';
+import { createServer } from 'node:net';
 import path from 'node:path';
 import { afterAll, beforeAll } from 'vitest';
 import { chromium } from 'playwright-core';
@@ -9,6 +10,8 @@ import { TEST_PASSWORD, openDatabase, unique } from './app';
 import type { DataSource } from 'typeorm';
 import { createApp } from '../../server/app';
 import { env } from '../../server/config/env';
+import type { Env } from '../../server/config/env';
+import type { AppOptions } from '../../server/app';
 
 export const SCREENSHOT_DIR = path.resolve('tests/output/screenshots');
 
@@ -36,17 +39,27 @@ export function launchChromium(): Promise<Browser> {
   });
 }
 
-/** The real app (API + built client) listening on a free loopback port. */
-export async function serveApp(dataSource: DataSource) {
+/** A port free on loopback just now (for an app that must know its own address before it starts). */
+export async function freePort(): Promise<number> {
+  const probe = createServer();
+  await new Promise<void>((resolve) => probe.listen(0, '127.0.0.1', resolve));
+  const { port } = probe.address() as AddressInfo;
+  await new Promise((resolve) => probe.close(resolve));
+  return port;
+}
+
+/** The real app (API + built client) listening on a free loopback port (or `options.port`). */
+export async function serveApp(dataSource: DataSource, options: { env?: Partial<Env>; port?: number; extra?: Partial<AppOptions> } = {}) {
   const sheetsmith = createApp({
-    env,
+    env: { ...env, ...options.env },
     dataSource,
     clientDir: path.resolve('dist'),
     rateLimitPrefix: unique('e2e'),
     queuePrefix: unique('e2eq'),
+    ...options.extra,
   });
   const server: Server = await new Promise((resolve) => {
-    const s = sheetsmith.app.listen(0, '127.0.0.1', () => resolve(s));
+    const s = sheetsmith.app.listen(options.port ?? 0, '127.0.0.1', () => resolve(s));
   });
   const { port } = server.address() as AddressInfo;
   return {

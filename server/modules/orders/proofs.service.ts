@@ -234,8 +234,8 @@ export class ProofsService {
         to: sender.email,
         subject: answer.approve ? `Order ${order.number}: proof approved` : `Order ${order.number}: changes asked`,
         text: answer.approve
-          ? `The buyer approved the proof of order ${order.number} (typed name "${answer.name}").\n\n${this.env.appUrl}/orders/${order.id}`
-          : `The buyer asked for changes to order ${order.number}:\n\n${answer.comment}\n\n${this.env.appUrl}/orders/${order.id}`,
+          ? `The buyer approved the proof of order ${order.number} (typed name "${answer.name}").\n\n${this.env.appUrl}/t/${order.teamId}/orders/${order.id}`
+          : `The buyer asked for changes to order ${order.number}:\n\n${answer.comment}\n\n${this.env.appUrl}/t/${order.teamId}/orders/${order.id}`,
       });
   }
 }
