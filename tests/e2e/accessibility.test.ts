@@ -2,7 +2,7 @@ import AxeBuilder from '@axe-core/playwright';
 import type { Page } from 'playwright-core';
 import { describe, expect, it } from 'vitest';
 import { svgArt } from '../helpers/art';
-import { Client, makeTeamWithRoles } from '../helpers/app';
+import { Client, makeTeamWithRoles, uniqueEmail } from '../helpers/app';
 import { BROWSER_TEST_TIMEOUT, screenshot, signInThroughForm, useBrowserApp } from '../helpers/browser';
 import { uploadFile } from '../helpers/library';
 import { benchCutter, placePieces, testPiece } from '../helpers/sheets';
@@ -50,6 +50,11 @@ describe('accessibility in Chromium', () => {
       ).body;
       const cutter = await benchCutter(owner, team.id);
       await owner.post(`${base}/print-runs`, { sheetId: sheet.id, copies: 1, stockId: stock.id, cutterId: cutter.id, result: 'good' });
+      // A buyer's order with a proof out, for the orders screens and the buyer's proof page.
+      const buyer = (await owner.post(`${base}/customers`, { name: 'Wren Alder', email: uniqueEmail('buyer') })).body;
+      const order = (await owner.post(`${base}/orders`, { customerId: buyer.id })).body;
+      await owner.post(`${base}/orders/${order.id}/lines`, { kind: 'sheet', sheetId: sheet.id, quantity: 4, unitPrice: '6.50' });
+      const proofLink = (await owner.post(`${base}/orders/${order.id}/proofs`, {})).body.link as string;
 
       // axe needs a page from an explicit browser context.
       const newPage = async (viewport: { width: number; height: number }) => (await t.browser.newContext({ viewport })).newPage();
@@ -98,6 +103,16 @@ describe('accessibility in Chromium', () => {
               await page.getByText(/^Settings used/).click();
             },
           ],
+          [
+            'orders',
+            `/t/${team.id}/orders`,
+            async () => {
+              await page.getByRole('link', { name: /Wren Alder/ }).waitFor();
+              await page.getByRole('button', { name: 'New quote' }).click(); // checked with the form open
+            },
+          ],
+          ['order', `/t/${team.id}/orders/${order.id}`, () => page.getByTestId('order-history').waitFor()],
+          ['proof page', new URL(proofLink).pathname, () => page.getByRole('heading', { name: 'Your sticker proof' }).waitFor()],
           ['team', `/t/${team.id}/team`, () => page.getByRole('heading', { level: 1 }).waitFor()],
           ['account', '/account', () => page.getByRole('heading', { level: 1 }).waitFor()],
         ];
