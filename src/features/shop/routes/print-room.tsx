@@ -2,6 +2,7 @@ import { useQuery, useQueryClient } from '@tanstack/react-query';
 import { useEffect, useState } from 'react';
 import { settingsQueryOptions, shopApi, useMachines, useStock } from '../../../api/shop';
 import { PageTitle } from '../../../components/page-title';
+import { ORDER_CURRENCIES } from '../../../../shared/orders/money';
 import { useAction } from '../../../hooks/use-action';
 import { useMe } from '../../auth/api/me';
 import { useTeamRole } from '../../auth/use-team-role';
@@ -21,7 +22,9 @@ function ShopRates({ teamId, canManage }: { teamId: string; canManage: boolean }
     defaultStockId: '',
     defaultPrinterId: '',
     defaultCutterId: '',
+    currencyCode: 'USD',
   });
+  const [viewersSeePrices, setViewersSeePrices] = useState(true);
   const stock = useStock(teamId);
   const machines = useMachines(teamId);
   const { error, run } = useAction({ preferField: true });
@@ -36,7 +39,9 @@ function ShopRates({ teamId, canManage }: { teamId: string; canManage: boolean }
         defaultStockId: settings.data.defaultStockId ?? '',
         defaultPrinterId: settings.data.defaultPrinterId ?? '',
         defaultCutterId: settings.data.defaultCutterId ?? '',
+        currencyCode: settings.data.currencyCode ?? 'USD',
       });
+    if (settings.data) setViewersSeePrices(settings.data.viewersSeePrices ?? true);
   }, [settings.data]);
   const field = (key: keyof typeof form, label: string) => (
     <label className="flex flex-col text-xs font-bold">
@@ -84,6 +89,34 @@ function ShopRates({ teamId, canManage }: { teamId: string; canManage: boolean }
       </h2>
       <div className="flex flex-wrap items-end gap-2">
         {field('currency', 'Currency sign')}
+        <label className="flex flex-col text-xs font-bold">
+          Buyers pay in
+          <select
+            value={form.currencyCode}
+            disabled={!canManage}
+            onChange={(e) => {
+              setSaved(false);
+              setForm({ ...form, currencyCode: e.target.value });
+            }}
+            className="w-24 rounded border-2 border-paper-edge px-2 py-1 font-normal"
+          >
+            {ORDER_CURRENCIES.map((c) => (
+              <option key={c}>{c}</option>
+            ))}
+          </select>
+        </label>
+        <label className="flex items-center gap-1 text-xs font-bold">
+          <input
+            type="checkbox"
+            checked={viewersSeePrices}
+            disabled={!canManage}
+            onChange={(e) => {
+              setSaved(false);
+              setViewersSeePrices(e.target.checked);
+            }}
+          />
+          Viewers see order prices
+        </label>
         {field('labourRatePerHour', 'Labour per hour')}
         {field('markupPercent', 'Markup (%)')}
         {field('wastePercent', 'Waste allowance (%)')}
@@ -104,7 +137,10 @@ function ShopRates({ teamId, canManage }: { teamId: string; canManage: boolean }
             className="rounded-full bg-ink px-4 py-1 font-bold text-paper"
             onClick={() =>
               void run(async () => {
-                client.setQueryData(settingsQueryOptions(teamId).queryKey, await shopApi.saveSettings(teamId, form));
+                client.setQueryData(
+                  settingsQueryOptions(teamId).queryKey,
+                  await shopApi.saveSettings(teamId, { ...form, viewersSeePrices }),
+                );
                 setSaved(true);
               })
             }
