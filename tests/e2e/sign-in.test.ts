@@ -129,6 +129,9 @@ describe('the demo shop', { timeout: BROWSER_TEST_TIMEOUT }, () => {
     const cutter = (await owner.get(`${base}/machines`)).body.machines.find((m: { kind: string }) => m.kind === 'cutter');
     const total = runs.reduce((m: number, r: { cutLengthM: number }) => m + r.cutLengthM, 0);
     expect(cutter.blade.cutLengthM).toBeCloseTo(total, 6);
+    // Two buyers' quotes: 60 tulips at 0.45 (27.00) and 5 market sheets at 6.50 (32.50).
+    const board = (await owner.get(`${base}/orders`)).body;
+    expect(board.totals.quote).toEqual({ count: 2, totalMinor: 5950 });
     expect(await seedDemo(t.db, storage)).toBe(0);
   });
 });

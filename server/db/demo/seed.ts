@@ -18,6 +18,7 @@ import { MachinesService } from '../../modules/shop/machines.service';
 import { StockItem } from '../../modules/shop/stock-item.entity';
 import { StockService } from '../../modules/shop/stock.service';
 import { seedSheets } from './sheets';
+import { seedOrders } from './orders';
 import { inTransaction } from '../transaction';
 
 /** Adds whatever part of the demo shop is missing; returns how many rows it added. */
@@ -26,7 +27,8 @@ export async function seedDemo(dataSource: DataSource, storage?: Storage): Promi
   const art = storage ? await seedArt(dataSource, storage) : 0;
   const shop = await seedShop(dataSource);
   // Sheets need the art's pixels for their outlines, so only where there is storage.
-  return added + art + shop + (storage ? await seedSheets(dataSource, storage) : 0);
+  const sheets = storage ? await seedSheets(dataSource, storage) : 0;
+  return added + art + shop + sheets + (storage ? await seedOrders(dataSource, storage) : 0);
 }
 
 /** The invented shop's shelf and bench: two stocks, a printer, a cutter with its blade, shop rates. */
