@@ -7,6 +7,7 @@
 // endpoint's secret>), which the app checks with the SDK's own verifier. No real money moves.
 import { createHmac, randomBytes } from 'node:crypto';
 import type { AddressInfo } from 'node:net';
+import { createServer } from 'node:http';
 import type { Server } from 'node:http';
 import express from 'express';
 import type { Request, Response } from 'express';
@@ -270,9 +271,11 @@ main{background:#fff;border:2px solid #2b2620;border-radius:14px;padding:28px 32
   });
   app.use(pageRouter);
 
-  const server: Server = await new Promise((resolve, reject) => {
-    const s = app.listen(options.port ?? 0, host, () => resolve(s));
-    s.once('error', reject);
+  // A plain http server: its 'error' (a port in use) rejects, where app.listen would call back either way.
+  const server: Server = createServer(app);
+  await new Promise<void>((resolve, reject) => {
+    server.once('error', reject);
+    server.listen(options.port ?? 0, host, () => resolve());
   });
   base = `http://${host}:${(server.address() as AddressInfo).port}`;
   return {

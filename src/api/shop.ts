@@ -2,6 +2,7 @@
 import { queryOptions, useQuery } from '@tanstack/react-query';
 import type { MachineView, PrintRunView, SheetCostView, ShopSettings, StockView } from '../../shared/schemas/shop';
 import { api } from '../lib/api-client';
+import type { OrderBoard } from '../../shared/schemas/orders';
 
 const base = (teamId: string) => `/teams/${teamId}`;
 export const shopKeys = { all: (teamId: string) => ['teams', teamId, 'shop'] as const };
@@ -34,6 +35,16 @@ export const costQueryOptions = (teamId: string, sheetId: string, version: numbe
   queryOptions({
     queryKey: [...shopKeys.all(teamId), 'cost', sheetId, version],
     queryFn: () => api<SheetCostView>('GET', `${base(teamId)}/sheets/${sheetId}/cost`),
+  });
+
+/** Orders a run may be logged against: those not yet handed over or cancelled, for the run form's choice. */
+export const openOrdersQueryOptions = (teamId: string) =>
+  queryOptions({
+    queryKey: ['teams', teamId, 'orders', 'open-choices'],
+    queryFn: async () =>
+      (await api<OrderBoard>('GET', `${base(teamId)}/orders`)).orders
+        .filter((o) => o.state !== 'handed-over' && o.state !== 'cancelled')
+        .map((o) => ({ id: o.id, name: `#${o.number} · ${o.customer.name}` })),
   });
 
 export const useStock = (teamId: string) => useQuery(stockQueryOptions(teamId));

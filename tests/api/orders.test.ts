@@ -5,7 +5,8 @@ import request from 'supertest';
 import { describe, expect, it } from 'vitest';
 import { OrderPayment, PaymentNotice } from '../../server/modules/orders/payment.entity';
 import { Order } from '../../server/modules/orders/order.entity';
-import { signPayload } from '../../server/payments/fake-api';
+import { signPayload, startFakePayments } from '../../server/payments/fake-api';
+import { createPayments } from '../../server/payments/client';
 import { lastMailTo } from '../helpers/outbox';
 import { makeShop, withCutter } from '../helpers/shop';
 import { NOTICE_SECRET, proofToken, quotedOrder, useOrdersApp } from '../helpers/orders';
@@ -154,5 +155,17 @@ describe('customer orders', () => {
     expect(await t.db.getRepository(OrderPayment).countBy({ orderId: order.id, status: 'paid' })).toBe(1);
     // The properly signed forged amount would be acted on: the signature is what guards it.
     expect(signPayload(forged, NOTICE_SECRET)).toMatch(/^t=\d+,v1=[0-9a-f]{64}$/);
+  });
+});
+
+describe('the local payments fake', () => {
+  it('refuses a port already in use (a second app process then uses the running one) and answers the SDK as the service does', async () => {
+    const port = Number(new URL(t.fake.url).port);
+    await expect(startFakePayments({ port })).rejects.toMatchObject({ code: 'EADDRINUSE' });
+    const sdk = createPayments({ STRIPE_SECRET_KEY: '', STRIPE_WEBHOOK_SECRET: NOTICE_SECRET, PAYMENTS_FAKE_URL: t.fake.url }).sdk;
+    await expect(sdk.refunds.create({ payment_intent: 'pi_nobody', amount: 100 })).rejects.toMatchObject({
+      type: 'StripeInvalidRequestError',
+      message: "No such payment_intent: 'pi_nobody'",
+    });
   });
 });

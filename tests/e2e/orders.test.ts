@@ -67,15 +67,15 @@ describe('a buyer’s order in Chromium', { timeout: BROWSER_TEST_TIMEOUT * 2 },
     await shop.getByRole('button', { name: 'Start the quote' }).click();
     await shop.waitForURL(/\/orders\/\d+$/);
     await shop.getByLabel('Find art').fill('cherry');
-    await expect.poll(() => shop.getByLabel('Art', { exact: true }).locator('option').count()).toBe(2);
+    await expect.poll(() => shop.getByLabel('Art', { exact: true }).locator('option').count(), { timeout: 20_000 }).toBe(2);
     await shop.getByLabel('Art', { exact: true }).selectOption({ label: 'cherry-badge' });
     await shop.getByLabel('Finished width, border included (in)').fill('1.5');
     await shop.getByLabel('How many').fill('30');
     await shop.getByLabel('Stock').selectOption(stock.id);
     await shop.getByRole('button', { name: 'Add to the order' }).click();
-    await expect.poll(() => shop.getByRole('cell', { name: /cherry-badge/ }).count()).toBe(1);
+    await expect.poll(() => shop.getByRole('cell', { name: /cherry-badge/ }).count(), { timeout: 20_000 }).toBe(1);
     await shop.getByRole('button', { name: 'Send the proof' }).click();
-    await expect.poll(() => shop.getByTestId('order-state').textContent()).toBe('Proof with the buyer');
+    await expect.poll(() => shop.getByTestId('order-state').textContent(), { timeout: 20_000 }).toBe('Proof with the buyer');
     await screenshot(shop, 'order-proof-sent');
 
     // The buyer, in a browser of their own with no account.
@@ -83,40 +83,40 @@ describe('a buyer’s order in Chromium', { timeout: BROWSER_TEST_TIMEOUT * 2 },
     const firstLink = (await lastMailTo(buyerEmail)).links.find((l) => l.includes('/proof/'))!;
     expect(firstLink.startsWith(t.served.url)).toBe(true);
     await buyer.goto(firstLink);
-    await expect.poll(() => buyer.getByRole('heading', { name: 'Your sticker proof' }).count()).toBe(1);
+    await expect.poll(() => buyer.getByRole('heading', { name: 'Your sticker proof' }).count(), { timeout: 20_000 }).toBe(1);
     expect(
       await buyer.getByRole('img', { name: /cherry-badge with its cut line/ }).evaluate((img: HTMLImageElement) => img.naturalWidth),
     ).toBeGreaterThan(100);
     await screenshot(buyer, 'order-proof-buyer');
     await buyer.getByLabel('Or tell the shop what to change').fill('Could the border be a touch wider?');
     await buyer.getByRole('button', { name: 'Ask for changes' }).click();
-    await expect.poll(() => buyer.getByRole('status').textContent()).toContain('You asked for changes');
+    await expect.poll(() => buyer.getByRole('status').textContent(), { timeout: 20_000 }).toContain('You asked for changes');
 
     await shop.reload();
-    await expect.poll(() => shop.getByTestId('order-state').textContent()).toBe('Changes asked');
+    await expect.poll(() => shop.getByTestId('order-state').textContent(), { timeout: 20_000 }).toBe('Changes asked');
     await shop.getByRole('button', { name: 'Send a new proof' }).click();
-    await expect.poll(() => shop.getByTestId('order-state').textContent()).toBe('Proof with the buyer');
+    await expect.poll(() => shop.getByTestId('order-state').textContent(), { timeout: 20_000 }).toBe('Proof with the buyer');
 
     const secondLink = (await lastMailTo(buyerEmail)).links.find((l) => l.includes('/proof/'))!;
     expect(secondLink).not.toBe(firstLink);
     await buyer.goto(secondLink);
     await buyer.getByLabel('Type your name to approve this proof').fill('Juniper Vale');
     await buyer.getByRole('button', { name: 'Approve this proof' }).click();
-    await expect.poll(() => buyer.getByRole('status').first().textContent()).toContain('Approved by Juniper Vale');
+    await expect.poll(() => buyer.getByRole('status').first().textContent(), { timeout: 20_000 }).toContain('Approved by Juniper Vale');
     await buyer.getByRole('button', { name: /^Pay / }).click();
     await buyer.waitForURL(`${t.fake.url}/pay/**`);
     await screenshot(buyer, 'order-fake-checkout');
     await buyer.getByRole('button', { name: /^Pay / }).click();
     await buyer.waitForURL(/\/proof\/[^/]+\?paid=1$/);
-    await expect.poll(() => buyer.getByText('Thank you: your payment is on its way').count()).toBe(1);
+    await expect.poll(() => buyer.getByText('Thank you: your payment is on its way').count(), { timeout: 20_000 }).toBe(1);
 
     await shop.reload();
-    await expect.poll(() => shop.getByTestId('order-state').textContent()).toBe('Paid in full');
+    await expect.poll(() => shop.getByTestId('order-state').textContent(), { timeout: 20_000 }).toBe('Paid in full');
     await shop.getByRole('button', { name: 'Make the sheets for this order' }).click();
     await expect.poll(() => shop.getByRole('link', { name: /^Sheet \d$/ }).count(), { timeout: 30_000 }).toBeGreaterThan(0);
     expect(await shop.getByTestId('order-history').textContent()).toMatch(/Payments: Received \$\d+\.\d\d \(balance\)/);
     await shop.getByRole('button', { name: 'Into production' }).click();
-    await expect.poll(() => shop.getByTestId('order-state').textContent()).toBe('In production');
+    await expect.poll(() => shop.getByTestId('order-state').textContent(), { timeout: 20_000 }).toBe('In production');
     await screenshot(shop, 'order-paid-with-sheets');
 
     const shopMail = await lastMailTo(users.member.email);

@@ -2,7 +2,15 @@ import { useQuery, useQueryClient } from '@tanstack/react-query';
 import { useState } from 'react';
 import { RUN_RESULT_LABELS, RUN_RESULTS } from '../../../../shared/schemas/shop';
 import type { PrintRunView, StockView } from '../../../../shared/schemas/shop';
-import { runsQueryOptions, sheetChoicesQueryOptions, shopApi, shopKeys, useMachines, useStock } from '../../../api/shop';
+import {
+  openOrdersQueryOptions,
+  runsQueryOptions,
+  sheetChoicesQueryOptions,
+  shopApi,
+  shopKeys,
+  useMachines,
+  useStock,
+} from '../../../api/shop';
 import { ApiError, apiUpload } from '../../../lib/api-client';
 import { useAction } from '../../../hooks/use-action';
 import { RunChart } from './run-chart';
@@ -16,10 +24,11 @@ export function RunLog({ teamId, canRecord }: { teamId: string; canRecord: boole
   const stock = useStock(teamId);
   const machines = useMachines(teamId);
   const sheets = useQuery(sheetChoicesQueryOptions(teamId));
+  const orders = useQuery(openOrdersQueryOptions(teamId));
   const [filters, setFilters] = useState({ result: '', stockId: '', cutterId: '', from: '', to: '' });
   const runs = useQuery(runsQueryOptions(teamId, filters));
   const blankRun = { sheetId: '', copies: '1', wasted: '', printedOn: '', result: 'good', notes: '' };
-  const [form, setForm] = useState({ ...blankRun, stockId: '', printerId: '', cutterId: '' });
+  const [form, setForm] = useState({ ...blankRun, stockId: '', printerId: '', cutterId: '', orderId: '' });
   // A new key empties the photo input after a run is logged (a file input cannot be set from code).
   const [photoKey, setPhotoKey] = useState(0);
   // What the printer and cutter were set to: the stock's settings that worked, changed where this run differed.
@@ -73,6 +82,7 @@ export function RunLog({ teamId, canRecord }: { teamId: string; canRecord: boole
         cutterId: form.cutterId || null,
         result: form.result,
         notes: form.notes,
+        orderId: form.orderId || null,
         ...(form.wasted !== '' && { wasted: form.wasted }),
         ...(form.printedOn !== '' && { printedOn: form.printedOn }),
         ...(used && { printerSettings: used.printerSettings, cutterSettings: used.cutterSettings }),
@@ -127,6 +137,7 @@ export function RunLog({ teamId, canRecord }: { teamId: string; canRecord: boole
             (sheets.data ?? []).map((s) => ({ id: s.id, name: s.name })),
             'Choose…',
           )}
+          {pick('orderId', 'For order', orders.data ?? [], 'No order')}
           <label className="flex flex-col text-xs font-bold">
             Copies
             <input
