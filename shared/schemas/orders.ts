@@ -174,6 +174,8 @@ export type ProofView = {
 };
 export type ProofLine = {
   title: string;
+  /** The picture the buyer saw (the sticker with its cut line), for members; null when there is none. */
+  pictureUrl?: string | null;
   finishedWidthMm: number | null;
   finishedHeightMm: number | null;
   quantity: number;

@@ -39,7 +39,17 @@ describe('proof links and what they show', () => {
     await buyerSide.post(`/proof/${token}/approve`).type('form').send({ name: 'Robin Quill' });
     const change = await buyerSide.post(`/proof/${token}/changes`).type('form').send({ comment: 'Actually, smaller please' });
     expect(change.status).toBe(409);
-    expect((await s.member.get(path)).body.proofs[0]).toMatchObject({ status: 'approved', comment: null });
+    const approved = (await s.member.get(path)).body.proofs[0];
+    expect(approved).toMatchObject({ status: 'approved', comment: null });
+    // The members see exactly the picture the buyer approved; another team does not.
+    const seen = await buyerSide.get(`/proof/${token}/pictures/0.png`).buffer(true);
+    const url = approved.lines[0].pictureUrl as string;
+    expect(url).toMatch(/\/proofs\/\d+\/pictures\/0\.png$/);
+    const kept = await s.member.get(url).buffer(true);
+    expect(kept.status).toBe(200);
+    expect(Buffer.compare(kept.body, seen.body)).toBe(0);
+    const other = await makeShop(t, 1);
+    expect((await other.owner.get(url.replace(s.base, other.base))).status).toBe(404);
 
     // Another order's proof, sent and then left past its expiry.
     const second = await quotedOrder(s, stock.id);

@@ -22,7 +22,7 @@ export type ProofSnapshot = {
   totalMinor: number;
 };
 
-export function proofView(p: OrderProof, money: boolean): ProofView {
+export function proofView(p: OrderProof, money: boolean, teamId?: string): ProofView {
   const snapshot = JSON.parse(p.snapshotJson) as ProofSnapshot;
   return {
     id: p.id,
@@ -33,8 +33,9 @@ export function proofView(p: OrderProof, money: boolean): ProofView {
     decidedAt: p.decidedAt?.toISOString() ?? null,
     decidedName: p.decidedName,
     comment: p.comment,
-    lines: snapshot.lines.map((l) => ({
+    lines: snapshot.lines.map((l, i) => ({
       title: l.title,
+      pictureUrl: teamId && l.imageKey ? `/api/teams/${teamId}/orders/${p.orderId}/proofs/${p.id}/pictures/${i}.png` : null,
       finishedWidthMm: l.finishedWidthMm,
       finishedHeightMm: l.finishedHeightMm,
       quantity: l.quantity,
@@ -115,7 +116,7 @@ export async function buildOrderView(
     costMinor: money ? costMinor : null,
     // What the order brings in, less refunds and what its print runs cost.
     marginMinor: money && costMinor !== null ? total - order.refundedMinor - costMinor : null,
-    proofs: proofs.map((p) => proofView(p, money)),
+    proofs: proofs.map((p) => proofView(p, money, order.teamId)),
     payments: money
       ? payments.map((p) => ({
           id: p.id,

@@ -85,6 +85,20 @@ export function ordersRouter(deps: {
     view,
     route({ params: orderParamsSchema }, ({ params }, req) => orders.view(actor(req), params.orderId)),
   );
+  router.get(
+    '/teams/:teamId/orders/:orderId/proofs/:proofId/pictures/:index.png',
+    scoped,
+    view,
+    route(
+      { params: orderParamsSchema.extend({ proofId: idSchema, index: z.coerce.number().int().min(0).max(999) }) },
+      async ({ params }, req, res) => {
+        res
+          .type('png')
+          .set('Cache-Control', 'private, max-age=86400')
+          .send(await proofs.memberPicture(actor(req).teamId, params.orderId, params.proofId, params.index));
+      },
+    ),
+  );
   router.post(
     '/teams/:teamId/orders/:orderId/lines',
     scoped,

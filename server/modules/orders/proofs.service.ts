@@ -190,6 +190,15 @@ export class ProofsService {
     return this.storage.get(key);
   }
 
+  /** A proof's picture as sent, for the team's members (another team's order: 404). */
+  async memberPicture(teamId: string, orderId: string, proofId: string, index: number): Promise<Buffer> {
+    await this.orders.order(teamId, orderId);
+    const proof = await this.dataSource.getRepository(OrderProof).findOneBy({ id: proofId, orderId });
+    const key = proof ? (JSON.parse(proof.snapshotJson) as ProofSnapshot).lines[index]?.imageKey : null;
+    if (!key) throw notFound('That picture');
+    return this.storage.get(key);
+  }
+
   /** The buyer's answer: approved with their typed name, or changes with a comment. */
   async answer(token: string, answer: { approve: true; name: string } | { approve: false; comment: string }, address: string) {
     const { proof, order } = await this.open(token);

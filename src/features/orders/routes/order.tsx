@@ -105,13 +105,18 @@ function Proofs({ order, unit }: { order: OrderView; unit: LengthUnit }) {
             {p.comment && <p className="text-ink">“{p.comment}”</p>}
             <ul className="mt-1 text-sm text-ink-soft">
               {p.lines.map((l, i) => (
-                <li key={i}>
-                  {l.quantity} × {l.title}
-                  {l.finishedWidthMm !== null && l.finishedHeightMm !== null
-                    ? `, ${formatLength(l.finishedWidthMm, unit)} × ${formatLength(l.finishedHeightMm, unit)}`
-                    : ''}
-                  {l.stockName ? `, on ${l.stockName}` : ''}
-                  {l.totalMinor !== null ? `: ${formatMinor(l.totalMinor, order.currency)}` : ''}
+                <li key={i} className="flex items-center gap-3">
+                  {l.pictureUrl && (
+                    <img src={l.pictureUrl} alt={`${l.title} as the buyer saw it`} className="h-16 w-16 rounded object-contain" />
+                  )}
+                  <span>
+                    {l.quantity} × {l.title}
+                    {l.finishedWidthMm !== null && l.finishedHeightMm !== null
+                      ? `, ${formatLength(l.finishedWidthMm, unit)} × ${formatLength(l.finishedHeightMm, unit)}`
+                      : ''}
+                    {l.stockName ? `, on ${l.stockName}` : ''}
+                    {l.totalMinor !== null ? `: ${formatMinor(l.totalMinor, order.currency)}` : ''}
+                  </span>
                 </li>
               ))}
             </ul>
