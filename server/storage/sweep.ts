@@ -16,44 +16,54 @@ const KEY_COLUMNS: ReadonlyArray<[table: string, column: string]> = [
   ['sheet_exports', 'zip_key'],
   ['print_runs', 'photo_key'],
 ];
-const PNG_KEY = /"pngKey":"([0-9a-f]{64})"/g;
+/** JSON columns that hold keys inside them: cached outlines' PNGs, and the pictures a proof was sent with. */
+const JSON_KEYS: ReadonlyArray<[table: string, column: string, field: string]> = [
+  ['outline_cache', 'result_json', 'pngKey'],
+  ['order_proofs', 'snapshot_json', 'imageKey'],
+];
 
 /**
- * Every key a row refers to, outline PNGs (inside the cached outline JSON) included. Raw SQL on
+ * Every key a row refers to, keys inside JSON columns (outline PNGs, proof pictures) included. Raw SQL on
  * purpose here and below: the sweep reads key columns of tables from every module by name
  * (KEY_COLUMNS, fixed strings), below the modules, with no entity of its own.
  */
-export async function referencedKeys(dataSource: DataSource): Promise<Set<string>> {
+async function referencedKeys(dataSource: DataSource): Promise<Set<string>> {
   const keys = new Set<string>();
   for (const [table, column] of KEY_COLUMNS) {
     const rows: Array<{ k: string }> = await dataSource.query(`SELECT DISTINCT ${column} AS k FROM ${table} WHERE ${column} IS NOT NULL`);
     for (const row of rows) keys.add(row.k);
   }
-  let after = '0';
-  for (;;) {
-    const rows: Array<{ id: string; result_json: string }> = await dataSource.query(
-      'SELECT id, result_json FROM outline_cache WHERE id > ? ORDER BY id LIMIT 500',
-      [after],
-    );
-    if (rows.length === 0) break;
-    for (const row of rows) for (const match of row.result_json.matchAll(PNG_KEY)) keys.add(match[1]);
-    after = rows[rows.length - 1].id;
+  for (const [table, column, field] of JSON_KEYS) {
+    const pattern = new RegExp(`"${field}":"([0-9a-f]{64})"`, 'g');
+    let after = '0';
+    for (;;) {
+      const rows: Array<{ id: string; j: string }> = await dataSource.query(
+        `SELECT id, ${column} AS j FROM ${table} WHERE id > ? ORDER BY id LIMIT 500`,
+        [after],
+      );
+      if (rows.length === 0) break;
+      for (const row of rows) for (const match of row.j.matchAll(pattern)) keys.add(match[1]);
+      after = rows[rows.length - 1].id;
+    }
   }
   return keys;
 }
 
 /** Whether any row refers to `key` (for deleting one replaced file at once). */
-export async function isReferenced(dataSource: DataSource, key: string): Promise<boolean> {
+async function isReferenced(dataSource: DataSource, key: string): Promise<boolean> {
   for (const [table, column] of KEY_COLUMNS) {
     const [row] = await dataSource.query(`SELECT 1 AS x FROM ${table} WHERE ${column} = ? LIMIT 1`, [key]);
     if (row) return true;
   }
-  const [row] = await dataSource.query('SELECT 1 AS x FROM outline_cache WHERE result_json LIKE ? LIMIT 1', [`%"pngKey":"${key}"%`]);
-  return Boolean(row);
+  for (const [table, column, field] of JSON_KEYS) {
+    const [row] = await dataSource.query(`SELECT 1 AS x FROM ${table} WHERE ${column} LIKE ? LIMIT 1`, [`%"${field}":"${key}"%`]);
+    if (row) return true;
+  }
+  return false;
 }
 
 /** A file written or re-put this recently may belong to a row not committed yet: only the sweep takes it, later. */
-export const RECENT_PUT_MS = 60_000;
+const RECENT_PUT_MS = 60_000;
 
 /** Deletes a file a row just stopped referring to, unless another row still does (or may be about to). */
 export async function releaseKey(dataSource: DataSource, storage: Storage, key: string | null | undefined): Promise<boolean> {
@@ -64,7 +74,7 @@ export async function releaseKey(dataSource: DataSource, storage: Storage, key: 
   return true;
 }
 
-export type SweepReport = { scanned: number; deleted: number; keptYoung: number; bytesFreed?: number };
+type SweepReport = { scanned: number; deleted: number; keptYoung: number; bytesFreed?: number };
 
 /**
  * Removes stored files no row refers to, once they are older than the grace period (an upload in

@@ -73,8 +73,20 @@ describe('storage hygiene', () => {
       thumbnail: thumb,
       document: { ...sheet.document, pieces: [testPiece('s1', art.id, 40, 40)] },
     });
+    // A buyer's proof keeps the picture of each sticker as it was sent (inside the proof's JSON).
+    const buyer = (await admin.post(`/api/teams/${team.id}/customers`, { name: 'Sweep Buyer', email: 'sweep-buyer@example.test' })).body;
+    const order = (await admin.post(`/api/teams/${team.id}/orders`, { customerId: buyer.id })).body;
+    await admin.post(`/api/teams/${team.id}/orders/${order.id}/lines`, {
+      kind: 'singles',
+      artId: art.id,
+      finishedWidthMm: 30,
+      quantity: 10,
+      unitPrice: '0.50',
+    });
+    expect((await admin.post(`/api/teams/${team.id}/orders/${order.id}/proofs`, {})).status).toBe(201);
+    const picture = (await admin.get(`/api/teams/${team.id}/orders/${order.id}`)).body.proofs[0].lines[0].pictureUrl;
     const referenced = await keys();
-    expect(referenced.length).toBeGreaterThanOrEqual(9); // 2 files, 2 thumbnails, an SVG, 2 proofs, outline PNG, sheet preview
+    expect(referenced.length).toBeGreaterThanOrEqual(11); // 2 files, 2 thumbnails, an SVG, 2 licence proofs, 2 outline PNGs, sheet preview, proof picture
 
     // What a killed upload leaves: a whole file and a half-written one, no row for either.
     const orphan = (await storage.put(randomBytes(500))).key;
@@ -97,6 +109,7 @@ describe('storage hygiene', () => {
     expect((await admin.get(`/api/teams/${team.id}/collections/${collection.id}/licence-proof`)).status).toBe(200);
     expect((await admin.get(`/api/teams/${team.id}/sheets/${sheet.id}/thumbnail`)).status).toBe(200);
     expect((await admin.get(drawn.source.url)).status).toBe(200);
+    expect((await admin.get(picture)).status).toBe(200);
   });
 
   it('a re-put renews a file, so the sweep never takes what a new row is about to use', async () => {
