@@ -14,6 +14,8 @@ import { Blade, Machine } from '../modules/shop/machine.entity';
 import { PrintRun } from '../modules/shop/print-run.entity';
 import { ShopSettingsRow } from '../modules/shop/shop-settings.entity';
 import { StockItem } from '../modules/shop/stock-item.entity';
+import { ArtKeyword, ArtTerm } from '../modules/art/art-index.entity';
+import { SheetArt } from '../modules/sheets/sheet-art.entity';
 import { Customer } from '../modules/orders/customer.entity';
 import { Order, OrderEvent, OrderLine } from '../modules/orders/order.entity';
 import { OrderProof } from '../modules/orders/proof.entity';
@@ -37,6 +39,9 @@ export const entities = [
   PrintRun,
   ShopSettingsRow,
   SheetExport,
+  ArtKeyword,
+  ArtTerm,
+  SheetArt,
   Customer,
   Order,
   OrderLine,

@@ -2,7 +2,9 @@
 // and paging. Each query chunk matches stored terms (art_terms: team, art, term) by prefix, and,
 // forgiving typos, the team's terms within a few edits of it (vocabulary.ts). Best match first:
 // per chunk an exact term counts 3, a prefix 2, a near term 1; ties newest first. When a word
-// matches no term at all, the nearest one is offered ("did you mean").
+// matches no term at all, the nearest one is offered ("did you mean"). Raw SQL on purpose: one
+// derived table per word (a UNION ALL of grouped reads of art_terms) joined to the items, which the
+// query builder cannot express.
 import type { DataSource } from 'typeorm';
 import { In } from 'typeorm';
 import type { ArtListQuery, ArtPage } from '../../../shared/schemas/library';

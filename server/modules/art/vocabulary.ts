@@ -7,8 +7,9 @@
 // depend on the tree (they are SQL), only the typo expansions do.
 import SearchableMap from 'minisearch/SearchableMap';
 import type { DataSource } from 'typeorm';
+import { ArtTerm } from './art-index.entity';
 
-export const VOCABULARY_TTL_MS = 30_000;
+const VOCABULARY_TTL_MS = 30_000;
 
 /**
  * Edits forgiven in a word: none under 4 letters, one up to 7, two from 8. None in a word with a
@@ -65,9 +66,13 @@ export class TeamVocabularies {
     const generation = generations.get(teamId) ?? 0;
     const kept = this.trees.get(teamId);
     if (kept && kept.generation === generation && Date.now() - kept.at < this.ttlMs) return kept.tree;
-    // Raw on purpose: art_terms is a plain index table with no entity; the (team_id, term) index
-    // answers this DISTINCT without reading the rows.
-    const rows: Array<{ term: string }> = await this.dataSource.query('SELECT DISTINCT term FROM art_terms WHERE team_id = ?', [teamId]);
+    // The (team_id, term) index answers this DISTINCT without reading the rows.
+    const rows: Array<{ term: string }> = await this.dataSource
+      .getRepository(ArtTerm)
+      .createQueryBuilder('t')
+      .select('DISTINCT t.term', 'term')
+      .where('t.team_id = :teamId', { teamId })
+      .getRawMany();
     const tree = new SearchableMap<true>();
     for (const { term } of rows) tree.set(term, true);
     this.trees.set(teamId, { tree, generation, at: Date.now() });

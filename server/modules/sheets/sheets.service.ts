@@ -12,6 +12,7 @@ import { effectiveLicenceKinds } from '../art/art-view';
 import type { ProfilesService } from './profiles.service';
 import { SheetProfile } from './sheet-profile.entity';
 import { Sheet } from './sheet.entity';
+import { SheetArt } from './sheet-art.entity';
 import { inTransaction } from '../../db/transaction';
 import { cleanThumbnail, refuseOutOfBounds } from './sheet-checks';
 import { profileLimits } from '../../../shared/sheet/preflight';
@@ -136,22 +137,22 @@ export class SheetsService {
    * are touched, in ascending id order, so parallel saves of different sheets rarely lock the same
    * index ranges (a blanket delete + insert deadlocked 12 of 20 parallel saves).
    */
-  // Raw SQL on purpose (here and in usingArt): sheet_art is a plain link table with no entity, written
-  // as an ordered diff with INSERT IGNORE.
   private async linkArt(manager: EntityManager, sheetId: string, artIds: string[]) {
-    const rows: Array<{ art_id: string }> = await manager.query('SELECT art_id FROM sheet_art WHERE sheet_id = ?', [sheetId]);
-    const have = new Set(rows.map((r) => String(r.art_id)));
+    const rows = await manager.getRepository(SheetArt).find({ where: { sheetId }, select: { artId: true } });
+    const have = new Set(rows.map((r) => String(r.artId)));
     const want = new Set(artIds);
     const byId = (a: string, b: string) => (BigInt(a) < BigInt(b) ? -1 : 1);
     const gone = [...have].filter((id) => !want.has(id)).sort(byId);
     const added = [...want].filter((id) => !have.has(id)).sort(byId);
-    if (gone.length)
-      await manager.query(`DELETE FROM sheet_art WHERE sheet_id = ? AND art_id IN (${gone.map(() => '?').join(',')})`, [sheetId, ...gone]);
+    if (gone.length) await manager.getRepository(SheetArt).delete({ sheetId, artId: In(gone) });
     if (added.length)
-      await manager.query(
-        `INSERT IGNORE INTO sheet_art (sheet_id, art_id) VALUES ${added.map(() => '(?, ?)').join(',')}`,
-        added.flatMap((a) => [sheetId, a]),
-      );
+      await manager
+        .createQueryBuilder()
+        .insert()
+        .into(SheetArt)
+        .values(added.map((artId) => ({ sheetId, artId })))
+        .orIgnore()
+        .execute();
   }
 
   async create(
@@ -272,10 +273,14 @@ export class SheetsService {
   /** Names of the sheets that use an art item, for the question before deleting it. */
   async usingArt(teamId: string, artIds: string[]): Promise<string[]> {
     if (artIds.length === 0) return [];
-    const rows: Array<{ name: string }> = await this.dataSource.query(
-      `SELECT DISTINCT s.name FROM sheet_art sa JOIN sheets s ON s.id = sa.sheet_id WHERE s.team_id = ? AND sa.art_id IN (${artIds.map(() => '?').join(',')}) ORDER BY s.name`,
-      [teamId, ...artIds],
-    );
+    const rows: Array<{ name: string }> = await this.dataSource
+      .getRepository(SheetArt)
+      .createQueryBuilder('sa')
+      .innerJoin(Sheet, 's', 's.id = sa.sheet_id')
+      .select('DISTINCT s.name', 'name')
+      .where('s.team_id = :teamId AND sa.art_id IN (:...artIds)', { teamId, artIds })
+      .orderBy('s.name')
+      .getRawMany();
     return rows.map((r) => r.name);
   }
 }
