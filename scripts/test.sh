@@ -22,8 +22,9 @@ export DATA_DIR="$DATA_DIR/test"
 rm -rf "$DATA_DIR"; mkdir -p "$DATA_DIR"
 # Lint first (import boundaries included): a violation fails the run before any test does.
 if [ "$#" -eq 0 ]; then
-  log "linting (npm run lint) and checking the format (npm run format:check)"
+  log "linting (npm run lint), unused exports and files (npm run lint:dead), the format (npm run format:check)"
   npx --no-install eslint .
+  npx --no-install knip
   npx --no-install prettier --check . --log-level warn
 fi
 npx --no-install vitest run "$@"

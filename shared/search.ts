@@ -20,7 +20,7 @@ export function singular(word: string): string {
 }
 
 /** Chunks split at spaces and punctuation; each chunk's parts split at hyphens and underscores. */
-export function chunks(text: string): string[][] {
+function chunks(text: string): string[][] {
   return fold(text)
     .split(/[\s,;/.()[\]{}'"!?&+:|]+/)
     .map((chunk) =>

@@ -12,7 +12,7 @@ export const LOCAL_SESSION_SECRET = 'sheetsmith-local-session-secret';
 // Secrets printed in this repository: never acceptable for a server others can reach.
 const PUBLISHED_SECRETS = new Set([LOCAL_SESSION_SECRET, 'change-me-to-a-long-random-string']);
 
-export function isLoopbackHost(host: string): boolean {
+function isLoopbackHost(host: string): boolean {
   return host === 'localhost' || host === '::1' || /^127(\.\d{1,3}){3}$/.test(host);
 }
 

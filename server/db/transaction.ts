@@ -6,7 +6,7 @@ const RETRYABLE_ERRNOS = new Set([
   1205, // ER_LOCK_WAIT_TIMEOUT: a row lock was not granted within innodb_lock_wait_timeout
 ]);
 
-export function isRetryableTransactionError(error: unknown): boolean {
+function isRetryableTransactionError(error: unknown): boolean {
   const e = error as { errno?: number; driverError?: { errno?: number } };
   return RETRYABLE_ERRNOS.has(e?.errno ?? -1) || RETRYABLE_ERRNOS.has(e?.driverError?.errno ?? -1);
 }
@@ -17,7 +17,7 @@ export const isDuplicateOf = (key: string) => (error: unknown) => {
   return e?.code === 'ER_DUP_ENTRY' && String(e.message).includes(`'${key}'`);
 };
 
-export type TransactionOptions = {
+type TransactionOptions = {
   attempts?: number;
   baseDelayMs?: number;
   /** Another error after which running `work` again gives the right answer. */

@@ -168,5 +168,3 @@ export function startWorker<T>(
   worker.on('error', () => undefined);
   return worker;
 }
-
-export { QueueEvents };

@@ -41,7 +41,7 @@ export function createLog(env: Pick<Env, 'LOG_LEVEL'>, destination?: pino.Destin
 const scrubQuoted = (text: string) => text.replace(/'(?:[^'\\]|\\.)*'/g, "'…'").replace(/\$2[aby]\$\d\d\$[./A-Za-z0-9]{53}/g, '[hash]');
 
 /** An error as it may be logged: no `parameters`, `query` values, driver internals or quoted values. */
-export function safeError(error: unknown): Record<string, unknown> {
+function safeError(error: unknown): Record<string, unknown> {
   if (!(error instanceof Error)) return { message: scrubQuoted(String(error)) };
   const e = error as Error & { code?: unknown; errno?: unknown; driverError?: unknown };
   return {

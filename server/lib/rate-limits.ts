@@ -12,9 +12,9 @@ import { AppError } from './errors';
  * store), so they hold across every app process on the same database. Keys are hashed: the table
  * never holds an e-mail address or a client address in the clear.
  */
-export type LimitRule = { points: number; seconds: number; message: string };
+type LimitRule = { points: number; seconds: number; message: string };
 
-export type LimitName =
+type LimitName =
   | 'signUpPerAddress'
   | 'resetPerEmail'
   | 'resetPerAddress'

@@ -48,7 +48,7 @@ export function createMailer(env: Env): Mailer {
   };
 }
 
-export type OutboxEntry = { file: string; to: string; subject: string; date: string };
+type OutboxEntry = { file: string; to: string; subject: string; date: string };
 
 /** Lists the outbox newest first, reading only each message's headers. */
 export async function listOutbox(dir: string): Promise<OutboxEntry[]> {

@@ -23,7 +23,7 @@ const UNREACHABLE_CODES = new Set([
 const UNREACHABLE_ERRNOS = new Set([1040, 1053, 2002, 2003, 2006, 2013]);
 
 /** Whether an error (or the driver error or cause inside it) says the database cannot be reached. */
-export function isDatabaseUnreachable(error: unknown, depth = 0): boolean {
+function isDatabaseUnreachable(error: unknown, depth = 0): boolean {
   if (!error || typeof error !== 'object' || depth > 4) return false;
   const e = error as { code?: unknown; errno?: unknown; fatal?: unknown; driverError?: unknown; cause?: unknown; errors?: unknown[] };
   if (typeof e.code === 'string' && UNREACHABLE_CODES.has(e.code)) return true;
@@ -32,7 +32,7 @@ export function isDatabaseUnreachable(error: unknown, depth = 0): boolean {
   return isDatabaseUnreachable(e.driverError, depth + 1) || isDatabaseUnreachable(e.cause, depth + 1);
 }
 
-export const DATABASE_RETRY_SECONDS = 5;
+const DATABASE_RETRY_SECONDS = 5;
 
 export const apiNotFound: RequestHandler = (req, res) => {
   res.status(404).json({

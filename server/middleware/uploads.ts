@@ -3,7 +3,7 @@ import multer from 'multer';
 import { ERROR_CODES } from '../../shared/schemas/api-error';
 import { AppError } from '../lib/errors';
 
-export type UploadLimits = { maxBytes: number; fields: number; fieldBytes: number };
+type UploadLimits = { maxBytes: number; fields: number; fieldBytes: number };
 
 /** A licence proof: one file of up to 10 MB and nothing much besides. */
 export const PROOF_LIMITS: UploadLimits = { maxBytes: 10 * 1024 * 1024, fields: 4, fieldBytes: 1024 };

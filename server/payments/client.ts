@@ -6,7 +6,7 @@ import type { Env } from '../config/env';
 /** `checkoutOrigin`: where checkout pages live, which proof pages must be allowed to send the buyer to. */
 export type Payments = { sdk: Stripe; webhookSecret: string; fake: boolean; checkoutOrigin: string };
 
-export const FAKE_SECRET_KEY = 'sk_test_sheetsmith_local_fake';
+const FAKE_SECRET_KEY = 'sk_test_sheetsmith_local_fake';
 
 export function createPayments(env: Pick<Env, 'STRIPE_SECRET_KEY' | 'STRIPE_WEBHOOK_SECRET' | 'PAYMENTS_FAKE_URL'>): Payments {
   if (env.STRIPE_SECRET_KEY)

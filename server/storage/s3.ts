@@ -14,7 +14,7 @@ import { KEY_PATTERN, StorageKeyError } from './storage';
 // project runs on Node 20 by requirement, so the warning says nothing a maker or operator can act on.
 process.env.AWS_SDK_JS_NODE_VERSION_SUPPORT_WARNING_DISABLED ??= 'true';
 
-export type S3Settings = {
+type S3Settings = {
   endpoint?: string;
   region: string;
   bucket: string;

@@ -8,7 +8,7 @@ import type { ArrangeItem, LockedPiece, Placement, RotateMode } from './nester';
 import type { ShapeMask } from './raster';
 import { shapeMask } from './raster';
 
-export type DecodeOptions = BoardOptions & { fill: boolean; strip: boolean; maxSheets: number };
+type DecodeOptions = BoardOptions & { fill: boolean; strip: boolean; maxSheets: number };
 
 export type Shape = { item: ArrangeItem; masks: ShapeMask[]; areaMm2: number };
 

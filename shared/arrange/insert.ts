@@ -5,7 +5,7 @@
 import type { Layout } from './separator';
 import type { Variant } from './shapes';
 
-export type InsertOptions = { deadline: number; random: () => number; shouldStop?: () => boolean };
+type InsertOptions = { deadline: number; random: () => number; shouldStop?: () => boolean };
 
 /** Adds one piece with the given rotations; true when the layout is without overlap again. */
 export function insertPiece(layout: Layout, variants: Variant[], o: InsertOptions): boolean {

@@ -3,7 +3,7 @@
 // descent (steps along x and y that grow after a gain and halve after none).
 import type { Layout } from './separator';
 
-export type Spot = { v: number; x: number; y: number; c: number };
+type Spot = { v: number; x: number; y: number; c: number };
 
 export function bestSpot(layout: Layout, i: number, random: () => number, uniform: number, nearby: number): Spot {
   const p = layout.pieces[i];

@@ -72,8 +72,6 @@ export type ArrangeResult = {
 
 export { ArrangeInputError } from './input';
 
-export { rotationsOf } from './input';
-
 /** Arranges the pieces; problems with single pieces are reported in `unplaced`, naming the piece. */
 export function arrange(
   items: ArrangeItem[],

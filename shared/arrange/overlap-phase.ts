@@ -11,7 +11,7 @@ import { variantsOf } from './shapes';
 import type { StripOptions } from './strip';
 import { shortenStrip } from './strip';
 
-export type PhaseInput = {
+type PhaseInput = {
   items: ArrangeItem[];
   locked: LockedPiece[];
   rotate: RotateMode;

@@ -18,7 +18,7 @@ export type LayoutPiece = { variants: Variant[]; v: number; x: number; y: number
 export type Area = { x0: number; y0: number; x1: number; y1: number };
 type Entry = { minX: number; minY: number; maxX: number; maxY: number; i: number };
 
-export type SeparateOptions = {
+type SeparateOptions = {
   strikes: number;
   roundsWithoutGain: number;
   deadline: number;

@@ -36,7 +36,7 @@ export type Variant = {
  * corners are chords within an arc tolerance of 2 % of the growth (a dozen points per half turn);
  * the growth is that much more than asked, so no chord comes closer than `grow` to the cut line.
  */
-export function growRing(ring: Ring, grow: number): Ring {
+function growRing(ring: Ring, grow: number): Ring {
   if (grow <= 0) return ring;
   const tolerance = Math.min(0.1, Math.max(0.002, grow * 0.02));
   const paths = inflatePathsD([ring.map((p) => ({ x: p.x, y: p.y }))], grow + tolerance, JoinType.Round, EndType.Polygon, 2, 4, tolerance);
@@ -86,7 +86,7 @@ export function insideRing(px: number, py: number, xs: Float64Array, ys: Float64
  * Inscribed circles that do not overlap one another, each the largest that still fits in what the
  * earlier ones left: sampled on a grid, then each centre refined by a shrinking pattern search.
  */
-export function polesOf(xs: Float64Array, ys: Float64Array, maxPoles = 8): Float64Array {
+function polesOf(xs: Float64Array, ys: Float64Array, maxPoles = 8): Float64Array {
   let x0 = Infinity,
     y0 = Infinity,
     x1 = -Infinity,

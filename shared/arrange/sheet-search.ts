@@ -7,7 +7,7 @@ import { insertPiece } from './insert';
 import type { Layout } from './separator';
 import type { Variant } from './shapes';
 
-export type SheetSearch = {
+type SheetSearch = {
   variantsOf: (key: string) => Variant[];
   area: Area;
   gap: number;

@@ -17,7 +17,7 @@ export type StripOptions = {
 };
 
 /** The used length: the lowest point of any cut line (y grows along the strip). */
-export function usedLength(layout: Layout): number {
+function usedLength(layout: Layout): number {
   let bottom = layout.area.y0;
   for (const p of layout.pieces) bottom = Math.max(bottom, p.y + p.variants[p.v].by1);
   return bottom;

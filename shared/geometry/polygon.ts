@@ -57,7 +57,7 @@ function onSegment(a: Point, b: Point, p: Point): boolean {
   );
 }
 
-export function segmentsIntersect(a: Point, b: Point, c: Point, d: Point): boolean {
+function segmentsIntersect(a: Point, b: Point, c: Point, d: Point): boolean {
   // Disjoint boxes never meet; this also keeps nearly collinear, far-apart edges from being
   // misjudged by rounding in the orientation tests.
   if (

@@ -46,7 +46,7 @@ export function shareOf(totalMinor: number, percent: number): number {
   return Math.floor((totalMinor * percent + 50) / 100);
 }
 
-export type PricedLine = { unitPriceMinor: number; quantity: number };
+type PricedLine = { unitPriceMinor: number; quantity: number };
 
 /** The order's total: each line's unit price times its quantity, summed, all in cents. */
 export const orderTotal = (lines: PricedLine[]) => lines.reduce((sum, l) => sum + l.unitPriceMinor * l.quantity, 0);

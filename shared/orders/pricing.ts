@@ -3,7 +3,7 @@
 // holds more). The nester packs true shapes tighter when the sheets are made; a quote from the grid
 // is on the safe side.
 
-export type Size = { width: number; height: number };
+type Size = { width: number; height: number };
 
 export function gridCount(area: Size, margin: number, gap: number, sticker: Size): number {
   const fit = (w: number, h: number) => {

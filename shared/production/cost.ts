@@ -16,12 +16,12 @@ export function costPerSheet(packPrice: number, sheetsPerPack: number): number {
  * the ISO/IEC 24712 page set; the 5 % figure is from memory), so a fully covered page costs the
  * cartridge price over a twentieth of its rated yield.
  */
-export const RATED_YIELD_COVERAGE = 0.05;
+const RATED_YIELD_COVERAGE = 0.05;
 export function fullCoverageCost(cartridgePrice: number, ratedYieldPages: number): number {
   return cartridgePrice / (ratedYieldPages * RATED_YIELD_COVERAGE);
 }
 
-export type CostInputs = {
+type CostInputs = {
   /** Price of one sheet of the stock. */
   stockPerSheet: number;
   /** Ink coverage of the print image: 1 = one full layer of ink over the whole print area. */

@@ -9,7 +9,6 @@ export const apiErrorSchema = z.object({
     fields: z.record(z.string(), z.string()).optional(),
   }),
 });
-export type ApiError = z.infer<typeof apiErrorSchema>;
 
 export const ERROR_CODES = {
   validation: 'validation_failed',

@@ -18,7 +18,7 @@ const rotate = z.union([
 ]);
 const key = z.string().min(1).max(400);
 
-export const MAX_ARRANGE_SECONDS = 300;
+const MAX_ARRANGE_SECONDS = 300;
 
 export const arrangeRunSchema = z.object({
   items: z

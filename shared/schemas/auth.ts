@@ -61,13 +61,12 @@ export const changePasswordSchema = z.object({
 });
 export type ChangePasswordInput = z.infer<typeof changePasswordSchema>;
 
-export const membershipSummarySchema = z.object({
+const membershipSummarySchema = z.object({
   teamId: z.string(),
   teamName: z.string(),
   role: z.enum(ROLES),
   personal: z.boolean(),
 });
-export type MembershipSummary = z.infer<typeof membershipSummarySchema>;
 
 export const meSchema = z.object({
   user: z.object({

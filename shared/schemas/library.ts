@@ -58,7 +58,7 @@ export type ArtListQuery = z.infer<typeof artListQuerySchema>;
 export type ArtPage = { items: ArtView[]; total: number; page: number; pageSize: number; suggestion: string | null };
 
 /** A saved background setting; without a tolerance the mode's own default applies (none carries over from another mode). */
-export const backgroundSettingSchema = z
+const backgroundSettingSchema = z
   .object({
     mode: z.enum(['auto', 'keep', 'colour']),
     colour: z

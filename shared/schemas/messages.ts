@@ -37,7 +37,7 @@ const TYPE_WORDS: Record<string, string> = {
   file: 'Choose a file',
 };
 
-export const makerWords: z.core.$ZodErrorMap = (issue) => {
+const makerWords: z.core.$ZodErrorMap = (issue) => {
   switch (issue.code) {
     case 'invalid_type':
       if (issue.input === undefined || issue.input === null) return 'This is needed';

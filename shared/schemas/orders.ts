@@ -2,7 +2,7 @@ import { z } from 'zod';
 import './messages';
 import { emailSchema } from './auth';
 import { idSchema } from './team';
-import { ORDER_CURRENCIES, toMinor } from '../orders/money';
+import { toMinor } from '../orders/money';
 import type { OrderCurrency } from '../orders/money';
 
 /** An order's road from quote to hand-over (our own names; the labels are what people read). */
@@ -49,7 +49,7 @@ export const EDITABLE_STATES: readonly OrderState[] = ['quote', 'changes'];
 const text = (max: number) => z.string().trim().max(max, `Use at most ${max} characters`);
 
 /** A price in major units with at most two decimals (a number or its text), as whole cents. */
-export const priceSchema = z.union([z.number(), z.string()], { error: 'Give a price, like 1.25' }).transform((value, ctx) => {
+const priceSchema = z.union([z.number(), z.string()], { error: 'Give a price, like 1.25' }).transform((value, ctx) => {
   const minor = toMinor(value);
   if (minor === null) {
     ctx.addIssue({
@@ -136,8 +136,6 @@ export const proofChangesSchema = z.object({
   comment: z.string().trim().min(3, 'Say what should change').max(2000, 'Use at most 2000 characters'),
 });
 export const proofTokenSchema = z.object({ token: z.string().regex(/^[A-Za-z0-9_-]{43}$/, 'Not a proof link') });
-
-export const orderCurrencySchema = z.enum(ORDER_CURRENCIES, { error: `Pick a currency: ${ORDER_CURRENCIES.join(', ')}` });
 
 export type CustomerView = { id: string; name: string; email: string; notes: string; orders: number };
 

@@ -4,7 +4,7 @@ import { parseLength, inchToMm } from '../units';
 import type { Box, Point } from '../geometry/polygon';
 
 /** A length given as "2in", "3mm", "0.5\"" or a bare number of millimetres. */
-export const lengthSchema = (label: string) =>
+const lengthSchema = (label: string) =>
   z.union([z.number(), z.string()]).transform((value, ctx) => {
     const mm = typeof value === 'number' ? value : parseLength(value, 'mm');
     if (mm === null || !Number.isFinite(mm)) {
@@ -29,7 +29,7 @@ export const DEFAULT_TOLERANCE = { auto: 32, colour: 24 } as const;
 /** Alpha (0–255) at or above which a pixel counts as art unless asked otherwise. */
 export const DEFAULT_ALPHA_THRESHOLD = 48;
 
-export const backgroundSchema = z
+const backgroundSchema = z
   .union([
     z.literal('auto'),
     z.literal('keep'),
@@ -37,7 +37,7 @@ export const backgroundSchema = z
   ])
   .default('auto');
 
-export const DEFAULT_BORDER_MM = inchToMm(0.125);
+const DEFAULT_BORDER_MM = inchToMm(0.125);
 
 /**
  * Options of the outline engine. Lengths are millimetres after parsing. Exactly one of width or

@@ -7,7 +7,6 @@ export const PAPER_SIZES = {
   letter: { width: 215.9, height: 279.4, label: 'US Letter (8.5 × 11 in)' },
   a4: { width: 210, height: 297, label: 'A4 (210 × 297 mm)' },
 } as const;
-export type PaperKind = keyof typeof PAPER_SIZES | 'custom';
 
 const mm = (label: string, min = 0, max = 2000) =>
   z.coerce

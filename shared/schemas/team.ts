@@ -3,14 +3,14 @@ import './messages';
 import { ROLES } from '../permissions';
 import { emailSchema } from './auth';
 
-export const roleSchema = z.enum(ROLES, { error: 'Pick a role: owner, admin, member or viewer' });
+const roleSchema = z.enum(ROLES, { error: 'Pick a role: owner, admin, member or viewer' });
 
 export const idSchema = z.string().regex(/^\d{1,18}$/, 'Not a valid id');
 export const teamParamsSchema = z.object({ teamId: idSchema });
 export const memberParamsSchema = z.object({ teamId: idSchema, userId: idSchema });
 export const inviteParamsSchema = z.object({ teamId: idSchema, inviteId: idSchema });
 
-export const teamNameSchema = z
+const teamNameSchema = z
   .string({ error: 'Enter a team name' })
   .trim()
   .min(2, 'Use at least 2 characters')
@@ -18,7 +18,6 @@ export const teamNameSchema = z
 
 export const createTeamSchema = z.object({ name: teamNameSchema });
 export const updateTeamSchema = z.object({ name: teamNameSchema });
-export type UpdateTeamInput = z.infer<typeof updateTeamSchema>;
 
 export const createInviteSchema = z.object({ email: emailSchema, role: roleSchema });
 export type CreateInviteInput = z.infer<typeof createInviteSchema>;

@@ -11,8 +11,8 @@ import type { Piece, SheetDocument } from './document';
  */
 export const MAX_ROTATION_DEG = 360;
 
-export type BoundsField = 'x' | 'y' | 'width' | 'rotation';
-export type BoundsProblem = { index: number; pieceId: string; field: BoundsField; message: (unit: LengthUnit, name?: string) => string };
+type BoundsField = 'x' | 'y' | 'width' | 'rotation';
+type BoundsProblem = { index: number; pieceId: string; field: BoundsField; message: (unit: LengthUnit, name?: string) => string };
 
 /** The largest art width a piece with this border may have on this sheet. */
 export const maxArtWidthMm = (doc: Pick<SheetDocument, 'printArea'>, border: number) =>

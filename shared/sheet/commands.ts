@@ -17,7 +17,7 @@ export type Diff = {
  */
 export type Command = { name: string; diff: Diff; merge?: string };
 
-export const emptyDiff = (): Diff => ({ added: [], updated: [], removed: [] });
+const emptyDiff = (): Diff => ({ added: [], updated: [], removed: [] });
 
 export function applyDiff(doc: SheetDocument, diff: Diff): SheetDocument {
   const removed = new Set(diff.removed.map((p) => p.id));

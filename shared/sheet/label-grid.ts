@@ -11,7 +11,7 @@ import type { Piece, SheetDocument } from './document';
  */
 export const LABEL_GRID_ALLOWANCE_MM = 0.05;
 
-export type LabelGrid = { columns: number; rows: number; pitchX: number; pitchY: number; command: Command };
+type LabelGrid = { columns: number; rows: number; pitchX: number; pitchY: number; command: Command };
 
 /**
  * The grid for `template` (its frame `frameW` × `frameH` mm as drawn, turned with it) at the sheet's

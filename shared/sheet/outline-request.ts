@@ -5,7 +5,7 @@ import type { Piece } from './document';
  * What an art item has saved about its outline: the art page's "Background" setting and whether the
  * maker agreed that narrow parts of the cut line may be widened.
  */
-export type ArtBackgroundSetting = {
+type ArtBackgroundSetting = {
   backgroundMode: 'auto' | 'keep' | 'colour';
   backgroundColour: string | null;
   backgroundTolerance: number;
@@ -24,7 +24,7 @@ export function artBackgroundOptions(art: ArtBackgroundSetting): Pick<OutlineOpt
 }
 
 /** The resolution the editor's outlines (and so the preview, preflight and analysis) are made at. */
-export const PREVIEW_DPI = 150;
+const PREVIEW_DPI = 150;
 
 /**
  * The outline request for a piece of art placed on a sheet. The editor (through the outline

@@ -37,7 +37,7 @@ export const profileLimits = (profile: PreflightLimits | null | undefined): Pref
     ? { smallestStickerMm: profile.smallestStickerMm, minFeatureMm: profile.minFeatureMm, bridgeWidthMm: profile.bridgeWidthMm }
     : DEFAULT_PREFLIGHT_LIMITS;
 /** Common practice: 1/16 in between cut lines is the hard floor; under it the blade catches the neighbour. */
-export const HARD_GAP_FLOOR_MM = inchToMm(1 / 16);
+const HARD_GAP_FLOOR_MM = inchToMm(1 / 16);
 
 export type PreflightInput = {
   doc: SheetDocument;
@@ -56,7 +56,7 @@ export type PreflightInput = {
 export const countTearRisks = (warnings: Array<{ code: string }>) =>
   warnings.filter((w) => w.code === 'narrow-neck' || w.code === 'narrow-slot').length;
 
-export const SEVERITY_ORDER: Record<Severity, number> = { error: 0, warning: 1, notice: 2 };
+const SEVERITY_ORDER: Record<Severity, number> = { error: 0, warning: 1, notice: 2 };
 
 /**
  * Everything that would waste a sheet of sticker paper, found before printing. Pieces without an

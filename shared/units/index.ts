@@ -3,9 +3,9 @@
 // agreement, 1959); CSS/SVG: 1in = 96px = 72pt (CSS Values and Units Level 3, §6.2).
 
 /** Names that say which unit a number is in (plain numbers: every length in the app is in mm). */
-export type Mm = number;
-export type Inch = number;
-export type Px = number;
+type Mm = number;
+type Inch = number;
+type Px = number;
 
 export type LengthUnit = 'mm' | 'in';
 export const LENGTH_UNITS: readonly LengthUnit[] = ['in', 'mm'];
@@ -14,8 +14,7 @@ export const MM_PER_INCH = 25.4;
 
 /** An angle in degrees brought into [0, 360): -90 → 270, 450 → 90. */
 export const normaliseDegrees = (degrees: number) => ((degrees % 360) + 360) % 360;
-export const CSS_PX_PER_INCH = 96;
-export const PT_PER_INCH = 72;
+const CSS_PX_PER_INCH = 96;
 
 export const inchToMm = (value: Inch): Mm => value * MM_PER_INCH;
 export const mmToInch = (value: Mm): Inch => value / MM_PER_INCH;

@@ -13,7 +13,7 @@ import { env } from '../../server/config/env';
 import type { Env } from '../../server/config/env';
 import type { AppOptions } from '../../server/app';
 
-export const SCREENSHOT_DIR = path.resolve('tests/output/screenshots');
+const SCREENSHOT_DIR = path.resolve('tests/output/screenshots');
 
 /**
  * Time allowed for one browser test. A browser test is a chain of real steps (sign-in, uploads,

@@ -3,7 +3,7 @@
 
 const SIGNATURE = Buffer.from([137, 80, 78, 71, 13, 10, 26, 10]);
 
-export function pngChunks(png: Buffer): Array<{ type: string; data: Buffer }> {
+function pngChunks(png: Buffer): Array<{ type: string; data: Buffer }> {
   if (!png.subarray(0, 8).equals(SIGNATURE)) throw new Error('not a PNG signature');
   const chunks: Array<{ type: string; data: Buffer }> = [];
   let offset = 8;
@@ -29,7 +29,7 @@ export function pngPhys(png: Buffer) {
 }
 
 /** CRC-32 as PNG defines it (§5.5, Annex D), to build hand-made test files. */
-export function crc32(bytes: Buffer): number {
+function crc32(bytes: Buffer): number {
   let crc = 0xffffffff;
   for (const byte of bytes) {
     crc ^= byte;
@@ -38,7 +38,7 @@ export function crc32(bytes: Buffer): number {
   return (crc ^ 0xffffffff) >>> 0;
 }
 
-export function chunk(type: string, data: Buffer): Buffer {
+function chunk(type: string, data: Buffer): Buffer {
   const head = Buffer.alloc(8);
   head.writeUInt32BE(data.length, 0);
   head.write(type, 4, 'latin1');

@@ -8,7 +8,7 @@ import { ArrangeInputError } from '../../../shared/arrange/nester';
 import { betterResult, threadSeed, threadsFor } from '../../../shared/arrange/portfolio';
 import type { ArrangeTask, ArrangeTaskResult } from './thread';
 
-export type ParallelRun = {
+type ParallelRun = {
   /** Every thread's answer, best first. */
   done: Promise<ArrangeResult>;
   /** Asks every thread to stop; `done` then answers the best so far. */

@@ -14,7 +14,7 @@ export class ExportInputError extends Error {}
  * What goes beside every print file: a printer scaling the page ("fit to page", borderless
  * expansion) is the commonest reason cut lines miss the print (common practice, TRADE.md).
  */
-export const PRINT_CAUTION = (area: string) => [
+const PRINT_CAUTION = (area: string) => [
   'Print at 100 % (actual size): no scaling, no fit-to-page, no borderless expansion.',
   `Check with a ruler: the print area is ${area}; in the PDF the bar under it is 1 in.`,
 ];

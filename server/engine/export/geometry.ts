@@ -28,7 +28,7 @@ export function sheetCutLines(
 }
 
 /** A rounded rectangle inset by `inset`, corners as 16-segment arcs (clockwise on screen). */
-export function roundedRect(width: number, height: number, inset: number, radius: number): Ring {
+function roundedRect(width: number, height: number, inset: number, radius: number): Ring {
   const r = Math.max(0, Math.min(radius, (width - 2 * inset) / 2, (height - 2 * inset) / 2));
   const x0 = inset,
     y0 = inset,

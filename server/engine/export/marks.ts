@@ -4,7 +4,7 @@ import type { RegMarkShape } from '../../../shared/schemas/sheets';
 export type RegMarks = { shape: Exclude<RegMarkShape, 'none'>; sizeMm: number; offsetMm: number };
 
 /** One printed mark: its outline (closed, mm, print-area coordinates: may be negative) and its box. */
-export type RegMark = { corner: 'top-left' | 'top-right' | 'bottom-left'; ring: Ring; box: { x: number; y: number; size: number } };
+type RegMark = { corner: 'top-left' | 'top-right' | 'bottom-left'; ring: Ring; box: { x: number; y: number; size: number } };
 
 /**
  * Registration marks in Sheetsmith's own neutral layout: one mark outside each of three corners of

@@ -16,7 +16,7 @@ function resourceDict(page: PDFPage, key: string): PDFDict {
   return dict;
 }
 
-export type PdfExtras = {
+type PdfExtras = {
   /** A 1 in scale bar in the margin below the print area, to check the printout with a ruler. */
   checkBar: boolean;
   /** The summary as extra pages (off by default: "print all pages" would waste a sheet). */
@@ -167,7 +167,7 @@ async function addTextPages(pdf: PDFDocument, lines: string[], size: [number, nu
 }
 
 /** Greedy word wrap; a word longer than the line is cut. */
-export function wrap(text: string, measure: (t: string) => number, width: number): string[] {
+function wrap(text: string, measure: (t: string) => number, width: number): string[] {
   if (text === '') return [''];
   const out: string[] = [];
   let line = '';

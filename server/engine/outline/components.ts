@@ -7,7 +7,7 @@ export type Component = { label: number; area: number; minX: number; minY: numbe
  * (8-connected) with union-find, then paints the labels. Working on runs instead of pixels keeps
  * it fast on large solid art.
  */
-export type Runs = { count: number; x0: Int32Array; x1: Int32Array; y: Int32Array; label: Int32Array };
+type Runs = { count: number; x0: Int32Array; x1: Int32Array; y: Int32Array; label: Int32Array };
 
 export function labelComponents(
   mask: Uint8Array,

@@ -2,7 +2,7 @@ import sharp from 'sharp';
 import type { Metadata } from 'sharp';
 import { OutlineInputError } from './errors';
 
-export type DecodedArt = {
+type DecodedArt = {
   rgba: Buffer;
   width: number;
   height: number;
@@ -12,7 +12,7 @@ export type DecodedArt = {
 };
 
 const FORMATS = new Set(['png', 'jpeg', 'webp']);
-export const MIN_SIDE_PX = 4;
+const MIN_SIDE_PX = 4;
 
 /**
  * Decodes PNG, JPEG or WebP to 8-bit sRGB RGBA: EXIF orientation applied (EXIF 2.32 tag 0x0112),

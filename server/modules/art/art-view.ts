@@ -64,7 +64,7 @@ export async function artViews(manager: EntityManager, items: ArtItem[]): Promis
  * Which licence holds for an art item: its own when it has one, else that of the pack it came in
  * (the collection it was uploaded with). The one rule, for the art's page and the sheet checks.
  */
-export function licenceSource(item: Pick<ArtItem, 'licence'>, pack: Pick<Collection, 'licence'> | null): 'own' | 'pack' | null {
+function licenceSource(item: Pick<ArtItem, 'licence'>, pack: Pick<Collection, 'licence'> | null): 'own' | 'pack' | null {
   if (item.licence.kind) return 'own';
   return pack?.licence.kind ? 'pack' : null;
 }

@@ -20,7 +20,7 @@ import { TeamVocabularies } from './vocabulary';
 import { z } from 'zod';
 
 /** Names of the team's sheets that use any of the art (sheets sit above art and are asked through this). */
-export type SheetsUsingArt = (teamId: string, artIds: string[]) => Promise<string[]>;
+type SheetsUsingArt = (teamId: string, artIds: string[]) => Promise<string[]>;
 
 export function artRouter({
   dataSource,

@@ -9,9 +9,9 @@ import { JSDOM } from 'jsdom';
 import sharp from 'sharp';
 import { AppError } from '../../lib/errors';
 
-export const SVG_LIMITS = { maxBytes: 5 * 1024 * 1024, maxElements: 20_000 };
+const SVG_LIMITS = { maxBytes: 5 * 1024 * 1024, maxElements: 20_000 };
 /** The DPI vector art is drawn at: the print resolution. */
-export const SVG_DPI = 300;
+const SVG_DPI = 300;
 
 const refuse = (message: string) => new AppError(422, 'svg_refused', message);
 const UNIT_IN: Record<string, number> = { in: 1, cm: 1 / 2.54, mm: 1 / 25.4, pt: 1 / 72, pc: 1 / 6, px: 1 / 96, '': 1 / 96 };

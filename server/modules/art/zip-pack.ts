@@ -18,8 +18,8 @@ export const DEFAULT_PACK_LIMITS: PackLimits = {
   maxRatio: 200,
 };
 
-export type PackImage = { path: string; folders: string[]; data: Buffer };
-export type PackSkip = { path: string; reason: string };
+type PackImage = { path: string; folders: string[]; data: Buffer };
+type PackSkip = { path: string; reason: string };
 
 const IMAGE = /\.(png|jpe?g|webp|svg)$/i;
 const DAMAGED =

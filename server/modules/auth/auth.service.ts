@@ -14,7 +14,7 @@ import { User } from '../accounts/user.entity';
 import { createUserWithTeam } from '../accounts/create-account';
 import { inTransaction } from '../../db/transaction';
 
-export const RESET_LIFETIME_MS = 60 * 60 * 1000;
+const RESET_LIFETIME_MS = 60 * 60 * 1000;
 
 export type SessionUser = Express.User;
 

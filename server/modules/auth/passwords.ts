@@ -52,12 +52,5 @@ export async function burnPasswordCheck(password: string): Promise<false> {
   return false;
 }
 
-/** Stops the hashing threads (scripts and tests that want to exit promptly). */
-export async function closePasswordPool(): Promise<void> {
-  const current = pool;
-  pool = null;
-  await current?.destroy();
-}
-
 /** How many hashes and checks the worker threads have finished (tests prove the work left this thread). */
 export const passwordTasksCompleted = () => pool?.completed ?? 0;

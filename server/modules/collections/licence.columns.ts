@@ -1,8 +1,8 @@
 import { Column } from 'typeorm';
 import type { LicenceView } from '../../../shared/schemas/library';
 
-export const LICENCE_KINDS = ['personal', 'commercial', 'commercial_limited'] as const;
-export type LicenceKind = (typeof LICENCE_KINDS)[number];
+const LICENCE_KINDS = ['personal', 'commercial', 'commercial_limited'] as const;
+type LicenceKind = (typeof LICENCE_KINDS)[number];
 
 /** Licence fields shared by collections (inherited by their art) and single art items. */
 export class LicenceColumns {

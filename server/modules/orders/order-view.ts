@@ -22,7 +22,7 @@ export type ProofSnapshot = {
   totalMinor: number;
 };
 
-export function proofView(p: OrderProof, money: boolean, teamId?: string): ProofView {
+function proofView(p: OrderProof, money: boolean, teamId?: string): ProofView {
   const snapshot = JSON.parse(p.snapshotJson) as ProofSnapshot;
   return {
     id: p.id,
@@ -61,7 +61,7 @@ export function summaryOf(order: Order, customer: Customer, lines: OrderLine[], 
 }
 
 /** Names for the lines: the art's or the sheet's, and the stock's. */
-export async function lineViews(dataSource: DataSource, lines: OrderLine[], money: boolean): Promise<OrderLineView[]> {
+async function lineViews(dataSource: DataSource, lines: OrderLine[], money: boolean): Promise<OrderLineView[]> {
   const ids = (pick: (l: OrderLine) => string | null) => In(['0', ...lines.map(pick).filter((id): id is string => id !== null)]);
   const [art, sheets, stock] = await Promise.all([
     dataSource.getRepository(ArtItem).find({ where: { id: ids((l) => l.artId) }, select: { id: true, name: true } }),

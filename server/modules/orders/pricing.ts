@@ -14,7 +14,7 @@ export const SINGLES_BORDER_MM = inchToMm(0.125);
 
 const refused = (field: string, message: string) => new AppError(400, 'validation_failed', message, { [field]: message });
 
-export type SinglesSize = { widthMm: number; heightMm: number; perSheet: number };
+type SinglesSize = { widthMm: number; heightMm: number; perSheet: number };
 
 /** The finished size and how many fit a sheet; refused when not even one fits the print area. */
 export function singlesSize(

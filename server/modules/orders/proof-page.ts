@@ -11,7 +11,6 @@ import type { RateLimits } from '../../lib/rate-limits';
 import { fieldMessages } from '../../middleware/validate';
 import type { PaymentsService } from './payments.service';
 import type { ProofsService } from './proofs.service';
-import type { ProofSnapshot } from './order-view';
 
 const tokenOf = (req: Request) => String(req.params.token);
 const esc = (s: string) => s.replace(/[&<>"']/g, (c) => `&#${c.charCodeAt(0)};`);
@@ -175,5 +174,3 @@ export function proofPageRouter(deps: {
   });
   return router;
 }
-
-export type { ProofSnapshot };

@@ -8,7 +8,6 @@ import type { DataSource } from 'typeorm';
 import { In } from 'typeorm';
 import type { Env } from '../../config/env';
 import { formatMinor, orderTotal } from '../../../shared/orders/money';
-import { formatLength } from '../../../shared/units';
 import { AppError, conflict, notFound } from '../../lib/errors';
 import { hashToken, newToken } from '../../lib/tokens';
 import type { Mailer } from '../../mail/mailer';
@@ -248,6 +247,3 @@ export class ProofsService {
       });
   }
 }
-
-export const sizeText = (widthMm: number | null, heightMm: number | null, unit: 'in' | 'mm') =>
-  widthMm === null || heightMm === null ? '' : `${formatLength(widthMm, unit)} × ${formatLength(heightMm, unit)}`;

@@ -16,7 +16,7 @@ import { ArtItem } from '../art/art-item.entity';
 import { OutlineCacheEntry } from './outline-cache.entity';
 
 /** Bump when the engine's output changes, so old cache entries are not served. */
-export const OUTLINE_ENGINE_VERSION = 'outline-2';
+const OUTLINE_ENGINE_VERSION = 'outline-2';
 
 export type StoredPiece = OutlinePieceData & { pngKey: string };
 export type StoredOutline = OutlineData<StoredPiece>;
@@ -60,7 +60,7 @@ export function withArtSetting(
 export type OutlineAccess = 'compute' | 'cached';
 export const outlineAccess = (role: Role | undefined): OutlineAccess =>
   can(role, 'sheets.edit') || can(role, 'library.contribute') ? 'compute' : 'cached';
-export const outlineNotMade = () =>
+const outlineNotMade = () =>
   new AppError(409, 'outline_not_made', 'This outline has not been made yet: it is made when someone who can edit the sheet opens it.');
 
 export class OutlineService {

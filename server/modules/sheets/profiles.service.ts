@@ -7,7 +7,7 @@ import { SheetProfile } from './sheet-profile.entity';
 import { inTransaction } from '../../db/transaction';
 
 /** Common practice for home cutters' print-and-cut: 6.75 × 9.25 in centred on Letter, 1/8 in gap. */
-export const DEFAULT_PROFILE: ProfileInput = {
+const DEFAULT_PROFILE: ProfileInput = {
   name: 'Letter print-and-cut',
   paper: 'letter',
   paperWidthMm: PAPER_SIZES.letter.width,

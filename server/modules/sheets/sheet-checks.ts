@@ -16,7 +16,7 @@ export function refuseOutOfBounds(doc: SheetDocument, unit: LengthUnit) {
   throw validationError(fields, `${problems[0].message(unit)}${more} Nothing was saved.`);
 }
 
-export const THUMBNAIL_MAX_PX = 1024;
+const THUMBNAIL_MAX_PX = 1024;
 
 /** The editor's thumbnail must decode as a PNG of at most 1024 px a side; it is stored re-encoded, so nothing else rides along. */
 export async function cleanThumbnail(dataUrl: string): Promise<Buffer> {

@@ -18,7 +18,7 @@ import type { SheetsService } from './sheets.service';
 import type { SheetSummary } from '../../../shared/schemas/sheets';
 
 /** Adds what modules above this one know of each listed sheet (its cost, from the print shop). */
-export type SheetListExtras = (teamId: string, list: SheetSummary[]) => Promise<SheetSummary[]>;
+type SheetListExtras = (teamId: string, list: SheetSummary[]) => Promise<SheetSummary[]>;
 
 export function sheetsRouter({
   dataSource,

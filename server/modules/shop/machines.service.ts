@@ -8,7 +8,7 @@ import { inTransaction } from '../../db/transaction';
 import { Blade, Machine } from './machine.entity';
 
 /** A blade's wear by length (90 % of its replacement length: near; all of it: due) and by its replace-by date. */
-export const bladeView = (b: Blade, today = new Date().toISOString().slice(0, 10)): BladeView => {
+const bladeView = (b: Blade, today = new Date().toISOString().slice(0, 10)): BladeView => {
   const cutLengthM = b.cutLengthMm / 1000,
     lifeM = b.lifeM;
   const replaceBy = b.replaceBy;

@@ -6,7 +6,7 @@ import { AppError, notFound } from '../../lib/errors';
 import { inTransaction } from '../../db/transaction';
 import { StockItem } from './stock-item.entity';
 
-export const stockView = (s: StockItem): StockView => ({
+const stockView = (s: StockItem): StockView => ({
   id: s.id,
   name: s.name,
   finish: s.finish,

@@ -18,7 +18,7 @@ import { Membership } from '../accounts/membership.entity';
 import { Team } from '../accounts/team.entity';
 import { inTransaction } from '../../db/transaction';
 
-export const INVITE_LIFETIME_MS = 7 * 24 * 60 * 60 * 1000;
+const INVITE_LIFETIME_MS = 7 * 24 * 60 * 60 * 1000;
 
 import type { Actor } from '../../../shared/permissions';
 

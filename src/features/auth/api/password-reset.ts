@@ -5,7 +5,7 @@ import { api } from '../../../lib/api-client';
 
 const resetCheckSchema = z.object({ email: z.string(), expiresAt: z.string() });
 
-export const resetCheckQueryOptions = (token: string) =>
+const resetCheckQueryOptions = (token: string) =>
   queryOptions({
     queryKey: ['password-reset', token],
     queryFn: async () => resetCheckSchema.parse(await api('GET', `/auth/password-reset/${encodeURIComponent(token)}`)),

@@ -17,8 +17,6 @@ export type PieceOutline = SharedPieceOutline & {
   narrowNecks: number;
 };
 
-export { outlineKey };
-
 function fetchOutline(teamId: string, key: string): Promise<PieceOutline> {
   const [artId, search] = key.split('?');
   return api<OutlineResponse>('GET', `/teams/${teamId}/art/${artId}/outline?${search}`).then((r) => ({

@@ -20,7 +20,7 @@ export type ArrangeChoice = {
 /** The most copies of one shape a single arrange run takes (over all the sheets it needs). */
 export const MAX_QUANTITY = 500;
 /** The most sheets one run may spread a quantity over. */
-export const MAX_SHEETS = 20;
+const MAX_SHEETS = 20;
 
 /**
  * The turning a run starts with: die-cut singles may turn a quarter (each is sold on its own), but a

@@ -3,7 +3,7 @@ import { MAX_QUANTITY } from '../core/arrange-plan';
 
 export type ArrangeWhere = 'here' | 'server';
 /** One art's row in "How many of each": what was typed, read as a number or a message. */
-export type QuantityRow = { key: string; name: string; count: number; q: { value: number } | { error: string } };
+type QuantityRow = { key: string; name: string; count: number; q: { value: number } | { error: string } };
 
 type Props = {
   choice: ArrangeChoice;

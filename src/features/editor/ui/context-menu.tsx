@@ -3,7 +3,7 @@ import type { ActionContext } from '../core/actions';
 import { actionNamed, enabled, runAction } from '../core/run-action';
 
 /** What the sheet's context menu offers, in order; labels, shortcuts and availability come from the action registry. */
-export const CONTEXT_ACTIONS = ['duplicate', 'rotate-cw', 'rotate-ccw', 'lock', 'delete', 'label-grid', 'select-all', 'arrange'];
+const CONTEXT_ACTIONS = ['duplicate', 'rotate-cw', 'rotate-ccw', 'lock', 'delete', 'label-grid', 'select-all', 'arrange'];
 
 /**
  * The canvas's context menu (right click, the Menu key or Shift+F10): the registry's actions for the

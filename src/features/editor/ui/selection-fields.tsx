@@ -92,7 +92,7 @@ export function LengthInput({
   );
 }
 
-export type SizeBy = 'sticker' | 'art';
+type SizeBy = 'sticker' | 'art';
 const SIZE_BY_KEY = 'sheetsmith.sizeBy';
 /** Sized by the finished sticker unless the maker chose the art (remembered in this browser). */
 export function useSizeBy(): [SizeBy, (s: SizeBy) => void] {

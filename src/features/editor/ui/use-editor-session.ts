@@ -14,7 +14,7 @@ import { useAutosave } from './use-autosave';
 
 const metaOf = (s: SheetDetail) => ({ name: s.name, status: s.status, forSale: s.forSale, unit: s.unit, notes: s.notes });
 
-export type EditorSession = {
+type EditorSession = {
   store: EditorStore;
   state: EditorState;
   /** A conflict's way out: the teammate's saved version replaces this one. */

@@ -1,6 +1,5 @@
 import { keepPreviousData, queryOptions, useMutation, useQuery, useQueryClient } from '@tanstack/react-query';
 import type { ArtListQuery, ArtPage, ArtUpdateInput, ArtView, BulkAction } from '../../../../shared/schemas/library';
-export type { ArtPage };
 import { ApiError, api, apiUpload } from '../../../lib/api-client';
 
 export type ArtFilters = Partial<Omit<ArtListQuery, 'page' | 'pageSize'>> & { page?: number; pageSize?: number };
@@ -11,13 +10,13 @@ const toSearch = (filters: ArtFilters) => {
   return params.toString();
 };
 
-export const artKeys = {
+const artKeys = {
   all: (teamId: string) => ['teams', teamId, 'art'] as const,
   list: (teamId: string, filters: ArtFilters) => ['teams', teamId, 'art', 'list', filters] as const,
   detail: (teamId: string, artId: string) => ['teams', teamId, 'art', 'detail', artId] as const,
 };
 
-export const artListQueryOptions = (teamId: string, filters: ArtFilters) =>
+const artListQueryOptions = (teamId: string, filters: ArtFilters) =>
   queryOptions({
     queryKey: artKeys.list(teamId, filters),
     queryFn: () => api<ArtPage>('GET', `/teams/${teamId}/art?${toSearch(filters)}`),
@@ -26,7 +25,7 @@ export const artListQueryOptions = (teamId: string, filters: ArtFilters) =>
 
 export const useArtList = (teamId: string, filters: ArtFilters) => useQuery(artListQueryOptions(teamId, filters));
 
-export const artQueryOptions = (teamId: string, artId: string) =>
+const artQueryOptions = (teamId: string, artId: string) =>
   queryOptions({ queryKey: artKeys.detail(teamId, artId), queryFn: () => api<ArtView>('GET', `/teams/${teamId}/art/${artId}`) });
 
 export const useArt = (teamId: string, artId: string) => useQuery(artQueryOptions(teamId, artId));

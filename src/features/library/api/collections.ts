@@ -2,7 +2,7 @@ import { useMutation, useQueryClient } from '@tanstack/react-query';
 import type { CollectionView, LicenceInput } from '../../../../shared/schemas/library';
 import { api } from '../../../lib/api-client';
 
-export { collectionsQueryOptions, useCollections } from '../../../api/collections';
+export { useCollections } from '../../../api/collections';
 
 function useCollectionMutation<I, O>(teamId: string, fn: (input: I) => Promise<O>) {
   const client = useQueryClient();
@@ -15,7 +15,7 @@ function useCollectionMutation<I, O>(teamId: string, fn: (input: I) => Promise<O
   });
 }
 
-export type CollectionChanges = { name?: string; membersCanAdd?: boolean; archived?: boolean; licence?: LicenceInput | null };
+type CollectionChanges = { name?: string; membersCanAdd?: boolean; archived?: boolean; licence?: LicenceInput | null };
 
 export const useCreateCollection = (teamId: string) =>
   useCollectionMutation(teamId, (input: { name: string; membersCanAdd?: boolean }) =>

@@ -2,7 +2,7 @@ import { queryOptions, useQuery } from '@tanstack/react-query';
 import { api } from '../../../lib/api-client';
 
 /** The team's members, for the "uploaded by" filter. */
-export const membersQueryOptions = (teamId: string) =>
+const membersQueryOptions = (teamId: string) =>
   queryOptions({
     queryKey: ['teams', teamId, 'members'],
     queryFn: async () => (await api<{ members: Array<{ userId: string; name: string }> }>('GET', `/teams/${teamId}`)).members,

@@ -2,12 +2,12 @@ import { keepPreviousData, queryOptions, useQuery } from '@tanstack/react-query'
 import type { OutlineResponse } from '../../../../shared/schemas/outline';
 import { api } from '../../../lib/api-client';
 
-export type OutlinePreview = OutlineResponse;
+type OutlinePreview = OutlineResponse;
 
-export type PreviewParams = { background: string; backgroundTolerance: number; widenNecks: boolean };
+type PreviewParams = { background: string; backgroundTolerance: number; widenNecks: boolean };
 
 /** A quick, low-DPI outline to show what background removal and the border will do. */
-export const outlinePreviewQueryOptions = (teamId: string, artId: string, p: PreviewParams) =>
+const outlinePreviewQueryOptions = (teamId: string, artId: string, p: PreviewParams) =>
   queryOptions({
     queryKey: ['teams', teamId, 'art', 'outline-preview', artId, p],
     queryFn: () => {

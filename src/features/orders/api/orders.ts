@@ -19,7 +19,7 @@ export const useOrderBoard = (teamId: string, filters: Record<string, string>) =
     queryFn: () => api<OrderBoard>('GET', `${base(teamId)}/orders?${new URLSearchParams(Object.entries(filters).filter(([, v]) => v))}`),
   });
 
-export const orderQueryOptions = (teamId: string, orderId: string) =>
+const orderQueryOptions = (teamId: string, orderId: string) =>
   queryOptions({ queryKey: orderKeys.one(teamId, orderId), queryFn: () => api<OrderView>('GET', `${base(teamId)}/orders/${orderId}`) });
 export const useOrder = (teamId: string, orderId: string) => useQuery(orderQueryOptions(teamId, orderId));
 

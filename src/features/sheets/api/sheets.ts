@@ -2,9 +2,9 @@ import { queryOptions, useMutation, useQuery, useQueryClient } from '@tanstack/r
 import type { ProfileInput, ProfileView, SheetDetail, SheetSummary } from '../../../../shared/schemas/sheets';
 import { api } from '../../../lib/api-client';
 
-export type SheetFilters = { q?: string; status?: string; ownerId?: string; templates?: 'only' | 'exclude' };
+type SheetFilters = { q?: string; status?: string; ownerId?: string; templates?: 'only' | 'exclude' };
 
-export const sheetsQueryOptions = (teamId: string, filters: SheetFilters) =>
+const sheetsQueryOptions = (teamId: string, filters: SheetFilters) =>
   queryOptions({
     queryKey: ['teams', teamId, 'sheets', 'list', filters],
     queryFn: async () => {
@@ -20,7 +20,7 @@ export const useSheets = (teamId: string, filters: SheetFilters) =>
     refetchInterval: (q) => (q.state.data?.some((s) => s.lastExport?.status === 'running') ? 1000 : false),
   });
 
-export const profilesQueryOptions = (teamId: string) =>
+const profilesQueryOptions = (teamId: string) =>
   queryOptions({
     queryKey: ['teams', teamId, 'sheet-profiles'],
     queryFn: async () => (await api<{ profiles: ProfileView[] }>('GET', `/teams/${teamId}/sheet-profiles`)).profiles,

@@ -6,7 +6,7 @@ import type { AcceptInviteInput } from '../../../../shared/schemas/auth';
 import { api } from '../../../lib/api-client';
 import { meQueryOptions } from '../../auth/api/me';
 
-export const teamQueryOptions = (teamId: string) =>
+const teamQueryOptions = (teamId: string) =>
   queryOptions({
     queryKey: ['teams', teamId],
     queryFn: async () => teamDetailSchema.parse(await api('GET', `/teams/${teamId}`)),
