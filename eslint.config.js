@@ -5,6 +5,7 @@
 // but auth.
 import js from '@eslint/js';
 import importX from 'eslint-plugin-import-x';
+import { createTypeScriptImportResolver } from 'eslint-import-resolver-typescript';
 import reactHooks from 'eslint-plugin-react-hooks';
 import tseslint from 'typescript-eslint';
 
@@ -88,7 +89,8 @@ export default tseslint.config(
       // A file longer than a screenful or five does more than one thing: split it by what it does.
       'max-lines': ['error', { max: 300 }],
     },
-    settings: { 'import-x/resolver': { node: { extensions: ['.ts', '.tsx', '.js', '.mjs'] } } },
+    // The TypeScript resolver reads tsconfig's paths (@/, @shared/), so the boundary rules see where an alias leads.
+    settings: { 'import-x/resolver-next': [createTypeScriptImportResolver({ project: './tsconfig.json' })] },
   },
   {
     files: ['src/**/*.{ts,tsx}'],

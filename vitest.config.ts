@@ -1,6 +1,8 @@
 import { defineConfig } from 'vitest/config';
+import { aliases } from './vite.config';
 
 export default defineConfig({
+  resolve: { alias: aliases },
   test: {
     include: ['shared/**/*.test.ts', 'src/**/*.test.ts', 'server/**/*.test.ts', 'tests/**/*.test.ts'],
     environment: 'node',

@@ -2,8 +2,8 @@
 // N distinct mixed pieces of 20–40 mm (the benchmark shapes at varied sizes, so no two share a mask),
 // quarter turns, 1/8 in gap, in a 600 mm wide strip. The baseline, measured in the same run, is the
 // same pass over 10 pieces: the ratio says how far from linear growth the pass is (N/10 when linear).
-import { arrange } from '../../shared/arrange/nester';
-import type { ArrangeItem } from '../../shared/arrange/nester';
+import { arrange } from '@shared/arrange/nester';
+import type { ArrangeItem } from '@shared/arrange/nester';
 import { blob, crescent, disk, dumbbell, lShape, star, tShape } from './arrange-shapes';
 
 const makers = [

@@ -1,7 +1,7 @@
 // A fixed set of irregular cut-line shapes for the arrange benchmark and tests: blobs, stars, L and T
 // shapes, crescents and a two-part shape joined by a bridge. Millimetres, frame origin top-left.
-import type { Ring } from '../../shared/geometry/polygon';
-import type { Outline } from '../../shared/arrange/nester';
+import type { Ring } from '@shared/geometry/polygon';
+import type { Outline } from '@shared/arrange/nester';
 
 const frame = (ring: Ring): Outline => {
   const minX = Math.min(...ring.map((p) => p.x)),

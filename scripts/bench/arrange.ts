@@ -2,8 +2,8 @@
 // a repeating mix of twelve irregular shapes, by our nester and, in the same run, by a bounding-box
 // rectangle packer from npm (maxrects-packer) as the baseline. Prints pieces, area used, time, ratio.
 import { MaxRectsPacker } from 'maxrects-packer/dist/maxrects-packer.mjs';
-import { arrange } from '../../shared/arrange/nester';
-import { area } from '../../shared/geometry/polygon';
+import { arrange } from '@shared/arrange/nester';
+import { area } from '@shared/geometry/polygon';
 import { benchmarkSet } from './arrange-shapes';
 
 const W = 171.45,

@@ -1,9 +1,9 @@
 // npm run bench:export: renders a full sheet of 40 pieces at 300 DPI (every format and the zip),
 // and in the same run the floor: one sharp composite of the same rasters with none of our work.
-import { DEFAULT_ART_BACKGROUND, pieceOutlineOptions } from '../../shared/sheet/outline-request';
+import { DEFAULT_ART_BACKGROUND, pieceOutlineOptions } from '@shared/sheet/outline-request';
 import sharp from 'sharp';
-import type { Piece } from '../../shared/sheet/document';
-import { inchToMm } from '../../shared/units';
+import type { Piece } from '@shared/sheet/document';
+import { inchToMm } from '@shared/units';
 import { exportSheet } from '../../server/engine/export/export';
 import { exportPiece } from '../../server/engine/export/prepare';
 import { DEFAULT_EXPORT_OPTIONS } from '../../server/engine/export/types';

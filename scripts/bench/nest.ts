@@ -10,17 +10,17 @@
 // --sticker runs the sticker protocol instead: the instance's shapes scaled so the median piece's
 // larger side is 44.45 mm (1.75 in), filling a 171.45 × 234.95 mm print area with a 3.175 mm gap and
 // margin, quarter turns, 2 s; beside it, in the same run, a bounding-box packer (maxrects-packer).
-import { normaliseDegrees } from '../../shared/units';
+import { normaliseDegrees } from '@shared/units';
 import { mkdir, readFile, readdir, stat, writeFile } from 'node:fs/promises';
 import path from 'node:path';
 import { parseArgs } from 'node:util';
 import { MaxRectsPacker } from 'maxrects-packer/dist/maxrects-packer.mjs';
-import type { ArrangeItem, RotateMode } from '../../shared/arrange/nester';
-import { arrange } from '../../shared/arrange/nester';
+import type { ArrangeItem, RotateMode } from '@shared/arrange/nester';
+import { arrange } from '@shared/arrange/nester';
 import { arrangeInThreads } from '../../server/engine/arrange/parallel';
-import { rotateRing } from '../../shared/arrange/raster';
-import type { Ring } from '../../shared/geometry/polygon';
-import { area, signedArea } from '../../shared/geometry/polygon';
+import { rotateRing } from '@shared/arrange/raster';
+import type { Ring } from '@shared/geometry/polygon';
+import { area, signedArea } from '@shared/geometry/polygon';
 import { nestingDir } from './nesting-dir';
 
 type Instance = {

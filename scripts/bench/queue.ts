@@ -5,7 +5,7 @@
 import { spawn } from 'node:child_process';
 import { randomBytes } from 'node:crypto';
 import sharp from 'sharp';
-import { outlineOptionsSchema } from '../../shared/schemas/outline';
+import { outlineOptionsSchema } from '@shared/schemas/outline';
 import { env } from '../../server/config/env';
 import { createDataSource } from '../../server/db/data-source';
 import { OutlinePool } from '../../server/engine/outline/pool';

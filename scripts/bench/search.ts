@@ -8,8 +8,8 @@ import { env } from '../../server/config/env';
 import { createDataSource } from '../../server/db/data-source';
 import { searchArt } from '../../server/modules/art/art-search';
 import { TeamVocabularies } from '../../server/modules/art/vocabulary';
-import { artListQuerySchema } from '../../shared/schemas/library';
-import { searchTerms } from '../../shared/search';
+import { artListQuerySchema } from '@shared/schemas/library';
+import { searchTerms } from '@shared/search';
 
 const ITEMS = Number(process.env.BENCH_ITEMS ?? 50_000);
 const ROUNDS = Number(process.env.BENCH_ROUNDS ?? 5);

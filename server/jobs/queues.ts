@@ -4,8 +4,8 @@
 // then it fails with a message), so no job stays "running" without a live worker.
 import { Queue, QueueEvents, Worker } from 'bullmq';
 import type { ConnectionOptions, Job, Processor } from 'bullmq';
-import type { OutlineOptions } from '../../shared/schemas/outline';
-import type { ArrangeRunInput } from '../../shared/schemas/arrange';
+import type { OutlineOptions } from '@shared/schemas/outline';
+import type { ArrangeRunInput } from '@shared/schemas/arrange';
 import { OutlineInputError } from '../engine/outline/errors';
 import { OutlinePoolBusyError } from '../engine/outline/pool';
 

@@ -6,8 +6,8 @@ import { OutlineInputError } from '../engine/outline/errors';
 import type { OutlineService } from '../modules/outlines/outline.service';
 import type { ArrangeJobData, ExportJobData, JobSettings, OutlineJobData } from './queues';
 import { arrangeStopKey, OUTLINE_INPUT_PREFIX, QUEUE_NAMES, startWorker } from './queues';
-import type { ArrangeResult } from '../../shared/arrange/nester';
-import { ArrangeInputError } from '../../shared/arrange/nester';
+import type { ArrangeResult } from '@shared/arrange/nester';
+import { ArrangeInputError } from '@shared/arrange/nester';
 import { arrangeInThreads } from '../engine/arrange/parallel';
 import type { JobQueues } from './queues';
 

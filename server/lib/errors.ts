@@ -1,4 +1,4 @@
-import { ERROR_CODES } from '../../shared/schemas/api-error';
+import { ERROR_CODES } from '@shared/schemas/api-error';
 
 /** An error a client caused or may see; everything else is answered as a plain 500. */
 export class AppError extends Error {

@@ -4,7 +4,7 @@ import { RateLimiterMySQL, RateLimiterRes } from 'rate-limiter-flexible';
 import type { DataSource } from 'typeorm';
 import type { MysqlDriver } from 'typeorm/driver/mysql/MysqlDriver.js';
 import type { Env } from '../config/env';
-import { ERROR_CODES } from '../../shared/schemas/api-error';
+import { ERROR_CODES } from '@shared/schemas/api-error';
 import { AppError } from './errors';
 
 /**

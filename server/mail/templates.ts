@@ -1,5 +1,5 @@
-import type { Role } from '../../shared/permissions';
-import { ROLE_LABELS } from '../../shared/permissions';
+import type { Role } from '@shared/permissions';
+import { ROLE_LABELS } from '@shared/permissions';
 import type { OutgoingMail } from './mailer';
 
 export function inviteMail(input: { to: string; teamName: string; invitedBy: string; role: Role; link: string }): OutgoingMail {

@@ -1,10 +1,10 @@
 import type { Log } from '../lib/log';
 import type { RequestHandler } from 'express';
 import type { DataSource } from 'typeorm';
-import type { Actor, Permission, Role } from '../../shared/permissions';
+import type { Actor, Permission, Role } from '@shared/permissions';
 import type { Request } from 'express';
-import { can } from '../../shared/permissions';
-import { idSchema } from '../../shared/schemas/team';
+import { can } from '@shared/permissions';
+import { idSchema } from '@shared/schemas/team';
 import { forbidden, notFound, unauthenticated } from '../lib/errors';
 import { Membership } from '../modules/accounts/membership.entity';
 

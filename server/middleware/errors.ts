@@ -1,5 +1,5 @@
 import type { ErrorRequestHandler, RequestHandler } from 'express';
-import { ERROR_CODES } from '../../shared/schemas/api-error';
+import { ERROR_CODES } from '@shared/schemas/api-error';
 import { AppError } from '../lib/errors';
 import { sizeText } from './uploads';
 import { OutlineInputError } from '../engine/outline/errors';

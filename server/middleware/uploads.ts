@@ -1,6 +1,6 @@
 import type { RequestHandler } from 'express';
 import multer from 'multer';
-import { ERROR_CODES } from '../../shared/schemas/api-error';
+import { ERROR_CODES } from '@shared/schemas/api-error';
 import { AppError } from '../lib/errors';
 
 type UploadLimits = { maxBytes: number; fields: number; fieldBytes: number };

@@ -1,6 +1,6 @@
 import type { NextFunction, Request, RequestHandler, Response } from 'express';
 import type { z } from 'zod';
-import '../../shared/schemas/messages';
+import '@shared/schemas/messages';
 import { validationError } from '../lib/errors';
 
 type Schemas = { params?: z.ZodType; query?: z.ZodType; body?: z.ZodType };

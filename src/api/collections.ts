@@ -1,5 +1,5 @@
 import { queryOptions, useQuery } from '@tanstack/react-query';
-import type { CollectionView } from '../../shared/schemas/library';
+import type { CollectionView } from '@shared/schemas/library';
 import { api } from '../lib/api-client';
 
 /** The team's collections (the library's sidebar and the editor's art panel). */

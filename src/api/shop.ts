@@ -1,8 +1,8 @@
 // The print shop's API, shared by the print-room screens, the editor's cost panel and the sheets list.
 import { queryOptions, useQuery } from '@tanstack/react-query';
-import type { MachineView, PrintRunView, SheetCostView, ShopSettings, StockView } from '../../shared/schemas/shop';
+import type { MachineView, PrintRunView, SheetCostView, ShopSettings, StockView } from '@shared/schemas/shop';
 import { api } from '../lib/api-client';
-import type { OrderBoard } from '../../shared/schemas/orders';
+import type { OrderBoard } from '@shared/schemas/orders';
 
 const base = (teamId: string) => `/teams/${teamId}`;
 export const shopKeys = { all: (teamId: string) => ['teams', teamId, 'shop'] as const };

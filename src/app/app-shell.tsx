@@ -1,5 +1,5 @@
 import { NavLink, Outlet, useNavigate, useNavigation, useParams } from 'react-router';
-import { ROLE_LABELS } from '../../shared/permissions';
+import { ROLE_LABELS } from '@shared/permissions';
 import { Logo } from '../components/logo';
 import { useMe, useSignOut, useSwitchTeam } from '../features/auth/api/me';
 import { teamPath } from './paths';

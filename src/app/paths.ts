@@ -1,4 +1,4 @@
-import type { Me } from '../../shared/schemas/auth';
+import type { Me } from '@shared/schemas/auth';
 
 export const teamPath = (teamId: string, section: 'library' | 'sheets' | 'print-room' | 'orders' | 'team' = 'library') =>
   `/t/${teamId}/${section}`;

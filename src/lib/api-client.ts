@@ -1,4 +1,4 @@
-import { apiErrorSchema } from '../../shared/schemas/api-error';
+import { apiErrorSchema } from '@shared/schemas/api-error';
 
 /** An API failure with the server's code, message and per-field messages. */
 export class ApiError extends Error {

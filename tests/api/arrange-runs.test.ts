@@ -1,7 +1,7 @@
 // Auto-arrange on the shop's server: queued on BullMQ (the real Redis), done by the app's embedded
 // worker on its threads, read back while it runs; shapes from ESICUP jakobs1 (../shared/nesting/).
 import { describe, expect, it } from 'vitest';
-import type { ArrangeResult } from '../../shared/arrange/nester';
+import type { ArrangeResult } from '@shared/arrange/nester';
 import { checkLayout, esicupItems } from '../helpers/arrange-check';
 import { Client, makeTeamWithRoles, useTestApp } from '../helpers/app';
 

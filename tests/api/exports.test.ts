@@ -1,7 +1,7 @@
 import JSZip from 'jszip';
 import sharp from 'sharp';
 import { describe, expect, it } from 'vitest';
-import { pieceOutlineQuery } from '../../shared/sheet/placement';
+import { pieceOutlineQuery } from '@shared/sheet/placement';
 import { svgArt } from '../helpers/art';
 import { Client, binary, makeTeamWithRoles, useTestApp } from '../helpers/app';
 import { uploadFile } from '../helpers/library';

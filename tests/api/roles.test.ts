@@ -1,6 +1,6 @@
 import { describe, expect, it } from 'vitest';
-import type { Permission, Role } from '../../shared/permissions';
-import { PERMISSIONS } from '../../shared/permissions';
+import type { Permission, Role } from '@shared/permissions';
+import { PERMISSIONS } from '@shared/permissions';
 import { requirePermission, teamScope } from '../../server/middleware/auth';
 import { Team } from '../../server/modules/accounts/team.entity';
 import { Client, makeTeamWithRoles, makeUser, useTestApp, uniqueEmail } from '../helpers/app';

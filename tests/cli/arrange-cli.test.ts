@@ -6,7 +6,7 @@ import { promisify } from 'node:util';
 import { XMLParser } from 'fast-xml-parser';
 import { svgPathBbox } from 'svg-path-bbox';
 import { describe, expect, it } from 'vitest';
-import { sheetDocumentSchema } from '../../shared/sheet/document';
+import { sheetDocumentSchema } from '@shared/sheet/document';
 import { svgArt } from '../helpers/art';
 import { pngPhys, pngSize } from '../helpers/png';
 

@@ -1,6 +1,6 @@
 import { describe, expect, it } from 'vitest';
 import type { Page } from 'playwright-core';
-import type { Piece } from '../../shared/sheet/document';
+import type { Piece } from '@shared/sheet/document';
 import { BROWSER_TEST_TIMEOUT, screenshot, signInThroughForm, useBrowserApp } from '../helpers/browser';
 import { placePieces, testPiece } from '../helpers/sheets';
 import { sheetOf, teamWithShapes } from '../helpers/editor';

@@ -2,7 +2,7 @@
 // side) or by the art, the other figure beside it; X/Y of the sticker's edges from the print
 // area's corner in the user's unit; "mixed" for pieces that differ. In Chromium, with screenshots.
 import { describe, expect, it } from 'vitest';
-import type { Piece } from '../../shared/sheet/document';
+import type { Piece } from '@shared/sheet/document';
 import { BROWSER_TEST_TIMEOUT, screenshot, signInThroughForm, useBrowserApp } from '../helpers/browser';
 import { screenOf, sheetOf, teamWithShapes } from '../helpers/editor';
 import { placePieces, testPiece } from '../helpers/sheets';

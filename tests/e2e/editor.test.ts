@@ -2,7 +2,7 @@ import { mkdirSync, writeFileSync } from 'node:fs';
 import path from 'node:path';
 import { describe, expect, it } from 'vitest';
 import type { Page } from 'playwright-core';
-import type { Piece } from '../../shared/sheet/document';
+import type { Piece } from '@shared/sheet/document';
 import { BROWSER_TEST_TIMEOUT, screenshot, signInThroughForm, useBrowserApp } from '../helpers/browser';
 import { placePieces, testPiece } from '../helpers/sheets';
 import { screenOf, sheetOf, teamWithShapes } from '../helpers/editor';

@@ -1,6 +1,6 @@
 // Stickers made from words and shapes, and a label sheet (issue 18), in Chromium with screenshots.
 import { describe, expect, it } from 'vitest';
-import type { Piece } from '../../shared/sheet/document';
+import type { Piece } from '@shared/sheet/document';
 import { BROWSER_TEST_TIMEOUT, screenshot, signInThroughForm, useBrowserApp } from '../helpers/browser';
 import { Client, makeTeamWithRoles } from '../helpers/app';
 import { screenOf, sheetOf } from '../helpers/editor';

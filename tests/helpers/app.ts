@@ -7,7 +7,7 @@ import { OutlinePool } from '../../server/engine/outline/pool';
 import type { SheetsmithApp } from '../../server/app';
 import type TestAgent from 'supertest/lib/agent';
 import type { DataSource } from 'typeorm';
-import type { Role } from '../../shared/permissions';
+import type { Role } from '@shared/permissions';
 import type { Env } from '../../server/config/env';
 import { env as baseEnv } from '../../server/config/env';
 import { createApp } from '../../server/app';

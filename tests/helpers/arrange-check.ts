@@ -3,7 +3,7 @@ import { readFileSync } from 'node:fs';
 import path from 'node:path';
 import { expect } from 'vitest';
 import { nestingDir } from '../../scripts/bench/nesting-dir';
-import type { ArrangeItem, ArrangeResult, Outline } from '../../shared/arrange/nester';
+import type { ArrangeItem, ArrangeResult, Outline } from '@shared/arrange/nester';
 
 export const SHEET_W = 171.45,
   SHEET_H = 234.95;

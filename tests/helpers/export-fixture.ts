@@ -1,7 +1,7 @@
 // The reference sheet the export-format tests read back with outside parsers.
-import { DEFAULT_ART_BACKGROUND, pieceOutlineOptions } from '../../shared/sheet/outline-request';
-import type { Piece } from '../../shared/sheet/document';
-import { inchToMm } from '../../shared/units';
+import { DEFAULT_ART_BACKGROUND, pieceOutlineOptions } from '@shared/sheet/outline-request';
+import type { Piece } from '@shared/sheet/document';
+import { inchToMm } from '@shared/units';
 import { exportSheet } from '../../server/engine/export/export';
 import { exportPiece } from '../../server/engine/export/prepare';
 import type { ExportSheet } from '../../server/engine/export/types';

@@ -1,4 +1,4 @@
-import type { Piece, SheetDocument } from '../../shared/sheet/document';
+import type { Piece, SheetDocument } from '@shared/sheet/document';
 import type { Client } from './app';
 
 /** A piece as the editor places it: upright, 38 mm wide, a 1/8 in white border, unlocked. */

@@ -52,6 +52,18 @@ describe('import boundaries (ESLint)', () => {
       /shared\/ depends on nothing/,
     ],
     [
+      'a feature does not import another feature through the @/ alias',
+      'src/features/library/components/planted.ts',
+      "import { useTeam } from '@/features/team/api/team';\nexport const x = useTeam;\n",
+      /Features import no other feature/,
+    ],
+    [
+      'shared/ does not import the client through the @/ alias',
+      'shared/planted.ts',
+      "import { api } from '@/lib/api-client';\nexport const x = api;\n",
+      /shared\/ depends on nothing/,
+    ],
+    [
       'shared/ does not import the client',
       'shared/planted.ts',
       "import { api } from '../src/lib/api-client';\nexport const x = api;\n",
@@ -95,10 +107,7 @@ describe('import boundaries (ESLint)', () => {
       ),
     ).toEqual([]);
     expect(
-      await problems(
-        'server/modules/planted.ts',
-        "import { outlineKey } from '../../shared/sheet/placement';\nexport const x = outlineKey;\n",
-      ),
+      await problems('server/modules/planted.ts', "import { outlineKey } from '@shared/sheet/placement';\nexport const x = outlineKey;\n"),
     ).toEqual([]);
     expect(
       await problems(

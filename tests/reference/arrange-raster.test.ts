@@ -2,8 +2,8 @@
 // cut line, or within the grown distance of such a cell's centre (the Euclidean distance, checked
 // here cell by cell against every inside cell, with no distance transform and no runs).
 import { describe, expect, it } from 'vitest';
-import { shapeMask } from '../../shared/arrange/raster';
-import { pointInRing } from '../../shared/sheet/placement';
+import { shapeMask } from '@shared/arrange/raster';
+import { pointInRing } from '@shared/sheet/placement';
 import { blob, crescent, dumbbell, lShape, star } from '../../scripts/bench/arrange-shapes';
 
 function bruteForce(mask: ReturnType<typeof shapeMask>, cell: number, grow: number): Set<string> {

@@ -2,7 +2,7 @@
 // and spreading a quantity over fewer sheets. Shapes from the ESICUP benchmark (../shared/nesting/,
 // read from there) at sticker size; every layout checked with @flatten-js/core (tests/helpers).
 import { describe, expect, it } from 'vitest';
-import { arrange } from '../../shared/arrange/nester';
+import { arrange } from '@shared/arrange/nester';
 import { checkLayout, esicupItems, SHEET_H, SHEET_W } from '../helpers/arrange-check';
 
 const sheet = { width: SHEET_W, height: SHEET_H, gap: 3.175, margin: 3.175, rotate: '90' as const, timeMs: 60_000, seed: 1 };

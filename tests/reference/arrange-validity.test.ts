@@ -1,6 +1,6 @@
 import { describe, expect, it } from 'vitest';
-import type { ArrangeItem, Outline } from '../../shared/arrange/nester';
-import { ArrangeInputError, arrange } from '../../shared/arrange/nester';
+import type { ArrangeItem, Outline } from '@shared/arrange/nester';
+import { ArrangeInputError, arrange } from '@shared/arrange/nester';
 import { benchmarkSet, blob, disk, lShape, star } from '../../scripts/bench/arrange-shapes';
 import { checkLayout, esicupItems, SHEET_H, SHEET_W } from '../helpers/arrange-check';
 

@@ -1,6 +1,6 @@
 import sharp from 'sharp';
 import { describe, expect, it } from 'vitest';
-import { DEFAULT_TOLERANCE } from '../../shared/schemas/outline';
+import { DEFAULT_TOLERANCE } from '@shared/schemas/outline';
 import { outline } from '../../server/engine/outline/outline';
 import { removalPreview } from '../../server/engine/outline/removal-preview';
 import { DEFAULT_LIMITS } from '../../server/engine/outline/outline';

@@ -2,8 +2,8 @@ import { Clipper, EndType, FillRule, JoinType } from 'clipper2-ts';
 import type { Paths64 } from 'clipper2-ts';
 import sharp from 'sharp';
 import { describe, expect, it } from 'vitest';
-import type { Ring } from '../../shared/geometry/polygon';
-import { inchToMm } from '../../shared/units';
+import type { Ring } from '@shared/geometry/polygon';
+import { inchToMm } from '@shared/units';
 import { outline } from '../../server/engine/outline/outline';
 
 // Independent measure of a cut shape's narrowest width: offset it inward by half a width with a

@@ -3,7 +3,7 @@ import type { Paths64 } from 'clipper2-ts';
 import { contours } from 'd3-contour';
 import sharp from 'sharp';
 import { describe, expect, it } from 'vitest';
-import type { Ring } from '../../shared/geometry/polygon';
+import type { Ring } from '@shared/geometry/polygon';
 import { outline } from '../../server/engine/outline/outline';
 import { maskArt, svgArt } from '../helpers/art';
 

@@ -1,9 +1,9 @@
 import sharp from 'sharp';
 import { describe, expect, it } from 'vitest';
-import type { Ring } from '../../shared/geometry/polygon';
-import { costPerSheet, cutLength, fullCoverageCost, sheetCost } from '../../shared/production/cost';
-import { inkCoverage } from '../../shared/production/coverage';
-import { inchToMm } from '../../shared/units';
+import type { Ring } from '@shared/geometry/polygon';
+import { costPerSheet, cutLength, fullCoverageCost, sheetCost } from '@shared/production/cost';
+import { inkCoverage } from '@shared/production/coverage';
+import { inchToMm } from '@shared/units';
 import { outline } from '../../server/engine/outline/outline';
 import { maskArt } from '../helpers/art';
 

@@ -1,5 +1,5 @@
 import type { DataSource } from 'typeorm';
-import type { Role } from '../../../shared/permissions';
+import type { Role } from '@shared/permissions';
 import { Team } from '../../modules/accounts/team.entity';
 
 // The invented demo shop: a two-table studio that sells watercolour critter stickers at weekend

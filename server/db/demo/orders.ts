@@ -6,7 +6,7 @@ import { User } from '../../modules/accounts/user.entity';
 import { ArtItem } from '../../modules/art/art-item.entity';
 import { Customer } from '../../modules/orders/customer.entity';
 import { OrdersService } from '../../modules/orders/orders.service';
-import { orderLineInputSchema } from '../../../shared/schemas/orders';
+import { orderLineInputSchema } from '@shared/schemas/orders';
 import { ProfilesService } from '../../modules/sheets/profiles.service';
 import { Sheet } from '../../modules/sheets/sheet.entity';
 import { SheetsService } from '../../modules/sheets/sheets.service';

@@ -12,7 +12,7 @@ import { User } from '../../modules/accounts/user.entity';
 import { Membership } from '../../modules/accounts/membership.entity';
 import { Team } from '../../modules/accounts/team.entity';
 import { createUserWithTeam } from '../../modules/accounts/create-account';
-import { stockInputSchema } from '../../../shared/schemas/shop';
+import { stockInputSchema } from '@shared/schemas/shop';
 import { saveShopSettings } from '../../modules/shop/costing.service';
 import { MachinesService } from '../../modules/shop/machines.service';
 import { StockItem } from '../../modules/shop/stock-item.entity';

@@ -1,6 +1,6 @@
 import { describe, expect, it } from 'vitest';
-import { arrange } from '../../../shared/arrange/nester';
-import { betterResult, threadSeed } from '../../../shared/arrange/portfolio';
+import { arrange } from '@shared/arrange/nester';
+import { betterResult, threadSeed } from '@shared/arrange/portfolio';
 import { esicupItems } from '../../../tests/helpers/arrange-check';
 import { arrangeInThreads } from './parallel';
 

@@ -3,9 +3,9 @@
 import { availableParallelism } from 'node:os';
 import { MessageChannel } from 'node:worker_threads';
 import { Piscina } from 'piscina';
-import type { ArrangeItem, ArrangeOptions, ArrangeResult, LockedPiece } from '../../../shared/arrange/nester';
-import { ArrangeInputError } from '../../../shared/arrange/nester';
-import { betterResult, threadSeed, threadsFor } from '../../../shared/arrange/portfolio';
+import type { ArrangeItem, ArrangeOptions, ArrangeResult, LockedPiece } from '@shared/arrange/nester';
+import { ArrangeInputError } from '@shared/arrange/nester';
+import { betterResult, threadSeed, threadsFor } from '@shared/arrange/portfolio';
 import type { ArrangeTask, ArrangeTaskResult } from './thread';
 
 type ParallelRun = {

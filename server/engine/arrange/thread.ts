@@ -1,8 +1,8 @@
 // One search in a worker thread: the nester with this thread's seed; a shared flag asks it to stop
 // (it then answers the best layout so far) and each new best goes back through a message port.
 import type { MessagePort } from 'node:worker_threads';
-import type { ArrangeItem, ArrangeOptions, ArrangeResult, LockedPiece } from '../../../shared/arrange/nester';
-import { ArrangeInputError, arrange } from '../../../shared/arrange/nester';
+import type { ArrangeItem, ArrangeOptions, ArrangeResult, LockedPiece } from '@shared/arrange/nester';
+import { ArrangeInputError, arrange } from '@shared/arrange/nester';
 
 export type ArrangeTask = {
   items: ArrangeItem[];

@@ -1,5 +1,5 @@
-import { REG_MARK_LABELS } from '../../../shared/schemas/sheets';
-import { formatLength } from '../../../shared/units';
+import { REG_MARK_LABELS } from '@shared/schemas/sheets';
+import { formatLength } from '@shared/units';
 import { cutDxf } from './dxf';
 import { sheetCutLines } from './geometry';
 import { sheetPdf, summaryPdf } from './pdf';

@@ -1,5 +1,5 @@
-import type { Ring } from '../../../shared/geometry/polygon';
-import { placeCutLine } from '../../../shared/sheet/placement';
+import type { Ring } from '@shared/geometry/polygon';
+import { placeCutLine } from '@shared/sheet/placement';
 import type { ExportSheet } from './types';
 
 /**

@@ -1,5 +1,5 @@
-import type { Ring } from '../../../shared/geometry/polygon';
-import type { RegMarkShape } from '../../../shared/schemas/sheets';
+import type { Ring } from '@shared/geometry/polygon';
+import type { RegMarkShape } from '@shared/schemas/sheets';
 
 export type RegMarks = { shape: Exclude<RegMarkShape, 'none'>; sizeMm: number; offsetMm: number };
 

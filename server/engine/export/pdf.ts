@@ -1,6 +1,6 @@
 import { PDFDocument, PDFName, PDFNumber, PDFOperator, PDFString, StandardFonts, rgb } from 'pdf-lib';
 import type { PDFDict, PDFPage, PDFRef } from 'pdf-lib';
-import type { Ring } from '../../../shared/geometry/polygon';
+import type { Ring } from '@shared/geometry/polygon';
 import type { RegMarks } from './marks';
 import { registrationMarks } from './marks';
 import type { ExportSheet } from './types';

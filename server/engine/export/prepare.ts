@@ -1,5 +1,5 @@
-import type { Piece } from '../../../shared/sheet/document';
-import type { OutlineOptionsInput } from '../../../shared/schemas/outline';
+import type { Piece } from '@shared/sheet/document';
+import type { OutlineOptionsInput } from '@shared/schemas/outline';
 import type { OutlineResult } from '../outline/outline';
 import type { ExportPiece } from './types';
 

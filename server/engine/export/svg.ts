@@ -1,5 +1,5 @@
-import type { Ring } from '../../../shared/geometry/polygon';
-import { ringToSvgPath } from '../../../shared/geometry/polygon';
+import type { Ring } from '@shared/geometry/polygon';
+import { ringToSvgPath } from '@shared/geometry/polygon';
 import type { RegMarks } from './marks';
 import { marksExtent, registrationMarks } from './marks';
 import type { ExportSheet } from './types';

@@ -1,5 +1,5 @@
-import type { PieceOutline } from '../../../shared/sheet/placement';
-import type { Piece, SheetDocument } from '../../../shared/sheet/document';
+import type { PieceOutline } from '@shared/sheet/placement';
+import type { Piece, SheetDocument } from '@shared/sheet/document';
 import type { RegMarks } from './marks';
 
 export type ExportFormat = 'png' | 'svg' | 'combined' | 'pdf' | 'dxf';

@@ -1,5 +1,5 @@
 import { describe, expect, it } from 'vitest';
-import { distanceTransform } from '../../../shared/geometry/distance-transform';
+import { distanceTransform } from '@shared/geometry/distance-transform';
 import { nearSet } from './morphology';
 
 /** Random blobs and specks on a small canvas, repeatable. */

@@ -1,7 +1,7 @@
 import { Clipper, FillRule } from 'clipper2-ts';
 import sharp from 'sharp';
 import { afterAll, describe, expect, it } from 'vitest';
-import { isSimple, signedArea } from '../../../shared/geometry/polygon';
+import { isSimple, signedArea } from '@shared/geometry/polygon';
 import { maskArt, pixels, svgArt } from '../../../tests/helpers/art';
 import { pngHeaderClaiming, pngPhys, pngSize } from '../../../tests/helpers/png';
 import { OutlineInputError } from './errors';

@@ -1,6 +1,6 @@
 import { availableParallelism } from 'node:os';
 import { Piscina } from 'piscina';
-import type { OutlineOptionsInput } from '../../../shared/schemas/outline';
+import type { OutlineOptionsInput } from '@shared/schemas/outline';
 import { OutlineInputError } from './errors';
 import type { OutlineLimits, OutlineResult } from './outline';
 import { DEFAULT_LIMITS } from './outline';

@@ -1,7 +1,7 @@
 // What background removal takes, for the art page: the original with the removed background tinted
 // and any art the removal would take in a warning colour, so the maker sees it before printing.
 import sharp from 'sharp';
-import type { OutlineOptions } from '../../../shared/schemas/outline';
+import type { OutlineOptions } from '@shared/schemas/outline';
 import { detectBackground, parseHex, planRemoval } from './background';
 import { decodeArt } from './decode';
 import type { OutlineLimits } from './outline';

@@ -1,7 +1,7 @@
 // Steps of the outline engine that stand on their own: what background the art has, which parts
 // of it are specks, the parts the sticker holds together, and widening narrow parts when asked.
-import type { Box } from '../../../shared/geometry/polygon';
-import { distanceTransform } from '../../../shared/geometry/distance-transform';
+import type { Box } from '@shared/geometry/polygon';
+import { distanceTransform } from '@shared/geometry/distance-transform';
 import type { Component } from './components';
 import { fillHoles, labelComponents } from './components';
 import { erode, findNarrowParts, findNecks, thinResidue } from './necks';

@@ -2,8 +2,8 @@
 // smallest feature (an inward offset by half of it splits the shape), a thin spike (an opening by a
 // disk that wide removes it; with a border at least half the smallest feature the shape is a union
 // of such disks and has none), and a slot too narrow to cut (the same opening of the outside).
-import type { OutlineWarning } from '../../../shared/schemas/outline';
-import { formatLength } from '../../../shared/units';
+import type { OutlineWarning } from '@shared/schemas/outline';
+import { formatLength } from '@shared/units';
 import { findNarrowParts, findNecks, findSlots } from './necks';
 
 export function tearWarnings(

@@ -1,7 +1,7 @@
 import { contours } from 'd3-contour';
 import simplify from 'simplify-js';
-import type { Ring } from '../../../shared/geometry/polygon';
-import { area, clockwise, isSimple } from '../../../shared/geometry/polygon';
+import type { Ring } from '@shared/geometry/polygon';
+import { area, clockwise, isSimple } from '@shared/geometry/polygon';
 
 /**
  * Traces the iso-line field = 0 with marching squares (d3-contour, linear interpolation) and keeps

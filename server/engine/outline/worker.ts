@@ -3,8 +3,8 @@
 import { OutlineInputError } from './errors';
 import type { OutlineLimits, OutlineResult } from './outline';
 import { outline } from './outline';
-import type { OutlineOptionsInput } from '../../../shared/schemas/outline';
-import { outlineOptionsSchema } from '../../../shared/schemas/outline';
+import type { OutlineOptionsInput } from '@shared/schemas/outline';
+import { outlineOptionsSchema } from '@shared/schemas/outline';
 import type { RemovalPreview } from './removal-preview';
 import { removalPreview } from './removal-preview';
 

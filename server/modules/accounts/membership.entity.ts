@@ -1,6 +1,6 @@
 import { Column, CreateDateColumn, Entity, JoinColumn, ManyToOne, PrimaryColumn } from 'typeorm';
-import type { Role } from '../../../shared/permissions';
-import { ROLES } from '../../../shared/permissions';
+import type { Role } from '@shared/permissions';
+import { ROLES } from '@shared/permissions';
 import { User } from './user.entity';
 import { Team } from './team.entity';
 

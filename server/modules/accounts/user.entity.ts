@@ -1,5 +1,5 @@
 import { Column, CreateDateColumn, Entity, PrimaryGeneratedColumn, UpdateDateColumn } from 'typeorm';
-import type { LengthUnit } from '../../../shared/units';
+import type { LengthUnit } from '@shared/units';
 
 @Entity({ name: 'users' })
 export class User {

@@ -1,8 +1,8 @@
 // Auto-arrange runs on the shop's server: queued on BullMQ, done by any worker's threads, read back
 // by the editor while they run. A run belongs to its team and sheet; another team's run is a 404.
 import { randomUUID } from 'node:crypto';
-import type { ArrangeResult } from '../../../shared/arrange/nester';
-import type { ArrangeRunInput, ArrangeRunView } from '../../../shared/schemas/arrange';
+import type { ArrangeResult } from '@shared/arrange/nester';
+import type { ArrangeRunInput, ArrangeRunView } from '@shared/schemas/arrange';
 import { AppError, notFound } from '../../lib/errors';
 import type { JobQueues } from '../../jobs/queues';
 import type { SheetsService } from '../sheets/sheets.service';

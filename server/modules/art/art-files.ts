@@ -3,7 +3,7 @@
 import path from 'node:path';
 import sharp from 'sharp';
 import type { ChannelStats, Metadata, Stats } from 'sharp';
-import { DEFAULT_ALPHA_THRESHOLD } from '../../../shared/schemas/outline';
+import { DEFAULT_ALPHA_THRESHOLD } from '@shared/schemas/outline';
 import { AppError } from '../../lib/errors';
 import { cleanSvg, isSvg, rasteriseSvg } from './svg-art';
 

@@ -7,8 +7,8 @@
 // query builder cannot express.
 import type { DataSource } from 'typeorm';
 import { In } from 'typeorm';
-import type { ArtListQuery, ArtPage } from '../../../shared/schemas/library';
-import { queryChunks } from '../../../shared/search';
+import type { ArtListQuery, ArtPage } from '@shared/schemas/library';
+import { queryChunks } from '@shared/search';
 import { ArtItem } from './art-item.entity';
 import { artViews } from './art-view';
 import type { TeamVocabularies } from './vocabulary';

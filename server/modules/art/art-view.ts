@@ -1,7 +1,7 @@
-import { MM_PER_INCH } from '../../../shared/units';
+import { MM_PER_INCH } from '@shared/units';
 import type { EntityManager } from 'typeorm';
 import { In } from 'typeorm';
-import type { ArtView, LicenceView } from '../../../shared/schemas/library';
+import type { ArtView, LicenceView } from '@shared/schemas/library';
 import { User } from '../accounts/user.entity';
 import { Collection } from '../collections/collection.entity';
 import { licenceView } from '../collections/licence.columns';

@@ -1,21 +1,15 @@
 import { Router } from 'express';
 import { PROOF_LIMITS, singleUpload } from '../../middleware/uploads';
 import type { DataSource } from 'typeorm';
-import {
-  artListQuerySchema,
-  artParamsSchema,
-  artUpdateSchema,
-  bulkActionSchema,
-  uploadFieldsSchema,
-} from '../../../shared/schemas/library';
-import { teamParamsSchema } from '../../../shared/schemas/team';
+import { artListQuerySchema, artParamsSchema, artUpdateSchema, bulkActionSchema, uploadFieldsSchema } from '@shared/schemas/library';
+import { teamParamsSchema } from '@shared/schemas/team';
 import { AppError, notFound } from '../../lib/errors';
 import { actorOf, requirePermission, teamScope } from '../../middleware/auth';
 import { route } from '../../middleware/validate';
 import type { ArtService } from './art.service';
 import { searchArt } from './art-search';
 import { madeArtSvg } from './made-art';
-import { madeArtSchema } from '../../../shared/schemas/made-art';
+import { madeArtSchema } from '@shared/schemas/made-art';
 import { TeamVocabularies } from './vocabulary';
 import { z } from 'zod';
 

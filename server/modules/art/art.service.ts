@@ -3,9 +3,9 @@ import { releaseKey } from '../../storage/sweep';
 import { createHash } from 'node:crypto';
 import type { DataSource, EntityManager } from 'typeorm';
 import { In, IsNull } from 'typeorm';
-import { can } from '../../../shared/permissions';
-import type { ArtUpdateInput, ArtView, BulkAction, UploadResult } from '../../../shared/schemas/library';
-import { suggestKeywords } from '../../../shared/search';
+import { can } from '@shared/permissions';
+import type { ArtUpdateInput, ArtView, BulkAction, UploadResult } from '@shared/schemas/library';
+import { suggestKeywords } from '@shared/search';
 import { AppError, forbidden, notFound } from '../../lib/errors';
 import type { Storage } from '../../storage/storage';
 import { Collection } from '../collections/collection.entity';
@@ -18,7 +18,7 @@ import { inTransaction, isDuplicateOf } from '../../db/transaction';
 import type { PackLimits } from './zip-pack';
 import { DEFAULT_PACK_LIMITS, readPack } from './zip-pack';
 
-import type { Actor } from '../../../shared/permissions';
+import type { Actor } from '@shared/permissions';
 import { drawnArt, isZip, nameFrom, sniffArt } from './art-files';
 import type { ReadyArt } from './art-files';
 

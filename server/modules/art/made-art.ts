@@ -7,8 +7,8 @@ import { readFileSync } from 'node:fs';
 import { createRequire } from 'node:module';
 import opentype from 'opentype.js';
 import type { Font, Glyph } from 'opentype.js';
-import type { MadeArt, StickerFont } from '../../../shared/schemas/made-art';
-import { MADE_ART_MAX_MM, STICKER_FONTS } from '../../../shared/schemas/made-art';
+import type { MadeArt, StickerFont } from '@shared/schemas/made-art';
+import { MADE_ART_MAX_MM, STICKER_FONTS } from '@shared/schemas/made-art';
 import { validationError } from '../../lib/errors';
 
 const require = createRequire(import.meta.url);

@@ -3,7 +3,7 @@
 // deadlocked parallel uploads into one team.
 import type { EntityManager } from 'typeorm';
 import { Brackets, In } from 'typeorm';
-import { normaliseKeyword, searchTerms } from '../../../shared/search';
+import { normaliseKeyword, searchTerms } from '@shared/search';
 import { ArtCollection } from './art-collection.entity';
 import { ArtItem } from './art-item.entity';
 import { ArtKeyword, ArtTerm } from './art-index.entity';

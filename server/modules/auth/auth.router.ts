@@ -9,9 +9,9 @@ import {
   signUpSchema,
   tokenParamSchema,
   updateAccountSchema,
-} from '../../../shared/schemas/auth';
-import { switchTeamSchema } from '../../../shared/schemas/team';
-import { ERROR_CODES } from '../../../shared/schemas/api-error';
+} from '@shared/schemas/auth';
+import { switchTeamSchema } from '@shared/schemas/team';
+import { ERROR_CODES } from '@shared/schemas/api-error';
 import { AppError, notFound } from '../../lib/errors';
 import { requireUser } from '../../middleware/auth';
 import { route } from '../../middleware/validate';

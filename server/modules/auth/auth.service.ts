@@ -1,12 +1,12 @@
 import type { DataSource, EntityManager } from 'typeorm';
 import { IsNull, MoreThan } from 'typeorm';
-import type { Me, SignUpInput } from '../../../shared/schemas/auth';
+import type { Me, SignUpInput } from '@shared/schemas/auth';
 import type { Env } from '../../config/env';
 import { AppError, conflict } from '../../lib/errors';
 import { hashToken, newToken } from '../../lib/tokens';
 import type { Mailer } from '../../mail/mailer';
 import { passwordResetMail } from '../../mail/templates';
-import { ERROR_CODES } from '../../../shared/schemas/api-error';
+import { ERROR_CODES } from '@shared/schemas/api-error';
 import { Membership } from '../accounts/membership.entity';
 import { burnPasswordCheck, hashPassword, verifyPassword } from './passwords';
 import { PasswordReset } from './password-reset.entity';

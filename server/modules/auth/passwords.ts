@@ -2,7 +2,7 @@ import { availableParallelism } from 'node:os';
 import { Piscina } from 'piscina';
 import { env } from '../../config/env';
 import { AppError } from '../../lib/errors';
-import { ERROR_CODES } from '../../../shared/schemas/api-error';
+import { ERROR_CODES } from '@shared/schemas/api-error';
 
 /**
  * Password hashing and checks run on worker threads, never on the thread that answers requests: a

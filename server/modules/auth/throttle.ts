@@ -3,7 +3,7 @@ import type { DataSource } from 'typeorm';
 import type { Env } from '../../config/env';
 import { AppError } from '../../lib/errors';
 import { hashedKey, mysqlLimiter, waitText } from '../../lib/rate-limits';
-import { ERROR_CODES } from '../../../shared/schemas/api-error';
+import { ERROR_CODES } from '@shared/schemas/api-error';
 
 /**
  * Counts failed sign-ins per (e-mail, address) and per address. After LOGIN_MAX_FAILURES failures

@@ -1,13 +1,8 @@
 import { Router } from 'express';
 import { PROOF_LIMITS, singleUpload } from '../../middleware/uploads';
 import type { DataSource } from 'typeorm';
-import {
-  collectionCreateSchema,
-  collectionOrderSchema,
-  collectionParamsSchema,
-  collectionUpdateSchema,
-} from '../../../shared/schemas/library';
-import { teamParamsSchema } from '../../../shared/schemas/team';
+import { collectionCreateSchema, collectionOrderSchema, collectionParamsSchema, collectionUpdateSchema } from '@shared/schemas/library';
+import { teamParamsSchema } from '@shared/schemas/team';
 import { AppError } from '../../lib/errors';
 import { requirePermission, teamScope } from '../../middleware/auth';
 import { route } from '../../middleware/validate';

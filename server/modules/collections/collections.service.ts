@@ -1,7 +1,7 @@
 import { releaseKey } from '../../storage/sweep';
 import path from 'node:path';
 import type { DataSource } from 'typeorm';
-import type { CollectionView, LicenceInput } from '../../../shared/schemas/library';
+import type { CollectionView, LicenceInput } from '@shared/schemas/library';
 import { AppError, conflict, notFound } from '../../lib/errors';
 import type { Storage } from '../../storage/storage';
 import { Collection } from './collection.entity';

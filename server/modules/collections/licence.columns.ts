@@ -1,5 +1,5 @@
 import { Column } from 'typeorm';
-import type { LicenceView } from '../../../shared/schemas/library';
+import type { LicenceView } from '@shared/schemas/library';
 
 const LICENCE_KINDS = ['personal', 'commercial', 'commercial_limited'] as const;
 type LicenceKind = (typeof LICENCE_KINDS)[number];

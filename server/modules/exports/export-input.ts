@@ -2,11 +2,11 @@
 // request the editor's outline was made from), the paper and print area from the sheet's profile
 // (Letter with the area centred when it has none), and the profile's cut-layer colour and marks.
 import type { DataSource } from 'typeorm';
-import type { ExportRequest } from '../../../shared/schemas/exports';
-import { PAPER_SIZES } from '../../../shared/schemas/sheets';
-import type { SheetDocument } from '../../../shared/sheet/document';
-import { pieceOutlineOptions } from '../../../shared/sheet/outline-request';
-import { profileLimits } from '../../../shared/sheet/preflight';
+import type { ExportRequest } from '@shared/schemas/exports';
+import { PAPER_SIZES } from '@shared/schemas/sheets';
+import type { SheetDocument } from '@shared/sheet/document';
+import { pieceOutlineOptions } from '@shared/sheet/outline-request';
+import { profileLimits } from '@shared/sheet/preflight';
 import { ExportInputError } from '../../engine/export/export';
 import { exportPiece } from '../../engine/export/prepare';
 import type { ExportOptions } from '../../engine/export/types';

@@ -1,10 +1,10 @@
 import type { DataSource } from 'typeorm';
-import type { ExportJobView, ExportRequest } from '../../../shared/schemas/exports';
-import { documentProblems } from '../../../shared/sheet/bounds';
+import type { ExportJobView, ExportRequest } from '@shared/schemas/exports';
+import { documentProblems } from '@shared/sheet/bounds';
 import type { Log } from '../../lib/log';
 import { exportFileType, listZip, readFromZip } from '../../engine/export/bundle';
-import { exportFileLabel } from '../../../shared/schemas/exports';
-import { migrateDocument } from '../../../shared/sheet/document';
+import { exportFileLabel } from '@shared/schemas/exports';
+import { migrateDocument } from '@shared/sheet/document';
 import { ExportInputError, exportSheet } from '../../engine/export/export';
 import type { OutlinePool } from '../../engine/outline/pool';
 import { OutlineInputError } from '../../engine/outline/errors';

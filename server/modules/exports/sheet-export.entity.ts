@@ -1,5 +1,5 @@
 import { Column, CreateDateColumn, Entity, PrimaryGeneratedColumn, UpdateDateColumn } from 'typeorm';
-import type { ExportJobView } from '../../../shared/schemas/exports';
+import type { ExportJobView } from '@shared/schemas/exports';
 import { decimal } from '../../db/columns';
 
 /** One export of a sheet version: its job's progress, the options and frozen document it ran on, and the bundle. */

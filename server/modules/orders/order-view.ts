@@ -2,8 +2,8 @@
 // the payments, and the money (left out, as null, for those who may not see it).
 import type { DataSource } from 'typeorm';
 import { In } from 'typeorm';
-import { amountDue, orderTotal } from '../../../shared/orders/money';
-import type { OrderLineView, OrderSummary, OrderView, ProofLine, ProofView } from '../../../shared/schemas/orders';
+import { amountDue, orderTotal } from '@shared/orders/money';
+import type { OrderLineView, OrderSummary, OrderView, ProofLine, ProofView } from '@shared/schemas/orders';
 import { ArtItem } from '../art/art-item.entity';
 import { Sheet } from '../sheets/sheet.entity';
 import { StockItem } from '../shop/stock-item.entity';

@@ -1,7 +1,7 @@
 import { Column, CreateDateColumn, Entity, PrimaryGeneratedColumn, UpdateDateColumn } from 'typeorm';
-import type { OrderCurrency } from '../../../shared/orders/money';
-import type { OrderState } from '../../../shared/schemas/orders';
-import { ORDER_STATES } from '../../../shared/schemas/orders';
+import type { OrderCurrency } from '@shared/orders/money';
+import type { OrderState } from '@shared/schemas/orders';
+import { ORDER_STATES } from '@shared/schemas/orders';
 import { decimal } from '../../db/columns';
 
 /** A buyer's order: its state, currency, deposit share and what has been paid (whole cents). */

@@ -11,9 +11,9 @@ import {
   orderMoveSchema,
   orderParamsSchema,
   refundInputSchema,
-} from '../../../shared/schemas/orders';
-import { idSchema, teamParamsSchema } from '../../../shared/schemas/team';
-import { can } from '../../../shared/permissions';
+} from '@shared/schemas/orders';
+import { idSchema, teamParamsSchema } from '@shared/schemas/team';
+import { can } from '@shared/permissions';
 import type { Env } from '../../config/env';
 import { forbidden } from '../../lib/errors';
 import { requirePermission, teamScope } from '../../middleware/auth';

@@ -3,20 +3,13 @@
 // each through `record`, so the log is complete whoever acted.
 import type { DataSource, EntityManager } from 'typeorm';
 import { In } from 'typeorm';
-import type { Role } from '../../../shared/permissions';
-import { can } from '../../../shared/permissions';
-import { ORDER_CURRENCIES, formatMinor } from '../../../shared/orders/money';
-import type { OrderCurrency } from '../../../shared/orders/money';
-import type {
-  CustomerInput,
-  CustomerView,
-  OrderInput,
-  OrderLineInput,
-  OrderState,
-  orderListQuerySchema,
-} from '../../../shared/schemas/orders';
-import { EDITABLE_STATES, HAND_MOVES, ORDER_STATE_LABELS, ORDER_STATES } from '../../../shared/schemas/orders';
-import type { OrderBoard, OrderView } from '../../../shared/schemas/orders';
+import type { Role } from '@shared/permissions';
+import { can } from '@shared/permissions';
+import { ORDER_CURRENCIES, formatMinor } from '@shared/orders/money';
+import type { OrderCurrency } from '@shared/orders/money';
+import type { CustomerInput, CustomerView, OrderInput, OrderLineInput, OrderState, orderListQuerySchema } from '@shared/schemas/orders';
+import { EDITABLE_STATES, HAND_MOVES, ORDER_STATE_LABELS, ORDER_STATES } from '@shared/schemas/orders';
+import type { OrderBoard, OrderView } from '@shared/schemas/orders';
 import type { z } from 'zod';
 import { AppError, conflict, forbidden, notFound } from '../../lib/errors';
 import { inTransaction, isDuplicateOf } from '../../db/transaction';

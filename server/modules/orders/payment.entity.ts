@@ -1,5 +1,5 @@
 import { Column, CreateDateColumn, Entity, PrimaryColumn, PrimaryGeneratedColumn, UpdateDateColumn } from 'typeorm';
-import type { OrderCurrency } from '../../../shared/orders/money';
+import type { OrderCurrency } from '@shared/orders/money';
 
 /** A payment asked of the buyer (a checkout session) or a refund, in whole cents. */
 @Entity({ name: 'order_payments' })

@@ -3,7 +3,7 @@
 // marks money paid: its signature is checked with the SDK's verifier, and its id is stored in the
 // same transaction as its effect, so the same notice twice changes the order once.
 import type { DataSource } from 'typeorm';
-import { amountDue, formatMinor, orderTotal } from '../../../shared/orders/money';
+import { amountDue, formatMinor, orderTotal } from '@shared/orders/money';
 import { AppError, conflict } from '../../lib/errors';
 import type { Log } from '../../lib/log';
 import type { Mailer } from '../../mail/mailer';

@@ -1,10 +1,10 @@
 // A line's price from the cost model at the shop's markup: copies of a sheet cost what the print
 // room's costing says a sheet costs; singles cost the stock's price per sheet (with the waste
 // allowance) spread over as many stickers as a grid of them fits in the team's print area.
-import { finishedHeight, gridCount } from '../../../shared/orders/pricing';
-import { sheetCost, costPerSheet } from '../../../shared/production/cost';
-import type { ShopSettings } from '../../../shared/schemas/shop';
-import { inchToMm, formatLength } from '../../../shared/units';
+import { finishedHeight, gridCount } from '@shared/orders/pricing';
+import { sheetCost, costPerSheet } from '@shared/production/cost';
+import type { ShopSettings } from '@shared/schemas/shop';
+import { inchToMm, formatLength } from '@shared/units';
 import { AppError } from '../../lib/errors';
 import type { SheetProfile } from '../sheets/sheet-profile.entity';
 import type { StockItem } from '../shop/stock-item.entity';

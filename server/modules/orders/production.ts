@@ -2,9 +2,9 @@
 // nester (on worker threads, quarter turns: each single is sold on its own), each sheet made in the
 // library and linked to the order; and what the order cost, from the print runs logged against it.
 import type { DataSource } from 'typeorm';
-import type { ArrangeItem } from '../../../shared/arrange/nester';
-import type { Piece } from '../../../shared/sheet/document';
-import { newPieceId } from '../../../shared/sheet/commands';
+import type { ArrangeItem } from '@shared/arrange/nester';
+import type { Piece } from '@shared/sheet/document';
+import { newPieceId } from '@shared/sheet/commands';
 import { AppError, conflict } from '../../lib/errors';
 import { arrangeInThreads } from '../../engine/arrange/parallel';
 import { ArtItem } from '../art/art-item.entity';

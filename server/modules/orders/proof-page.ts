@@ -3,9 +3,9 @@
 // script, nothing of the team but this proof), rate-limited per client address.
 import express, { Router } from 'express';
 import type { NextFunction, Request, Response } from 'express';
-import { amountDue, formatMinor } from '../../../shared/orders/money';
-import { proofApproveSchema, proofChangesSchema, proofTokenSchema } from '../../../shared/schemas/orders';
-import { formatLength } from '../../../shared/units';
+import { amountDue, formatMinor } from '@shared/orders/money';
+import { proofApproveSchema, proofChangesSchema, proofTokenSchema } from '@shared/schemas/orders';
+import { formatLength } from '@shared/units';
 import { AppError } from '../../lib/errors';
 import type { RateLimits } from '../../lib/rate-limits';
 import { fieldMessages } from '../../middleware/validate';

@@ -7,7 +7,7 @@ import sharp from 'sharp';
 import type { DataSource } from 'typeorm';
 import { In } from 'typeorm';
 import type { Env } from '../../config/env';
-import { formatMinor, orderTotal } from '../../../shared/orders/money';
+import { formatMinor, orderTotal } from '@shared/orders/money';
 import { AppError, conflict, notFound } from '../../lib/errors';
 import { hashToken, newToken } from '../../lib/tokens';
 import type { Mailer } from '../../mail/mailer';

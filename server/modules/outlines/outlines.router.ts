@@ -1,9 +1,9 @@
-import type { OutlineResponse } from '../../../shared/schemas/outline';
+import type { OutlineResponse } from '@shared/schemas/outline';
 import { Router } from 'express';
 import type { DataSource } from 'typeorm';
 import { z } from 'zod';
-import { outlineQuerySchema, removalPreviewQuerySchema } from '../../../shared/schemas/outline';
-import { idSchema } from '../../../shared/schemas/team';
+import { outlineQuerySchema, removalPreviewQuerySchema } from '@shared/schemas/outline';
+import { idSchema } from '@shared/schemas/team';
 import { requirePermission, teamScope } from '../../middleware/auth';
 import { route } from '../../middleware/validate';
 import type { ArtService } from '../art/art.service';

@@ -1,7 +1,7 @@
 import type { DataSource } from 'typeorm';
-import type { ProfileInput, ProfileView } from '../../../shared/schemas/sheets';
-import { PAPER_SIZES } from '../../../shared/schemas/sheets';
-import { inchToMm } from '../../../shared/units';
+import type { ProfileInput, ProfileView } from '@shared/schemas/sheets';
+import { PAPER_SIZES } from '@shared/schemas/sheets';
+import { inchToMm } from '@shared/units';
 import { conflict, notFound } from '../../lib/errors';
 import { SheetProfile } from './sheet-profile.entity';
 import { inTransaction } from '../../db/transaction';

@@ -2,9 +2,9 @@
 // thumbnail that is a small PNG and nothing else.
 import sharp from 'sharp';
 import type { Metadata } from 'sharp';
-import type { SheetDocument } from '../../../shared/sheet/document';
-import { documentProblems, problemField } from '../../../shared/sheet/bounds';
-import type { LengthUnit } from '../../../shared/units';
+import type { SheetDocument } from '@shared/sheet/document';
+import { documentProblems, problemField } from '@shared/sheet/bounds';
+import type { LengthUnit } from '@shared/units';
 import { validationError } from '../../lib/errors';
 
 /** A save whose pieces break the sheet's physical bounds is refused, every problem named in the sheet's unit. */

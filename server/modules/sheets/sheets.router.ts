@@ -9,13 +9,13 @@ import {
   sheetListQuerySchema,
   sheetParamsSchema,
   sheetSaveSchema,
-} from '../../../shared/schemas/sheets';
-import { teamParamsSchema } from '../../../shared/schemas/team';
+} from '@shared/schemas/sheets';
+import { teamParamsSchema } from '@shared/schemas/team';
 import { actorOf, requirePermission, teamScope } from '../../middleware/auth';
 import { route } from '../../middleware/validate';
 import type { ProfilesService } from './profiles.service';
 import type { SheetsService } from './sheets.service';
-import type { SheetSummary } from '../../../shared/schemas/sheets';
+import type { SheetSummary } from '@shared/schemas/sheets';
 
 /** Adds what modules above this one know of each listed sheet (its cost, from the print shop). */
 type SheetListExtras = (teamId: string, list: SheetSummary[]) => Promise<SheetSummary[]>;

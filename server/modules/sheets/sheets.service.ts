@@ -1,9 +1,9 @@
 import { releaseKey } from '../../storage/sweep';
 import type { DataSource, EntityManager } from 'typeorm';
 import { In } from 'typeorm';
-import type { SheetDocument } from '../../../shared/sheet/document';
-import { emptyDocument, migrateDocument } from '../../../shared/sheet/document';
-import type { SheetDetail, SheetSaveInput, SheetSummary } from '../../../shared/schemas/sheets';
+import type { SheetDocument } from '@shared/sheet/document';
+import { emptyDocument, migrateDocument } from '@shared/sheet/document';
+import type { SheetDetail, SheetSaveInput, SheetSummary } from '@shared/schemas/sheets';
 import { AppError, notFound, validationError } from '../../lib/errors';
 import type { Storage } from '../../storage/storage';
 import { User } from '../accounts/user.entity';
@@ -15,9 +15,9 @@ import { Sheet } from './sheet.entity';
 import { SheetArt } from './sheet-art.entity';
 import { inTransaction } from '../../db/transaction';
 import { cleanThumbnail, refuseOutOfBounds } from './sheet-checks';
-import { profileLimits } from '../../../shared/sheet/preflight';
+import { profileLimits } from '@shared/sheet/preflight';
 
-import type { Actor } from '../../../shared/permissions';
+import type { Actor } from '@shared/permissions';
 
 export class SheetsService {
   constructor(

@@ -1,9 +1,9 @@
 import type { DataSource } from 'typeorm';
 import { In, IsNull } from 'typeorm';
 import type { z } from 'zod';
-import type { SheetSummary } from '../../../shared/schemas/sheets';
-import type { costingInputSchema, SheetAnalysis, SheetCostView, ShopSettings } from '../../../shared/schemas/shop';
-import { costPerSheet, sheetCost } from '../../../shared/production/cost';
+import type { SheetSummary } from '@shared/schemas/sheets';
+import type { costingInputSchema, SheetAnalysis, SheetCostView, ShopSettings } from '@shared/schemas/shop';
+import { costPerSheet, sheetCost } from '@shared/production/cost';
 import { notFound } from '../../lib/errors';
 import type { SheetsService } from '../sheets/sheets.service';
 import { Sheet } from '../sheets/sheet.entity';

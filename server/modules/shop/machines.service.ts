@@ -1,7 +1,7 @@
 import type { DataSource, EntityManager } from 'typeorm';
 import type { z } from 'zod';
-import type { BladeFit, BladeView, MachineView, machineInputSchema } from '../../../shared/schemas/shop';
-import { BLADE_NEAR_DAYS, BLADE_NEAR_SHARE } from '../../../shared/schemas/shop';
+import type { BladeFit, BladeView, MachineView, machineInputSchema } from '@shared/schemas/shop';
+import { BLADE_NEAR_DAYS, BLADE_NEAR_SHARE } from '@shared/schemas/shop';
 import { notFound, validationError } from '../../lib/errors';
 import { IsNull } from 'typeorm';
 import { inTransaction } from '../../db/transaction';

@@ -1,5 +1,5 @@
 import { Column, CreateDateColumn, Entity, PrimaryGeneratedColumn } from 'typeorm';
-import type { RUN_RESULTS } from '../../../shared/schemas/shop';
+import type { RUN_RESULTS } from '@shared/schemas/shop';
 import { day } from '../../db/columns';
 
 /** One print run: what was printed and cut, on what, with which settings, and how it came out. */

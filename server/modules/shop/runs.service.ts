@@ -1,8 +1,8 @@
 import sharp from 'sharp';
 import type { DataSource } from 'typeorm';
 import type { z } from 'zod';
-import type { PrintRunInput, PrintRunView, runListQuerySchema } from '../../../shared/schemas/shop';
-import { cutterSettingsSchema, printerSettingsSchema } from '../../../shared/schemas/shop';
+import type { PrintRunInput, PrintRunView, runListQuerySchema } from '@shared/schemas/shop';
+import { cutterSettingsSchema, printerSettingsSchema } from '@shared/schemas/shop';
 import { AppError, notFound, validationError } from '../../lib/errors';
 import type { Storage } from '../../storage/storage';
 import type { SheetsService } from '../sheets/sheets.service';

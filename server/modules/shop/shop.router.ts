@@ -13,9 +13,9 @@ import {
   shopSettingsSchema,
   stockAdjustSchema,
   stockInputSchema,
-} from '../../../shared/schemas/shop';
-import { sheetParamsSchema } from '../../../shared/schemas/sheets';
-import { idSchema, teamParamsSchema } from '../../../shared/schemas/team';
+} from '@shared/schemas/shop';
+import { sheetParamsSchema } from '@shared/schemas/sheets';
+import { idSchema, teamParamsSchema } from '@shared/schemas/team';
 import { AppError } from '../../lib/errors';
 import { requirePermission, teamScope } from '../../middleware/auth';
 import { route } from '../../middleware/validate';

@@ -1,5 +1,5 @@
 import { Column, CreateDateColumn, Entity, PrimaryGeneratedColumn, UpdateDateColumn } from 'typeorm';
-import type { StockInput } from '../../../shared/schemas/shop';
+import type { StockInput } from '@shared/schemas/shop';
 import { decimal } from '../../db/columns';
 
 /** A stock the team prints on: its price, the sheets on hand and the settings that worked. */

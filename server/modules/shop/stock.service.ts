@@ -1,7 +1,7 @@
 import type { DataSource, EntityManager } from 'typeorm';
 import { IsNull } from 'typeorm';
-import type { StockInput, StockView } from '../../../shared/schemas/shop';
-import { costPerSheet } from '../../../shared/production/cost';
+import type { StockInput, StockView } from '@shared/schemas/shop';
+import { costPerSheet } from '@shared/production/cost';
 import { AppError, notFound } from '../../lib/errors';
 import { inTransaction } from '../../db/transaction';
 import { StockItem } from './stock-item.entity';

@@ -1,6 +1,6 @@
 import { Column, CreateDateColumn, Entity, Index, JoinColumn, ManyToOne, PrimaryGeneratedColumn } from 'typeorm';
-import type { Role } from '../../../shared/permissions';
-import { ROLES } from '../../../shared/permissions';
+import type { Role } from '@shared/permissions';
+import { ROLES } from '@shared/permissions';
 import { User } from '../accounts/user.entity';
 import { Team } from '../accounts/team.entity';
 

@@ -1,7 +1,7 @@
 import { Router } from 'express';
 import type { Request } from 'express';
 import type { DataSource } from 'typeorm';
-import { acceptInviteSchema, tokenParamSchema } from '../../../shared/schemas/auth';
+import { acceptInviteSchema, tokenParamSchema } from '@shared/schemas/auth';
 import {
   createInviteSchema,
   createTeamSchema,
@@ -10,7 +10,7 @@ import {
   teamParamsSchema,
   updateMemberSchema,
   updateTeamSchema,
-} from '../../../shared/schemas/team';
+} from '@shared/schemas/team';
 import { actorOf, requirePermission, requireUser, teamScope } from '../../middleware/auth';
 import { route } from '../../middleware/validate';
 import type { AuthService } from '../auth/auth.service';

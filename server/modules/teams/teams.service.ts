@@ -1,14 +1,14 @@
 import type { DataSource } from 'typeorm';
 import { IsNull, MoreThan } from 'typeorm';
-import type { Role } from '../../../shared/permissions';
-import { assignableRoles, can } from '../../../shared/permissions';
-import type { CreateInviteInput, InvitePreview, TeamDetail } from '../../../shared/schemas/team';
+import type { Role } from '@shared/permissions';
+import { assignableRoles, can } from '@shared/permissions';
+import type { CreateInviteInput, InvitePreview, TeamDetail } from '@shared/schemas/team';
 import type { Env } from '../../config/env';
 import { AppError, conflict, forbidden, notFound } from '../../lib/errors';
 import { hashToken, newToken } from '../../lib/tokens';
 import type { Mailer } from '../../mail/mailer';
 import { inviteMail } from '../../mail/templates';
-import { ERROR_CODES } from '../../../shared/schemas/api-error';
+import { ERROR_CODES } from '@shared/schemas/api-error';
 import { createUserWithTeam } from '../accounts/create-account';
 import { tokenInvalid } from '../auth/auth.service';
 import { hashPassword } from '../auth/passwords';
@@ -20,7 +20,7 @@ import { inTransaction } from '../../db/transaction';
 
 const INVITE_LIFETIME_MS = 7 * 24 * 60 * 60 * 1000;
 
-import type { Actor } from '../../../shared/permissions';
+import type { Actor } from '@shared/permissions';
 
 export class TeamsService {
   constructor(

@@ -1,6 +1,6 @@
 import { useParams } from 'react-router';
-import type { Permission } from '../../../shared/permissions';
-import { can } from '../../../shared/permissions';
+import type { Permission } from '@shared/permissions';
+import { can } from '@shared/permissions';
 import { useMe } from './api/me';
 
 /** The signed-in user's role in the team of the current route, and a permission check. */

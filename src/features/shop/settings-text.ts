@@ -1,5 +1,5 @@
 // One wording for printer and cutter settings, used by the stock shelf and the run log.
-import type { CutterSettings, PrinterSettings } from '../../../shared/schemas/shop';
+import type { CutterSettings, PrinterSettings } from '@shared/schemas/shop';
 
 const join = (parts: Array<string | false>) => parts.filter(Boolean).join(' · ');
 

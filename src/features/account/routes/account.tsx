@@ -1,14 +1,14 @@
 import { useState } from 'react';
 import { useNavigate } from 'react-router';
 import { z } from 'zod';
-import { changePasswordSchema, nameSchema } from '../../../../shared/schemas/auth';
-import { createTeamSchema } from '../../../../shared/schemas/team';
-import { Button, FormMessage, SelectField, TextField } from '../../../components/form';
-import { PageTitle } from '../../../components/page-title';
-import { useZodForm } from '../../../hooks/use-zod-form';
-import { useChangePassword, useMe, useSignOut, useUpdateAccount } from '../../auth/api/me';
-import { useCreateTeam } from '../../auth/api/me';
-import { teamPath } from '../../../app/paths';
+import { changePasswordSchema, nameSchema } from '@shared/schemas/auth';
+import { createTeamSchema } from '@shared/schemas/team';
+import { Button, FormMessage, SelectField, TextField } from '@/components/form';
+import { PageTitle } from '@/components/page-title';
+import { useZodForm } from '@/hooks/use-zod-form';
+import { useChangePassword, useMe, useSignOut, useUpdateAccount } from '@/features/auth/api/me';
+import { useCreateTeam } from '@/features/auth/api/me';
+import { teamPath } from '@/app/paths';
 
 const profileSchema = z.object({ name: nameSchema, unit: z.enum(['in', 'mm']) });
 

@@ -1,7 +1,7 @@
 import { queryOptions, useMutation, useQuery, useQueryClient } from '@tanstack/react-query';
-import type { Me, SignInInput, SignUpInput, UpdateAccountInput, ChangePasswordInput } from '../../../../shared/schemas/auth';
-import { meSchema } from '../../../../shared/schemas/auth';
-import { ApiError, api, setCsrfToken } from '../../../lib/api-client';
+import type { Me, SignInInput, SignUpInput, UpdateAccountInput, ChangePasswordInput } from '@shared/schemas/auth';
+import { meSchema } from '@shared/schemas/auth';
+import { ApiError, api, setCsrfToken } from '@/lib/api-client';
 
 export const meQueryOptions = () =>
   queryOptions({

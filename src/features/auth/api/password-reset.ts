@@ -1,7 +1,7 @@
 import { queryOptions, useMutation, useQuery } from '@tanstack/react-query';
 import { z } from 'zod';
-import type { ResetPasswordInput, ResetRequestInput } from '../../../../shared/schemas/auth';
-import { api } from '../../../lib/api-client';
+import type { ResetPasswordInput, ResetRequestInput } from '@shared/schemas/auth';
+import { api } from '@/lib/api-client';
 
 const resetCheckSchema = z.object({ email: z.string(), expiresAt: z.string() });
 

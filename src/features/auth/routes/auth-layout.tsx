@@ -1,5 +1,5 @@
 import type { ReactNode } from 'react';
-import { Logo } from '../../../components/logo';
+import { Logo } from '@/components/logo';
 
 /** The signed-out pages: a sticker-sheet card on paper. */
 export function AuthLayout({ title, children, footer }: { title: string; children: ReactNode; footer?: ReactNode }) {

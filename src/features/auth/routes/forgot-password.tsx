@@ -1,7 +1,7 @@
 import { Link } from 'react-router';
-import { resetRequestSchema } from '../../../../shared/schemas/auth';
-import { Button, FormMessage, TextField } from '../../../components/form';
-import { useZodForm } from '../../../hooks/use-zod-form';
+import { resetRequestSchema } from '@shared/schemas/auth';
+import { Button, FormMessage, TextField } from '@/components/form';
+import { useZodForm } from '@/hooks/use-zod-form';
 import { useRequestReset } from '../api/password-reset';
 import { AuthLayout } from './auth-layout';
 

@@ -1,7 +1,7 @@
 import { Link, useParams } from 'react-router';
-import { resetPasswordSchema } from '../../../../shared/schemas/auth';
-import { Button, FormMessage, TextField } from '../../../components/form';
-import { useZodForm } from '../../../hooks/use-zod-form';
+import { resetPasswordSchema } from '@shared/schemas/auth';
+import { Button, FormMessage, TextField } from '@/components/form';
+import { useZodForm } from '@/hooks/use-zod-form';
 import { useResetCheck, useResetPassword } from '../api/password-reset';
 import { AuthLayout } from './auth-layout';
 

@@ -1,10 +1,10 @@
 import { Link, useNavigate, useSearchParams } from 'react-router';
-import { signInSchema } from '../../../../shared/schemas/auth';
-import { Button, FormMessage, TextField } from '../../../components/form';
-import { useZodForm } from '../../../hooks/use-zod-form';
+import { signInSchema } from '@shared/schemas/auth';
+import { Button, FormMessage, TextField } from '@/components/form';
+import { useZodForm } from '@/hooks/use-zod-form';
 import { useSignIn } from '../api/me';
 import { AuthLayout } from './auth-layout';
-import { homePath, safeNext } from '../../../app/paths';
+import { homePath, safeNext } from '@/app/paths';
 
 export function SignInRoute() {
   const [params] = useSearchParams();

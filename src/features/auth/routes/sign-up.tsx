@@ -1,10 +1,10 @@
 import { Link, useNavigate } from 'react-router';
-import { signUpSchema } from '../../../../shared/schemas/auth';
-import { Button, FormMessage, TextField } from '../../../components/form';
-import { useZodForm } from '../../../hooks/use-zod-form';
+import { signUpSchema } from '@shared/schemas/auth';
+import { Button, FormMessage, TextField } from '@/components/form';
+import { useZodForm } from '@/hooks/use-zod-form';
 import { useSignUp } from '../api/me';
 import { AuthLayout } from './auth-layout';
-import { homePath } from '../../../app/paths';
+import { homePath } from '@/app/paths';
 
 export function SignUpRoute() {
   const navigate = useNavigate();

@@ -1,8 +1,8 @@
 import { useQuery } from '@tanstack/react-query';
 import { z } from 'zod';
-import { FormMessage } from '../../../components/form';
-import { PageTitle } from '../../../components/page-title';
-import { ApiError, api } from '../../../lib/api-client';
+import { FormMessage } from '@/components/form';
+import { PageTitle } from '@/components/page-title';
+import { ApiError, api } from '@/lib/api-client';
 
 const outboxSchema = z.object({
   messages: z.array(z.object({ file: z.string(), to: z.string(), subject: z.string(), date: z.string() })),

@@ -1,8 +1,8 @@
 // Auto-arrange on the shop's server: start a run, read its best so far every half second, ask it to
 // stop. The same start/stop shape as the Web Worker runner, so the panel treats both alike.
-import type { ArrangeItem, ArrangeOptions, ArrangeResult, LockedPiece } from '../../../../shared/arrange/nester';
-import type { ArrangeRunView } from '../../../../shared/schemas/arrange';
-import { ApiError, api } from '../../../lib/api-client';
+import type { ArrangeItem, ArrangeOptions, ArrangeResult, LockedPiece } from '@shared/arrange/nester';
+import type { ArrangeRunView } from '@shared/schemas/arrange';
+import { ApiError, api } from '@/lib/api-client';
 import type { RunnerEvents } from '../core/arrange-runner';
 
 type RunView = ArrangeRunView & { result: ArrangeResult | null };

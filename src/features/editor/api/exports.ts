@@ -1,5 +1,5 @@
-import type { ExportJobView, ExportRequest } from '../../../../shared/schemas/exports';
-import { api } from '../../../lib/api-client';
+import type { ExportJobView, ExportRequest } from '@shared/schemas/exports';
+import { api } from '@/lib/api-client';
 
 export const startExport = (teamId: string, sheetId: string, request: Partial<ExportRequest>) =>
   api<ExportJobView>('POST', `/teams/${teamId}/sheets/${sheetId}/exports`, request);

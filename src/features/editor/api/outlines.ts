@@ -1,12 +1,12 @@
-import { countTearRisks } from '../../../../shared/sheet/preflight';
+import { countTearRisks } from '@shared/sheet/preflight';
 import { useQueries } from '@tanstack/react-query';
 import { useEffect, useMemo, useRef, useState } from 'react';
-import type { OutlineResponse } from '../../../../shared/schemas/outline';
-import type { Piece } from '../../../../shared/sheet/document';
-import { api } from '../../../lib/api-client';
-import type { PieceOutline as SharedPieceOutline } from '../../../../shared/sheet/placement';
-import { outlineKey } from '../../../../shared/sheet/placement';
-import type { CutLimits } from '../../../../shared/sheet/outline-request';
+import type { OutlineResponse } from '@shared/schemas/outline';
+import type { Piece } from '@shared/sheet/document';
+import { api } from '@/lib/api-client';
+import type { PieceOutline as SharedPieceOutline } from '@shared/sheet/placement';
+import { outlineKey } from '@shared/sheet/placement';
+import type { CutLimits } from '@shared/sheet/outline-request';
 
 /** A piece's outline as the editor holds it: the cut line (shared/'s PieceOutline) and what it shows. */
 export type PieceOutline = SharedPieceOutline & {

@@ -1,7 +1,7 @@
 import { queryOptions, useQuery } from '@tanstack/react-query';
-import type { SheetDetail, SheetSaveInput } from '../../../../shared/schemas/sheets';
-import type { SheetDocument } from '../../../../shared/sheet/document';
-import { api } from '../../../lib/api-client';
+import type { SheetDetail, SheetSaveInput } from '@shared/schemas/sheets';
+import type { SheetDocument } from '@shared/sheet/document';
+import { api } from '@/lib/api-client';
 
 export const sheetQueryOptions = (teamId: string, sheetId: string) =>
   queryOptions({

@@ -1,5 +1,5 @@
 import { describe, expect, it } from 'vitest';
-import type { Piece, SheetDocument } from '../../../../shared/sheet/document';
+import type { Piece, SheetDocument } from '@shared/sheet/document';
 import type { ActionContext } from './actions';
 import { ACTIONS } from './actions';
 import { handleKey, runAction } from './run-action';

@@ -1,8 +1,8 @@
 // Every editor action in one registry: the toolbar, the keyboard and the help panel use the same
 // entries. No React or Konva here.
-import type { Piece } from '../../../../shared/sheet/document';
-import { commands } from '../../../../shared/sheet/commands';
-import { labelGridForSelection } from '../../../../shared/sheet/label-grid';
+import type { Piece } from '@shared/sheet/document';
+import { commands } from '@shared/sheet/commands';
+import { labelGridForSelection } from '@shared/sheet/label-grid';
 import type { EditorStore } from './editor-store';
 
 export type ActionContext = {

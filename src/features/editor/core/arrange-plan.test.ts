@@ -1,8 +1,8 @@
 import { describe, expect, it } from 'vitest';
-import { arrange } from '../../../../shared/arrange/nester';
-import { applyDiff } from '../../../../shared/sheet/commands';
-import type { Piece, SheetDocument } from '../../../../shared/sheet/document';
-import type { PieceOutline } from '../../../../shared/sheet/placement';
+import { arrange } from '@shared/arrange/nester';
+import { applyDiff } from '@shared/sheet/commands';
+import type { Piece, SheetDocument } from '@shared/sheet/document';
+import type { PieceOutline } from '@shared/sheet/placement';
 import { arrangeCommand, arrangeGroups, defaultTurning, furtherSheets, parseQuantity, planArrange } from './arrange-plan';
 
 // A 171.45 × 234.95 mm print area (common practice on Letter), 3.175 mm gap and margin.

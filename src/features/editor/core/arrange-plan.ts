@@ -1,11 +1,11 @@
 // Turns a sheet and arrange options into the nester's input, and its result back into one command.
-import type { ArrangeItem, ArrangeResult, LockedPiece, RotateMode } from '../../../../shared/arrange/nester';
-import { arrange } from '../../../../shared/arrange/nester';
-import type { Command } from '../../../../shared/sheet/commands';
-import { newPieceId } from '../../../../shared/sheet/commands';
-import type { Piece, SheetDocument } from '../../../../shared/sheet/document';
-import type { PieceOutline } from '../../../../shared/sheet/placement';
-import { outlineKey } from '../../../../shared/sheet/placement';
+import type { ArrangeItem, ArrangeResult, LockedPiece, RotateMode } from '@shared/arrange/nester';
+import { arrange } from '@shared/arrange/nester';
+import type { Command } from '@shared/sheet/commands';
+import { newPieceId } from '@shared/sheet/commands';
+import type { Piece, SheetDocument } from '@shared/sheet/document';
+import type { PieceOutline } from '@shared/sheet/placement';
+import { outlineKey } from '@shared/sheet/placement';
 
 export type ArrangeChoice = {
   scope: 'sheet' | 'selection';

@@ -1,5 +1,5 @@
 import { describe, expect, it } from 'vitest';
-import type { ArrangeResult } from '../../../../shared/arrange/nester';
+import type { ArrangeResult } from '@shared/arrange/nester';
 import { ArrangeRunner } from './arrange-runner';
 
 const result = (placed: number, sheets: number, area: number): ArrangeResult => ({

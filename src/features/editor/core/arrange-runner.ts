@@ -1,7 +1,7 @@
 // Runs the nester in several Web Workers at once, one seed each, and keeps the best layout any of
 // them has found: progress and "stop" see that best, and the run is done when every worker is.
-import type { ArrangeItem, ArrangeOptions, ArrangeProgress, ArrangeResult, LockedPiece } from '../../../../shared/arrange/nester';
-import { betterResult, threadSeed } from '../../../../shared/arrange/portfolio';
+import type { ArrangeItem, ArrangeOptions, ArrangeProgress, ArrangeResult, LockedPiece } from '@shared/arrange/nester';
+import { betterResult, threadSeed } from '@shared/arrange/portfolio';
 
 export type RunnerEvents = {
   onProgress: (progress: ArrangeProgress & { threads: number }) => void;

@@ -1,6 +1,6 @@
 // Runs the nester off the page's main thread; the page stays responsive and shows progress.
-import type { ArrangeItem, ArrangeOptions, LockedPiece } from '../../../../shared/arrange/nester';
-import { ArrangeInputError, arrange } from '../../../../shared/arrange/nester';
+import type { ArrangeItem, ArrangeOptions, LockedPiece } from '@shared/arrange/nester';
+import { ArrangeInputError, arrange } from '@shared/arrange/nester';
 
 export type ArrangeRequest = { items: ArrangeItem[]; options: ArrangeOptions; locked: LockedPiece[] };
 

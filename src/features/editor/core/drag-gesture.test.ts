@@ -1,6 +1,6 @@
 import { describe, expect, it } from 'vitest';
-import type { Piece } from '../../../../shared/sheet/document';
-import { emptyDocument } from '../../../../shared/sheet/document';
+import type { Piece } from '@shared/sheet/document';
+import { emptyDocument } from '@shared/sheet/document';
 import { DragGesture } from './drag-gesture';
 import { EditorStore } from './editor-store';
 

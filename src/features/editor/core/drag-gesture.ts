@@ -2,8 +2,8 @@
 // would be for the pointer's move, one undo step when the drag ends (pieces dropped far off the
 // sheet stop at the edge of where pieces may sit), and Escape putting every piece back where the
 // drag began with nothing recorded. No React or Konva here.
-import { clampToZone } from '../../../../shared/sheet/bounds';
-import { commands } from '../../../../shared/sheet/commands';
+import { clampToZone } from '@shared/sheet/bounds';
+import { commands } from '@shared/sheet/commands';
 import type { EditorStore } from './editor-store';
 
 type Point = { x: number; y: number };

@@ -1,8 +1,8 @@
 // The editor's state without React or Konva: the sheet document (changed only through commands),
 // the selection, the view, and the save state. Renderers read it; they never own it.
-import type { Command } from '../../../../shared/sheet/commands';
-import type { SheetDocument } from '../../../../shared/sheet/document';
-import { History } from '../../../../shared/sheet/history';
+import type { Command } from '@shared/sheet/commands';
+import type { SheetDocument } from '@shared/sheet/document';
+import { History } from '@shared/sheet/history';
 
 export type SaveState = 'saved' | 'unsaved' | 'saving' | 'offline' | 'conflict' | 'refused';
 /** Why the server refused the last save, and the pieces it named. */

@@ -1,7 +1,7 @@
 // Running the registry's actions: from a button or a menu by name, or from the keyboard (the first
 // action whose key test matches). No React or Konva here.
-import type { Piece } from '../../../../shared/sheet/document';
-import { newPieceId } from '../../../../shared/sheet/commands';
+import type { Piece } from '@shared/sheet/document';
+import { newPieceId } from '@shared/sheet/commands';
 import type { Action, ActionContext } from './actions';
 import { ACTIONS } from './actions';
 

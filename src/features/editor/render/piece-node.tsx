@@ -1,7 +1,7 @@
 import type Konva from 'konva';
 import { memo } from 'react';
 import { Group, Image, Path, Rect } from 'react-konva';
-import type { Piece } from '../../../../shared/sheet/document';
+import type { Piece } from '@shared/sheet/document';
 import type { PieceOutline } from '../api/outlines';
 import { useImage } from './use-image';
 

@@ -1,5 +1,5 @@
 import { Group, Line, Rect, Text } from 'react-konva';
-import type { LengthUnit } from '../../../../shared/units';
+import type { LengthUnit } from '@shared/units';
 
 export const RULER = 22;
 

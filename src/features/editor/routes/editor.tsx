@@ -1,6 +1,6 @@
 import { useParams } from 'react-router';
-import { FormMessage } from '../../../components/form';
-import { useTeamRole } from '../../auth/use-team-role';
+import { FormMessage } from '@/components/form';
+import { useTeamRole } from '@/features/auth/use-team-role';
 import { useSheet } from '../api/sheet';
 import { EditorPage } from '../ui/editor-page';
 

@@ -1,16 +1,16 @@
 import { useMemo, useRef, useState } from 'react';
 import { Link } from 'react-router';
-import type { ArrangeProgress, ArrangeResult } from '../../../../shared/arrange/nester';
-import { applyDiff } from '../../../../shared/sheet/commands';
-import type { Command } from '../../../../shared/sheet/commands';
+import type { ArrangeProgress, ArrangeResult } from '@shared/arrange/nester';
+import { applyDiff } from '@shared/sheet/commands';
+import type { Command } from '@shared/sheet/commands';
 import type { PieceOutline } from '../api/outlines';
-import type { SheetDocument } from '../../../../shared/sheet/document';
+import type { SheetDocument } from '@shared/sheet/document';
 import type { ArrangeChoice } from '../core/arrange-plan';
 import { arrangeCommand, arrangeGroups, defaultTurning, furtherSheets, parseQuantity, planArrange } from '../core/arrange-plan';
 import type { EditorStore } from '../core/editor-store';
 import { ArrangeRunner } from '../core/arrange-runner';
 import { ServerArrangeRunner } from '../api/arrange-runs';
-import { threadsFor } from '../../../../shared/arrange/portfolio';
+import { threadsFor } from '@shared/arrange/portfolio';
 import { ArrangeOptions } from './arrange-options';
 import type { ArrangeWhere } from './arrange-options';
 

@@ -1,7 +1,7 @@
 import { keepPreviousData, useQuery, useQueryClient } from '@tanstack/react-query';
-import { formatMoney } from '../../../../shared/production/cost';
-import { costQueryOptions, machinesQueryOptions, shopApi, stockQueryOptions } from '../../../api/shop';
-import { useAction } from '../../../hooks/use-action';
+import { formatMoney } from '@shared/production/cost';
+import { costQueryOptions, machinesQueryOptions, shopApi, stockQueryOptions } from '@/api/shop';
+import { useAction } from '@/hooks/use-action';
 
 /** What one printed sheet costs, with every input shown, and the choices it is costed on. */
 export function CostPanel({ teamId, sheetId, version, canEdit }: { teamId: string; sheetId: string; version: number; canEdit: boolean }) {

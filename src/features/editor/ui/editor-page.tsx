@@ -1,10 +1,10 @@
 import type Konva from 'konva';
 import { useCallback, useEffect, useMemo, useRef, useState } from 'react';
-import type { ArtView } from '../../../../shared/schemas/library';
-import type { SheetDetail } from '../../../../shared/schemas/sheets';
-import { commands } from '../../../../shared/sheet/commands';
-import { preflight } from '../../../../shared/sheet/preflight';
-import { rotatedHalfSize } from '../../../../shared/sheet/placement';
+import type { ArtView } from '@shared/schemas/library';
+import type { SheetDetail } from '@shared/schemas/sheets';
+import { commands } from '@shared/sheet/commands';
+import { preflight } from '@shared/sheet/preflight';
+import { rotatedHalfSize } from '@shared/sheet/placement';
 import { usePieceOutlines } from '../api/outlines';
 import { saveAsCopy } from '../api/sheet';
 import type { ActionContext } from '../core/actions';
@@ -23,9 +23,9 @@ import { ConflictDialog } from './conflict-dialog';
 import { ContextMenu } from './context-menu';
 import { ArrangePanel } from './arrange-panel';
 import { ExportPanel } from './export-panel';
-import type { SheetDocument } from '../../../../shared/sheet/document';
-import { pieceName } from '../../../../shared/sheet/document';
-import { formatLength } from '../../../../shared/units';
+import type { SheetDocument } from '@shared/sheet/document';
+import { pieceName } from '@shared/sheet/document';
+import { formatLength } from '@shared/units';
 
 export function EditorPage({ teamId, sheet, canEdit }: { teamId: string; sheet: SheetDetail; canEdit: boolean }) {
   const session = useEditorSession(teamId, sheet, canEdit);

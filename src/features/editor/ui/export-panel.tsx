@@ -1,12 +1,12 @@
 import { useQuery } from '@tanstack/react-query';
 import { useEffect, useState } from 'react';
-import type { ExportJobView } from '../../../../shared/schemas/exports';
-import { exportFileLabel } from '../../../../shared/schemas/exports';
-import { ApiError } from '../../../lib/api-client';
+import type { ExportJobView } from '@shared/schemas/exports';
+import { exportFileLabel } from '@shared/schemas/exports';
+import { ApiError } from '@/lib/api-client';
 import { cancelExport, getExport, latestExport, startExport } from '../api/exports';
-import type { Finding } from '../../../../shared/sheet/preflight';
-import type { SheetDetail } from '../../../../shared/schemas/sheets';
-import { REG_MARK_LABELS } from '../../../../shared/schemas/sheets';
+import type { Finding } from '@shared/sheet/preflight';
+import type { SheetDetail } from '@shared/schemas/sheets';
+import { REG_MARK_LABELS } from '@shared/schemas/sheets';
 
 /** Export settings, the running job's progress, and the bundle to download (kept per sheet version). */
 export function ExportPanel({

@@ -1,7 +1,7 @@
-import { commands } from '../../../../shared/sheet/commands';
-import type { Piece } from '../../../../shared/sheet/document';
-import { formatLength } from '../../../../shared/units';
-import { MAX_ROTATION_DEG } from '../../../../shared/sheet/bounds';
+import { commands } from '@shared/sheet/commands';
+import type { Piece } from '@shared/sheet/document';
+import { formatLength } from '@shared/units';
+import { MAX_ROTATION_DEG } from '@shared/sheet/bounds';
 import type { ActionContext } from '../core/actions';
 import { actionNamed, enabled, runAction } from '../core/run-action';
 import { LengthInput, PositionFields, SizeFields, common, useSizeBy } from './selection-fields';

@@ -1,8 +1,8 @@
 import { useQuery } from '@tanstack/react-query';
 import { useState } from 'react';
-import type { ArtPage, ArtView } from '../../../../shared/schemas/library';
-import { useCollections } from '../../../api/collections';
-import { api } from '../../../lib/api-client';
+import type { ArtPage, ArtView } from '@shared/schemas/library';
+import { useCollections } from '@/api/collections';
+import { api } from '@/lib/api-client';
 
 /** Default printed width for new art: 2 in, or less when the file is too small for 300 DPI. */
 export const defaultWidthMm = (art: { widthPx: number }) => Math.max(12.7, Math.min(50.8, (art.widthPx / 300) * 25.4));

@@ -1,5 +1,5 @@
-import type { Finding } from '../../../../shared/sheet/preflight';
-import { countBySeverity } from '../../../../shared/sheet/preflight';
+import type { Finding } from '@shared/sheet/preflight';
+import { countBySeverity } from '@shared/sheet/preflight';
 
 const TONE = { error: 'border-alarm bg-alarm-light', warning: 'border-peel bg-peel-light', notice: 'border-sage bg-sage-light' } as const;
 const LABEL = { error: 'Error', warning: 'Warning', notice: 'Note' } as const;

@@ -2,11 +2,11 @@
 // other figure beside it), and position by the sticker's left and top edges from the print area's
 // corner. Pieces that differ show "mixed"; a value typed there applies to each of them.
 import { useEffect, useId, useState } from 'react';
-import { commands } from '../../../../shared/sheet/commands';
-import type { Piece } from '../../../../shared/sheet/document';
-import type { LengthUnit } from '../../../../shared/units';
-import { formatLength, fromMm, toMm } from '../../../../shared/units';
-import { maxArtWidthMm } from '../../../../shared/sheet/bounds';
+import { commands } from '@shared/sheet/commands';
+import type { Piece } from '@shared/sheet/document';
+import type { LengthUnit } from '@shared/units';
+import { formatLength, fromMm, toMm } from '@shared/units';
+import { maxArtWidthMm } from '@shared/sheet/bounds';
 import type { ActionContext } from '../core/actions';
 
 /** One figure for all the pieces, or null when they differ (beyond a hundredth of a millimetre). */

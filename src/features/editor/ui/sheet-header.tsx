@@ -1,4 +1,4 @@
-import { SHEET_STATUS_LABELS, SHEET_STATUSES } from '../../../../shared/schemas/sheets';
+import { SHEET_STATUS_LABELS, SHEET_STATUSES } from '@shared/schemas/sheets';
 import type { EditorState, EditorStore } from '../core/editor-store';
 
 const SAVE_TEXT = {

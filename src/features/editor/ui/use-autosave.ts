@@ -1,11 +1,11 @@
 import { useEffect, useRef } from 'react';
 import type Konva from 'konva';
-import { ApiError, KEEPALIVE_MAX_BYTES, sendOnLeave } from '../../../lib/api-client';
-import { commands } from '../../../../shared/sheet/commands';
-import { documentProblems, fitToBounds, refusedPieceIds } from '../../../../shared/sheet/bounds';
+import { ApiError, KEEPALIVE_MAX_BYTES, sendOnLeave } from '@/lib/api-client';
+import { commands } from '@shared/sheet/commands';
+import { documentProblems, fitToBounds, refusedPieceIds } from '@shared/sheet/bounds';
 import { saveSheet } from '../api/sheet';
 import type { EditorStore, SheetMeta } from '../core/editor-store';
-import type { SheetDocument } from '../../../../shared/sheet/document';
+import type { SheetDocument } from '@shared/sheet/document';
 
 /** A small PNG of the print area for the sheets list. */
 function thumbnail(sheet: Konva.Group | null, width: number, height: number): string | undefined {

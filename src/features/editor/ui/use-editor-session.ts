@@ -6,7 +6,7 @@ import { useQueryClient } from '@tanstack/react-query';
 import { useEffect, useMemo, useRef, useSyncExternalStore } from 'react';
 import type { RefObject } from 'react';
 import { useBlocker, useNavigate } from 'react-router';
-import type { SheetDetail } from '../../../../shared/schemas/sheets';
+import type { SheetDetail } from '@shared/schemas/sheets';
 import { saveAsCopy, sheetQueryOptions } from '../api/sheet';
 import { EditorStore } from '../core/editor-store';
 import type { EditorState } from '../core/editor-store';

@@ -1,6 +1,6 @@
 import { keepPreviousData, queryOptions, useMutation, useQuery, useQueryClient } from '@tanstack/react-query';
-import type { ArtListQuery, ArtPage, ArtUpdateInput, ArtView, BulkAction } from '../../../../shared/schemas/library';
-import { ApiError, api, apiUpload } from '../../../lib/api-client';
+import type { ArtListQuery, ArtPage, ArtUpdateInput, ArtView, BulkAction } from '@shared/schemas/library';
+import { ApiError, api, apiUpload } from '@/lib/api-client';
 
 export type ArtFilters = Partial<Omit<ArtListQuery, 'page' | 'pageSize'>> & { page?: number; pageSize?: number };
 

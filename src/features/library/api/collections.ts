@@ -1,8 +1,8 @@
 import { useMutation, useQueryClient } from '@tanstack/react-query';
-import type { CollectionView, LicenceInput } from '../../../../shared/schemas/library';
-import { api } from '../../../lib/api-client';
+import type { CollectionView, LicenceInput } from '@shared/schemas/library';
+import { api } from '@/lib/api-client';
 
-export { useCollections } from '../../../api/collections';
+export { useCollections } from '@/api/collections';
 
 function useCollectionMutation<I, O>(teamId: string, fn: (input: I) => Promise<O>) {
   const client = useQueryClient();

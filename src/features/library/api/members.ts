@@ -1,5 +1,5 @@
 import { queryOptions, useQuery } from '@tanstack/react-query';
-import { api } from '../../../lib/api-client';
+import { api } from '@/lib/api-client';
 
 /** The team's members, for the "uploaded by" filter. */
 const membersQueryOptions = (teamId: string) =>

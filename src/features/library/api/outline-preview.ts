@@ -1,6 +1,6 @@
 import { keepPreviousData, queryOptions, useQuery } from '@tanstack/react-query';
-import type { OutlineResponse } from '../../../../shared/schemas/outline';
-import { api } from '../../../lib/api-client';
+import type { OutlineResponse } from '@shared/schemas/outline';
+import { api } from '@/lib/api-client';
 
 type OutlinePreview = OutlineResponse;
 

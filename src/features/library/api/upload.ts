@@ -1,6 +1,6 @@
-import type { UploadResult } from '../../../../shared/schemas/library';
-import { ApiError, api } from '../../../lib/api-client';
-import { apiErrorSchema } from '../../../../shared/schemas/api-error';
+import type { UploadResult } from '@shared/schemas/library';
+import { ApiError, api } from '@/lib/api-client';
+import { apiErrorSchema } from '@shared/schemas/api-error';
 
 /**
  * Uploads one file (an image or a zip) with progress. fetch() cannot report upload progress, so

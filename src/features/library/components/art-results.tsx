@@ -1,7 +1,7 @@
 import { Link } from 'react-router';
-import type { ArtView } from '../../../../shared/schemas/library';
-import type { LengthUnit } from '../../../../shared/units';
-import { formatLength } from '../../../../shared/units';
+import type { ArtView } from '@shared/schemas/library';
+import type { LengthUnit } from '@shared/units';
+import { formatLength } from '@shared/units';
 
 type Props = {
   items: ArtView[];

@@ -1,8 +1,8 @@
 import { useEffect, useRef, useState } from 'react';
 import type { MouseEvent } from 'react';
-import type { ArtView } from '../../../../shared/schemas/library';
-import { DEFAULT_TOLERANCE } from '../../../../shared/schemas/outline';
-import { FormMessage } from '../../../components/form';
+import type { ArtView } from '@shared/schemas/library';
+import { DEFAULT_TOLERANCE } from '@shared/schemas/outline';
+import { FormMessage } from '@/components/form';
 import { useUpdateArt } from '../api/art';
 import { removalPreviewUrl, useOutlinePreview } from '../api/outline-preview';
 

@@ -1,6 +1,6 @@
 import { useState } from 'react';
-import type { CollectionView } from '../../../../shared/schemas/library';
-import { ApiError } from '../../../lib/api-client';
+import type { CollectionView } from '@shared/schemas/library';
+import { ApiError } from '@/lib/api-client';
 import { deleteWithQuestion, useBulkArt } from '../api/art';
 
 /** Actions on every selected item at once. */

@@ -1,4 +1,4 @@
-import type { CollectionView } from '../../../../shared/schemas/library';
+import type { CollectionView } from '@shared/schemas/library';
 
 /** "Put into collection": the team's collections that take art (archived ones do not), or none. */
 export function CollectionSelect({

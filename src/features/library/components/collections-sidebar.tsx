@@ -1,8 +1,8 @@
 import { useState } from 'react';
-import type { CollectionView } from '../../../../shared/schemas/library';
-import { LICENCE_LABELS } from '../../../../shared/schemas/library';
-import { useAction } from '../../../hooks/use-action';
-import type { LicenceInput } from '../../../../shared/schemas/library';
+import type { CollectionView } from '@shared/schemas/library';
+import { LICENCE_LABELS } from '@shared/schemas/library';
+import { useAction } from '@/hooks/use-action';
+import type { LicenceInput } from '@shared/schemas/library';
 import { useAttachProof } from '../api/art';
 import { useCreateCollection, useReorderCollections, useUpdateCollection } from '../api/collections';
 import { LicenceForm } from './licence-form';

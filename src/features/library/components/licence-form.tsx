@@ -1,6 +1,6 @@
 import { useState } from 'react';
-import type { LicenceInput, LicenceKind, LicenceView } from '../../../../shared/schemas/library';
-import { LICENCE_KINDS, LICENCE_LABELS, licenceSchema } from '../../../../shared/schemas/library';
+import type { LicenceInput, LicenceKind, LicenceView } from '@shared/schemas/library';
+import { LICENCE_KINDS, LICENCE_LABELS, licenceSchema } from '@shared/schemas/library';
 
 /** Licence kind, source, notes and unit limit; validated with the shared schema before saving. */
 export function LicenceForm({

@@ -1,13 +1,13 @@
 import { useQueryClient } from '@tanstack/react-query';
 import { useEffect, useState } from 'react';
 import { Link } from 'react-router';
-import type { CollectionView, UploadResult } from '../../../../shared/schemas/library';
-import { SHAPES, STICKER_FONTS } from '../../../../shared/schemas/made-art';
-import type { LengthUnit } from '../../../../shared/units';
-import { fromMm, parseLength } from '../../../../shared/units';
-import { Button, FormMessage } from '../../../components/form';
-import { useAction } from '../../../hooks/use-action';
-import { api } from '../../../lib/api-client';
+import type { CollectionView, UploadResult } from '@shared/schemas/library';
+import { SHAPES, STICKER_FONTS } from '@shared/schemas/made-art';
+import type { LengthUnit } from '@shared/units';
+import { fromMm, parseLength } from '@shared/units';
+import { Button, FormMessage } from '@/components/form';
+import { useAction } from '@/hooks/use-action';
+import { api } from '@/lib/api-client';
 import { CollectionSelect } from './collection-select';
 
 const input = 'rounded border-2 border-paper-edge px-2 py-1 font-normal';

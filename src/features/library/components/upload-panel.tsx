@@ -1,8 +1,8 @@
 import { useRef, useState } from 'react';
 import type { DragEvent } from 'react';
-import type { CollectionView, UploadResult } from '../../../../shared/schemas/library';
-import { Button } from '../../../components/form';
-import { ApiError } from '../../../lib/api-client';
+import type { CollectionView, UploadResult } from '@shared/schemas/library';
+import { Button } from '@/components/form';
+import { ApiError } from '@/lib/api-client';
 import { useInvalidateLibrary } from '../api/art';
 import { uploadArt } from '../api/upload';
 import { CollectionSelect } from './collection-select';

@@ -1,10 +1,10 @@
 import { useEffect, useMemo, useState } from 'react';
 import { useSearchParams } from 'react-router';
-import { LICENCE_KINDS, LICENCE_LABELS } from '../../../../shared/schemas/library';
-import { Button, FormMessage } from '../../../components/form';
-import { EmptyState, PageTitle } from '../../../components/page-title';
-import { useMe } from '../../auth/api/me';
-import { useTeamRole } from '../../auth/use-team-role';
+import { LICENCE_KINDS, LICENCE_LABELS } from '@shared/schemas/library';
+import { Button, FormMessage } from '@/components/form';
+import { EmptyState, PageTitle } from '@/components/page-title';
+import { useMe } from '@/features/auth/api/me';
+import { useTeamRole } from '@/features/auth/use-team-role';
 import type { ArtFilters } from '../api/art';
 import { useArtList } from '../api/art';
 import { useCollections } from '../api/collections';

@@ -1,10 +1,10 @@
 // Buyers' orders: the board, one order, and every change a member makes to one.
 import { queryOptions, useMutation, useQuery, useQueryClient } from '@tanstack/react-query';
-import type { ArtPage } from '../../../../shared/schemas/library';
-import type { CustomerView, OrderBoard, OrderView } from '../../../../shared/schemas/orders';
-import type { SheetSummary } from '../../../../shared/schemas/sheets';
-import type { ShopSettings, StockView } from '../../../../shared/schemas/shop';
-import { api } from '../../../lib/api-client';
+import type { ArtPage } from '@shared/schemas/library';
+import type { CustomerView, OrderBoard, OrderView } from '@shared/schemas/orders';
+import type { SheetSummary } from '@shared/schemas/sheets';
+import type { ShopSettings, StockView } from '@shared/schemas/shop';
+import { api } from '@/lib/api-client';
 
 const base = (teamId: string) => `/teams/${teamId}`;
 export const orderKeys = {

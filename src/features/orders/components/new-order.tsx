@@ -3,10 +3,10 @@ import { useId, useState } from 'react';
 import { useForm } from 'react-hook-form';
 import { useNavigate } from 'react-router';
 import { useQueryClient } from '@tanstack/react-query';
-import { customerInputSchema } from '../../../../shared/schemas/orders';
-import type { CustomerInput } from '../../../../shared/schemas/orders';
+import { customerInputSchema } from '@shared/schemas/orders';
+import type { CustomerInput } from '@shared/schemas/orders';
 import type { z } from 'zod';
-import { ApiError } from '../../../lib/api-client';
+import { ApiError } from '@/lib/api-client';
 import { orderKeys, ordersApi, useCustomers } from '../api/orders';
 
 const input = 'w-full rounded-lg border-2 border-paper-edge bg-white px-3 py-2 font-normal text-ink focus:border-peel focus:outline-none';

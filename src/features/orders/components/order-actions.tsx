@@ -1,10 +1,10 @@
 import { useState } from 'react';
 import { Link } from 'react-router';
-import type { Role } from '../../../../shared/permissions';
-import { can } from '../../../../shared/permissions';
-import { formatMinor } from '../../../../shared/orders/money';
-import type { OrderView } from '../../../../shared/schemas/orders';
-import { useAction } from '../../../hooks/use-action';
+import type { Role } from '@shared/permissions';
+import { can } from '@shared/permissions';
+import { formatMinor } from '@shared/orders/money';
+import type { OrderView } from '@shared/schemas/orders';
+import { useAction } from '@/hooks/use-action';
 import { ordersApi, useOrderChange } from '../api/orders';
 
 const button = 'rounded-full px-4 py-2 font-bold disabled:opacity-50';

@@ -1,11 +1,11 @@
 import { useId, useState } from 'react';
 import type { ReactNode } from 'react';
 import { useForm } from 'react-hook-form';
-import { formatMinor } from '../../../../shared/orders/money';
-import type { OrderView } from '../../../../shared/schemas/orders';
-import type { LengthUnit } from '../../../../shared/units';
-import { formatLength, parseLength } from '../../../../shared/units';
-import { ApiError } from '../../../lib/api-client';
+import { formatMinor } from '@shared/orders/money';
+import type { OrderView } from '@shared/schemas/orders';
+import type { LengthUnit } from '@shared/units';
+import { formatLength, parseLength } from '@shared/units';
+import { ApiError } from '@/lib/api-client';
 import { ordersApi, useArtChoices, useOrderChange, useSheetChoices, useStockChoices } from '../api/orders';
 
 const input = 'w-full rounded-lg border-2 border-paper-edge bg-white px-3 py-2 font-normal text-ink focus:border-peel focus:outline-none';

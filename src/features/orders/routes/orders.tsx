@@ -1,11 +1,11 @@
 import { useState } from 'react';
 import { Link, useParams } from 'react-router';
-import { can } from '../../../../shared/permissions';
-import { formatMinor } from '../../../../shared/orders/money';
-import { ORDER_STATE_LABELS, ORDER_STATES } from '../../../../shared/schemas/orders';
-import type { OrderState, OrderSummary } from '../../../../shared/schemas/orders';
-import { PageTitle } from '../../../components/page-title';
-import { useMe } from '../../auth/api/me';
+import { can } from '@shared/permissions';
+import { formatMinor } from '@shared/orders/money';
+import { ORDER_STATE_LABELS, ORDER_STATES } from '@shared/schemas/orders';
+import type { OrderState, OrderSummary } from '@shared/schemas/orders';
+import { PageTitle } from '@/components/page-title';
+import { useMe } from '@/features/auth/api/me';
 import { useOrderBoard, useShopSettings } from '../api/orders';
 import { NewOrder } from '../components/new-order';
 

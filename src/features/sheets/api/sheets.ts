@@ -1,6 +1,6 @@
 import { queryOptions, useMutation, useQuery, useQueryClient } from '@tanstack/react-query';
-import type { ProfileInput, ProfileView, SheetDetail, SheetSummary } from '../../../../shared/schemas/sheets';
-import { api } from '../../../lib/api-client';
+import type { ProfileInput, ProfileView, SheetDetail, SheetSummary } from '@shared/schemas/sheets';
+import { api } from '@/lib/api-client';
 
 type SheetFilters = { q?: string; status?: string; ownerId?: string; templates?: 'only' | 'exclude' };
 

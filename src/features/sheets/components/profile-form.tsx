@@ -1,11 +1,11 @@
 import { useState } from 'react';
-import type { ProfileView } from '../../../../shared/schemas/sheets';
-import type { RegMarkShape } from '../../../../shared/schemas/sheets';
-import { PAPER_SIZES, REG_MARK_LABELS, REG_MARK_SHAPES } from '../../../../shared/schemas/sheets';
-import type { LengthUnit } from '../../../../shared/units';
-import { fromMm, toMm } from '../../../../shared/units';
-import { FormMessage } from '../../../components/form';
-import { ApiError } from '../../../lib/api-client';
+import type { ProfileView } from '@shared/schemas/sheets';
+import type { RegMarkShape } from '@shared/schemas/sheets';
+import { PAPER_SIZES, REG_MARK_LABELS, REG_MARK_SHAPES } from '@shared/schemas/sheets';
+import type { LengthUnit } from '@shared/units';
+import { fromMm, toMm } from '@shared/units';
+import { FormMessage } from '@/components/form';
+import { ApiError } from '@/lib/api-client';
 import type { ProfileForm as ProfileBody } from '../api/sheets';
 
 /** Lengths as typed in the user's unit; a new profile starts from common practice (6.75 × 9.25 in on Letter, 1/8 in gaps). */

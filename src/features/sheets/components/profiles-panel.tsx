@@ -1,8 +1,8 @@
 import { useState } from 'react';
-import type { ProfileView } from '../../../../shared/schemas/sheets';
-import { PAPER_SIZES, REG_MARK_LABELS } from '../../../../shared/schemas/sheets';
-import type { LengthUnit } from '../../../../shared/units';
-import { formatFineLength, formatLength } from '../../../../shared/units';
+import type { ProfileView } from '@shared/schemas/sheets';
+import { PAPER_SIZES, REG_MARK_LABELS } from '@shared/schemas/sheets';
+import type { LengthUnit } from '@shared/units';
+import { formatFineLength, formatLength } from '@shared/units';
 import { useCreateProfile, useMakeDefaultProfile, useUpdateProfile } from '../api/sheets';
 import { ProfileForm } from './profile-form';
 

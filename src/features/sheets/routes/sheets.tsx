@@ -1,11 +1,11 @@
 import { useState } from 'react';
 import { Link, useNavigate } from 'react-router';
-import { SHEET_STATUS_LABELS, SHEET_STATUSES } from '../../../../shared/schemas/sheets';
-import { Button, FormMessage } from '../../../components/form';
-import { EmptyState, PageTitle } from '../../../components/page-title';
-import { useAction } from '../../../hooks/use-action';
-import { useMe } from '../../auth/api/me';
-import { useTeamRole } from '../../auth/use-team-role';
+import { SHEET_STATUS_LABELS, SHEET_STATUSES } from '@shared/schemas/sheets';
+import { Button, FormMessage } from '@/components/form';
+import { EmptyState, PageTitle } from '@/components/page-title';
+import { useAction } from '@/hooks/use-action';
+import { useMe } from '@/features/auth/api/me';
+import { useTeamRole } from '@/features/auth/use-team-role';
 import { useCreateSheet, useDeleteSheet, useDuplicateSheet, useProfiles, useSheets } from '../api/sheets';
 import { ProfilesPanel } from '../components/profiles-panel';
 

@@ -1,7 +1,7 @@
 import { useState } from 'react';
-import { formatMoney, fullCoverageCost } from '../../../../shared/production/cost';
-import type { MachineView } from '../../../../shared/schemas/shop';
-import { useAction } from '../../../hooks/use-action';
+import { formatMoney, fullCoverageCost } from '@shared/production/cost';
+import type { MachineView } from '@shared/schemas/shop';
+import { useAction } from '@/hooks/use-action';
 
 const input = 'rounded border-2 border-paper-edge px-2 py-1 font-normal';
 

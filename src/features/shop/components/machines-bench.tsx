@@ -1,9 +1,9 @@
 import { useQueryClient } from '@tanstack/react-query';
 import { useState } from 'react';
-import { formatMoney } from '../../../../shared/production/cost';
-import type { MachineView } from '../../../../shared/schemas/shop';
-import { shopApi, shopKeys, useMachines } from '../../../api/shop';
-import { useAction } from '../../../hooks/use-action';
+import { formatMoney } from '@shared/production/cost';
+import type { MachineView } from '@shared/schemas/shop';
+import { shopApi, shopKeys, useMachines } from '@/api/shop';
+import { useAction } from '@/hooks/use-action';
 import { MachineForm } from './machine-form';
 
 const input = 'rounded border-2 border-paper-edge px-2 py-1';

@@ -1,4 +1,4 @@
-import type { PrintRunView } from '../../../../shared/schemas/shop';
+import type { PrintRunView } from '@shared/schemas/shop';
 
 /** Cut length and wasted sheets per week, as bars: what the blade has been through and what went in the bin. */
 export function RunChart({ runs }: { runs: PrintRunView[] }) {

@@ -1,18 +1,10 @@
 import { useQuery, useQueryClient } from '@tanstack/react-query';
 import { useState } from 'react';
-import { RUN_RESULT_LABELS, RUN_RESULTS } from '../../../../shared/schemas/shop';
-import type { PrintRunView, StockView } from '../../../../shared/schemas/shop';
-import {
-  openOrdersQueryOptions,
-  runsQueryOptions,
-  sheetChoicesQueryOptions,
-  shopApi,
-  shopKeys,
-  useMachines,
-  useStock,
-} from '../../../api/shop';
-import { ApiError, apiUpload } from '../../../lib/api-client';
-import { useAction } from '../../../hooks/use-action';
+import { RUN_RESULT_LABELS, RUN_RESULTS } from '@shared/schemas/shop';
+import type { PrintRunView, StockView } from '@shared/schemas/shop';
+import { openOrdersQueryOptions, runsQueryOptions, sheetChoicesQueryOptions, shopApi, shopKeys, useMachines, useStock } from '@/api/shop';
+import { ApiError, apiUpload } from '@/lib/api-client';
+import { useAction } from '@/hooks/use-action';
 import { RunChart } from './run-chart';
 import { RunsTable } from './runs-table';
 

@@ -1,5 +1,5 @@
-import { RUN_RESULT_LABELS } from '../../../../shared/schemas/shop';
-import type { PrintRunView } from '../../../../shared/schemas/shop';
+import { RUN_RESULT_LABELS } from '@shared/schemas/shop';
+import type { PrintRunView } from '@shared/schemas/shop';
 import { cutterSettingsText, printerSettingsText } from '../settings-text';
 
 /** The logged runs, newest first: what was printed on which stock and cutter, and how it went. */

@@ -1,4 +1,4 @@
-import { useMachines, useStock } from '../../../api/shop';
+import { useMachines, useStock } from '@/api/shop';
 
 /** What needs doing before the next run: stock at or below its running-low mark, blades near or due. */
 export function ShopReminders({ teamId }: { teamId: string }) {

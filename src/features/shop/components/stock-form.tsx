@@ -1,9 +1,9 @@
 import { useState } from 'react';
-import { FINISH_LABELS, STOCK_FINISHES } from '../../../../shared/schemas/shop';
-import type { StockView } from '../../../../shared/schemas/shop';
-import type { LengthUnit } from '../../../../shared/units';
-import { fromMm, parseLength } from '../../../../shared/units';
-import { useAction } from '../../../hooks/use-action';
+import { FINISH_LABELS, STOCK_FINISHES } from '@shared/schemas/shop';
+import type { StockView } from '@shared/schemas/shop';
+import type { LengthUnit } from '@shared/units';
+import { fromMm, parseLength } from '@shared/units';
+import { useAction } from '@/hooks/use-action';
 
 const input = 'rounded border-2 border-paper-edge px-2 py-1 font-normal';
 

@@ -1,12 +1,12 @@
 import { useQueryClient } from '@tanstack/react-query';
 import { Fragment, useState } from 'react';
-import { FINISH_LABELS } from '../../../../shared/schemas/shop';
-import type { StockView } from '../../../../shared/schemas/shop';
-import { formatMoney } from '../../../../shared/production/cost';
-import type { LengthUnit } from '../../../../shared/units';
-import { formatLength } from '../../../../shared/units';
-import { shopApi, shopKeys, useStock } from '../../../api/shop';
-import { useAction } from '../../../hooks/use-action';
+import { FINISH_LABELS } from '@shared/schemas/shop';
+import type { StockView } from '@shared/schemas/shop';
+import { formatMoney } from '@shared/production/cost';
+import type { LengthUnit } from '@shared/units';
+import { formatLength } from '@shared/units';
+import { shopApi, shopKeys, useStock } from '@/api/shop';
+import { useAction } from '@/hooks/use-action';
 import { cutterSettingsText, printerSettingsText } from '../settings-text';
 import { StockForm } from './stock-form';
 

@@ -1,11 +1,11 @@
 import { useQuery, useQueryClient } from '@tanstack/react-query';
 import { useEffect, useState } from 'react';
-import { settingsQueryOptions, shopApi, useMachines, useStock } from '../../../api/shop';
-import { PageTitle } from '../../../components/page-title';
-import { ORDER_CURRENCIES } from '../../../../shared/orders/money';
-import { useAction } from '../../../hooks/use-action';
-import { useMe } from '../../auth/api/me';
-import { useTeamRole } from '../../auth/use-team-role';
+import { settingsQueryOptions, shopApi, useMachines, useStock } from '@/api/shop';
+import { PageTitle } from '@/components/page-title';
+import { ORDER_CURRENCIES } from '@shared/orders/money';
+import { useAction } from '@/hooks/use-action';
+import { useMe } from '@/features/auth/api/me';
+import { useTeamRole } from '@/features/auth/use-team-role';
 import { MachinesBench } from '../components/machines-bench';
 import { RunLog } from '../components/run-log';
 import { ShopReminders } from '../components/shop-reminders';

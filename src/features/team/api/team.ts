@@ -1,10 +1,10 @@
 import { queryOptions, useMutation, useQuery, useQueryClient } from '@tanstack/react-query';
-import type { CreateInviteInput, UpdateMemberInput } from '../../../../shared/schemas/team';
-import { invitePreviewSchema, teamDetailSchema } from '../../../../shared/schemas/team';
-import { meSchema } from '../../../../shared/schemas/auth';
-import type { AcceptInviteInput } from '../../../../shared/schemas/auth';
-import { api } from '../../../lib/api-client';
-import { meQueryOptions } from '../../auth/api/me';
+import type { CreateInviteInput, UpdateMemberInput } from '@shared/schemas/team';
+import { invitePreviewSchema, teamDetailSchema } from '@shared/schemas/team';
+import { meSchema } from '@shared/schemas/auth';
+import type { AcceptInviteInput } from '@shared/schemas/auth';
+import { api } from '@/lib/api-client';
+import { meQueryOptions } from '@/features/auth/api/me';
 
 const teamQueryOptions = (teamId: string) =>
   queryOptions({

@@ -1,14 +1,14 @@
 import { useQuery } from '@tanstack/react-query';
 import { Link, useNavigate, useParams } from 'react-router';
 import { z } from 'zod';
-import { ROLE_LABELS } from '../../../../shared/permissions';
-import { nameSchema, passwordSchema } from '../../../../shared/schemas/auth';
-import { Button, FormMessage, TextField } from '../../../components/form';
-import { useZodForm } from '../../../hooks/use-zod-form';
-import { useMe } from '../../auth/api/me';
-import { AuthLayout } from '../../auth/routes/auth-layout';
+import { ROLE_LABELS } from '@shared/permissions';
+import { nameSchema, passwordSchema } from '@shared/schemas/auth';
+import { Button, FormMessage, TextField } from '@/components/form';
+import { useZodForm } from '@/hooks/use-zod-form';
+import { useMe } from '@/features/auth/api/me';
+import { AuthLayout } from '@/features/auth/routes/auth-layout';
 import { invitePreviewQueryOptions, useAcceptInvite } from '../api/team';
-import { teamPath } from '../../../app/paths';
+import { teamPath } from '@/app/paths';
 
 const newAccountSchema = z.object({ name: nameSchema, password: passwordSchema });
 

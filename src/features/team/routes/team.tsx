@@ -1,15 +1,15 @@
 import { useState } from 'react';
 import type { FormEvent } from 'react';
 import { useNavigate } from 'react-router';
-import type { Role } from '../../../../shared/permissions';
-import { assignableRoles, PERMISSIONS, ROLE_LABELS, ROLE_PERMISSIONS, ROLES } from '../../../../shared/permissions';
-import { createInviteSchema, updateTeamSchema } from '../../../../shared/schemas/team';
-import { Button, FormMessage, SelectField, TextField } from '../../../components/form';
-import { PageTitle } from '../../../components/page-title';
-import { useZodForm } from '../../../hooks/use-zod-form';
-import { useAction } from '../../../hooks/use-action';
-import { useMe } from '../../auth/api/me';
-import { useTeamRole } from '../../auth/use-team-role';
+import type { Role } from '@shared/permissions';
+import { assignableRoles, PERMISSIONS, ROLE_LABELS, ROLE_PERMISSIONS, ROLES } from '@shared/permissions';
+import { createInviteSchema, updateTeamSchema } from '@shared/schemas/team';
+import { Button, FormMessage, SelectField, TextField } from '@/components/form';
+import { PageTitle } from '@/components/page-title';
+import { useZodForm } from '@/hooks/use-zod-form';
+import { useAction } from '@/hooks/use-action';
+import { useMe } from '@/features/auth/api/me';
+import { useTeamRole } from '@/features/auth/use-team-role';
 import { useChangeRole, useInvite, useRemoveMember, useRenameTeam, useRevokeInvite, useTeam } from '../api/team';
 
 const roleOptions = (roles: readonly Role[]) => roles.map((role) => ({ value: role, label: ROLE_LABELS[role] }));
