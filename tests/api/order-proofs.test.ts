@@ -5,7 +5,7 @@ import request from 'supertest';
 import { describe, expect, it } from 'vitest';
 import { lastMailTo } from '../helpers/outbox';
 import { makeShop, withCutter } from '../helpers/shop';
-import { uniqueEmail } from '../helpers/app';
+import { testApp, unique, uniqueEmail } from '../helpers/app';
 import { proofToken, quotedOrder, useOrdersApp } from '../helpers/orders';
 
 const t = useOrdersApp();
@@ -201,5 +201,29 @@ describe('from order to production', () => {
     expect(view.costMinor).toBe(Math.round(cost * 100));
     expect(view.marginMinor).toBe(1500 - Math.round(cost * 100));
     expect(view.events.at(-1).what).toBe('Made 2 sheets for 30 stickers');
+  });
+});
+
+describe('proof pages are rate-limited', () => {
+  it('answers the request over the hourly limit per address with 429, in words and with Retry-After, across app processes', async () => {
+    const s = await makeShop(t, 1);
+    const { stock } = await withCutter(s);
+    const { buyer, order } = await quotedOrder(s, stock.id);
+    await s.member.post(`${s.base}/orders/${order.id}/proofs`, {});
+    const token = await proofToken(buyer.email);
+    // Two app processes on one database share the count (rate_limits in MariaDB), as behind a proxy.
+    const prefix = unique('proof-limit');
+    const [a, b] = [0, 1].map(() => testApp(t.db, { LIMIT_PROOF_REQUESTS_PER_HOUR: 3 }, { rateLimitPrefix: prefix }));
+    try {
+      expect((await request(a.app).get(`/proof/${token}`)).status).toBe(200);
+      expect((await request(b.app).get(`/proof/${token}/pictures/0.png`)).status).toBe(200);
+      expect((await request(a.app).get(`/proof/${'B'.repeat(43)}`)).status).toBe(404); // guessing counts too
+      const refused = await request(b.app).get(`/proof/${token}`);
+      expect(refused.status).toBe(429);
+      expect(Number(refused.headers['retry-after'])).toBeGreaterThan(0);
+      expect(refused.text).toMatch(/Too many proof pages opened from your network\. Wait about \d+ minutes? and try again\./);
+    } finally {
+      await Promise.all([a.close(), b.close()]);
+    }
   });
 });
