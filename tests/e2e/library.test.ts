@@ -120,6 +120,27 @@ describe('art library in Chromium', { timeout: BROWSER_TEST_TIMEOUT }, () => {
     await page.close();
   });
 
+  it('lets an admin add a collection, keeps a refused name as typed, and renames it', async () => {
+    const { team, users } = await makeTeamWithRoles(t.db);
+    const page = await t.browser.newPage({ viewport: { width: 1280, height: 800 } });
+    await signIn(page, users.admin.email);
+    await page.goto(`${t.served.url}/t/${team.id}/library`);
+    const name = page.getByLabel('New collection name');
+    await name.fill('Harbour lights');
+    await name.press('Enter');
+    await expect.poll(() => page.getByRole('button', { name: /^Harbour lights/ }).count(), { timeout: 15_000 }).toBe(1);
+    expect(await name.inputValue()).toBe(''); // emptied once added
+    await name.fill('   ');
+    await name.press('Enter');
+    await expect.poll(() => page.getByRole('alert').count(), { timeout: 15_000 }).toBeGreaterThan(0);
+    expect(await name.inputValue()).toBe('   ');
+    await page.getByRole('button', { name: 'Settings of Harbour lights' }).click();
+    await page.getByLabel('Collection name', { exact: true }).fill('Harbour lights at dusk');
+    await page.getByRole('button', { name: 'Rename' }).click();
+    await expect.poll(() => page.getByRole('button', { name: /^Harbour lights at dusk/ }).count(), { timeout: 15_000 }).toBe(1);
+    await page.close();
+  });
+
   it('shows a viewer the library without upload or bulk actions', async () => {
     const { team, users } = await makeTeamWithRoles(t.db);
     const page = await t.browser.newPage({ viewport: { width: 1280, height: 800 } });

@@ -1,4 +1,5 @@
 import { useState } from 'react';
+import { useForm } from 'react-hook-form';
 import type { CollectionView } from '@shared/schemas/library';
 import { LICENCE_LABELS } from '@shared/schemas/library';
 import { useAction } from '@/hooks/use-action';
@@ -23,7 +24,7 @@ export function CollectionsSidebar({ teamId, collections, selected, onSelect, ca
   const create = useCreateCollection(teamId);
   const update = useUpdateCollection(teamId);
   const reorder = useReorderCollections(teamId);
-  const [name, setName] = useState('');
+  const adding = useForm({ defaultValues: { name: '' } });
   const { error, run } = useAction({ preferField: true });
   const [editing, setEditing] = useState<string | null>(null);
   const active = collections.filter((c) => !c.archived);
@@ -60,24 +61,7 @@ export function CollectionsSidebar({ teamId, collections, selected, onSelect, ca
       {c.licence && <p className="px-3 text-xs text-ink-faint">{LICENCE_LABELS[c.licence.kind]}</p>}
       {canManage && editing === c.id && (
         <div className="mt-2 flex flex-col gap-2 rounded-lg border-2 border-paper-edge bg-white p-3 text-sm">
-          <form
-            className="flex gap-1"
-            onSubmit={(e) => {
-              e.preventDefault();
-              const value = new FormData(e.currentTarget).get('name') as string;
-              void run(() => update.mutateAsync({ id: c.id, name: value }));
-            }}
-          >
-            <input
-              name="name"
-              defaultValue={c.name}
-              aria-label="Collection name"
-              className="min-w-0 flex-1 rounded border-2 border-paper-edge px-2 py-1"
-            />
-            <button type="submit" className="rounded bg-ink px-2 font-bold text-paper">
-              Rename
-            </button>
-          </form>
+          <RenameForm name={c.name} onRename={(value) => void run(() => update.mutateAsync({ id: c.id, name: value }))} />
           <label className="flex items-center gap-2">
             <input
               type="checkbox"
@@ -152,17 +136,16 @@ export function CollectionsSidebar({ teamId, collections, selected, onSelect, ca
       {canManage && (
         <form
           className="mt-2 flex gap-1"
-          onSubmit={(e) => {
-            e.preventDefault();
-            void run(async () => {
-              await create.mutateAsync({ name });
-              setName('');
-            });
-          }}
+          onSubmit={adding.handleSubmit(
+            ({ name }) =>
+              void run(async () => {
+                await create.mutateAsync({ name });
+                adding.reset({ name: '' });
+              }),
+          )}
         >
           <input
-            value={name}
-            onChange={(e) => setName(e.target.value)}
+            {...adding.register('name')}
             placeholder="New collection"
             aria-label="New collection name"
             className="min-w-0 flex-1 rounded-lg border-2 border-paper-edge px-2 py-1 text-sm"
@@ -200,5 +183,22 @@ function CollectionLicence({
       onProof={(file) => run(() => proof.mutateAsync(file))}
       hint="Art in this collection inherits this licence unless it has its own."
     />
+  );
+}
+
+/** Renames a collection (the server names a bad name; what was typed stays). */
+function RenameForm({ name, onRename }: { name: string; onRename: (name: string) => void }) {
+  const form = useForm({ defaultValues: { name } });
+  return (
+    <form className="flex gap-1" onSubmit={form.handleSubmit((values) => onRename(values.name))}>
+      <input
+        {...form.register('name')}
+        aria-label="Collection name"
+        className="min-w-0 flex-1 rounded border-2 border-paper-edge px-2 py-1"
+      />
+      <button type="submit" className="rounded bg-ink px-2 font-bold text-paper">
+        Rename
+      </button>
+    </form>
   );
 }

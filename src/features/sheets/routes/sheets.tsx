@@ -1,4 +1,5 @@
 import { useState } from 'react';
+import { useForm } from 'react-hook-form';
 import { Link, useNavigate } from 'react-router';
 import { SHEET_STATUS_LABELS, SHEET_STATUSES } from '@shared/schemas/sheets';
 import { Button, FormMessage } from '@/components/form';
@@ -17,8 +18,7 @@ export function SheetsRoute() {
   const [q, setQ] = useState('');
   const [status, setStatus] = useState('');
   const [ownerId, setOwnerId] = useState('');
-  const [name, setName] = useState('');
-  const [profileId, setProfileId] = useState('');
+  const start = useForm({ defaultValues: { name: '', profileId: '' } });
   const { error, run } = useAction();
   const sheets = useSheets(teamId!, { q, status, ownerId });
   const owners = [...new Map((sheets.data ?? []).map((s) => [s.owner.id, s.owner.name])).entries()];
@@ -41,33 +41,28 @@ export function SheetsRoute() {
           {edit && (
             <form
               className="mb-4 flex flex-wrap items-end gap-2 rounded-sticker border-2 border-paper-edge bg-white p-4"
-              onSubmit={(e) => {
-                e.preventDefault();
-                void run(async () =>
-                  open(
-                    (
-                      await create.mutateAsync({
-                        name: name.trim() || 'Untitled sheet',
-                        profileId: profileId || undefined,
-                        unit: me?.user.unit,
-                      })
-                    ).id,
+              onSubmit={start.handleSubmit(
+                ({ name, profileId }) =>
+                  void run(async () =>
+                    open(
+                      (
+                        await create.mutateAsync({
+                          name: name.trim() || 'Untitled sheet',
+                          profileId: profileId || undefined,
+                          unit: me?.user.unit,
+                        })
+                      ).id,
+                    ),
                   ),
-                );
-              }}
+              )}
             >
               <label className="flex flex-1 flex-col gap-1 text-sm font-bold">
                 New sheet
-                <input
-                  value={name}
-                  onChange={(e) => setName(e.target.value)}
-                  placeholder="e.g. Spring market, sheet 1"
-                  className={`${input} font-normal`}
-                />
+                <input {...start.register('name')} placeholder="e.g. Spring market, sheet 1" className={`${input} font-normal`} />
               </label>
               <label className="flex flex-col gap-1 text-sm font-bold">
                 Profile
-                <select value={profileId} onChange={(e) => setProfileId(e.target.value)} className={`${input} font-normal`}>
+                <select {...start.register('profileId')} className={`${input} font-normal`}>
                   {profiles.data?.map((p) => (
                     <option key={p.id} value={p.isDefault ? '' : p.id}>
                       {p.name}

@@ -1,4 +1,4 @@
-import { useState } from 'react';
+import { useForm } from 'react-hook-form';
 import { formatMoney, fullCoverageCost } from '@shared/production/cost';
 import type { MachineView } from '@shared/schemas/shop';
 import { useAction } from '@/hooks/use-action';
@@ -22,40 +22,41 @@ export function MachineForm({
   onSave: (body: MachineBody) => Promise<unknown>;
   onCancel?: () => void;
 }) {
-  const [f, setF] = useState({
-    kind: machine?.kind ?? 'printer',
-    name: machine?.name ?? '',
-    notes: machine?.notes ?? '',
-    cartridge: '',
-    yieldPages: '',
+  // The values as typed live in react-hook-form; the server validates the body (shared schema) and names a bad field.
+  const form = useForm({
+    defaultValues: {
+      kind: machine?.kind ?? 'printer',
+      name: machine?.name ?? '',
+      notes: machine?.notes ?? '',
+      cartridge: '',
+      yieldPages: '',
+    },
   });
+  const f = form.watch();
   const { error, run } = useAction({ preferField: true });
   const worked = Number(f.cartridge) > 0 && Number(f.yieldPages) > 0 ? fullCoverageCost(Number(f.cartridge), Number(f.yieldPages)) : null;
   const ink = worked ?? machine?.inkFullPage ?? null;
   const field = (key: 'name' | 'notes' | 'cartridge' | 'yieldPages', label: string, w: string) => (
     <label className="flex flex-col font-bold">
       {label}
-      <input value={f[key]} onChange={(e) => setF({ ...f, [key]: e.target.value })} className={`${input} ${w}`} />
+      <input {...form.register(key)} className={`${input} ${w}`} />
     </label>
   );
   const submit = () =>
     run(async () => {
       await onSave({ kind: f.kind, name: f.name, notes: f.notes, inkFullPage: f.kind === 'printer' ? ink : null });
-      if (!machine) setF({ ...f, name: '', notes: '', cartridge: '', yieldPages: '' });
+      if (!machine) form.reset({ ...f, name: '', notes: '', cartridge: '', yieldPages: '' });
     });
   return (
     <form
       aria-label={machine ? `Edit ${machine.name}` : 'Add a machine'}
       className="flex flex-wrap items-end gap-2 text-xs"
-      onSubmit={(e) => {
-        e.preventDefault();
-        void submit();
-      }}
+      onSubmit={form.handleSubmit(() => void submit())}
     >
       {!machine && (
         <label className="flex flex-col font-bold">
           Kind
-          <select value={f.kind} onChange={(e) => setF({ ...f, kind: e.target.value as MachineBody['kind'] })} className={input}>
+          <select {...form.register('kind')} className={input}>
             <option value="printer">Printer</option>
             <option value="cutter">Cutter</option>
           </select>
