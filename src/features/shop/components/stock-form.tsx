@@ -1,4 +1,4 @@
-import { useState } from 'react';
+import { useForm } from 'react-hook-form';
 import { FINISH_LABELS, STOCK_FINISHES } from '@shared/schemas/shop';
 import type { StockView } from '@shared/schemas/shop';
 import type { LengthUnit } from '@shared/units';
@@ -75,7 +75,9 @@ export function StockForm({
   onSave: (body: ReturnType<typeof bodyOf>) => Promise<unknown>;
   onCancel?: () => void;
 }) {
-  const [d, setD] = useState(() => draftFrom(unit, stock));
+  // The fields as typed live in react-hook-form; the server validates the body (shared schema) and names each refused field.
+  const form = useForm({ defaultValues: draftFrom(unit, stock) });
+  const d = form.watch();
   const { error, fields, busy, run } = useAction();
   // Every refused field at once, each beside its input (the server's paths named as the form's keys).
   const fieldErrors: Partial<Record<keyof Draft, string>> = {};
@@ -89,8 +91,7 @@ export function StockForm({
       <label className="flex flex-col gap-1">
         {label}
         <input
-          value={String(d[key])}
-          onChange={(e) => setD({ ...d, [key]: e.target.value })}
+          {...form.register(key)}
           aria-invalid={fieldErrors[key] ? true : undefined}
           aria-describedby={fieldErrors[key] ? `${formKey}-${key}-error` : undefined}
           className={`${input} ${w} ${fieldErrors[key] ? 'border-alarm' : ''}`}
@@ -105,29 +106,26 @@ export function StockForm({
   );
   const tick = (key: 'foodSafe' | 'skinSafe', label: string) => (
     <label className="flex items-center gap-1 text-xs font-bold">
-      <input type="checkbox" checked={d[key]} onChange={(e) => setD({ ...d, [key]: e.target.checked })} />
+      <input type="checkbox" {...form.register(key)} />
       {label}
     </label>
   );
   const submit = () =>
     run(async () => {
       await onSave(bodyOf(d, unit));
-      if (!stock) setD({ ...draftFrom(unit), finish: d.finish, paper: d.paper });
+      if (!stock) form.reset({ ...draftFrom(unit), finish: d.finish, paper: d.paper });
     });
   return (
     <form
       aria-label={stock ? `Edit ${stock.name}` : 'Add stock'}
       className="flex flex-col gap-2 rounded-lg bg-paper p-3"
-      onSubmit={(e) => {
-        e.preventDefault();
-        void submit();
-      }}
+      onSubmit={form.handleSubmit(() => void submit())}
     >
       <div className="flex flex-wrap items-end gap-2">
         {text('name', 'Name', 'w-44')}
         <label className="flex flex-col gap-1 text-xs font-bold">
           Finish
-          <select value={d.finish} onChange={(e) => setD({ ...d, finish: e.target.value as Draft['finish'] })} className={input}>
+          <select {...form.register('finish')} className={input}>
             {STOCK_FINISHES.map((f) => (
               <option key={f} value={f}>
                 {FINISH_LABELS[f]}
@@ -137,7 +135,7 @@ export function StockForm({
         </label>
         <label className="flex flex-col gap-1 text-xs font-bold">
           Paper
-          <select value={d.paper} onChange={(e) => setD({ ...d, paper: e.target.value as Draft['paper'] })} className={input}>
+          <select {...form.register('paper')} className={input}>
             <option value="letter">Letter</option>
             <option value="a4">A4</option>
             <option value="custom">Other size</option>
@@ -170,7 +168,7 @@ export function StockForm({
         {tick('skinSafe', 'Maker rates it skin-safe')}
         <label className="flex grow flex-col gap-1 text-xs font-bold">
           Notes
-          <input value={d.notes} onChange={(e) => setD({ ...d, notes: e.target.value })} className={`${input} w-full`} />
+          <input {...form.register('notes')} className={`${input} w-full`} />
         </label>
       </div>
       <div className="flex items-center gap-3">
