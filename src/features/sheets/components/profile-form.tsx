@@ -1,6 +1,6 @@
 import { useState } from 'react';
+import { useForm } from 'react-hook-form';
 import type { ProfileView } from '@shared/schemas/sheets';
-import type { RegMarkShape } from '@shared/schemas/sheets';
 import { PAPER_SIZES, REG_MARK_LABELS, REG_MARK_SHAPES } from '@shared/schemas/sheets';
 import type { LengthUnit } from '@shared/units';
 import { fromMm, toMm } from '@shared/units';
@@ -42,18 +42,15 @@ export function ProfileForm({
   onSave: (body: ProfileBody) => Promise<unknown>;
   onCancel?: () => void;
 }) {
-  const [form, setForm] = useState(() => draftFrom(unit, profile));
+  // The fields as typed live in react-hook-form; lengths are read in the user's unit and the server names a refused one.
+  const rhf = useForm({ defaultValues: draftFrom(unit, profile) });
+  const form = rhf.watch();
   const [errors, setErrors] = useState<Record<string, string>>({});
   const [message, setMessage] = useState<{ text: string; tone: 'ok' | 'error' } | null>(null);
   const field = (key: keyof typeof form, label: string) => (
     <label className="flex flex-col gap-1 text-xs font-bold">
       {label}
-      <input
-        value={form[key]}
-        onChange={(e) => setForm({ ...form, [key]: e.target.value })}
-        className="w-24 rounded border-2 border-paper-edge px-2 py-1 font-normal"
-        inputMode="decimal"
-      />
+      <input {...rhf.register(key)} className="w-24 rounded border-2 border-paper-edge px-2 py-1 font-normal" inputMode="decimal" />
     </label>
   );
   const submit = async () => {
@@ -90,29 +87,15 @@ export function ProfileForm({
     }
   };
   return (
-    <form
-      aria-label={profile ? `Edit ${profile.name}` : 'Add a profile'}
-      onSubmit={(e) => {
-        e.preventDefault();
-        void submit();
-      }}
-    >
+    <form aria-label={profile ? `Edit ${profile.name}` : 'Add a profile'} onSubmit={rhf.handleSubmit(() => void submit())}>
       <div className="mt-2 flex flex-wrap items-end gap-2">
         <label className="flex flex-col gap-1 text-xs font-bold">
           Name
-          <input
-            value={form.name}
-            onChange={(e) => setForm({ ...form, name: e.target.value })}
-            className="rounded border-2 border-paper-edge px-2 py-1 font-normal"
-          />
+          <input {...rhf.register('name')} className="rounded border-2 border-paper-edge px-2 py-1 font-normal" />
         </label>
         <label className="flex flex-col gap-1 text-xs font-bold">
           Paper
-          <select
-            value={form.paper}
-            onChange={(e) => setForm({ ...form, paper: e.target.value as typeof form.paper })}
-            className="rounded border-2 border-paper-edge bg-white px-2 py-1 font-normal"
-          >
+          <select {...rhf.register('paper')} className="rounded border-2 border-paper-edge bg-white px-2 py-1 font-normal">
             <option value="letter">{PAPER_SIZES.letter.label}</option>
             <option value="a4">{PAPER_SIZES.a4.label}</option>
             <option value="custom">Custom</option>
@@ -129,19 +112,11 @@ export function ProfileForm({
         {field('bridge', `Bridge width (${unit})`)}
         <label className="flex flex-col gap-1 text-xs font-bold">
           Cut layer colour name
-          <input
-            value={form.spot}
-            onChange={(e) => setForm({ ...form, spot: e.target.value })}
-            className="w-28 rounded border-2 border-paper-edge px-2 py-1 font-normal"
-          />
+          <input {...rhf.register('spot')} className="w-28 rounded border-2 border-paper-edge px-2 py-1 font-normal" />
         </label>
         <label className="flex flex-col gap-1 text-xs font-bold">
           Registration marks
-          <select
-            value={form.marks}
-            onChange={(e) => setForm({ ...form, marks: e.target.value as RegMarkShape })}
-            className="rounded border-2 border-paper-edge bg-white px-2 py-1 font-normal"
-          >
+          <select {...rhf.register('marks')} className="rounded border-2 border-paper-edge bg-white px-2 py-1 font-normal">
             {REG_MARK_SHAPES.map((s) => (
               <option key={s} value={s}>
                 {REG_MARK_LABELS[s]}
