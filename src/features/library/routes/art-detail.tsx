@@ -1,6 +1,7 @@
 import { useState } from 'react';
+import { useForm } from 'react-hook-form';
 import { Link, useNavigate, useParams } from 'react-router';
-import type { ArtUpdateInput } from '@shared/schemas/library';
+import type { ArtUpdateInput, ArtView, CollectionView } from '@shared/schemas/library';
 import { LICENCE_LABELS } from '@shared/schemas/library';
 import { formatLength } from '@shared/units';
 import { Button, FormMessage } from '@/components/form';
@@ -89,80 +90,12 @@ export function ArtDetailRoute() {
             </dl>
           </section>
           {edit && (
-            <form
-              className="flex flex-col gap-3 rounded-sticker border-2 border-paper-edge bg-white p-5 text-sm"
-              onSubmit={(e) => {
-                e.preventDefault();
-                const form = new FormData(e.currentTarget);
-                // Only what the maker changed goes to the server: a field left alone is never rewritten.
-                const changes: ArtUpdateInput = {};
-                const name = String(form.get('name') ?? '').trim();
-                if (name !== item.name) changes.name = name;
-                const keywords = String(form.get('keywords') ?? '')
-                  .split(',')
-                  .map((k) => k.trim())
-                  .filter(Boolean);
-                if (keywords.join('\u0000') !== item.keywords.join('\u0000')) changes.keywords = keywords;
-                if (collections.data) {
-                  const chosen = form.getAll('collectionIds').map(String).sort();
-                  if (
-                    chosen.join(',') !==
-                    item.collections
-                      .map((c) => c.id)
-                      .sort()
-                      .join(',')
-                  )
-                    changes.collectionIds = chosen;
-                }
-                if (Object.keys(changes).length === 0) return setSaved(true);
-                void run(() => update.mutateAsync(changes));
-              }}
-            >
-              <h2 className="text-lg font-extrabold">Details</h2>
-              <label className="flex flex-col gap-1 font-bold">
-                Name
-                <input name="name" defaultValue={item.name} className="rounded border-2 border-paper-edge px-2 py-1 font-normal" />
-              </label>
-              <label className="flex flex-col gap-1 font-bold">
-                Keywords (comma between)
-                <input
-                  name="keywords"
-                  defaultValue={item.keywords.join(', ')}
-                  className="rounded border-2 border-paper-edge px-2 py-1 font-normal"
-                />
-              </label>
-              <fieldset className="flex flex-col gap-1" aria-describedby="collections-hint">
-                <legend className="font-bold">Collections</legend>
-                {/* Shown only once the list is here: a half-loaded list must never read as "in none". */}
-                {collections.data ? (
-                  collections.data
-                    .filter((c) => !c.archived || item.collections.some((m) => m.id === c.id))
-                    .map((c) => (
-                      <label key={c.id} className="flex items-center gap-2">
-                        <input
-                          type="checkbox"
-                          name="collectionIds"
-                          value={c.id}
-                          defaultChecked={item.collections.some((m) => m.id === c.id)}
-                        />
-                        {c.name}
-                      </label>
-                    ))
-                ) : (
-                  <p className="text-ink-soft" data-testid="collections-loading">
-                    Loading collections…
-                  </p>
-                )}
-                <p id="collections-hint" className="text-xs text-ink-soft">
-                  Art can be in several collections. Its licence stays with the art
-                  {item.licence?.inheritedFrom ? ` (from its pack, ${item.licence.inheritedFrom.name})` : ''}, whichever collections it is
-                  in.
-                </p>
-              </fieldset>
-              <Button type="submit" busy={update.isPending}>
-                Save details
-              </Button>
-            </form>
+            <DetailsForm
+              item={item}
+              collections={collections.data}
+              busy={update.isPending}
+              onSave={(changes) => (Object.keys(changes).length === 0 ? setSaved(true) : void run(() => update.mutateAsync(changes)))}
+            />
           )}
           {can('library.manage') && (
             <section className="rounded-sticker border-2 border-paper-edge bg-white p-5">
@@ -196,5 +129,85 @@ export function ArtDetailRoute() {
         </div>
       </div>
     </>
+  );
+}
+
+/** The art's name, keywords and collections; only what the maker changed is sent (a field left alone is never rewritten). */
+function DetailsForm({
+  item,
+  collections,
+  busy,
+  onSave,
+}: {
+  item: ArtView;
+  collections: CollectionView[] | undefined;
+  busy: boolean;
+  onSave: (changes: ArtUpdateInput) => void;
+}) {
+  const form = useForm({
+    defaultValues: { name: item.name, keywords: item.keywords.join(', '), collectionIds: item.collections.map((c) => c.id) },
+  });
+  const submit = form.handleSubmit((values) => {
+    const changes: ArtUpdateInput = {};
+    const name = values.name.trim();
+    if (name !== item.name) changes.name = name;
+    const keywords = values.keywords
+      .split(',')
+      .map((k) => k.trim())
+      .filter(Boolean);
+    if (keywords.join('\u0000') !== item.keywords.join('\u0000')) changes.keywords = keywords;
+    // Compared only once the list is here: a half-loaded list must never read as "in none".
+    if (collections) {
+      // One checkbox alone may come back as its value or false rather than a list.
+      const raw = values.collectionIds as unknown;
+      const chosen = (Array.isArray(raw) ? raw : raw ? [raw] : []).map(String).sort();
+      if (
+        chosen.join(',') !==
+        item.collections
+          .map((c) => c.id)
+          .sort()
+          .join(',')
+      )
+        changes.collectionIds = chosen;
+    }
+    onSave(changes);
+  });
+  return (
+    <form className="flex flex-col gap-3 rounded-sticker border-2 border-paper-edge bg-white p-5 text-sm" onSubmit={submit}>
+      <h2 className="text-lg font-extrabold">Details</h2>
+      <label className="flex flex-col gap-1 font-bold">
+        Name
+        <input {...form.register('name')} className="rounded border-2 border-paper-edge px-2 py-1 font-normal" />
+      </label>
+      <label className="flex flex-col gap-1 font-bold">
+        Keywords (comma between)
+        <input {...form.register('keywords')} className="rounded border-2 border-paper-edge px-2 py-1 font-normal" />
+      </label>
+      <fieldset className="flex flex-col gap-1" aria-describedby="collections-hint">
+        <legend className="font-bold">Collections</legend>
+        {/* Shown only once the list is here: a half-loaded list must never read as "in none". */}
+        {collections ? (
+          collections
+            .filter((c) => !c.archived || item.collections.some((m) => m.id === c.id))
+            .map((c) => (
+              <label key={c.id} className="flex items-center gap-2">
+                <input type="checkbox" value={c.id} {...form.register('collectionIds')} />
+                {c.name}
+              </label>
+            ))
+        ) : (
+          <p className="text-ink-soft" data-testid="collections-loading">
+            Loading collections…
+          </p>
+        )}
+        <p id="collections-hint" className="text-xs text-ink-soft">
+          Art can be in several collections. Its licence stays with the art
+          {item.licence?.inheritedFrom ? ` (from its pack, ${item.licence.inheritedFrom.name})` : ''}, whichever collections it is in.
+        </p>
+      </fieldset>
+      <Button type="submit" busy={busy}>
+        Save details
+      </Button>
+    </form>
   );
 }
