@@ -119,6 +119,17 @@ describe('a buyer’s order in Chromium', { timeout: BROWSER_TEST_TIMEOUT * 2 },
     await expect.poll(() => shop.getByTestId('order-state').textContent(), { timeout: 20_000 }).toBe('In production');
     await screenshot(shop, 'order-paid-with-sheets');
 
+    // The owner (who takes payments) refunds part of it through the payment service.
+    const ownerPage = await t.browser.newPage({ viewport: { width: 1280, height: 900 } });
+    await signInThroughForm(ownerPage, t.served.url, users.owner.email);
+    await ownerPage.goto(shop.url());
+    await ownerPage.getByLabel('Refund').fill('0.10');
+    await ownerPage.getByLabel('Why').fill('one sticker came out pale');
+    await ownerPage.getByRole('button', { name: 'Refund', exact: true }).click();
+    await expect.poll(() => ownerPage.getByTestId('order-money').textContent(), { timeout: 20_000 }).toContain('Refunded$0.10');
+    expect(await ownerPage.getByTestId('order-history').textContent()).toContain('Refunded $0.10: one sticker came out pale');
+    expect(await ownerPage.getByLabel('Refund').inputValue()).toBe('');
+
     const shopMail = await lastMailTo(users.member.email);
     expect(shopMail.subject).toMatch(/proof approved/);
     expect((await lastMailTo(buyerEmail)).subject).toMatch(/Your sticker proof/);

@@ -1,4 +1,5 @@
 import { useState } from 'react';
+import { useForm } from 'react-hook-form';
 import { Link } from 'react-router';
 import type { Role } from '@shared/permissions';
 import { can } from '@shared/permissions';
@@ -16,7 +17,7 @@ export function OrderActions({ teamId, order, role }: { teamId: string; order: O
   const act = useAction();
   const [message, setMessage] = useState('');
   const [sent, setSent] = useState<string | null>(null);
-  const [refund, setRefund] = useState({ amount: '', reason: '' });
+  const refund = useForm({ defaultValues: { amount: '', reason: '' } });
   const change = useOrderChange(teamId, order.id, (f: () => Promise<OrderView | { order: OrderView }>) => f());
   // The answer is awaited before `done` is looked at: `done?.(await …)` would skip the call itself when there is no `done`.
   const run = (f: () => Promise<OrderView | { order: OrderView }>, done?: (answer: OrderView | { order: OrderView }) => void) =>
@@ -159,30 +160,25 @@ export function OrderActions({ teamId, order, role }: { teamId: string; order: O
       {paying && can(role, 'orders.money') && (order.paidMinor ?? 0) > (order.refundedMinor ?? 0) && (
         <form
           className="flex flex-wrap items-end gap-2 border-t-2 border-paper-edge pt-3"
-          onSubmit={(e) => {
-            e.preventDefault();
-            void run(
-              () => ordersApi.refund(teamId, order.id, refund.amount, refund.reason),
-              () => setRefund({ amount: '', reason: '' }),
-            );
-          }}
+          onSubmit={refund.handleSubmit(
+            ({ amount, reason }) =>
+              void run(
+                () => ordersApi.refund(teamId, order.id, amount, reason),
+                () => refund.reset({ amount: '', reason: '' }),
+              ),
+          )}
         >
           <label className="text-sm font-bold text-ink">
             Refund
             <input
               className="block w-28 rounded-lg border-2 border-paper-edge px-2 py-1 font-normal"
               inputMode="decimal"
-              value={refund.amount}
-              onChange={(e) => setRefund({ ...refund, amount: e.target.value })}
+              {...refund.register('amount')}
             />
           </label>
           <label className="flex-1 text-sm font-bold text-ink">
             Why
-            <input
-              className="block w-full rounded-lg border-2 border-paper-edge px-2 py-1 font-normal"
-              value={refund.reason}
-              onChange={(e) => setRefund({ ...refund, reason: e.target.value })}
-            />
+            <input className="block w-full rounded-lg border-2 border-paper-edge px-2 py-1 font-normal" {...refund.register('reason')} />
           </label>
           <button type="submit" className={second} disabled={act.busy}>
             Refund
