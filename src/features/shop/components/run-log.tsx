@@ -1,5 +1,6 @@
 import { useQuery, useQueryClient } from '@tanstack/react-query';
 import { useState } from 'react';
+import { useForm } from 'react-hook-form';
 import { RUN_RESULT_LABELS, RUN_RESULTS } from '@shared/schemas/shop';
 import type { PrintRunView, StockView } from '@shared/schemas/shop';
 import { openOrdersQueryOptions, runsQueryOptions, sheetChoicesQueryOptions, shopApi, shopKeys, useMachines, useStock } from '@/api/shop';
@@ -20,14 +21,16 @@ export function RunLog({ teamId, canRecord }: { teamId: string; canRecord: boole
   const [filters, setFilters] = useState({ result: '', stockId: '', cutterId: '', from: '', to: '' });
   const runs = useQuery(runsQueryOptions(teamId, filters));
   const blankRun = { sheetId: '', copies: '1', wasted: '', printedOn: '', result: 'good', notes: '' };
-  const [form, setForm] = useState({ ...blankRun, stockId: '', printerId: '', cutterId: '', orderId: '' });
+  // The run as typed lives in react-hook-form (the server validates it and names a bad field).
+  const rhf = useForm({ defaultValues: { ...blankRun, stockId: '', printerId: '', cutterId: '', orderId: '' } });
+  const form = rhf.watch();
   // A new key empties the photo input after a run is logged (a file input cannot be set from code).
   const [photoKey, setPhotoKey] = useState(0);
   // What the printer and cutter were set to: the stock's settings that worked, changed where this run differed.
   const [used, setUsed] = useState<Pick<StockView, 'printerSettings' | 'cutterSettings'> | null>(null);
   const chooseStock = (stockId: string) => {
     const s = stock.data?.find((x) => x.id === stockId);
-    setForm({ ...form, stockId });
+    rhf.setValue('stockId', stockId);
     setUsed(s ? { printerSettings: s.printerSettings, cutterSettings: s.cutterSettings } : null);
   };
   const setting = (group: 'printerSettings' | 'cutterSettings', key: string, label: string, w = 'w-28') =>
@@ -51,7 +54,7 @@ export function RunLog({ teamId, canRecord }: { teamId: string; canRecord: boole
       {label}
       <select
         value={form[key]}
-        onChange={(e) => (key === 'stockId' ? chooseStock(e.target.value) : setForm({ ...form, [key]: e.target.value }))}
+        onChange={(e) => (key === 'stockId' ? chooseStock(e.target.value) : rhf.setValue(key, e.target.value))}
         className={`${input} font-normal`}
       >
         <option value="">{none}</option>
@@ -94,7 +97,7 @@ export function RunLog({ teamId, canRecord }: { teamId: string; canRecord: boole
       setDone(`Logged: ${saved.copies} × ${saved.sheet.name}, ${saved.cutLengthM.toFixed(2)} m of cut.`);
       // The next run starts blank but for the stock and machines, which usually stay: pressing Log
       // run again cannot log this run a second time, it asks for a sheet.
-      setForm((current) => ({ ...current, ...blankRun }));
+      rhf.reset({ ...rhf.getValues(), ...blankRun });
       setPhoto(null);
       setPhotoKey((k) => k + 1);
       await client.invalidateQueries({ queryKey: shopKeys.all(teamId) });
@@ -117,10 +120,7 @@ export function RunLog({ teamId, canRecord }: { teamId: string; canRecord: boole
       {canRecord && (
         <form
           className="mb-4 flex flex-wrap items-end gap-2 rounded-lg bg-paper p-3"
-          onSubmit={(e) => {
-            e.preventDefault();
-            void record();
-          }}
+          onSubmit={rhf.handleSubmit(() => void record())}
           aria-label="Log a print run"
         >
           {pick(
@@ -134,7 +134,7 @@ export function RunLog({ teamId, canRecord }: { teamId: string; canRecord: boole
             Copies
             <input
               value={form.copies}
-              onChange={(e) => setForm({ ...form, copies: e.target.value })}
+              onChange={(e) => rhf.setValue('copies', e.target.value)}
               className={`${input} w-16 font-normal`}
               inputMode="numeric"
             />
@@ -144,7 +144,7 @@ export function RunLog({ teamId, canRecord }: { teamId: string; canRecord: boole
             <input
               value={form.wasted}
               placeholder={form.result === 'good' ? '0' : 'all'}
-              onChange={(e) => setForm({ ...form, wasted: e.target.value })}
+              onChange={(e) => rhf.setValue('wasted', e.target.value)}
               className={`${input} w-14 font-normal`}
               inputMode="numeric"
             />
@@ -154,7 +154,7 @@ export function RunLog({ teamId, canRecord }: { teamId: string; canRecord: boole
           {pick('cutterId', 'Cutter', cutters)}
           <label className="flex flex-col text-xs font-bold">
             Result
-            <select value={form.result} onChange={(e) => setForm({ ...form, result: e.target.value })} className={`${input} font-normal`}>
+            <select value={form.result} onChange={(e) => rhf.setValue('result', e.target.value)} className={`${input} font-normal`}>
               {RUN_RESULTS.map((r) => (
                 <option key={r} value={r}>
                   {RUN_RESULT_LABELS[r]}
@@ -164,11 +164,7 @@ export function RunLog({ teamId, canRecord }: { teamId: string; canRecord: boole
           </label>
           <label className="flex flex-col text-xs font-bold">
             Notes
-            <input
-              value={form.notes}
-              onChange={(e) => setForm({ ...form, notes: e.target.value })}
-              className={`${input} w-48 font-normal`}
-            />
+            <input value={form.notes} onChange={(e) => rhf.setValue('notes', e.target.value)} className={`${input} w-48 font-normal`} />
           </label>
           <label className="flex flex-col text-xs font-bold">
             Photo (optional)
@@ -185,7 +181,7 @@ export function RunLog({ teamId, canRecord }: { teamId: string; canRecord: boole
             <input
               type="date"
               value={form.printedOn}
-              onChange={(e) => setForm({ ...form, printedOn: e.target.value })}
+              onChange={(e) => rhf.setValue('printedOn', e.target.value)}
               className={`${input} font-normal`}
             />
           </label>
