@@ -1,5 +1,6 @@
 import { useQueryClient } from '@tanstack/react-query';
 import { useEffect, useState } from 'react';
+import { useForm } from 'react-hook-form';
 import { Link } from 'react-router';
 import type { CollectionView, UploadResult } from '@shared/schemas/library';
 import { SHAPES, STICKER_FONTS } from '@shared/schemas/made-art';
@@ -31,20 +32,26 @@ export function MakePanel({
 }) {
   const client = useQueryClient();
   const mm = (v: number) => String(+fromMm(v, unit).toFixed(unit === 'in' ? 3 : 1));
-  const [d, setD] = useState({
-    name: '',
-    kind: 'text' as 'text' | 'shape',
-    text: '',
-    font: 'rounded',
-    letter: mm(10),
-    textColour: '#264653',
-    align: 'centre',
-    shape: 'rounded',
-    width: mm(50),
-    height: mm(25),
-    fill: '#e9c46a',
-    collectionId: '',
+  // What the maker typed lives in react-hook-form; the server validates it (shared schema) and names a bad field.
+  const rhf = useForm({
+    defaultValues: {
+      name: '',
+      kind: 'text' as 'text' | 'shape',
+      text: '',
+      font: 'rounded',
+      letter: mm(10),
+      textColour: '#264653',
+      align: 'centre',
+      shape: 'rounded',
+      width: mm(50),
+      height: mm(25),
+      fill: '#e9c46a',
+      collectionId: '',
+    },
   });
+  const d = rhf.watch();
+  // The preview follows the values, not the object watch() hands out anew on each render.
+  const typed = JSON.stringify(d);
   const body = () => ({
     name: d.name || (d.kind === 'text' ? d.text.split('\n')[0].slice(0, 60) : SHAPES[d.shape as keyof typeof SHAPES]) || 'Made sticker',
     kind: d.kind,
@@ -74,7 +81,7 @@ export function MakePanel({
       );
     }, 300);
     return () => clearTimeout(handle);
-  }, [d]); // eslint-disable-line react-hooks/exhaustive-deps
+  }, [typed]); // eslint-disable-line react-hooks/exhaustive-deps
   const { error, fields, busy, run } = useAction({ preferField: true });
   const [made, setMade] = useState<UploadResult | null>(null);
   const fieldError = (key: string) => Object.entries(fields).find(([k]) => (FIELD_OF[k] ?? k) === key)?.[1];
@@ -83,7 +90,7 @@ export function MakePanel({
       {title}
       <input
         value={String(d[key])}
-        onChange={(e) => setD({ ...d, [key]: e.target.value })}
+        onChange={(e) => rhf.setValue(key, e.target.value)}
         aria-invalid={fieldError(key) ? true : undefined}
         className={`${input} ${w} ${fieldError(key) ? 'border-alarm' : ''}`}
       />
@@ -93,7 +100,7 @@ export function MakePanel({
   const choose = (key: keyof typeof d, title: string, options: Record<string, string>) => (
     <label className={label}>
       {title}
-      <select value={String(d[key])} onChange={(e) => setD({ ...d, [key]: e.target.value })} className={input}>
+      <select value={String(d[key])} onChange={(e) => rhf.setValue(key, e.target.value)} className={input}>
         {Object.entries(options).map(([value, name]) => (
           <option key={value} value={value}>
             {name}
@@ -105,7 +112,7 @@ export function MakePanel({
   const colour = (key: 'textColour' | 'fill', title: string) => (
     <label className={label}>
       {title}
-      <input type="color" value={d[key]} onChange={(e) => setD({ ...d, [key]: e.target.value })} className="h-8 w-12" />
+      <input type="color" value={d[key]} onChange={(e) => rhf.setValue(key, e.target.value)} className="h-8 w-12" />
     </label>
   );
   const fonts = Object.fromEntries(Object.entries(STICKER_FONTS).map(([k, f]) => [k, `${f.label} (${f.family})`]));
@@ -122,19 +129,19 @@ export function MakePanel({
       <div className="grid gap-4 lg:grid-cols-[1fr_18rem]">
         <form
           className="flex flex-col gap-3"
-          onSubmit={(e) => {
-            e.preventDefault();
-            void run(async () => {
-              const res = await api<{ results: UploadResult[] }>('POST', `/teams/${teamId}/art/made`, body());
-              setMade(res.results[0]);
-              await client.invalidateQueries({ queryKey: ['teams', teamId, 'art'] });
-            });
-          }}
+          onSubmit={rhf.handleSubmit(
+            () =>
+              void run(async () => {
+                const res = await api<{ results: UploadResult[] }>('POST', `/teams/${teamId}/art/made`, body());
+                setMade(res.results[0]);
+                await client.invalidateQueries({ queryKey: ['teams', teamId, 'art'] });
+              }),
+          )}
         >
           <div role="radiogroup" aria-label="Sticker of" className="flex gap-3 text-sm font-bold">
             {(['text', 'shape'] as const).map((k) => (
               <label key={k} className="flex items-center gap-1">
-                <input type="radio" name="kind" checked={d.kind === k} onChange={() => setD({ ...d, kind: k })} />
+                <input type="radio" name="kind" checked={d.kind === k} onChange={() => rhf.setValue('kind', k)} />
                 {k === 'text' ? 'Words' : 'Shape (words inside optional)'}
               </label>
             ))}
@@ -144,7 +151,7 @@ export function MakePanel({
             <textarea
               value={d.text}
               rows={3}
-              onChange={(e) => setD({ ...d, text: e.target.value })}
+              onChange={(e) => rhf.setValue('text', e.target.value)}
               aria-invalid={fieldError('text') ? true : undefined}
               className={`${input} w-full`}
             />
@@ -170,7 +177,7 @@ export function MakePanel({
               Put into collection
               <CollectionSelect
                 value={d.collectionId}
-                onChange={(collectionId) => setD({ ...d, collectionId })}
+                onChange={(collectionId) => rhf.setValue('collectionId', collectionId)}
                 collections={collections}
                 className={input}
               />
