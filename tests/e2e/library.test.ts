@@ -138,6 +138,13 @@ describe('art library in Chromium', { timeout: BROWSER_TEST_TIMEOUT }, () => {
     await page.getByLabel('Collection name', { exact: true }).fill('Harbour lights at dusk');
     await page.getByRole('button', { name: 'Rename' }).click();
     await expect.poll(() => page.getByRole('button', { name: /^Harbour lights at dusk/ }).count(), { timeout: 15_000 }).toBe(1);
+    // Its licence: a limited licence without a unit count is refused beside the field; with one it saves.
+    await page.getByLabel('Licence kind').selectOption({ label: 'Commercial, limited units' });
+    await page.getByRole('button', { name: 'Save licence' }).click();
+    await expect.poll(() => page.getByRole('alert').filter({ hasText: /unit/i }).count(), { timeout: 15_000 }).toBe(1);
+    await page.getByLabel('Units allowed').fill('200');
+    await page.getByRole('button', { name: 'Save licence' }).click();
+    await expect.poll(() => page.getByText('Licence saved.').count(), { timeout: 15_000 }).toBe(1);
     await page.close();
   });
 

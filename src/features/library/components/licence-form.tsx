@@ -1,4 +1,5 @@
 import { useState } from 'react';
+import { useForm } from 'react-hook-form';
 import type { LicenceInput, LicenceKind, LicenceView } from '@shared/schemas/library';
 import { LICENCE_KINDS, LICENCE_LABELS, licenceSchema } from '@shared/schemas/library';
 
@@ -14,15 +15,23 @@ export function LicenceForm({
   hint?: string;
   onProof?: (file: File) => Promise<unknown>;
 }) {
-  const [kind, setKind] = useState<LicenceKind | ''>(licence?.kind ?? '');
-  const [source, setSource] = useState(licence?.source ?? '');
-  const [notes, setNotes] = useState(licence?.notes ?? '');
-  const [unitLimit, setUnitLimit] = useState(licence?.unitLimit ? String(licence.unitLimit) : '');
-  const [errors, setErrors] = useState<Record<string, string>>({});
+  // A fieldset inside the forms that use it (no form of its own): react-hook-form holds the values,
+  // checked with the shared licence schema when saved.
+  const form = useForm({
+    defaultValues: {
+      kind: (licence?.kind ?? '') as LicenceKind | '',
+      source: licence?.source ?? '',
+      notes: licence?.notes ?? '',
+      unitLimit: licence?.unitLimit ? String(licence.unitLimit) : '',
+    },
+  });
+  const kind = form.watch('kind');
+  const errors = form.formState.errors;
   const [saved, setSaved] = useState(false);
 
   const save = async () => {
     setSaved(false);
+    const { source, notes, unitLimit } = form.getValues();
     if (!kind) {
       await onSave(null);
       setSaved(true);
@@ -30,10 +39,10 @@ export function LicenceForm({
     }
     const parsed = licenceSchema.safeParse({ kind, source, notes, unitLimit: unitLimit === '' ? null : unitLimit });
     if (!parsed.success) {
-      setErrors(Object.fromEntries(parsed.error.issues.map((i) => [String(i.path[0]), i.message])));
+      for (const issue of parsed.error.issues) form.setError(String(issue.path[0]) as 'unitLimit', { message: issue.message });
       return;
     }
-    setErrors({});
+    form.clearErrors();
     await onSave(parsed.data);
     setSaved(true);
   };
@@ -44,8 +53,7 @@ export function LicenceForm({
       {hint && <p className="text-xs text-ink-faint">{hint}</p>}
       <select
         aria-label="Licence kind"
-        value={kind}
-        onChange={(e) => setKind(e.target.value as LicenceKind | '')}
+        {...form.register('kind')}
         className="w-full min-w-0 rounded border-2 border-paper-edge bg-white px-2 py-1"
       >
         <option value="">No licence recorded</option>
@@ -60,8 +68,7 @@ export function LicenceForm({
           <input
             aria-label="Where the art came from"
             placeholder="Source (shop, designer, link)"
-            value={source}
-            onChange={(e) => setSource(e.target.value)}
+            {...form.register('source')}
             className="w-full min-w-0 rounded border-2 border-paper-edge px-2 py-1"
           />
           {kind === 'commercial_limited' && (
@@ -70,14 +77,13 @@ export function LicenceForm({
                 aria-label="Units allowed"
                 inputMode="numeric"
                 placeholder="Units allowed"
-                value={unitLimit}
-                onChange={(e) => setUnitLimit(e.target.value)}
+                {...form.register('unitLimit')}
                 aria-invalid={errors.unitLimit ? true : undefined}
                 className="w-full min-w-0 rounded border-2 border-paper-edge px-2 py-1"
               />
               {errors.unitLimit && (
                 <p role="alert" className="font-semibold text-alarm">
-                  {errors.unitLimit}
+                  {errors.unitLimit.message}
                 </p>
               )}
             </>
@@ -85,8 +91,7 @@ export function LicenceForm({
           <textarea
             aria-label="Licence notes"
             placeholder="Notes"
-            value={notes}
-            onChange={(e) => setNotes(e.target.value)}
+            {...form.register('notes')}
             rows={2}
             className="w-full min-w-0 rounded border-2 border-paper-edge px-2 py-1"
           />
