@@ -130,6 +130,31 @@ describe('print shop in Chromium', { timeout: BROWSER_TEST_TIMEOUT }, () => {
     await signInThroughForm(page, t.served.url, users.owner.email);
     await page.goto(`${t.served.url}/t/${team.id}/print-room`);
 
+    // Shop rates: a markup that is not a number is named; a good one, euros and hidden order prices are kept.
+    await expect.poll(() => page.getByLabel('Markup (%)').inputValue(), { timeout: 15_000 }).toBe('100');
+    await page.getByLabel('Markup (%)').fill('lots');
+    await page.getByRole('button', { name: 'Save rates' }).click();
+    await expect
+      .poll(
+        () =>
+          page
+            .getByRole('alert')
+            .filter({ hasText: /Markup/ })
+            .count(),
+        { timeout: 15_000 },
+      )
+      .toBe(1);
+    await page.getByLabel('Markup (%)').fill('80');
+    await page.getByLabel('Buyers pay in').selectOption('EUR');
+    await page.getByLabel('Viewers see order prices').uncheck();
+    await page.getByRole('button', { name: 'Save rates' }).click();
+    await expect.poll(() => page.getByText('Saved.', { exact: true }).count(), { timeout: 15_000 }).toBe(1);
+    expect((await owner.get(`/api/teams/${team.id}/shop-settings`)).body).toMatchObject({
+      markupPercent: 80,
+      currencyCode: 'EUR',
+      viewersSeePrices: false,
+    });
+
     await page.getByRole('button', { name: 'New stock…' }).click();
     const add = page.getByRole('form', { name: 'Add stock' });
     await add.getByLabel('Name').fill('Clear vinyl');

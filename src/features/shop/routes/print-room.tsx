@@ -1,5 +1,6 @@
 import { useQuery, useQueryClient } from '@tanstack/react-query';
 import { useEffect, useState } from 'react';
+import { useForm } from 'react-hook-form';
 import { settingsQueryOptions, shopApi, useMachines, useStock } from '@/api/shop';
 import { PageTitle } from '@/components/page-title';
 import { ORDER_CURRENCIES } from '@shared/orders/money';
@@ -14,24 +15,31 @@ import { StockShelf } from '../components/stock-shelf';
 function ShopRates({ teamId, canManage }: { teamId: string; canManage: boolean }) {
   const client = useQueryClient();
   const settings = useQuery(settingsQueryOptions(teamId));
-  const [form, setForm] = useState({
-    currency: '$',
-    labourRatePerHour: '0',
-    markupPercent: '100',
-    wastePercent: '0',
-    defaultStockId: '',
-    defaultPrinterId: '',
-    defaultCutterId: '',
-    currencyCode: 'USD',
+  // The rates as typed live in react-hook-form, filled in once the saved ones arrive; the server reads the numbers and names any that are not.
+  const rhf = useForm({
+    defaultValues: {
+      currency: '$',
+      labourRatePerHour: '0',
+      markupPercent: '100',
+      wastePercent: '0',
+      defaultStockId: '',
+      defaultPrinterId: '',
+      defaultCutterId: '',
+      currencyCode: 'USD',
+      viewersSeePrices: true,
+    },
   });
-  const [viewersSeePrices, setViewersSeePrices] = useState(true);
+  const form = rhf.watch();
+  const setForm = (values: Partial<typeof form>) => {
+    for (const [key, value] of Object.entries(values)) rhf.setValue(key as keyof typeof form, value as never);
+  };
   const stock = useStock(teamId);
   const machines = useMachines(teamId);
   const { error, run } = useAction({ preferField: true });
   const [saved, setSaved] = useState(false);
   useEffect(() => {
     if (settings.data)
-      setForm({
+      rhf.reset({
         currency: settings.data.currency,
         labourRatePerHour: String(settings.data.labourRatePerHour),
         markupPercent: String(settings.data.markupPercent),
@@ -40,10 +48,10 @@ function ShopRates({ teamId, canManage }: { teamId: string; canManage: boolean }
         defaultPrinterId: settings.data.defaultPrinterId ?? '',
         defaultCutterId: settings.data.defaultCutterId ?? '',
         currencyCode: settings.data.currencyCode ?? 'USD',
+        viewersSeePrices: settings.data.viewersSeePrices ?? true,
       });
-    if (settings.data) setViewersSeePrices(settings.data.viewersSeePrices ?? true);
-  }, [settings.data]);
-  const field = (key: keyof typeof form, label: string) => (
+  }, [settings.data, rhf]);
+  const field = (key: 'currency' | 'labourRatePerHour' | 'markupPercent' | 'wastePercent', label: string) => (
     <label className="flex flex-col text-xs font-bold">
       {label}
       <input
@@ -51,7 +59,7 @@ function ShopRates({ teamId, canManage }: { teamId: string; canManage: boolean }
         disabled={!canManage}
         onChange={(e) => {
           setSaved(false);
-          setForm({ ...form, [key]: e.target.value });
+          setForm({ [key]: e.target.value });
         }}
         className="w-24 rounded border-2 border-paper-edge px-2 py-1 font-normal"
       />
@@ -69,7 +77,7 @@ function ShopRates({ teamId, canManage }: { teamId: string; canManage: boolean }
         disabled={!canManage}
         onChange={(e) => {
           setSaved(false);
-          setForm({ ...form, [key]: e.target.value });
+          setForm({ [key]: e.target.value });
         }}
         className="w-40 rounded border-2 border-paper-edge px-2 py-1 font-normal"
       >
@@ -96,7 +104,7 @@ function ShopRates({ teamId, canManage }: { teamId: string; canManage: boolean }
             disabled={!canManage}
             onChange={(e) => {
               setSaved(false);
-              setForm({ ...form, currencyCode: e.target.value });
+              setForm({ currencyCode: e.target.value });
             }}
             className="w-24 rounded border-2 border-paper-edge px-2 py-1 font-normal"
           >
@@ -108,11 +116,11 @@ function ShopRates({ teamId, canManage }: { teamId: string; canManage: boolean }
         <label className="flex items-center gap-1 text-xs font-bold">
           <input
             type="checkbox"
-            checked={viewersSeePrices}
+            checked={form.viewersSeePrices}
             disabled={!canManage}
             onChange={(e) => {
               setSaved(false);
-              setViewersSeePrices(e.target.checked);
+              setForm({ viewersSeePrices: e.target.checked });
             }}
           />
           Viewers see order prices
@@ -137,10 +145,7 @@ function ShopRates({ teamId, canManage }: { teamId: string; canManage: boolean }
             className="rounded-full bg-ink px-4 py-1 font-bold text-paper"
             onClick={() =>
               void run(async () => {
-                client.setQueryData(
-                  settingsQueryOptions(teamId).queryKey,
-                  await shopApi.saveSettings(teamId, { ...form, viewersSeePrices }),
-                );
+                client.setQueryData(settingsQueryOptions(teamId).queryKey, await shopApi.saveSettings(teamId, form));
                 setSaved(true);
               })
             }
