@@ -155,6 +155,27 @@ describe('print shop in Chromium', { timeout: BROWSER_TEST_TIMEOUT }, () => {
       viewersSeePrices: false,
     });
 
+    // A blade change on a cutter: a life that is not a number is named, then it is logged.
+    const cutter = (await owner.post(`/api/teams/${team.id}/machines`, { kind: 'cutter', name: 'Bench cutter' })).body;
+    await page.reload();
+    await page.getByRole('button', { name: 'Log a blade change…' }).click();
+    await page.getByLabel('Blade', { exact: true }).fill('Fine blade #2');
+    await page.getByLabel('Replace at (m)').fill('far');
+    await page.getByRole('button', { name: 'Fitted' }).click();
+    await expect.poll(() => page.getByRole('alert').count(), { timeout: 15_000 }).toBeGreaterThan(0);
+    expect(await page.getByLabel('Blade', { exact: true }).inputValue()).toBe('Fine blade #2');
+    await page.getByLabel('Replace at (m)').fill('500');
+    await page.getByRole('button', { name: 'Fitted' }).click();
+    await expect
+      .poll(
+        async () =>
+          (await owner.get(`/api/teams/${team.id}/machines`)).body.machines.find((m: { id: string }) => m.id === cutter.id).blade?.label,
+        { timeout: 15_000 },
+      )
+      .toBe('Fine blade #2');
+    await owner.send('delete', `/api/teams/${team.id}/machines/${cutter.id}`); // retired again: the rest of the story has the printer alone
+    await page.reload();
+
     await page.getByRole('button', { name: 'New stock…' }).click();
     const add = page.getByRole('form', { name: 'Add stock' });
     await add.getByLabel('Name').fill('Clear vinyl');

@@ -1,5 +1,6 @@
 import { useQueryClient } from '@tanstack/react-query';
 import { useState } from 'react';
+import { useForm } from 'react-hook-form';
 import { formatMoney } from '@shared/production/cost';
 import type { MachineView } from '@shared/schemas/shop';
 import { shopApi, shopKeys, useMachines } from '@/api/shop';
@@ -22,7 +23,8 @@ function BladeLine({
   onChanged: () => void;
 }) {
   const [fitting, setFitting] = useState(false);
-  const [fit, setFit] = useState({ label: '', fittedOn: today(), lifeM: '600', price: '', replaceBy: '' });
+  // The blade as typed lives in react-hook-form; the server validates it and names a bad field.
+  const blade = useForm({ defaultValues: { label: '', fittedOn: today(), lifeM: '600', price: '', replaceBy: '' } });
   const { error, run } = useAction({ preferField: true });
   const b = cutter.blade;
   return (
@@ -60,51 +62,30 @@ function BladeLine({
           <div className="flex flex-wrap items-end gap-2">
             <label className="flex flex-col font-bold">
               Blade
-              <input
-                value={fit.label}
-                onChange={(e) => setFit({ ...fit, label: e.target.value })}
-                className={`${input} w-36 font-normal`}
-              />
+              <input {...blade.register('label')} className={`${input} w-36 font-normal`} />
             </label>
             <label className="flex flex-col font-bold">
               Fitted on
-              <input
-                type="date"
-                value={fit.fittedOn}
-                onChange={(e) => setFit({ ...fit, fittedOn: e.target.value })}
-                className={`${input} font-normal`}
-              />
+              <input type="date" {...blade.register('fittedOn')} className={`${input} font-normal`} />
             </label>
             <label className="flex flex-col font-bold">
               Replace at (m)
-              <input
-                value={fit.lifeM}
-                onChange={(e) => setFit({ ...fit, lifeM: e.target.value })}
-                className={`${input} w-20 font-normal`}
-              />
+              <input {...blade.register('lifeM')} className={`${input} w-20 font-normal`} />
             </label>
             <label className="flex flex-col font-bold">
               or by (date, optional)
-              <input
-                type="date"
-                value={fit.replaceBy}
-                onChange={(e) => setFit({ ...fit, replaceBy: e.target.value })}
-                className={`${input} font-normal`}
-              />
+              <input type="date" {...blade.register('replaceBy')} className={`${input} font-normal`} />
             </label>
             <label className="flex flex-col font-bold">
               Price
-              <input
-                value={fit.price}
-                onChange={(e) => setFit({ ...fit, price: e.target.value })}
-                className={`${input} w-16 font-normal`}
-              />
+              <input {...blade.register('price')} className={`${input} w-16 font-normal`} />
             </label>
             <button
               type="button"
               className="rounded-full bg-ink px-3 py-1 font-bold text-paper"
               onClick={() =>
                 void run(async () => {
+                  const fit = blade.getValues();
                   await shopApi.fitBlade(teamId, cutter.id, { ...fit, price: fit.price || 0 });
                   setFitting(false);
                   onChanged();
