@@ -1,3 +1,4 @@
+import { useForm } from 'react-hook-form';
 import { useState } from 'react';
 import type { CollectionView } from '@shared/schemas/library';
 import { ApiError } from '@/lib/api-client';
@@ -16,8 +17,9 @@ export function BulkBar({
   onDone: () => void;
 }) {
   const bulk = useBulkArt(teamId);
-  const [keyword, setKeyword] = useState('');
-  const [target, setTarget] = useState('');
+  // The keyword and the collection the bulk actions use, held in react-hook-form.
+  const choice = useForm({ defaultValues: { keyword: '', target: '' } });
+  const { keyword, target } = choice.watch();
   const [message, setMessage] = useState<string | null>(null);
   const run = async (action: Parameters<typeof bulk.mutateAsync>[0], done: string) => {
     setMessage(null);
@@ -36,8 +38,7 @@ export function BulkBar({
     >
       <strong>{ids.length} selected</strong>
       <input
-        value={keyword}
-        onChange={(e) => setKeyword(e.target.value)}
+        {...choice.register('keyword')}
         placeholder="keyword"
         aria-label="Keyword for the selected art"
         className="rounded border-2 border-paper-edge px-2 py-1"
@@ -59,8 +60,7 @@ export function BulkBar({
         Remove keyword
       </button>
       <select
-        value={target}
-        onChange={(e) => setTarget(e.target.value)}
+        {...choice.register('target')}
         aria-label="Move to collection"
         className="rounded border-2 border-paper-edge bg-white px-2 py-1"
       >

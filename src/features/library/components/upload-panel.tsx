@@ -1,4 +1,5 @@
 import { useRef, useState } from 'react';
+import { useForm } from 'react-hook-form';
 import type { DragEvent } from 'react';
 import type { CollectionView, UploadResult } from '@shared/schemas/library';
 import { Button } from '@/components/form';
@@ -28,8 +29,9 @@ const ACCEPT = '.png,.jpg,.jpeg,.webp,.svg,.zip,image/png,image/jpeg,image/webp,
 /** Drop or pick many images and zipped packs; each file uploads with its own progress bar. */
 export function UploadPanel({ teamId, collections, onClose }: { teamId: string; collections: CollectionView[]; onClose: () => void }) {
   const [jobs, setJobs] = useState<Job[]>([]);
-  const [keywords, setKeywords] = useState('');
-  const [collectionId, setCollectionId] = useState('');
+  // What every file of the next upload gets, held in react-hook-form.
+  const options = useForm({ defaultValues: { keywords: '', collectionId: '' } });
+  const { keywords, collectionId } = options.watch();
   const [dragging, setDragging] = useState(false);
   const picker = useRef<HTMLInputElement>(null);
   const nextId = useRef(1);
@@ -84,8 +86,7 @@ export function UploadPanel({ teamId, collections, onClose }: { teamId: string; 
         <label className="flex flex-col gap-1 text-sm font-bold">
           Keywords for this batch
           <input
-            value={keywords}
-            onChange={(e) => setKeywords(e.target.value)}
+            {...options.register('keywords')}
             placeholder="e.g. spring, flowers, watercolour"
             className="rounded-lg border-2 border-paper-edge px-3 py-2 font-normal"
           />
@@ -94,7 +95,7 @@ export function UploadPanel({ teamId, collections, onClose }: { teamId: string; 
           Put into collection
           <CollectionSelect
             value={collectionId}
-            onChange={setCollectionId}
+            onChange={(id: string) => options.setValue('collectionId', id)}
             collections={collections}
             className="rounded-lg border-2 border-paper-edge bg-white px-3 py-2 font-normal"
           />

@@ -15,7 +15,7 @@ const second = `${button} border-2 border-paper-edge text-ink hover:border-ink`;
 /** What can be done next with the order, for this member's role: proof, sheets, payment, production, refund. */
 export function OrderActions({ teamId, order, role }: { teamId: string; order: OrderView; role: Role | undefined }) {
   const act = useAction();
-  const [message, setMessage] = useState('');
+  const note = useForm({ defaultValues: { message: '' } });
   const [sent, setSent] = useState<string | null>(null);
   const refund = useForm({ defaultValues: { amount: '', reason: '' } });
   const change = useOrderChange(teamId, order.id, (f: () => Promise<OrderView | { order: OrderView }>) => f());
@@ -41,8 +41,7 @@ export function OrderActions({ teamId, order, role }: { teamId: string; order: O
             <textarea
               className="w-full rounded-lg border-2 border-paper-edge px-2 py-1 font-normal"
               rows={2}
-              value={message}
-              onChange={(e) => setMessage(e.target.value)}
+              {...note.register('message')}
             />
           </label>
           <button
@@ -51,7 +50,7 @@ export function OrderActions({ teamId, order, role }: { teamId: string; order: O
             disabled={act.busy}
             onClick={() =>
               void run(
-                () => ordersApi.sendProof(teamId, order.id, message),
+                () => ordersApi.sendProof(teamId, order.id, note.getValues('message')),
                 () => setSent(`Proof sent to ${order.customer.email}.`),
               )
             }
