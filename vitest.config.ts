@@ -1,5 +1,5 @@
 import { defineConfig } from 'vitest/config';
-import { aliases } from './vite.config';
+import { aliases } from './vite.config.ts';
 
 export default defineConfig({
   resolve: { alias: aliases },

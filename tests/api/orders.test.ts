@@ -158,6 +158,33 @@ describe('customer orders', () => {
   });
 });
 
+describe('payment links', () => {
+  it('closes the earlier link when a new one is asked, so the same deposit cannot be paid twice', async () => {
+    const s = await makeShop(t, 1);
+    const { stock } = await withCutter(s);
+    const { buyer, order } = await quotedOrder(s, stock.id);
+    await s.member.post(`${s.base}/orders/${order.id}/proofs`, {});
+    const token = await proofToken(buyer.email);
+    const buyerSide = request(t.sheetsmith.app);
+    await buyerSide.post(`/proof/${token}/approve`).type('form').send({ name: 'Robin Quill' });
+    const first = (await buyerSide.post(`/proof/${token}/pay`)).headers.location;
+    const emailed = await s.owner.post(`${s.base}/orders/${order.id}/payment-link`);
+    expect(emailed.status).toBe(201);
+    expect(emailed.body.amountMinor).toBe(1115);
+    expect((await lastMailTo(buyer.email)).links).toContain(emailed.body.url);
+    // The first link is closed: its page says so and paying it does nothing.
+    expect(t.fake.sessions.get(first.split('/pay/')[1])?.status).toBe('expired');
+    expect((await fetch(first, { method: 'POST', redirect: 'manual' })).status).toBe(410);
+    await fetch(emailed.body.url, { method: 'POST', redirect: 'manual' });
+    const view = (await s.member.get(`${s.base}/orders/${order.id}`)).body;
+    expect(view).toMatchObject({ state: 'deposit', paidMinor: 1115, dueMinor: 1114 });
+    expect(view.payments.map((p: { kind: string; status: string }) => `${p.kind} ${p.status}`)).toEqual([
+      'deposit expired',
+      'deposit paid',
+    ]);
+  });
+});
+
 describe('the local payments fake', () => {
   it('refuses a port already in use (a second app process then uses the running one) and answers the SDK as the service does', async () => {
     const port = Number(new URL(t.fake.url).port);

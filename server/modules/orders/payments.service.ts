@@ -49,6 +49,7 @@ export class PaymentsService {
     if (due.minor === 0) throw conflict('Nothing is owed on this order.');
     if (due.minor < MIN_CHARGE_MINOR)
       throw conflict(`${formatMinor(due.minor, order.currency)} is below the smallest amount a card payment can take.`);
+    await this.expireOpen(orderId);
     const customer = await this.dataSource.getRepository(Customer).findOneByOrFail({ id: order.customerId });
     const payment = await this.dataSource
       .getRepository(OrderPayment)
@@ -84,6 +85,26 @@ export class PaymentsService {
       await this.orders.record(manager, orderId, who, `Asked for ${formatMinor(due.minor, order.currency)} (${due.kind})`);
     });
     return { url: session.url!, amountMinor: due.minor };
+  }
+
+  /**
+   * Closes the order's earlier payment links before a new one is made, so the buyer cannot pay the
+   * same deposit twice from two e-mails. A link paid meanwhile cannot be closed: its notice counts.
+   */
+  private async expireOpen(orderId: string) {
+    const open = await this.dataSource.getRepository(OrderPayment).find({ where: { orderId, status: 'open' } });
+    for (const payment of open) {
+      if (!payment.sessionId) continue;
+      try {
+        await this.payments.sdk.checkout.sessions.expire(payment.sessionId);
+        await this.dataSource.getRepository(OrderPayment).update({ id: payment.id, status: 'open' }, { status: 'expired' });
+      } catch (error) {
+        this.log.info(
+          { err: error, orderId, sessionId: payment.sessionId },
+          'an earlier payment link could not be closed (paid meanwhile?)',
+        );
+      }
+    }
   }
 
   /** Mails the buyer a payment link for what the order owes now. */
