@@ -31,7 +31,7 @@ function ShopRates({ teamId, canManage }: { teamId: string; canManage: boolean }
   });
   const form = rhf.watch();
   const setForm = (values: Partial<typeof form>) => {
-    for (const [key, value] of Object.entries(values)) rhf.setValue(key as keyof typeof form, value as never);
+    for (const [key, value] of Object.entries(values)) rhf.setValue(key as keyof typeof form, value as never, { shouldDirty: true });
   };
   const stock = useStock(teamId);
   const machines = useMachines(teamId);
@@ -39,17 +39,21 @@ function ShopRates({ teamId, canManage }: { teamId: string; canManage: boolean }
   const [saved, setSaved] = useState(false);
   useEffect(() => {
     if (settings.data)
-      rhf.reset({
-        currency: settings.data.currency,
-        labourRatePerHour: String(settings.data.labourRatePerHour),
-        markupPercent: String(settings.data.markupPercent),
-        wastePercent: String(settings.data.wastePercent),
-        defaultStockId: settings.data.defaultStockId ?? '',
-        defaultPrinterId: settings.data.defaultPrinterId ?? '',
-        defaultCutterId: settings.data.defaultCutterId ?? '',
-        currencyCode: settings.data.currencyCode ?? 'USD',
-        viewersSeePrices: settings.data.viewersSeePrices ?? true,
-      });
+      rhf.reset(
+        {
+          currency: settings.data.currency,
+          labourRatePerHour: String(settings.data.labourRatePerHour),
+          markupPercent: String(settings.data.markupPercent),
+          wastePercent: String(settings.data.wastePercent),
+          defaultStockId: settings.data.defaultStockId ?? '',
+          defaultPrinterId: settings.data.defaultPrinterId ?? '',
+          defaultCutterId: settings.data.defaultCutterId ?? '',
+          currencyCode: settings.data.currencyCode ?? 'USD',
+          viewersSeePrices: settings.data.viewersSeePrices ?? true,
+        },
+        // The saved rates arrive (or arrive again on a refetch) without taking what the maker is typing.
+        { keepDirtyValues: true },
+      );
   }, [settings.data, rhf]);
   const field = (key: 'currency' | 'labourRatePerHour' | 'markupPercent' | 'wastePercent', label: string) => (
     <label className="flex flex-col text-xs font-bold">
