@@ -2,6 +2,7 @@
 // approve and ask-for-changes forms, and the way to payment. Plain server-made HTML (no app
 // script, nothing of the team but this proof), rate-limited per client address.
 import express, { Router } from 'express';
+import type { z } from 'zod';
 import type { NextFunction, Request, Response } from 'express';
 import { amountDue, formatMinor } from '@shared/orders/money';
 import { proofApproveSchema, proofChangesSchema, proofTokenSchema } from '@shared/schemas/orders';
@@ -118,25 +119,23 @@ export function proofPageRouter(deps: {
     guard,
     handle(async (req, res) => res.type('png').send(await proofs.picture(tokenOf(req), Number(req.params.index)))),
   );
+  // The buyer's two answers: the form checked with its shared schema (a refusal shows on the page), then back to the proof.
+  const answerRoute = <T>(schema: z.ZodType<T>, answer: (body: T) => Parameters<ProofsService['answer']>[1]) =>
+    handle(async (req, res) => {
+      const body = schema.safeParse(req.body);
+      if (!body.success) return show(req, res, { error: Object.values(fieldMessages(body.error))[0] }, 400);
+      await proofs.answer(tokenOf(req), answer(body.data), req.ip ?? 'unknown');
+      res.redirect(303, `/proof/${tokenOf(req)}`);
+    });
   router.post(
     '/proof/:token/approve',
     guard,
-    handle(async (req, res) => {
-      const body = proofApproveSchema.safeParse(req.body);
-      if (!body.success) return show(req, res, { error: Object.values(fieldMessages(body.error))[0] }, 400);
-      await proofs.answer(tokenOf(req), { approve: true, name: body.data.name }, req.ip ?? 'unknown');
-      res.redirect(303, `/proof/${tokenOf(req)}`);
-    }),
+    answerRoute(proofApproveSchema, ({ name }) => ({ approve: true, name })),
   );
   router.post(
     '/proof/:token/changes',
     guard,
-    handle(async (req, res) => {
-      const body = proofChangesSchema.safeParse(req.body);
-      if (!body.success) return show(req, res, { error: Object.values(fieldMessages(body.error))[0] }, 400);
-      await proofs.answer(tokenOf(req), { approve: false, comment: body.data.comment }, req.ip ?? 'unknown');
-      res.redirect(303, `/proof/${tokenOf(req)}`);
-    }),
+    answerRoute(proofChangesSchema, ({ comment }) => ({ approve: false, comment })),
   );
   router.post(
     '/proof/:token/pay',

@@ -2,8 +2,6 @@
 import { queryOptions, useMutation, useQuery, useQueryClient } from '@tanstack/react-query';
 import type { ArtPage } from '@shared/schemas/library';
 import type { CustomerView, OrderBoard, OrderView } from '@shared/schemas/orders';
-import type { SheetSummary } from '@shared/schemas/sheets';
-import type { ShopSettings, StockView } from '@shared/schemas/shop';
 import { api } from '@/lib/api-client';
 
 const base = (teamId: string) => `/teams/${teamId}`;
@@ -29,25 +27,12 @@ export const useCustomers = (teamId: string) =>
     queryFn: () => api<{ customers: CustomerView[] }>('GET', `${base(teamId)}/customers`).then((r) => r.customers),
   });
 
-/** What an order line may be made of: the team's art (searched), sheets and stock, and its rates. */
+/** The team's art an order line may use, searched (sheets, stock and rates come from @/api/shop). */
 export const useArtChoices = (teamId: string, q: string) =>
   useQuery({
     queryKey: ['teams', teamId, 'art', 'order-choices', q],
     queryFn: () => api<ArtPage>('GET', `${base(teamId)}/art?${new URLSearchParams({ q, pageSize: '24' })}`).then((r) => r.items),
   });
-export const useSheetChoices = (teamId: string) =>
-  useQuery({
-    queryKey: ['teams', teamId, 'sheets', 'order-choices'],
-    queryFn: () => api<{ sheets: SheetSummary[] }>('GET', `${base(teamId)}/sheets`).then((r) => r.sheets),
-  });
-export const useStockChoices = (teamId: string) =>
-  useQuery({
-    queryKey: ['teams', teamId, 'shop', 'stock'],
-    queryFn: () => api<{ stock: StockView[] }>('GET', `${base(teamId)}/stock`).then((r) => r.stock),
-  });
-export const useShopSettings = (teamId: string) =>
-  useQuery({ queryKey: ['teams', teamId, 'shop', 'settings'], queryFn: () => api<ShopSettings>('GET', `${base(teamId)}/shop-settings`) });
-
 /** Every change to one order answers the order as it now is: the cache takes it as is. */
 export function useOrderChange<I>(teamId: string, orderId: string, send: (input: I) => Promise<OrderView | { order: OrderView }>) {
   const client = useQueryClient();

@@ -6,7 +6,9 @@ import type { OrderView } from '@shared/schemas/orders';
 import type { LengthUnit } from '@shared/units';
 import { formatLength, parseLength } from '@shared/units';
 import { ApiError } from '@/lib/api-client';
-import { ordersApi, useArtChoices, useOrderChange, useSheetChoices, useStockChoices } from '../api/orders';
+import { useQuery } from '@tanstack/react-query';
+import { sheetChoicesQueryOptions, useStock } from '@/api/shop';
+import { ordersApi, useArtChoices, useOrderChange } from '../api/orders';
 
 const input = 'w-full rounded-lg border-2 border-paper-edge bg-white px-3 py-2 font-normal text-ink focus:border-peel focus:outline-none';
 
@@ -131,8 +133,8 @@ function AddLine({ teamId, order, unit }: { teamId: string; order: OrderView; un
   const id = useId();
   const [search, setSearch] = useState('');
   const art = useArtChoices(teamId, search);
-  const sheets = useSheetChoices(teamId);
-  const stock = useStockChoices(teamId);
+  const sheets = useQuery(sheetChoicesQueryOptions(teamId));
+  const stock = useStock(teamId);
   const form = useForm<LineDraft>({
     defaultValues: { kind: 'singles', artId: '', sheetId: '', size: unit === 'in' ? '3' : '75', quantity: '50', stockId: '', price: '' },
   });

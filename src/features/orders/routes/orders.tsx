@@ -6,7 +6,9 @@ import { ORDER_STATE_LABELS, ORDER_STATES } from '@shared/schemas/orders';
 import type { OrderState, OrderSummary } from '@shared/schemas/orders';
 import { PageTitle } from '@/components/page-title';
 import { useMe } from '@/features/auth/api/me';
-import { useOrderBoard, useShopSettings } from '../api/orders';
+import { useQuery } from '@tanstack/react-query';
+import { settingsQueryOptions } from '@/api/shop';
+import { useOrderBoard } from '../api/orders';
 import { NewOrder } from '../components/new-order';
 
 /** The states a board column is kept for; handed-over and cancelled orders are found in the list. */
@@ -28,7 +30,7 @@ export function OrdersRoute() {
   const orders = board.data?.orders ?? [];
   const totals = board.data?.totals;
   const link = (o: OrderSummary) => `/t/${teamId}/orders/${o.id}`;
-  const currency = useShopSettings(teamId).data?.currencyCode ?? 'USD';
+  const currency = useQuery(settingsQueryOptions(teamId)).data?.currencyCode ?? 'USD';
 
   return (
     <div>
