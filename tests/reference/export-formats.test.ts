@@ -120,6 +120,32 @@ describe('export: the PDF prints no cut lines (pdf.js, rendered with @napi-rs/ca
     expect(await magentaPixels(pdf, 'print')).toBe(0);
   }, 30_000);
 
+  it('shows the print image as pdf.js reads it: the art where the PNG has it, paper where the PNG is transparent (ISO 32000-1 §11.6.5.3 soft mask)', async () => {
+    // The image stream is PNG IDAT data read with /Predictor 15 and its alpha a soft mask: a broken
+    // predictor garbles the colours, a missing mask paints the transparent parts black.
+    const png = await sharp(file('-print.png') as Buffer)
+      .raw()
+      .toBuffer({ resolveWithObject: true });
+    const pngAt = (xMm: number, yMm: number) => {
+      const i = (Math.round((yMm / IN) * 300) * png.info.width + Math.round((xMm / IN) * 300)) * 4;
+      return [...png.data.subarray(i, i + 4)];
+    };
+    const { pixels, width } = await renderPage(file('.pdf') as Buffer, 'print');
+    const pdfAt = (xMm: number, yMm: number) => {
+      // The print area sits 0.875 in from the page's left and top edges; the render is 50 DPI.
+      const i = (Math.round((0.875 + yMm / IN) * 50) * width + Math.round((0.875 + xMm / IN) * 50)) * 4;
+      return [...pixels.subarray(i, i + 3)];
+    };
+    for (const p of sheet.pieces) {
+      const [r, g, b, a] = pngAt(p.piece.x, p.piece.y);
+      expect(a).toBe(255);
+      const seen = pdfAt(p.piece.x, p.piece.y);
+      for (const [k, v] of [r, g, b].entries()) expect(Math.abs(seen[k] - v), `${p.piece.id} channel ${k}`).toBeLessThan(12);
+    }
+    expect(pngAt(90, 85)[3]).toBe(0);
+    expect(Math.min(...pdfAt(90, 85))).toBeGreaterThan(250);
+  }, 30_000);
+
   it('the summary is a file of its own whose every line stays inside its page; as an opt-in page it does too', async () => {
     const summary = await load(file('-summary.pdf') as Buffer);
     const pageWithin = async (doc: Awaited<ReturnType<typeof load>>, n: number) => {

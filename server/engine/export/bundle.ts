@@ -2,6 +2,9 @@ import yauzl from 'yauzl';
 import { ZipArchive } from 'archiver';
 import { PassThrough } from 'node:stream';
 
+/** Files that are compressed already (deflate inside): stored as they are, not deflated again. */
+const COMPRESSED = /\.(png|pdf|zip)$/i;
+
 /** Zips named files in memory (archiver), in the order given. */
 export function zipFiles(files: Array<{ name: string; data: Buffer | string }>): Promise<Buffer> {
   return new Promise((resolve, reject) => {
@@ -12,7 +15,7 @@ export function zipFiles(files: Array<{ name: string; data: Buffer | string }>):
     sink.on('end', () => resolve(Buffer.concat(parts)));
     archive.on('error', reject);
     archive.pipe(sink);
-    for (const file of files) archive.append(file.data, { name: file.name });
+    for (const file of files) archive.append(file.data, { name: file.name, store: COMPRESSED.test(file.name) });
     void archive.finalize();
   });
 }

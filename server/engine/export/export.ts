@@ -3,7 +3,8 @@ import { formatLength } from '@shared/units';
 import { cutDxf } from './dxf';
 import { sheetCutLines } from './geometry';
 import { sheetPdf, summaryPdf } from './pdf';
-import { renderPrintImage } from './print-image';
+import { pdfImageOf } from './pdf-image';
+import { encodePrintPng, renderPrintRaster } from './print-image';
 import { combinedSvg, cutSvg } from './svg';
 import { zipFiles } from './bundle';
 import type { ExportOptions, ExportSheet } from './types';
@@ -39,11 +40,16 @@ export async function exportSheet(sheet: ExportSheet, options: ExportOptions, on
   const wants = new Set(options.formats);
   onProgress?.(0.05, 'Rendering the print image');
   const needsPng = wants.has('png') || wants.has('combined') || wants.has('pdf');
-  const png = needsPng
-    ? await renderPrintImage(sheet, options.dpi, options.background, (d, t) =>
+  const raster = needsPng
+    ? await renderPrintRaster(sheet, options.dpi, options.background, (d, t) =>
         onProgress?.(0.05 + 0.6 * (d / t), 'Rendering the print image'),
       )
     : null;
+  // The PNG and the PDF's image streams are encoded side by side (sharp works off the main thread).
+  const [png, pdfImage] = await Promise.all([
+    raster ? encodePrintPng(raster) : null,
+    raster && wants.has('pdf') ? pdfImageOf(raster) : null,
+  ]);
   if (wants.has('png')) files.push({ name: `${base}-print.png`, data: png! });
   onProgress?.(0.7, 'Writing the cut files');
   const marks = options.marks;
@@ -76,7 +82,7 @@ export async function exportSheet(sheet: ExportSheet, options: ExportOptions, on
     onProgress?.(0.8, 'Writing the PDF');
     files.push({
       name: `${base}.pdf`,
-      data: await sheetPdf(sheet, lines, png!, options.spotColour, {
+      data: await sheetPdf(sheet, lines, pdfImage!, options.spotColour, {
         checkBar: options.checkBar,
         summary: options.summaryPage ? settings.filter(Boolean) : null,
         marks,

@@ -1,7 +1,20 @@
-import { PDFDocument, PDFName, PDFNumber, PDFOperator, PDFString, StandardFonts, rgb } from 'pdf-lib';
+import {
+  PDFDocument,
+  PDFName,
+  PDFNumber,
+  PDFOperator,
+  PDFString,
+  StandardFonts,
+  concatTransformationMatrix,
+  drawObject,
+  popGraphicsState,
+  pushGraphicsState,
+  rgb,
+} from 'pdf-lib';
 import type { PDFDict, PDFPage, PDFRef } from 'pdf-lib';
 import type { Ring } from '@shared/geometry/polygon';
 import type { RegMarks } from './marks';
+import type { PdfImage, PdfImageStream } from './pdf-image';
 import { registrationMarks } from './marks';
 import type { ExportSheet } from './types';
 
@@ -37,7 +50,7 @@ type PdfExtras = {
 export async function sheetPdf(
   sheet: ExportSheet,
   lines: Array<{ id: string; name: string; ring: Ring; kind: 'kiss' | 'die' }>,
-  printPng: Buffer,
+  printImage: PdfImage,
   spotColour: string,
   extras: PdfExtras,
 ): Promise<Buffer> {
@@ -47,15 +60,24 @@ export async function sheetPdf(
   const { paperWidthMm, paperHeightMm, areaXMm, areaYMm } = sheet.paper;
   const pt = (mm: number) => Math.round(mm * PT_PER_MM * 1000) / 1000;
   const page = pdf.addPage([pt(paperWidthMm), pt(paperHeightMm)]);
-  const image = await pdf.embedPng(printPng);
   const area = sheet.doc.printArea;
-  // PDF y runs up from the bottom of the page; the print area is placed from the top.
-  page.drawImage(image, {
-    x: areaXMm * PT_PER_MM,
-    y: (paperHeightMm - areaYMm - area.height) * PT_PER_MM,
-    width: area.width * PT_PER_MM,
-    height: area.height * PT_PER_MM,
-  });
+  // The print image at its physical size; PDF y runs up from the bottom of the page and the print
+  // area is placed from the top. An image is drawn into the unit square, scaled by the matrix.
+  const image = pdf.context.register(imageStream(pdf, printImage.colour, printImage.alpha));
+  const imageName = page.node.newXObject('Print', image);
+  page.pushOperators(
+    pushGraphicsState(),
+    concatTransformationMatrix(
+      area.width * PT_PER_MM,
+      0,
+      0,
+      area.height * PT_PER_MM,
+      areaXMm * PT_PER_MM,
+      (paperHeightMm - areaYMm - area.height) * PT_PER_MM,
+    ),
+    drawObject(imageName),
+    popGraphicsState(),
+  );
 
   const context = pdf.context;
   const tint = context.obj({ FunctionType: 2, Domain: [0, 1], C0: [0, 0, 0, 0], C1: [0, 1, 0, 0], N: 1 });
@@ -140,6 +162,22 @@ export async function sheetPdf(
   if (extras.summary) await addTextPages(pdf, extras.summary, [pt(paperWidthMm), pt(paperHeightMm)]);
   // Plain (not compressed) object streams: older RIP and cutter software reads them more reliably.
   return Buffer.from(await pdf.save({ useObjectStreams: false }));
+}
+
+/** An image XObject over zlib data of PNG-filtered rows, with its soft mask when it has one. */
+function imageStream(pdf: PDFDocument, colour: PdfImageStream, alpha: PdfImageStream | null) {
+  const dict = (s: PdfImageStream) => ({
+    Type: 'XObject',
+    Subtype: 'Image',
+    Width: s.width,
+    Height: s.height,
+    ColorSpace: s.colours === 3 ? 'DeviceRGB' : 'DeviceGray',
+    BitsPerComponent: 8,
+    Filter: 'FlateDecode',
+    DecodeParms: { Predictor: 15, Colors: s.colours, BitsPerComponent: 8, Columns: s.width },
+  });
+  const mask = alpha ? pdf.context.register(pdf.context.stream(alpha.data, dict(alpha))) : null;
+  return pdf.context.stream(colour.data, mask ? { ...dict(colour), SMask: mask } : dict(colour));
 }
 
 /** Lines of text on as many pages as they need, every line wrapped to fit its page. */

@@ -1,5 +1,4 @@
 import { PAPER_SIZES } from '@shared/schemas/sheets';
-import sharp from 'sharp';
 import type { DataSource } from 'typeorm';
 import { In } from 'typeorm';
 import type { SheetAnalysis } from '@shared/schemas/shop';
@@ -11,7 +10,7 @@ import { pieceOutlineQuery, placeCutLine } from '@shared/sheet/placement';
 import { pieceProblems } from '@shared/sheet/bounds';
 import type { Finding, PreflightLimits, PreflightOutline } from '@shared/sheet/preflight';
 import { countTearRisks, preflight, profileLimits } from '@shared/sheet/preflight';
-import { renderPrintImage } from '../../engine/export/print-image';
+import { renderPrintRaster } from '../../engine/export/print-image';
 import type { ExportPiece } from '../../engine/export/types';
 import type { Storage } from '../../storage/storage';
 import { ArtItem } from '../art/art-item.entity';
@@ -157,8 +156,7 @@ export class SheetAnalysisService {
       if (outline) pieces.push(await toExportPiece(this.storage, piece, outline));
     }
     const paper = { paperWidthMm: 0, paperHeightMm: 0, areaXMm: 0, areaYMm: 0 };
-    const png = await renderPrintImage({ name: '', unit: 'mm', doc: g.doc, pieces, paper }, ANALYSIS_DPI, 'transparent');
-    const { data, info } = await sharp(png).ensureAlpha().raw().toBuffer({ resolveWithObject: true });
-    return inkCoverage(data, info.width * info.height);
+    const raster = await renderPrintRaster({ name: '', unit: 'mm', doc: g.doc, pieces, paper }, ANALYSIS_DPI, 'transparent');
+    return inkCoverage(raster.rgba, raster.width * raster.height);
   }
 }
