@@ -7,7 +7,7 @@ import { env } from '../server/config/env';
 import { createDataSource } from '../server/db/data-source';
 import { OutlinePool } from '../server/engine/outline/pool';
 import { JobQueues } from '../server/jobs/queues';
-import { jobSettingsFrom, startArrangeWorker, startExportWorker, startOutlineWorker } from '../server/jobs/workers';
+import { jobSettingsFrom, startAnalysisWorker, startArrangeWorker, startExportWorker, startOutlineWorker } from '../server/jobs/workers';
 import { defaultThreads } from '../server/engine/arrange/parallel';
 import { createLog } from '../server/lib/log';
 import { OutlineService } from '../server/modules/outlines/outline.service';
@@ -28,20 +28,14 @@ const settings = jobSettingsFrom(env);
 const queues = new JobQueues(settings);
 const sheets = new SheetsService(dataSource, storage, new ProfilesService(dataSource));
 const outlines = new OutlineService(dataSource, storage, pool);
-const exportsService = new ExportsService(
-  dataSource,
-  storage,
-  pool,
-  sheets,
-  new SheetAnalysisService(dataSource, storage, outlines),
-  log,
-  queues,
-);
+const analysis = new SheetAnalysisService(dataSource, storage, outlines);
+const exportsService = new ExportsService(dataSource, storage, pool, sheets, analysis, log, queues);
 const name = `${hostname()}:${process.pid}`;
 const workers = [
   startExportWorker(exportsService, settings, env, log, name),
   startOutlineWorker(outlines, settings, log, name, Math.max(2, pool.size)),
   startArrangeWorker(queues, settings, log, name, env.ARRANGE_THREADS || defaultThreads()),
+  startAnalysisWorker(analysis, settings, log, name),
 ];
 await Promise.all(workers.map((w) => w.waitUntilReady()));
 log.info({ name, concurrency: settings.concurrency, prefix: settings.prefix }, 'worker ready');

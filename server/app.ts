@@ -34,7 +34,7 @@ import { sheetsRouter } from './modules/sheets/sheets.router';
 import { ExportsService } from './modules/exports/exports.service';
 import { exportsRouter } from './modules/exports/exports.router';
 import { JobQueues } from './jobs/queues';
-import { jobSettingsFrom, startArrangeWorker, startExportWorker, startOutlineWorker } from './jobs/workers';
+import { jobSettingsFrom, startAnalysisWorker, startArrangeWorker, startExportWorker, startOutlineWorker } from './jobs/workers';
 import { ArrangeRunsService } from './modules/arrange/arrange.service';
 import { arrangeRouter } from './modules/arrange/arrange.router';
 import { defaultThreads } from './engine/arrange/parallel';
@@ -141,13 +141,14 @@ export function createApp({
   const jobSettings = jobSettingsFrom(env, queuePrefix);
   const queues = new JobQueues(jobSettings);
   const outlines = new OutlineService(dataSource, storage, pool, queues);
-  const analysis = new SheetAnalysisService(dataSource, storage, outlines);
+  const analysis = new SheetAnalysisService(dataSource, storage, outlines, queues);
   const exportsService = new ExportsService(dataSource, storage, pool, sheets, analysis, log, queues);
   const workers = env.WORKERS_EMBEDDED
     ? [
         startExportWorker(exportsService, jobSettings, env, log, 'embedded'),
         startOutlineWorker(outlines, jobSettings, log, 'embedded', Math.max(2, pool.size)),
         startArrangeWorker(queues, jobSettings, log, 'embedded', env.ARRANGE_THREADS || defaultThreads()),
+        startAnalysisWorker(analysis, jobSettings, log, 'embedded'),
       ]
     : [];
   const arrangeRuns = new ArrangeRunsService(sheets, queues);

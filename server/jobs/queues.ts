@@ -8,6 +8,8 @@ import type { OutlineOptions } from '@shared/schemas/outline';
 import type { ArrangeRunInput } from '@shared/schemas/arrange';
 import { OutlineInputError } from '../engine/outline/errors';
 import { OutlinePoolBusyError } from '../engine/outline/pool';
+import type { SheetAnalysis } from '@shared/schemas/shop';
+import { AppError } from '../lib/errors';
 
 export type JobSettings = {
   redisUrl: string;
@@ -22,17 +24,21 @@ export type JobSettings = {
   concurrency: number;
 };
 
-export const QUEUE_NAMES = { exports: 'exports', outlines: 'outlines', arranges: 'arranges' } as const;
+export const QUEUE_NAMES = { exports: 'exports', outlines: 'outlines', arranges: 'arranges', analyses: 'analyses' } as const;
 
 export type ExportJobData = { teamId: string; sheetId: string; exportId: string };
 export type OutlineJobData = { key: string; artSha256: string; storageKey: string; options: OutlineOptions };
 export type ArrangeJobData = { teamId: string; sheetId: string; userId: string; input: ArrangeRunInput };
+/** A sheet version's analysis (preflight, cut length, ink coverage, and a thumbnail if it has none). */
+export type AnalysisJobData = { teamId: string; sheetId: string; version: number; access: 'compute' | 'cached' };
 
 /** The Redis key that asks a running arrange job to stop (its worker looks for it). */
 export const arrangeStopKey = (prefix: string, jobId: string) => `${prefix}:arrange-stop:${jobId}`;
 
 /** An outline job's failure carries the engine's code, so the app answers as if it had run it itself. */
 export const OUTLINE_INPUT_PREFIX = 'outline-input:';
+/** An analysis job's refusal (an AppError) carries its status and code the same way. */
+export const APP_ERROR_PREFIX = 'app-error:';
 
 export function connection(url: string): ConnectionOptions {
   const u = new URL(url);
@@ -53,18 +59,37 @@ export class JobQueues {
   readonly exports: Queue<ExportJobData>;
   readonly outlines: Queue<OutlineJobData>;
   readonly arranges: Queue<ArrangeJobData>;
-  private outlineEvents: QueueEvents | null = null;
+  readonly analyses: Queue<AnalysisJobData>;
+  private readonly events = new Map<string, QueueEvents>();
 
   constructor(readonly settings: JobSettings) {
     this.exports = new Queue<ExportJobData>(QUEUE_NAMES.exports, { connection: connection(settings.redisUrl), prefix: settings.prefix });
     this.outlines = new Queue<OutlineJobData>(QUEUE_NAMES.outlines, { connection: connection(settings.redisUrl), prefix: settings.prefix });
     this.arranges = new Queue<ArrangeJobData>(QUEUE_NAMES.arranges, { connection: connection(settings.redisUrl), prefix: settings.prefix });
+    this.analyses = new Queue<AnalysisJobData>(QUEUE_NAMES.analyses, {
+      connection: connection(settings.redisUrl),
+      prefix: settings.prefix,
+    });
     // Every waiting request listens for its job: many at once is the normal case, not a leak.
     this.outlines.setMaxListeners(0);
+    this.analyses.setMaxListeners(0);
     // Redis errors surface where a job is added or awaited; an idle queue's own errors are not news.
     this.exports.on('error', () => undefined);
     this.outlines.on('error', () => undefined);
     this.arranges.on('error', () => undefined);
+    this.analyses.on('error', () => undefined);
+  }
+
+  /** One listener per queue for its jobs' ends, made when first needed. */
+  private async eventsOf(name: string) {
+    let events = this.events.get(name);
+    if (!events) {
+      events = new QueueEvents(name, { connection: connection(this.settings.redisUrl), prefix: this.settings.prefix });
+      events.setMaxListeners(0);
+      this.events.set(name, events);
+    }
+    await events.waitUntilReady();
+    return events;
   }
 
   /**
@@ -72,21 +97,14 @@ export class JobQueues {
    * job per outline key: requests from several apps for the same outline share it.
    */
   async runOutline(data: OutlineJobData, timeoutMs = 120_000): Promise<void> {
-    if (!this.outlineEvents) {
-      this.outlineEvents = new QueueEvents(QUEUE_NAMES.outlines, {
-        connection: connection(this.settings.redisUrl),
-        prefix: this.settings.prefix,
-      });
-      this.outlineEvents.setMaxListeners(0);
-    }
-    await this.outlineEvents.waitUntilReady();
+    const events = await this.eventsOf(QUEUE_NAMES.outlines);
     const job = await this.outlines.add('outline', data, {
       jobId: `outline-${data.key}`,
       removeOnComplete: true,
       removeOnFail: { age: 60 },
     });
     try {
-      await job.waitUntilFinished(this.outlineEvents, timeoutMs);
+      await job.waitUntilFinished(events, timeoutMs);
     } catch (error) {
       const message = (error as Error).message ?? '';
       if (message.startsWith(OUTLINE_INPUT_PREFIX)) {
@@ -94,6 +112,31 @@ export class JobQueues {
         throw new OutlineInputError(code, text);
       }
       if (/timed out|time out/i.test(message)) throw new OutlinePoolBusyError('The outline workers are busy. Try again in a moment.');
+      throw error;
+    }
+  }
+
+  /**
+   * Queues a sheet version's analysis and waits for a worker to make it (it is kept on the sheet
+   * row too). One job per version and access: requests from several apps share it.
+   */
+  async runAnalysis(data: AnalysisJobData, timeoutMs = 120_000): Promise<SheetAnalysis> {
+    const events = await this.eventsOf(QUEUE_NAMES.analyses);
+    const job = await this.analyses.add('analysis', data, {
+      jobId: `analysis-${data.sheetId}-${data.version}-${data.access}`,
+      removeOnComplete: { age: 60 },
+      removeOnFail: true, // a refusal (outlines not made yet) must not answer the next request too
+    });
+    try {
+      return (await job.waitUntilFinished(events, timeoutMs)) as SheetAnalysis;
+    } catch (error) {
+      const message = (error as Error).message ?? '';
+      if (message.startsWith(APP_ERROR_PREFIX)) {
+        const { status, code, text } = JSON.parse(message.slice(APP_ERROR_PREFIX.length)) as { status: number; code: string; text: string };
+        throw new AppError(status, code, text);
+      }
+      if (/timed out|time out/i.test(message))
+        throw new AppError(503, 'analysis_busy', 'The sheet checks are busy. Try again in a moment.');
       throw error;
     }
   }
@@ -137,10 +180,12 @@ export class JobQueues {
       this.exports.waitUntilReady(),
       this.outlines.waitUntilReady(),
       this.arranges.waitUntilReady(),
-      this.outlineEvents?.waitUntilReady(),
+      this.analyses.waitUntilReady(),
+      ...[...this.events.values()].map((e) => e.waitUntilReady()),
     ]);
     await this.arranges.close();
-    await this.outlineEvents?.close();
+    await this.analyses.close();
+    await Promise.all([...this.events.values()].map((e) => e.close()));
     await this.outlines.close();
     await this.exports.close();
   }

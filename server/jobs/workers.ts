@@ -4,8 +4,10 @@ import type { ExportsService } from '../modules/exports/exports.service';
 import { UnrecoverableError } from 'bullmq';
 import { OutlineInputError } from '../engine/outline/errors';
 import type { OutlineService } from '../modules/outlines/outline.service';
-import type { ArrangeJobData, ExportJobData, JobSettings, OutlineJobData } from './queues';
-import { arrangeStopKey, OUTLINE_INPUT_PREFIX, QUEUE_NAMES, startWorker } from './queues';
+import type { AnalysisJobData, ArrangeJobData, ExportJobData, JobSettings, OutlineJobData } from './queues';
+import { APP_ERROR_PREFIX, arrangeStopKey, OUTLINE_INPUT_PREFIX, QUEUE_NAMES, startWorker } from './queues';
+import { AppError } from '../lib/errors';
+import type { SheetAnalysisService } from '../modules/shop/sheet-analysis.service';
 import type { ArrangeResult } from '@shared/arrange/nester';
 import { ArrangeInputError } from '@shared/arrange/nester';
 import { arrangeInThreads } from '../engine/arrange/parallel';
@@ -53,6 +55,33 @@ export function startOutlineWorker(outlines: OutlineService, settings: JobSettin
     },
     (job, error) => {
       if (!(error.message ?? '').startsWith(OUTLINE_INPUT_PREFIX)) log.warn({ err: error, jobId: job?.id }, 'outline job failed');
+    },
+    name,
+  );
+}
+
+/**
+ * The analysis worker: checks a sheet version (preflight, cut length, ink coverage from its print
+ * image at 150 DPI) and draws its thumbnail when it has none. A refusal (outlines not made yet, a
+ * sheet that is gone) ends the job with its status and message for the app to answer with.
+ */
+export function startAnalysisWorker(analysis: SheetAnalysisService, settings: JobSettings, log: Log, name: string) {
+  return startWorker<AnalysisJobData>(
+    QUEUE_NAMES.analyses,
+    settings,
+    async (job) => {
+      try {
+        return await analysis.analyseNow(job.data.teamId, job.data.sheetId, job.data.access);
+      } catch (error) {
+        if (error instanceof AppError)
+          throw new UnrecoverableError(
+            `${APP_ERROR_PREFIX}${JSON.stringify({ status: error.status, code: error.code, text: error.message })}`,
+          );
+        throw error;
+      }
+    },
+    (job, error) => {
+      if (!(error.message ?? '').startsWith(APP_ERROR_PREFIX)) log.warn({ err: error, jobId: job?.id }, 'analysis job failed');
     },
     name,
   );

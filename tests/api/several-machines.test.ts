@@ -113,7 +113,7 @@ describe('several machines: two apps and two workers on one MariaDB, Redis and S
     await db?.destroy();
   });
 
-  it('a session made on app A works on app B; an export queued on A is done by a worker, survives that worker’s kill -9, and downloads from B', async () => {
+  it('a session made on app A works on app B; an export queued on A is done by a worker, survives that worker’s kill -9, and downloads from B; the sheet’s checks and thumbnail are a worker’s job too', async () => {
     const { team, users } = await makeTeamWithRoles(db);
     const maker = new Browser();
     expect(await maker.signIn(apps[0], users.member.email)).toBe(200);
@@ -210,5 +210,22 @@ describe('several machines: two apps and two workers on one MariaDB, Redis and S
     expect(res.status).toBe(200);
     const bytes = Buffer.from(await res.arrayBuffer());
     expect((await sharp(bytes).metadata()).width).toBe(Math.round((171.45 / 25.4) * 300));
+
+    // The sheet's checks are a job too, done by the worker left standing (neither app runs one).
+    // The sheet was saved without a thumbnail (the editor sends one; the API here did not), so the
+    // same job draws one from the print image it renders for the ink coverage.
+    const [before] = await db.query('SELECT version, thumbnail_key FROM sheets WHERE id = ?', [sheet.id]);
+    expect(before.thumbnail_key).toBeNull();
+    const checked = await maker.call(apps[1], 'GET', `/api/teams/${team.id}/sheets/${sheet.id}/analysis`);
+    expect(checked.status).toBe(200);
+    expect((await checked.json()).pieces).toBe(30);
+    const analyses = new Queue('analyses', { connection: connection(process.env.REDIS_URL ?? 'redis://127.0.0.1:6390'), prefix });
+    const analysisJob = await analyses.getJob(`analysis-${sheet.id}-${before.version}-compute`);
+    await analyses.close();
+    const survivor = procs.find((p) => p.name.startsWith('worker') && p.child.exitCode === null && p.child.signalCode === null)!;
+    expect(analysisJob?.processedBy).toMatch(new RegExp(`:${survivor.child.pid}$`));
+    const thumb = await maker.call(apps[0], 'GET', `/api/teams/${team.id}/sheets/${sheet.id}/thumbnail`);
+    expect(thumb.status).toBe(200);
+    expect((await sharp(Buffer.from(await thumb.arrayBuffer())).metadata()).width).toBe(240);
   });
 });

@@ -19,6 +19,14 @@ import type { OutlineAccess, OutlineService, StoredOutline } from '../outlines/o
 import { AppError } from '../../lib/errors';
 import { SheetProfile } from '../sheets/sheet-profile.entity';
 import { Sheet } from '../sheets/sheet.entity';
+import { notFound } from '../../lib/errors';
+import type { JobQueues } from '../../jobs/queues';
+import type { PrintRaster } from '../../engine/export/print-image';
+import { IsNull } from 'typeorm';
+import sharp from 'sharp';
+
+/** The width of a thumbnail drawn for a sheet that has none (the editor's own are this size too). */
+const THUMBNAIL_WIDTH_PX = 240;
 
 /** The resolution of the piece images the editor's outline requests cache, so the one a sheet can be rendered at from them. */
 export const ANALYSIS_DPI = 150;
@@ -52,13 +60,16 @@ type Gathered = {
  * What the server knows of a sheet version without exporting it: preflight findings, total cut
  * length and ink coverage. Outlines come from the same cache the editor fills (same options), and
  * coverage from the print image rendered at 150 DPI, which is plenty for a mean. Results are kept
- * on the sheet row for its version.
+ * on the sheet row for its version. With job queues the work is a job for a worker (the app waits
+ * for it); a sheet with no thumbnail (made by the server, not the editor) gets one drawn from the
+ * same print image.
  */
 export class SheetAnalysisService {
   constructor(
     private readonly dataSource: DataSource,
     private readonly storage: Storage,
     private readonly outlines: OutlineService,
+    private readonly queues: JobQueues | null = null,
   ) {}
 
   private async gather(teamId: string, sheet: Sheet, access: OutlineAccess = 'compute'): Promise<Gathered> {
@@ -115,12 +126,30 @@ export class SheetAnalysisService {
     return this.findings(await this.gather(teamId, sheet), sheet, bleedMm);
   }
 
-  /** The analysis of the sheet's current version, computed once per version. */
+  /** The analysis of the sheet's current version, computed once per version (by a worker when there are queues). */
   async analyse(teamId: string, sheet: Sheet, access: OutlineAccess = 'compute'): Promise<SheetAnalysis> {
+    const kept = await this.kept(sheet);
+    if (kept) return kept;
+    if (this.queues) return this.queues.runAnalysis({ teamId, sheetId: sheet.id, version: sheet.version, access });
+    return this.analyseSheet(teamId, sheet, access);
+  }
+
+  /** A worker's part: the sheet as it is now, analysed (unless that is done already). */
+  async analyseNow(teamId: string, sheetId: string, access: OutlineAccess): Promise<SheetAnalysis> {
+    const sheet = await this.dataSource.getRepository(Sheet).findOneBy({ id: sheetId, teamId });
+    if (!sheet) throw notFound('That sheet');
+    return (await this.kept(sheet)) ?? this.analyseSheet(teamId, sheet, access);
+  }
+
+  /** The analysis kept on the sheet row, if it is of this version. */
+  private async kept(sheet: Sheet): Promise<SheetAnalysis | null> {
     const row = await this.dataSource
       .getRepository(Sheet)
       .findOne({ where: { id: sheet.id }, select: { id: true, analysisJson: true, analysisVersion: true } });
-    if (row?.analysisJson && row.analysisVersion === sheet.version) return JSON.parse(row.analysisJson);
+    return row?.analysisJson && row.analysisVersion === sheet.version ? JSON.parse(row.analysisJson) : null;
+  }
+
+  private async analyseSheet(teamId: string, sheet: Sheet, access: OutlineAccess): Promise<SheetAnalysis> {
     let g: Gathered;
     try {
       g = await this.gather(teamId, sheet, access);
@@ -138,7 +167,7 @@ export class SheetAnalysisService {
       version: sheet.version,
       pieces: g.doc.pieces.length,
       cutLengthMm: cutLength(rings),
-      coverage: await this.coverage(g),
+      coverage: await this.coverage(g, sheet),
       printAreaShare: (g.doc.printArea.width * g.doc.printArea.height) / g.paperArea,
       findings: this.findings(g, sheet),
     };
@@ -149,7 +178,8 @@ export class SheetAnalysisService {
     return analysis;
   }
 
-  private async coverage(g: Gathered) {
+  /** Ink coverage from the print image at 150 DPI; the same image makes a missing thumbnail. */
+  private async coverage(g: Gathered, sheet: Sheet) {
     const pieces: ExportPiece[] = [];
     for (const piece of g.doc.pieces) {
       const outline = g.stored.get(piece.id);
@@ -157,6 +187,20 @@ export class SheetAnalysisService {
     }
     const paper = { paperWidthMm: 0, paperHeightMm: 0, areaXMm: 0, areaYMm: 0 };
     const raster = await renderPrintRaster({ name: '', unit: 'mm', doc: g.doc, pieces, paper }, ANALYSIS_DPI, 'transparent');
+    if (!sheet.thumbnailKey) await this.drawThumbnail(sheet, raster);
     return inkCoverage(raster.rgba, raster.width * raster.height);
+  }
+
+  /** A thumbnail for a sheet that has none, kept only if the sheet is still at that version without one. */
+  private async drawThumbnail(sheet: Sheet, raster: PrintRaster) {
+    const png = await sharp(raster.rgba, { raw: { width: raster.width, height: raster.height, channels: 4 } })
+      .flatten({ background: '#ffffff' })
+      .resize({ width: THUMBNAIL_WIDTH_PX })
+      .png()
+      .toBuffer();
+    const { key } = await this.storage.put(png);
+    await this.dataSource
+      .getRepository(Sheet)
+      .update({ id: sheet.id, version: sheet.version, thumbnailKey: IsNull() }, { thumbnailKey: key });
   }
 }
