@@ -1,4 +1,6 @@
 // Connected components of a binary mask (8-connected), by two-pass union-find labelling.
+import type { RowRuns } from './runs';
+import { runsOfMask } from './runs';
 
 export type Component = { label: number; area: number; minX: number; minY: number; maxX: number; maxY: number };
 
@@ -27,39 +29,22 @@ export function clearComponents(runs: Runs, labels: Set<number>, clear: (start: 
 
 /** The components of a mask and its runs of set pixels, each run with its component label. */
 export function labelRuns(mask: Uint8Array, width: number, height: number): { components: Component[]; runs: Runs } {
-  let cap = 1024;
-  let runX0 = new Int32Array(cap),
-    runX1 = new Int32Array(cap),
-    runY = new Int32Array(cap);
-  let count = 0;
-  const rowStart = new Int32Array(height + 1);
+  return labelRowRuns(runsOfMask(mask, width, height));
+}
+
+/** The components of a set given as runs (8-connected), each run with its component label. */
+export function labelRowRuns(rr: RowRuns): { components: Component[]; runs: Runs } {
+  const { height, rowStart } = rr;
+  const count = rowStart[height];
+  const runX0 = rr.starts.slice(0, count),
+    runX1 = new Int32Array(count),
+    runY = new Int32Array(count);
   for (let y = 0; y < height; y++) {
-    rowStart[y] = count;
-    const row = y * width;
-    let x = 0;
-    while (x < width) {
-      while (x < width && !mask[row + x]) x++;
-      if (x >= width) break;
-      const x0 = x;
-      while (x < width && mask[row + x]) x++;
-      if (count === cap) {
-        cap *= 2;
-        const grow = (a: Int32Array) => {
-          const b = new Int32Array(cap);
-          b.set(a);
-          return b;
-        };
-        runX0 = grow(runX0);
-        runX1 = grow(runX1);
-        runY = grow(runY);
-      }
-      runX0[count] = x0;
-      runX1[count] = x - 1;
-      runY[count] = y;
-      count++;
+    for (let k = rowStart[y]; k < rowStart[y + 1]; k++) {
+      runX1[k] = rr.ends[k] - 1;
+      runY[k] = y;
     }
   }
-  rowStart[height] = count;
 
   const parent = new Int32Array(count);
   for (let i = 0; i < count; i++) parent[i] = i;

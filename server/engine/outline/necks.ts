@@ -1,6 +1,7 @@
 import { boundaryPixels, closestPair } from './bridge';
-import { labelComponents } from './components';
-import { nearSet } from './morphology';
+import { labelRowRuns } from './components';
+import type { RowRuns } from './runs';
+import { complementRuns, dilateRuns, erodeRuns, maskOfRuns, runsArea, runsOfMask, subtractRuns } from './runs';
 
 /**
  * Finds parts of a filled shape narrower than `minWidth` px: what a morphological opening with a
@@ -14,13 +15,16 @@ export function findNarrowParts(
   height: number,
   minWidth: number,
 ): Array<{ x: number; y: number; area: number; box: { minX: number; minY: number; maxX: number; maxY: number } }> {
+  return narrowPartsOf(runsOfMask(filled, width, height), minWidth);
+}
+
+function narrowPartsOf(filled: RowRuns, minWidth: number) {
   const r = minWidth / 2;
   if (r < 1) return [];
-  const residue = thinResidue(filled, width, height, r);
-  if (!residue) return [];
-  const { components } = labelComponents(residue, width, height);
-  return components
-    .filter((c) => c.area > r * r)
+  const residue = thinResidueRuns(filled, r);
+  if (runsArea(residue) === 0) return [];
+  return labelRowRuns(residue)
+    .components.filter((c) => c.area > r * r)
     .map((c) => ({
       x: (c.minX + c.maxX + 1) / 2,
       y: (c.minY + c.maxY + 1) / 2,
@@ -31,29 +35,20 @@ export function findNarrowParts(
 
 /** The pixels of a filled shape an opening by a disk of radius `r` px removes; null when none. */
 export function thinResidue(filled: Uint8Array, width: number, height: number, r: number): Uint8Array | null {
+  const residue = thinResidueRuns(runsOfMask(filled, width, height), r);
+  return runsArea(residue) > 0 ? maskOfRuns(residue) : null;
+}
+
+function thinResidueRuns(filled: RowRuns, r: number): RowRuns {
   // The opening's centres: what an inward offset by r leaves; it covers whatever lies within
   // r of them (distances between pixel centres; the +0.5 puts them on the pixel edge the cut follows).
-  const centres = erode(filled, width, height, r);
-  const covered = nearSet(centres, width, height, r + 0.5, true);
-  const residue = new Uint8Array(filled.length);
-  let any = false;
-  for (let i = 0; i < filled.length; i++) {
-    if (filled[i] && !covered[i]) {
-      residue[i] = 1;
-      any = true;
-    }
-  }
-  return any ? residue : null;
+  const centres = erodeRuns(filled, r);
+  return subtractRuns(filled, dilateRuns(centres, r + 0.5, true));
 }
 
 /** What an inward offset by `r` px leaves of a filled shape (distances measured to the pixel edge). */
 export function erode(filled: Uint8Array, width: number, height: number, r: number): Uint8Array {
-  const outside = new Uint8Array(filled.length);
-  for (let i = 0; i < filled.length; i++) outside[i] = filled[i] ? 0 : 1;
-  const near = nearSet(outside, width, height, r + 0.5, false);
-  const out = new Uint8Array(filled.length);
-  for (let i = 0; i < filled.length; i++) out[i] = filled[i] && !near[i] ? 1 : 0;
-  return out;
+  return maskOfRuns(erodeRuns(runsOfMask(filled, width, height), r));
 }
 
 /**
@@ -65,10 +60,14 @@ export function erode(filled: Uint8Array, width: number, height: number, r: numb
 export function findNecks(filled: Uint8Array, width: number, height: number, minWidth: number): Array<{ x: number; y: number }> {
   const r = minWidth / 2;
   if (r < 1) return [];
-  const eroded = erode(filled, width, height, r);
-  const { labels, components } = labelComponents(eroded, width, height);
+  const erodedRuns = erodeRuns(runsOfMask(filled, width, height), r);
+  const { components, runs } = labelRowRuns(erodedRuns);
   const kept = components.filter((c) => c.area > r * r);
   if (kept.length < 2) return [];
+  // Rare (a neck is there): the pixels are needed to find the closest points across it.
+  const eroded = maskOfRuns(erodedRuns);
+  const labels = new Int32Array(width * height);
+  for (let i = 0; i < runs.count; i++) labels.fill(runs.label[i], runs.y[i] * width + runs.x0[i], runs.y[i] * width + runs.x1[i] + 1);
   const index = new Map(kept.map((c, i) => [c.label, i + 1]));
   const groupLabels = new Int32Array(labels.length);
   for (let i = 0; i < labels.length; i++) groupLabels[i] = index.get(labels[i]) ?? 0;
@@ -102,9 +101,14 @@ export function findSlots(
   // The outside goes on past the canvas: pad it, so the strip between the shape and the canvas
   // edge is not taken for a slot.
   const m = Math.ceil(minWidth) + 2;
-  const W = width + 2 * m,
-    H = height + 2 * m;
-  const outside = new Uint8Array(W * H).fill(1);
-  for (let y = 0; y < height; y++) for (let x = 0; x < width; x++) if (filled[y * width + x]) outside[(y + m) * W + x + m] = 0;
-  return findNarrowParts(outside, W, H, minWidth).map((p) => ({ ...p, x: p.x - m, y: p.y - m }));
+  const inner = runsOfMask(filled, width, height);
+  const padded: RowRuns = {
+    width: width + 2 * m,
+    height: height + 2 * m,
+    rowStart: new Int32Array(height + 2 * m + 1),
+    starts: inner.starts.map((x) => x + m),
+    ends: inner.ends.map((x) => x + m),
+  };
+  for (let y = 0; y <= height + 2 * m; y++) padded.rowStart[y] = inner.rowStart[Math.min(height, Math.max(0, y - m))];
+  return narrowPartsOf(complementRuns(padded), minWidth).map((p) => ({ ...p, x: p.x - m, y: p.y - m }));
 }

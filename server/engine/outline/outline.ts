@@ -245,11 +245,12 @@ export async function outline(
         });
       }
     }
-    const parts = joinParts(artMask, grown, cw, ch, bridgePx / 2);
+    // One connected piece of art is one part whatever its waists (see joinParts): nothing to label.
+    const parts = small.kept.length > 1 ? joinParts(artMask, grown, cw, ch, bridgePx / 2) : { count: 1, labels: null };
     if (parts.count > 1) {
       // The capsule drawn into the art grows by the border, so it needs only what the border lacks.
       const radius = Math.max(0.75, bridgePx / 2 - (level - 0.5) + 1);
-      const bridges = bridgeIslands(artMask, parts.labels, parts.count, cw, ch, radius);
+      const bridges = bridgeIslands(artMask, parts.labels!, parts.count, cw, ch, radius);
       squared = squaredDistanceTransform(artMask, cw, ch);
       warnings.push({
         code: 'islands-joined',

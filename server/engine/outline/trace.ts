@@ -4,13 +4,122 @@ import type { Ring } from '@shared/geometry/polygon';
 import { area, clockwise, isSimple } from '@shared/geometry/polygon';
 
 /**
- * Traces the iso-line field = 0 with marching squares (d3-contour, linear interpolation) and keeps
- * outer rings only, so holes never become cut lines. Coordinates are in pixel-edge space: pixel
- * (x, y) covers [x, x+1] × [y, y+1]. Returns rings largest first.
+ * Traces the iso-line field = 0 by marching squares (Lorensen & Cline's cell cases in 2-D) with
+ * linear interpolation on cell edges, and keeps outer rings only, so holes never become cut lines.
+ * Coordinates are in pixel-edge space: pixel (x, y) covers [x, x+1] × [y, y+1], its sample at its
+ * centre. Only cells the line crosses are visited after one scan of the grid; each crossing links
+ * to the next with the inside on its right, so outer rings come out clockwise on screen and holes
+ * the other way. A saddle cell is split by the mean of its corners (Nielson & Hamann's asymptotic
+ * decider simplified to the centre value). Returns rings largest first.
  */
 export function traceOuterRings(field: Float32Array, width: number, height: number): Ring[] {
+  const W = width,
+    H = height;
   // A sample exactly on the level would put contour vertices on top of each other; nudge it inside.
   for (let i = 0; i < field.length; i++) if (field[i] === 0) field[i] = 1e-6;
+  if (insideOnBorder(field, W, H)) return traceWithD3(field, W, H);
+  // Crossing ids: 2·i for the edge from sample i to i + 1, 2·i + 1 for i to i + W; next[id] = id of the following crossing + 1.
+  const next = new Int32Array(2 * W * H);
+  const starts: number[] = [];
+  const link = (from: number, to: number) => {
+    next[from] = to + 1;
+    starts.push(from);
+  };
+  for (let y = 0; y < H - 1; y++) {
+    const row = y * W;
+    let left = (field[row] >= 0 ? 1 : 0) | (field[row + W] >= 0 ? 8 : 0);
+    for (let x = 0; x < W - 1; x++) {
+      const i = row + x;
+      // Corner bits: 1 top-left, 2 top-right, 4 bottom-right, 8 bottom-left.
+      const right = (field[i + 1] >= 0 ? 2 : 0) | (field[i + 1 + W] >= 0 ? 4 : 0);
+      const c = left | right;
+      left = (right & 2 ? 1 : 0) | (right & 4 ? 8 : 0);
+      if (c === 0 || c === 15) continue;
+      // The cell's edges as crossing ids: top, right, bottom, left.
+      const top = 2 * i,
+        rightEdge = 2 * (i + 1) + 1,
+        bottom = 2 * (i + W),
+        leftEdge = 2 * i + 1;
+      switch (c) {
+        case 1: link(top, leftEdge); break; // prettier-ignore
+        case 2: link(rightEdge, top); break; // prettier-ignore
+        case 3: link(rightEdge, leftEdge); break; // prettier-ignore
+        case 4: link(bottom, rightEdge); break; // prettier-ignore
+        case 6: link(bottom, top); break; // prettier-ignore
+        case 7: link(bottom, leftEdge); break; // prettier-ignore
+        case 8: link(leftEdge, bottom); break; // prettier-ignore
+        case 9: link(top, bottom); break; // prettier-ignore
+        case 11: link(rightEdge, bottom); break; // prettier-ignore
+        case 12: link(leftEdge, rightEdge); break; // prettier-ignore
+        case 13: link(top, rightEdge); break; // prettier-ignore
+        case 14: link(leftEdge, top); break; // prettier-ignore
+        case 5:
+        case 10: {
+          // Inside at the centre: the inside corners join through it and the outside corners are
+          // cut off one by one (as in cases 13 and 7, or 14 and 11); else the inside corners are
+          // cut off one by one (as in cases 1 and 4, or 2 and 8).
+          const centre = field[i] + field[i + 1] + field[i + W] + field[i + W + 1] >= 0;
+          if (c === 5 && centre) {
+            link(top, rightEdge);
+            link(bottom, leftEdge);
+          } else if (c === 5) {
+            link(top, leftEdge);
+            link(bottom, rightEdge);
+          } else if (centre) {
+            link(leftEdge, top);
+            link(rightEdge, bottom);
+          } else {
+            link(rightEdge, top);
+            link(leftEdge, bottom);
+          }
+          break;
+        }
+      }
+    }
+  }
+  const point = (id: number) => {
+    const i = id >> 1;
+    const x = i % W,
+      y = (i - x) / W;
+    const v0 = field[i],
+      v1 = id & 1 ? field[i + W] : field[i + 1];
+    const t = v0 / (v0 - v1);
+    return id & 1 ? { x: x + 0.5, y: y + 0.5 + t } : { x: x + 0.5 + t, y: y + 0.5 };
+  };
+  const rings: Array<{ ring: Ring; area: number }> = [];
+  for (const start of starts) {
+    if (next[start] === 0) continue; // already part of a traced ring
+    const ring: Ring = [];
+    let twice = 0;
+    for (let id = start; next[id] !== 0;) {
+      const p = point(id);
+      const last = ring[ring.length - 1];
+      if (!last || Math.abs(last.x - p.x) > 1e-9 || Math.abs(last.y - p.y) > 1e-9) ring.push(p);
+      const after = next[id] - 1;
+      next[id] = 0;
+      id = after;
+    }
+    while (ring.length > 1 && Math.abs(ring[0].x - ring[ring.length - 1].x) < 1e-9 && Math.abs(ring[0].y - ring[ring.length - 1].y) < 1e-9)
+      ring.pop();
+    for (let k = 0; k < ring.length; k++) {
+      const a = ring[k],
+        b = ring[(k + 1) % ring.length];
+      twice += a.x * b.y - b.x * a.y;
+    }
+    // Clockwise on screen (y down) is a positive shoelace sum: an outer ring; holes run the other way.
+    if (twice > 0 && ring.length >= 3) rings.push({ ring, area: twice / 2 });
+  }
+  return rings.sort((a, b) => b.area - a.area).map((r) => r.ring);
+}
+
+function insideOnBorder(field: Float32Array, W: number, H: number): boolean {
+  for (let x = 0; x < W; x++) if (field[x] >= 0 || field[(H - 1) * W + x] >= 0) return true;
+  for (let y = 0; y < H; y++) if (field[y * W] >= 0 || field[y * W + W - 1] >= 0) return true;
+  return false;
+}
+
+/** The general case (a shape touching the grid's edge, which the outline's padded canvas never has): d3-contour. */
+function traceWithD3(field: Float32Array, width: number, height: number): Ring[] {
   const [layer] = contours().size([width, height]).thresholds([0])(field as unknown as number[]);
   const rings: Ring[] = [];
   for (const polygon of layer.coordinates) {

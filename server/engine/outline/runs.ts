@@ -1,0 +1,185 @@
+// Binary images as runs: each row a sorted list of half-open intervals [start, end) of set pixels.
+// Erosion and dilation by a Euclidean disk work row by row on intervals (a disk is a stack of
+// centred intervals, one per row offset), so their cost grows with the number of runs times the
+// disk's height, not with the canvas's area. Distances run between pixel centres.
+
+export type RowRuns = {
+  width: number;
+  height: number;
+  /** Row y's runs are at indices rowStart[y] .. rowStart[y + 1] − 1. */
+  rowStart: Int32Array;
+  starts: Int32Array;
+  ends: Int32Array;
+};
+
+/** Collects runs row by row. */
+class RunsBuilder {
+  private starts = new Int32Array(1024);
+  private ends = new Int32Array(1024);
+  private count = 0;
+  private readonly rowStart: Int32Array;
+  private row = 0;
+
+  constructor(
+    private readonly width: number,
+    private readonly height: number,
+  ) {
+    this.rowStart = new Int32Array(height + 1);
+  }
+
+  /** Starts the next row (rows are begun in order, none skipped). */
+  beginRow(y: number) {
+    while (this.row <= y) this.rowStart[this.row++] = this.count;
+  }
+
+  push(start: number, end: number) {
+    if (this.count === this.starts.length) {
+      const grow = (a: Int32Array) => {
+        const b = new Int32Array(a.length * 2);
+        b.set(a);
+        return b;
+      };
+      this.starts = grow(this.starts);
+      this.ends = grow(this.ends);
+    }
+    this.starts[this.count] = start;
+    this.ends[this.count] = end;
+    this.count++;
+  }
+
+  done(): RowRuns {
+    while (this.row <= this.height) this.rowStart[this.row++] = this.count;
+    return { width: this.width, height: this.height, rowStart: this.rowStart, starts: this.starts, ends: this.ends };
+  }
+}
+
+export function runsOfMask(mask: Uint8Array, width: number, height: number): RowRuns {
+  const out = new RunsBuilder(width, height);
+  for (let y = 0; y < height; y++) {
+    out.beginRow(y);
+    const row = y * width;
+    let x = 0;
+    while (x < width) {
+      while (x < width && !mask[row + x]) x++;
+      if (x >= width) break;
+      const start = x;
+      while (x < width && mask[row + x]) x++;
+      out.push(start, x);
+    }
+  }
+  return out.done();
+}
+
+export function maskOfRuns(r: RowRuns): Uint8Array {
+  const mask = new Uint8Array(r.width * r.height);
+  for (let y = 0; y < r.height; y++)
+    for (let k = r.rowStart[y]; k < r.rowStart[y + 1]; k++) mask.fill(1, y * r.width + r.starts[k], y * r.width + r.ends[k]);
+  return mask;
+}
+
+export function runsArea(r: RowRuns): number {
+  let area = 0;
+  for (let k = 0; k < r.rowStart[r.height]; k++) area += r.ends[k] - r.starts[k];
+  return area;
+}
+
+/** The pixels of the canvas not in `r`. */
+export function complementRuns(r: RowRuns): RowRuns {
+  const out = new RunsBuilder(r.width, r.height);
+  for (let y = 0; y < r.height; y++) {
+    out.beginRow(y);
+    let x = 0;
+    for (let k = r.rowStart[y]; k < r.rowStart[y + 1]; k++) {
+      if (r.starts[k] > x) out.push(x, r.starts[k]);
+      x = r.ends[k];
+    }
+    if (x < r.width) out.push(x, r.width);
+  }
+  return out.done();
+}
+
+/** Pixels of `a` not in `b` (same canvas). */
+export function subtractRuns(a: RowRuns, b: RowRuns): RowRuns {
+  const out = new RunsBuilder(a.width, a.height);
+  for (let y = 0; y < a.height; y++) {
+    out.beginRow(y);
+    let j = b.rowStart[y];
+    const jEnd = b.rowStart[y + 1];
+    for (let k = a.rowStart[y]; k < a.rowStart[y + 1]; k++) {
+      let start = a.starts[k];
+      const end = a.ends[k];
+      while (j < jEnd && b.ends[j] <= start) j++;
+      for (let i = j; i < jEnd && b.starts[i] < end; i++) {
+        if (b.starts[i] > start) out.push(start, b.starts[i]);
+        start = Math.max(start, b.ends[i]);
+      }
+      if (start < end) out.push(start, end);
+    }
+  }
+  return out.done();
+}
+
+/** For each row offset dy of a disk of radius R (dy from −rows to rows), the largest |dx| inside it (−1: none). */
+export function diskRows(radius: number, inclusive: boolean): { reach: Int32Array; rows: number } {
+  const r2 = radius * radius;
+  const rows = Math.floor(radius);
+  const reach = new Int32Array(2 * rows + 1);
+  for (let dy = -rows; dy <= rows; dy++) {
+    let dx = Math.floor(Math.sqrt(Math.max(0, r2 - dy * dy)));
+    // Settle rounding in the square root against the exact integer test.
+    while (dx >= 0 && (inclusive ? dx * dx + dy * dy > r2 : dx * dx + dy * dy >= r2)) dx--;
+    while (inclusive ? (dx + 1) * (dx + 1) + dy * dy <= r2 : (dx + 1) * (dx + 1) + dy * dy < r2) dx++;
+    reach[dy + rows] = dx;
+  }
+  return { reach, rows };
+}
+
+/**
+ * The pixels within `radius` of a pixel of `r` (distance below it, or at most it when `inclusive`),
+ * on the same canvas: each output row is the union of the runs of the rows a disk's height around
+ * it, each widened by the disk's half-width at that row offset.
+ */
+export function dilateRuns(r: RowRuns, radius: number, inclusive: boolean): RowRuns {
+  const { reach, rows } = diskRows(radius, inclusive);
+  const { width, height } = r;
+  const out = new RunsBuilder(width, height);
+  let keys = new Float64Array(256);
+  const scale = width + 1;
+  for (let y = 0; y < height; y++) {
+    out.beginRow(y);
+    let n = 0;
+    for (let sy = Math.max(0, y - rows); sy <= Math.min(height - 1, y + rows); sy++) {
+      const dx = reach[sy - y + rows];
+      if (dx < 0) continue;
+      for (let k = r.rowStart[sy]; k < r.rowStart[sy + 1]; k++) {
+        if (n === keys.length) {
+          const grown = new Float64Array(n * 2);
+          grown.set(keys);
+          keys = grown;
+        }
+        // One number per interval, ordered by its start: start·(width + 1) + end.
+        keys[n++] = Math.max(0, r.starts[k] - dx) * scale + Math.min(width, r.ends[k] + dx);
+      }
+    }
+    if (n === 0) continue;
+    const sorted = keys.subarray(0, n).sort();
+    let start = Math.floor(sorted[0] / scale),
+      end = sorted[0] - start * scale;
+    for (let i = 1; i < n; i++) {
+      const s = Math.floor(sorted[i] / scale),
+        e = sorted[i] - s * scale;
+      if (s > end) {
+        out.push(start, end);
+        start = s;
+        end = e;
+      } else if (e > end) end = e;
+    }
+    out.push(start, end);
+  }
+  return out.done();
+}
+
+/** What an inward offset by `r` px leaves: pixels of the set farther than r + 0.5 from any canvas pixel outside it. */
+export function erodeRuns(filled: RowRuns, r: number): RowRuns {
+  return subtractRuns(filled, dilateRuns(complementRuns(filled), r + 0.5, false));
+}
