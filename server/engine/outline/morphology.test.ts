@@ -1,6 +1,7 @@
 import { describe, expect, it } from 'vitest';
 import { distanceTransform } from '@shared/geometry/distance-transform';
 import { nearSet } from './morphology';
+import { erodeRuns, maskOfRuns, runsOfMask } from './runs';
 
 /** Random blobs and specks on a small canvas, repeatable. */
 function randomMask(width: number, height: number, seed: number): Uint8Array {
@@ -39,6 +40,25 @@ describe('disk stamping around the edge of a set', () => {
           expect(ours[i], `pixel ${i % width}, ${Math.floor(i / width)}`).toBe(
             (inclusive ? distance[i] <= radius : distance[i] < radius) ? 1 : 0,
           );
+      }
+    });
+  }
+});
+
+describe('erosion on runs', () => {
+  // Reference: the exact distance transform of the outside, thresholded (an inward offset by r
+  // keeps the pixels farther than r + 0.5 from every canvas pixel outside the set).
+  for (const r of [1, 2.5, 6]) {
+    it(`keeps exactly the pixels farther than ${r} + 0.5 px from the outside`, () => {
+      for (const seed of [5, 6, 7]) {
+        const width = 61,
+          height = 47;
+        const set = randomMask(width, height, seed);
+        const outside = set.map((v) => (v ? 0 : 1));
+        const distance = distanceTransform(outside, width, height);
+        const ours = maskOfRuns(erodeRuns(runsOfMask(set, width, height), r));
+        for (let i = 0; i < set.length; i++)
+          expect(ours[i], `pixel ${i % width}, ${Math.floor(i / width)}`).toBe(set[i] && distance[i] >= r + 0.5 ? 1 : 0);
       }
     });
   }

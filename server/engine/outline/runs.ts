@@ -120,7 +120,7 @@ export function subtractRuns(a: RowRuns, b: RowRuns): RowRuns {
 }
 
 /** For each row offset dy of a disk of radius R (dy from −rows to rows), the largest |dx| inside it (−1: none). */
-export function diskRows(radius: number, inclusive: boolean): { reach: Int32Array; rows: number } {
+function diskRows(radius: number, inclusive: boolean): { reach: Int32Array; rows: number } {
   const r2 = radius * radius;
   const rows = Math.floor(radius);
   const reach = new Int32Array(2 * rows + 1);
