@@ -1,6 +1,6 @@
 // Connected components of a binary mask (8-connected), by two-pass union-find labelling.
 import type { RowRuns } from './runs';
-import { runsOfMask } from './runs';
+import { complementRuns, runsOfMask, selectRuns } from './runs';
 
 export type Component = { label: number; area: number; minX: number; minY: number; maxX: number; maxY: number };
 
@@ -28,12 +28,13 @@ export function clearComponents(runs: Runs, labels: Set<number>, clear: (start: 
 }
 
 /** The components of a mask and its runs of set pixels, each run with its component label. */
-export function labelRuns(mask: Uint8Array, width: number, height: number): { components: Component[]; runs: Runs } {
+function labelRuns(mask: Uint8Array, width: number, height: number): { components: Component[]; runs: Runs } {
   return labelRowRuns(runsOfMask(mask, width, height));
 }
 
 /** The components of a set given as runs (8-connected), each run with its component label. */
-export function labelRowRuns(rr: RowRuns): { components: Component[]; runs: Runs } {
+export function labelRowRuns(rr: RowRuns, connectivity: 4 | 8 = 8): { components: Component[]; runs: Runs } {
+  const reach = connectivity === 8 ? 1 : 0;
   const { height, rowStart } = rr;
   const count = rowStart[height];
   const runX0 = rr.starts.slice(0, count),
@@ -60,8 +61,8 @@ export function labelRowRuns(rr: RowRuns): { components: Component[]; runs: Runs
     const pEnd = rowStart[y];
     for (let c = rowStart[y]; c < rowStart[y + 1]; c++) {
       // Skip previous-row runs that end before this run's reach (x0 − 1).
-      while (p < pEnd && runX1[p] < runX0[c] - 1) p++;
-      for (let q = p; q < pEnd && runX0[q] <= runX1[c] + 1; q++) {
+      while (p < pEnd && runX1[p] < runX0[c] - reach) p++;
+      for (let q = p; q < pEnd && runX0[q] <= runX1[c] + reach; q++) {
         const a = find(q),
           b = find(c);
         if (a !== b) parent[Math.max(a, b)] = Math.min(a, b);
@@ -123,4 +124,19 @@ export function fillHoles(mask: Uint8Array, width: number, height: number): Uint
   const filled = outside; // reuse: flip in place
   for (let i = 0; i < filled.length; i++) filled[i] = outside[i] ? 0 : 1;
   return filled;
+}
+
+/**
+ * A set with its holes filled, as runs: the holes are the components of the outside (4-connected
+ * to the set's 8) that do not reach the canvas edge. Returns the filled set and the holes alone.
+ */
+export function fillHoleRuns(set: RowRuns): { filled: RowRuns; holes: RowRuns } {
+  const outside = complementRuns(set);
+  const { components, runs } = labelRowRuns(outside, 4);
+  const { width, height } = set;
+  const open = new Set(
+    components.filter((c) => c.minX === 0 || c.minY === 0 || c.maxX === width - 1 || c.maxY === height - 1).map((c) => c.label),
+  );
+  const reachesEdge = selectRuns(outside, (k) => open.has(runs.label[k]));
+  return { filled: complementRuns(reachesEdge), holes: selectRuns(outside, (k) => !open.has(runs.label[k])) };
 }

@@ -1,7 +1,7 @@
 import { boundaryPixels, closestPair } from './bridge';
 import { labelRowRuns } from './components';
 import type { RowRuns } from './runs';
-import { complementRuns, dilateRuns, erodeRuns, maskOfRuns, runsArea, runsOfMask, subtractRuns } from './runs';
+import { complementRuns, dilateRuns, erodeRuns, maskOfRuns, placeRuns, runsArea, runsOfMask, subtractRuns } from './runs';
 
 /**
  * Finds parts of a filled shape narrower than `minWidth` px: what a morphological opening with a
@@ -18,7 +18,7 @@ export function findNarrowParts(
   return narrowPartsOf(runsOfMask(filled, width, height), minWidth);
 }
 
-function narrowPartsOf(filled: RowRuns, minWidth: number) {
+export function narrowPartsOf(filled: RowRuns, minWidth: number) {
   const r = minWidth / 2;
   if (r < 1) return [];
   const residue = thinResidueRuns(filled, r);
@@ -58,9 +58,14 @@ export function erode(filled: Uint8Array, width: number, height: number, r: numb
  * r² px are the erosion's rounding, not parts.
  */
 export function findNecks(filled: Uint8Array, width: number, height: number, minWidth: number): Array<{ x: number; y: number }> {
+  return necksOf(runsOfMask(filled, width, height), minWidth);
+}
+
+export function necksOf(filled: RowRuns, minWidth: number): Array<{ x: number; y: number }> {
+  const { width, height } = filled;
   const r = minWidth / 2;
   if (r < 1) return [];
-  const erodedRuns = erodeRuns(runsOfMask(filled, width, height), r);
+  const erodedRuns = erodeRuns(filled, r);
   const { components, runs } = labelRowRuns(erodedRuns);
   const kept = components.filter((c) => c.area > r * r);
   if (kept.length < 2) return [];
@@ -92,23 +97,11 @@ export function findNecks(filled: Uint8Array, width: number, height: number, min
 }
 
 /** Slots and notches narrower than `minWidth` px: thin parts of the outside reaching into the shape. */
-export function findSlots(
-  filled: Uint8Array,
-  width: number,
-  height: number,
-  minWidth: number,
-): Array<{ x: number; y: number; area: number }> {
+export function slotsOf(inner: RowRuns, minWidth: number): Array<{ x: number; y: number; area: number }> {
+  const { width, height } = inner;
   // The outside goes on past the canvas: pad it, so the strip between the shape and the canvas
   // edge is not taken for a slot.
   const m = Math.ceil(minWidth) + 2;
-  const inner = runsOfMask(filled, width, height);
-  const padded: RowRuns = {
-    width: width + 2 * m,
-    height: height + 2 * m,
-    rowStart: new Int32Array(height + 2 * m + 1),
-    starts: inner.starts.map((x) => x + m),
-    ends: inner.ends.map((x) => x + m),
-  };
-  for (let y = 0; y <= height + 2 * m; y++) padded.rowStart[y] = inner.rowStart[Math.min(height, Math.max(0, y - m))];
+  const padded = placeRuns(inner, m, m, width + 2 * m, height + 2 * m);
   return narrowPartsOf(complementRuns(padded), minWidth).map((p) => ({ ...p, x: p.x - m, y: p.y - m }));
 }

@@ -7,7 +7,8 @@ import { MM_PER_INCH, formatLength } from '@shared/units';
 import type { RemovalPlan } from './background';
 import { detectBackground, parseHex, removeBackground } from './background';
 import { bridgeIslands } from './bridge';
-import { clearComponents, fillHoles, labelComponents, labelRuns } from './components';
+import { clearComponents, fillHoleRuns, labelRowRuns } from './components';
+import { dilateRuns, maskOfRuns, placeRuns, runsAtLeast, runsOfAlpha, selectRuns } from './runs';
 import { decodeArt } from './decode';
 import { squaredDistanceTransform } from '@shared/geometry/distance-transform';
 import { OutlineInputError } from './errors';
@@ -75,9 +76,7 @@ export async function outline(
 
   // 2. Threshold and trim at source resolution, dropping specks (their size judged at print size).
   const threshold = options.alphaThreshold;
-  const sourceMask = new Uint8Array(W * H);
-  for (let i = 0; i < sourceMask.length; i++) sourceMask[i] = rgba[i * 4 + 3] >= threshold ? 1 : 0;
-  const source = labelRuns(sourceMask, W, H);
+  const source = labelRowRuns(runsOfAlpha(rgba, W, H, threshold));
   if (source.components.length === 0) {
     throw new OutlineInputError(
       'no-visible-art',
@@ -120,18 +119,14 @@ export async function outline(
   const cw = finishedW + 2 * PAD,
     ch = finishedH + 2 * PAD;
   const origin = { x: PAD + Math.round((finishedW - artW) / 2), y: PAD + Math.round((finishedH - artH) / 2) };
-  const artMask = new Uint8Array(cw * ch);
-  for (let y = 0; y < artH; y++) {
-    for (let x = 0; x < artW; x++) {
-      if (art[(y * artW + x) * 4 + 3] >= threshold) artMask[(y + origin.y) * cw + x + origin.x] = 1;
-    }
-  }
-  const resampled = labelRuns(artMask, cw, ch);
+  const placedArt = placeRuns(runsOfAlpha(art, artW, artH, threshold), origin.x, origin.y, cw, ch);
+  const resampled = labelRowRuns(placedArt);
   if (resampled.components.length === 0) {
     throw new OutlineInputError('no-visible-art', 'At this size the art vanishes: choose a larger printed size.');
   }
   const small = splitSpecks(resampled.components, options.minSpeckArea * pxPerMm * pxPerMm);
-  clearComponents(resampled.runs, small.droppedLabels, (x0, x1, y) => artMask.fill(0, y * cw + x0, y * cw + x1));
+  const artRuns = selectRuns(placedArt, (k) => !small.droppedLabels.has(resampled.runs.label[k]));
+  const artMask = maskOfRuns(artRuns);
   droppedSpecks += small.dropped;
   if (droppedSpecks > 0) {
     warnings.push({
@@ -145,9 +140,10 @@ export async function outline(
   const level = options.border * pxPerMm + 0.5; // distances run between pixel centres
   const level2 = level * level;
   let squared = squaredDistanceTransform(artMask, cw, ch);
-  const grown = new Uint8Array(cw * ch);
-  for (let i = 0; i < grown.length; i++) grown[i] = squared[i] <= level2 ? 1 : 0;
-  const groups = labelComponents(grown, cw, ch);
+  // Within `level` of the art: the distance transform thresholded, or (the same pixels) the art's
+  // runs grown by a disk of that radius, which is cheaper to label.
+  const grownRuns = dilateRuns(artRuns, level, true);
+  const groups = labelRowRuns(grownRuns);
 
   const pieces: OutlinePiece[] = [];
   const minFeaturePx = options.minFeature * pxPerMm;
@@ -157,27 +153,20 @@ export async function outline(
   const near2Low = level > 2 ? (level - 2) ** 2 : -1,
     near2High = (level + 2) ** 2;
 
-  const buildPiece = async (pieceArt: Uint8Array, artVisible: (i: number) => boolean) => {
+  const buildPiece = async (pieceArt: Uint8Array, artVisible: ((i: number) => boolean) | null) => {
     const sq = pieceArt === artMask ? squared : squaredDistanceTransform(pieceArt, cw, ch);
     const field = new Float32Array(cw * ch);
-    const inside = new Uint8Array(cw * ch);
     for (let i = 0; i < field.length; i++) {
       const d2 = sq[i];
-      const f = d2 <= near2Low ? 2 : d2 >= near2High ? -2 : level - Math.sqrt(d2);
-      field[i] = f;
-      inside[i] = f >= 0 ? 1 : 0;
+      field[i] = d2 <= near2Low ? 2 : d2 >= near2High ? -2 : level - Math.sqrt(d2);
     }
-    const filled = fillHoles(inside, cw, ch);
-    const holes = new Uint8Array(cw * ch);
-    for (let i = 0; i < holes.length; i++) {
-      if (filled[i] && !inside[i]) {
-        holes[i] = 1;
-        // Filling the holes in the field too keeps them out of the traced rings.
-        field[i] = 0.5;
-      }
-    }
+    // Holes inside the cut line are filled, in the field too: they stay out of the traced rings and
+    // print in the border colour (coverage min(1, field + 0.5) is 1 there).
+    const { filled, holes } = fillHoleRuns(runsAtLeast(field, cw, ch, 0));
+    for (let y = 0; y < ch; y++)
+      for (let k = holes.rowStart[y]; k < holes.rowStart[y + 1]; k++) field.fill(0.5, y * cw + holes.starts[k], y * cw + holes.ends[k]);
 
-    const rings = traceOuterRings(field, cw, ch);
+    const rings = traceOuterRings(field, cw, ch, filled);
     const ring = simplifyRing(rings[0], options.smoothing * pxPerMm);
     const box = boundingBox(ring);
     // The frame: the finished sticker's box in canvas pixels (the whole canvas for a joined piece).
@@ -196,12 +185,11 @@ export async function outline(
           })();
     const points = scale(translate(ring, -frame.x, -frame.y), 1 / pxPerMm);
 
-    warnings.push(...tearWarnings(filled, cw, ch, { minFeaturePx, level, minFeatureMm: options.minFeature, toMm, frame }));
+    warnings.push(...tearWarnings(filled, { minFeaturePx, level, minFeatureMm: options.minFeature, toMm, frame }));
     const rgbaOut = composeSticker({
       frame,
       canvasWidth: cw,
       field,
-      holes,
       art,
       artWidth: artW,
       artHeight: artH,
@@ -229,6 +217,7 @@ export async function outline(
     // one piece of art stay one part unless the maker asked to widen necks.
     const bridgePx = Math.max(options.bridgeWidth, options.minFeature) * pxPerMm;
     const wide = formatLength(Math.max(options.bridgeWidth, options.minFeature), 'mm');
+    const grown = maskOfRuns(grownRuns);
     if (options.widenNecks) {
       // The maker agreed to change the shape: each narrow place the checks below would warn about
       // (a waist or a thin part under the smallest feature) gets art added around the part of the
@@ -258,12 +247,15 @@ export async function outline(
         message: `Joined ${parts.count} separate parts of the art into one sticker with ${bridges} bridge${bridges === 1 ? '' : 's'} at least ${wide} wide.`,
       });
     }
-    await buildPiece(artMask, () => true);
+    await buildPiece(artMask, null);
   } else {
+    const groupLabels = new Int32Array(cw * ch);
+    const { runs } = groups;
+    for (let k = 0; k < runs.count; k++) groupLabels.fill(runs.label[k], runs.y[k] * cw + runs.x0[k], runs.y[k] * cw + runs.x1[k] + 1);
     for (const group of groups.components) {
       const pieceArt = new Uint8Array(cw * ch);
-      for (let i = 0; i < artMask.length; i++) if (artMask[i] && groups.labels[i] === group.label) pieceArt[i] = 1;
-      await buildPiece(pieceArt, (i) => groups.labels[i] === group.label);
+      for (let i = 0; i < artMask.length; i++) if (artMask[i] && groupLabels[i] === group.label) pieceArt[i] = 1;
+      await buildPiece(pieceArt, (i) => groupLabels[i] === group.label);
     }
   }
 

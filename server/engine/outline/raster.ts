@@ -12,41 +12,52 @@ export type Frame = { x: number; y: number; width: number; height: number };
 export function composeSticker(input: {
   frame: Frame; // in canvas pixels
   canvasWidth: number;
-  field: Float32Array; // level − distance, ≥ 0 inside the cut line
-  holes: Uint8Array; // enclosed pixels to fill regardless of the field
+  field: Float32Array; // level − distance, ≥ 0 inside the cut line (0.5 in filled holes)
   art: Buffer; // resampled RGBA
   artWidth: number;
   artHeight: number;
   artOrigin: { x: number; y: number }; // where the art's top-left pixel sits on the canvas
-  artVisible: (canvasIndex: number) => boolean;
+  artVisible: ((canvasIndex: number) => boolean) | null; // null: all of the art belongs to this sticker
   border: Rgb;
 }): Buffer {
-  const { frame, canvasWidth, field, holes, art, artWidth, artHeight, artOrigin, border } = input;
+  const { frame, canvasWidth, field, art, artWidth, artHeight, artOrigin, border, artVisible } = input;
   const out = Buffer.alloc(frame.width * frame.height * 4);
+  const br = border.r,
+    bg = border.g,
+    bb = border.b;
   for (let y = 0; y < frame.height; y++) {
+    const cy = y + frame.y;
+    const ay = cy - artOrigin.y;
+    const artRow = ay >= 0 && ay < artHeight;
     for (let x = 0; x < frame.width; x++) {
-      const cx = x + frame.x,
-        cy = y + frame.y;
+      const cx = x + frame.x;
       const c = cy * canvasWidth + cx;
-      const coverage = holes[c] ? 1 : Math.min(1, Math.max(0, field[c] + 0.5));
-      if (coverage <= 0) continue;
-      let r = border.r,
-        g = border.g,
-        b = border.b;
-      const ax = cx - artOrigin.x,
-        ay = cy - artOrigin.y;
-      if (ax >= 0 && ay >= 0 && ax < artWidth && ay < artHeight && input.artVisible(c)) {
+      const f = field[c];
+      if (f <= -0.5) continue;
+      const coverage = f >= 0.5 ? 255 : (f + 0.5) * 255;
+      let r = br,
+        g = bg,
+        b = bb;
+      const ax = cx - artOrigin.x;
+      if (artRow && ax >= 0 && ax < artWidth && (artVisible === null || artVisible(c))) {
         const a = (ay * artWidth + ax) * 4;
-        const alpha = art[a + 3] / 255;
-        r = art[a] * alpha + r * (1 - alpha);
-        g = art[a + 1] * alpha + g * (1 - alpha);
-        b = art[a + 2] * alpha + b * (1 - alpha);
+        const alpha = art[a + 3];
+        if (alpha === 255) {
+          r = art[a];
+          g = art[a + 1];
+          b = art[a + 2];
+        } else if (alpha > 0) {
+          // Straight alpha over the border colour, in 0..255 units.
+          r = (art[a] * alpha + br * (255 - alpha)) / 255;
+          g = (art[a + 1] * alpha + bg * (255 - alpha)) / 255;
+          b = (art[a + 2] * alpha + bb * (255 - alpha)) / 255;
+        }
       }
       const o = (y * frame.width + x) * 4;
-      out[o] = Math.round(r);
-      out[o + 1] = Math.round(g);
-      out[o + 2] = Math.round(b);
-      out[o + 3] = Math.round(coverage * 255);
+      out[o] = r + 0.5;
+      out[o + 1] = g + 0.5;
+      out[o + 2] = b + 0.5;
+      out[o + 3] = coverage + 0.5;
     }
   }
   return out;

@@ -183,3 +183,57 @@ export function dilateRuns(r: RowRuns, radius: number, inclusive: boolean): RowR
 export function erodeRuns(filled: RowRuns, r: number): RowRuns {
   return subtractRuns(filled, dilateRuns(complementRuns(filled), r + 0.5, false));
 }
+
+/** The runs of pixels whose alpha (byte 3 of 4) is at least `threshold`, read straight from RGBA. */
+export function runsOfAlpha(rgba: Uint8Array, width: number, height: number, threshold: number): RowRuns {
+  const out = new RunsBuilder(width, height);
+  for (let y = 0; y < height; y++) {
+    out.beginRow(y);
+    const alpha = y * width * 4 + 3;
+    let x = 0;
+    while (x < width) {
+      while (x < width && rgba[alpha + 4 * x] < threshold) x++;
+      if (x >= width) break;
+      const start = x;
+      while (x < width && rgba[alpha + 4 * x] >= threshold) x++;
+      out.push(start, x);
+    }
+  }
+  return out.done();
+}
+
+/** The runs of samples at least `min`. */
+export function runsAtLeast(values: Float32Array, width: number, height: number, min: number): RowRuns {
+  const out = new RunsBuilder(width, height);
+  for (let y = 0; y < height; y++) {
+    out.beginRow(y);
+    const row = y * width;
+    let x = 0;
+    while (x < width) {
+      while (x < width && values[row + x] < min) x++;
+      if (x >= width) break;
+      const start = x;
+      while (x < width && values[row + x] >= min) x++;
+      out.push(start, x);
+    }
+  }
+  return out.done();
+}
+
+/** The runs of `r` whose index passes `keep` (runs are indexed in row order, as labelRowRuns numbers them). */
+export function selectRuns(r: RowRuns, keep: (index: number) => boolean): RowRuns {
+  const out = new RunsBuilder(r.width, r.height);
+  for (let y = 0; y < r.height; y++) {
+    out.beginRow(y);
+    for (let k = r.rowStart[y]; k < r.rowStart[y + 1]; k++) if (keep(k)) out.push(r.starts[k], r.ends[k]);
+  }
+  return out.done();
+}
+
+/** `r` moved by (dx, dy) onto a canvas of the given size that holds it whole. */
+export function placeRuns(r: RowRuns, dx: number, dy: number, width: number, height: number): RowRuns {
+  const rowStart = new Int32Array(height + 1);
+  for (let y = 0; y <= height; y++) rowStart[y] = r.rowStart[Math.min(r.height, Math.max(0, y - dy))];
+  const count = r.rowStart[r.height];
+  return { width, height, rowStart, starts: r.starts.slice(0, count).map((x) => x + dx), ends: r.ends.slice(0, count).map((x) => x + dx) };
+}

@@ -4,25 +4,24 @@
 // of such disks and has none), and a slot too narrow to cut (the same opening of the outside).
 import type { OutlineWarning } from '@shared/schemas/outline';
 import { formatLength } from '@shared/units';
-import { findNarrowParts, findNecks, findSlots } from './necks';
+import { narrowPartsOf, necksOf, slotsOf } from './necks';
+import type { RowRuns } from './runs';
 
 export function tearWarnings(
-  filled: Uint8Array,
-  cw: number,
-  ch: number,
+  filled: RowRuns,
   o: { minFeaturePx: number; level: number; minFeatureMm: number; toMm: (px: number) => number; frame: { x: number; y: number } },
 ): OutlineWarning[] {
   const { minFeaturePx, level, toMm, frame } = o;
   const out: OutlineWarning[] = [];
   const where = (p: { x: number; y: number }) => ({ xMm: toMm(p.x - frame.x), yMm: toMm(p.y - frame.y) });
   const at = (p: { xMm: number; yMm: number }) => `(${formatLength(p.xMm, 'mm')}, ${formatLength(p.yMm, 'mm')})`;
-  const waists = findNecks(filled, cw, ch, minFeaturePx);
+  const waists = necksOf(filled, minFeaturePx);
   const slack = minFeaturePx;
   // A thin part that holds a waist is that waist: one warning for one place.
   const spikes =
     level >= minFeaturePx / 2
       ? []
-      : findNarrowParts(filled, cw, ch, minFeaturePx).filter(
+      : narrowPartsOf(filled, minFeaturePx).filter(
           (t) =>
             !waists.some(
               (w) =>
@@ -39,7 +38,7 @@ export function tearWarnings(
       message: `The cut line narrows below ${formatLength(o.minFeatureMm, 'mm')} near ${at(p)} from the sticker's top-left corner: the blade may tear it. Widen the border, or let Sheetsmith widen narrow necks.`,
     });
   }
-  for (const slot of findSlots(filled, cw, ch, minFeaturePx)) {
+  for (const slot of slotsOf(filled, minFeaturePx)) {
     const p = where(slot);
     out.push({
       code: 'narrow-slot',

@@ -2,6 +2,8 @@ import { contours } from 'd3-contour';
 import simplify from 'simplify-js';
 import type { Ring } from '@shared/geometry/polygon';
 import { area, clockwise, isSimple } from '@shared/geometry/polygon';
+import type { RowRuns } from './runs';
+import { runsAtLeast } from './runs';
 
 /**
  * Traces the iso-line field = 0 by marching squares (Lorensen & Cline's cell cases in 2-D) with
@@ -12,12 +14,12 @@ import { area, clockwise, isSimple } from '@shared/geometry/polygon';
  * the other way. A saddle cell is split by the mean of its corners (Nielson & Hamann's asymptotic
  * decider simplified to the centre value). Returns rings largest first.
  */
-export function traceOuterRings(field: Float32Array, width: number, height: number): Ring[] {
+export function traceOuterRings(field: Float32Array, width: number, height: number, inside?: RowRuns): Ring[] {
   const W = width,
     H = height;
-  // A sample exactly on the level would put contour vertices on top of each other; nudge it inside.
-  for (let i = 0; i < field.length; i++) if (field[i] === 0) field[i] = 1e-6;
   if (insideOnBorder(field, W, H)) return traceWithD3(field, W, H);
+  const runs = inside ?? runsAtLeast(field, W, H, 0);
+  const cells = new Int32Array(4 * W + 8);
   // Crossing ids: 2·i for the edge from sample i to i + 1, 2·i + 1 for i to i + W; next[id] = id of the following crossing + 1.
   const next = new Int32Array(2 * W * H);
   const starts: number[] = [];
@@ -27,52 +29,55 @@ export function traceOuterRings(field: Float32Array, width: number, height: numb
   };
   for (let y = 0; y < H - 1; y++) {
     const row = y * W;
-    let left = (field[row] >= 0 ? 1 : 0) | (field[row + W] >= 0 ? 8 : 0);
-    for (let x = 0; x < W - 1; x++) {
-      const i = row + x;
-      // Corner bits: 1 top-left, 2 top-right, 4 bottom-right, 8 bottom-left.
-      const right = (field[i + 1] >= 0 ? 2 : 0) | (field[i + 1 + W] >= 0 ? 4 : 0);
-      const c = left | right;
-      left = (right & 2 ? 1 : 0) | (right & 4 ? 8 : 0);
-      if (c === 0 || c === 15) continue;
-      // The cell's edges as crossing ids: top, right, bottom, left.
-      const top = 2 * i,
-        rightEdge = 2 * (i + 1) + 1,
-        bottom = 2 * (i + W),
-        leftEdge = 2 * i + 1;
-      switch (c) {
-        case 1: link(top, leftEdge); break; // prettier-ignore
-        case 2: link(rightEdge, top); break; // prettier-ignore
-        case 3: link(rightEdge, leftEdge); break; // prettier-ignore
-        case 4: link(bottom, rightEdge); break; // prettier-ignore
-        case 6: link(bottom, top); break; // prettier-ignore
-        case 7: link(bottom, leftEdge); break; // prettier-ignore
-        case 8: link(leftEdge, bottom); break; // prettier-ignore
-        case 9: link(top, bottom); break; // prettier-ignore
-        case 11: link(rightEdge, bottom); break; // prettier-ignore
-        case 12: link(leftEdge, rightEdge); break; // prettier-ignore
-        case 13: link(top, rightEdge); break; // prettier-ignore
-        case 14: link(leftEdge, top); break; // prettier-ignore
-        case 5:
-        case 10: {
-          // Inside at the centre: the inside corners join through it and the outside corners are
-          // cut off one by one (as in cases 13 and 7, or 14 and 11); else the inside corners are
-          // cut off one by one (as in cases 1 and 4, or 2 and 8).
-          const centre = field[i] + field[i + 1] + field[i + W] + field[i + W + 1] >= 0;
-          if (c === 5 && centre) {
-            link(top, rightEdge);
-            link(bottom, leftEdge);
-          } else if (c === 5) {
-            link(top, leftEdge);
-            link(bottom, rightEdge);
-          } else if (centre) {
-            link(leftEdge, top);
-            link(rightEdge, bottom);
-          } else {
-            link(rightEdge, top);
-            link(leftEdge, bottom);
+    const spans = crossedCells(runs, y, cells);
+    for (let span = 0; span < spans; span += 2) {
+      let left = (field[row + cells[span]] >= 0 ? 1 : 0) | (field[row + cells[span] + W] >= 0 ? 8 : 0);
+      for (let x = cells[span]; x <= cells[span + 1]; x++) {
+        const i = row + x;
+        // Corner bits: 1 top-left, 2 top-right, 4 bottom-right, 8 bottom-left.
+        const right = (field[i + 1] >= 0 ? 2 : 0) | (field[i + 1 + W] >= 0 ? 4 : 0);
+        const c = left | right;
+        left = (right & 2 ? 1 : 0) | (right & 4 ? 8 : 0);
+        if (c === 0 || c === 15) continue;
+        // The cell's edges as crossing ids: top, right, bottom, left.
+        const top = 2 * i,
+          rightEdge = 2 * (i + 1) + 1,
+          bottom = 2 * (i + W),
+          leftEdge = 2 * i + 1;
+        switch (c) {
+          case 1: link(top, leftEdge); break; // prettier-ignore
+          case 2: link(rightEdge, top); break; // prettier-ignore
+          case 3: link(rightEdge, leftEdge); break; // prettier-ignore
+          case 4: link(bottom, rightEdge); break; // prettier-ignore
+          case 6: link(bottom, top); break; // prettier-ignore
+          case 7: link(bottom, leftEdge); break; // prettier-ignore
+          case 8: link(leftEdge, bottom); break; // prettier-ignore
+          case 9: link(top, bottom); break; // prettier-ignore
+          case 11: link(rightEdge, bottom); break; // prettier-ignore
+          case 12: link(leftEdge, rightEdge); break; // prettier-ignore
+          case 13: link(top, rightEdge); break; // prettier-ignore
+          case 14: link(leftEdge, top); break; // prettier-ignore
+          case 5:
+          case 10: {
+            // Inside at the centre: the inside corners join through it and the outside corners are
+            // cut off one by one (as in cases 13 and 7, or 14 and 11); else the inside corners are
+            // cut off one by one (as in cases 1 and 4, or 2 and 8).
+            const centre = field[i] + field[i + 1] + field[i + W] + field[i + W + 1] >= 0;
+            if (c === 5 && centre) {
+              link(top, rightEdge);
+              link(bottom, leftEdge);
+            } else if (c === 5) {
+              link(top, leftEdge);
+              link(bottom, rightEdge);
+            } else if (centre) {
+              link(leftEdge, top);
+              link(rightEdge, bottom);
+            } else {
+              link(rightEdge, top);
+              link(leftEdge, bottom);
+            }
+            break;
           }
-          break;
         }
       }
     }
@@ -81,8 +86,9 @@ export function traceOuterRings(field: Float32Array, width: number, height: numb
     const i = id >> 1;
     const x = i % W,
       y = (i - x) / W;
-    const v0 = field[i],
-      v1 = id & 1 ? field[i + W] : field[i + 1];
+    // A sample exactly on the level would put two vertices on top of each other: it counts as just inside.
+    const v0 = field[i] || 1e-6,
+      v1 = (id & 1 ? field[i + W] : field[i + 1]) || 1e-6;
     const t = v0 / (v0 - v1);
     return id & 1 ? { x: x + 0.5, y: y + 0.5 + t } : { x: x + 0.5 + t, y: y + 0.5 };
   };
@@ -112,6 +118,42 @@ export function traceOuterRings(field: Float32Array, width: number, height: numb
   return rings.sort((a, b) => b.area - a.area).map((r) => r.ring);
 }
 
+/**
+ * The cells (x from 0 to width − 2) between rows y and y + 1 whose corners are not all inside or all
+ * outside, as closed spans [from, to] in `out` (pairs); answers how many numbers it wrote. A cell is
+ * crossed only next to a run's end in either row or over a column where the two rows differ.
+ */
+function crossedCells(runs: RowRuns, y: number, out: Int32Array): number {
+  const last = runs.width - 2;
+  const ends: number[] = [];
+  for (const row of [y, y + 1]) for (let k = runs.rowStart[row]; k < runs.rowStart[row + 1]; k++) ends.push(runs.starts[k], runs.ends[k]);
+  if (ends.length === 0) return 0;
+  ends.sort((a, b) => a - b);
+  // Spans of cells: around every run end, and across the columns where the rows differ (between
+  // the 1st and 2nd, 3rd and 4th … of the ends taken as toggles).
+  const spans: number[] = [];
+  for (const e of ends) spans.push(e - 1, e - 1);
+  const toggles: number[] = [];
+  for (const e of ends) {
+    if (toggles.length && toggles[toggles.length - 1] === e) toggles.pop();
+    else toggles.push(e);
+  }
+  for (let k = 0; k + 1 < toggles.length; k += 2) spans.push(toggles[k] - 1, toggles[k + 1] - 1);
+  const order = Array.from({ length: spans.length / 2 }, (_, k) => k).sort((a, b) => spans[2 * a] - spans[2 * b]);
+  let n = 0;
+  for (const k of order) {
+    const from = Math.max(0, spans[2 * k]),
+      to = Math.min(last, spans[2 * k + 1]);
+    if (from > to) continue;
+    if (n > 0 && from <= out[n - 1] + 1) out[n - 1] = Math.max(out[n - 1], to);
+    else {
+      out[n++] = from;
+      out[n++] = to;
+    }
+  }
+  return n;
+}
+
 function insideOnBorder(field: Float32Array, W: number, H: number): boolean {
   for (let x = 0; x < W; x++) if (field[x] >= 0 || field[(H - 1) * W + x] >= 0) return true;
   for (let y = 0; y < H; y++) if (field[y * W] >= 0 || field[y * W + W - 1] >= 0) return true;
@@ -120,6 +162,8 @@ function insideOnBorder(field: Float32Array, W: number, H: number): boolean {
 
 /** The general case (a shape touching the grid's edge, which the outline's padded canvas never has): d3-contour. */
 function traceWithD3(field: Float32Array, width: number, height: number): Ring[] {
+  // A sample exactly on the level would put contour vertices on top of each other; nudge it inside.
+  for (let i = 0; i < field.length; i++) if (field[i] === 0) field[i] = 1e-6;
   const [layer] = contours().size([width, height]).thresholds([0])(field as unknown as number[]);
   const rings: Ring[] = [];
   for (const polygon of layer.coordinates) {
