@@ -20,6 +20,24 @@ describe('Euclidean distance transform (Felzenszwalb & Huttenlocher 2012)', () =
     }
   });
 
+  it('matches brute force on solid shapes (long runs of features, whose inner sites it skips)', () => {
+    const width = 41,
+      height = 29;
+    const feature = new Uint8Array(width * height);
+    for (let y = 0; y < height; y++)
+      for (let x = 0; x < width; x++)
+        if ((x - 12) ** 2 + (y - 10) ** 2 < 49 || (x > 25 && x < 38 && y > 14 && y < 24) || (y === 3 && x > 20)) feature[y * width + x] = 1;
+    const fast = squaredDistanceTransform(feature, width, height);
+    for (let y = 0; y < height; y++) {
+      for (let x = 0; x < width; x++) {
+        let best = Infinity;
+        for (let j = 0; j < height; j++)
+          for (let i = 0; i < width; i++) if (feature[j * width + i]) best = Math.min(best, (i - x) ** 2 + (j - y) ** 2);
+        expect(fast[y * width + x], `${x}, ${y}`).toBe(best);
+      }
+    }
+  });
+
   it('is exact, not a square or diamond kernel: a single point gives (dx² + dy²)', () => {
     const feature = new Uint8Array(21 * 21);
     feature[10 * 21 + 10] = 1;

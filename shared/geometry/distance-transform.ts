@@ -6,12 +6,26 @@
 
 const INF = 1e20;
 
-function envelope1d(f: Float64Array, n: number, d: Float64Array, v: Int32Array, z: Float64Array) {
+/**
+ * The lower envelope of the parabolas (x − s)² + f(s) over the sites s (increasing), evaluated at
+ * every x of the row into out[offset + x]. `v` and `z` are scratch (sites, boundaries).
+ */
+function envelope(
+  f: Float64Array,
+  sites: Int32Array,
+  count: number,
+  n: number,
+  out: Float32Array,
+  offset: number,
+  v: Int32Array,
+  z: Float64Array,
+) {
   let k = 0;
-  v[0] = 0;
+  v[0] = sites[0];
   z[0] = -INF;
   z[1] = INF;
-  for (let q = 1; q < n; q++) {
+  for (let j = 1; j < count; j++) {
+    const q = sites[j];
     const fq = f[q] + q * q;
     let s = (fq - (f[v[k]] + v[k] * v[k])) / (2 * q - 2 * v[k]);
     while (s <= z[k]) {
@@ -27,13 +41,17 @@ function envelope1d(f: Float64Array, n: number, d: Float64Array, v: Int32Array, 
   for (let q = 0; q < n; q++) {
     while (z[k + 1] < q) k++;
     const dq = q - v[k];
-    d[q] = dq * dq + f[v[k]];
+    out[offset + q] = dq * dq + f[v[k]];
   }
 }
 
-/** Squared distance (px²) from each pixel to the nearest pixel where `feature` is non-zero. */
-export function squaredDistanceTransform(feature: Uint8Array, width: number, height: number): Float64Array {
-  const out = new Float64Array(width * height);
+/**
+ * Squared distance (px²) from each pixel to the nearest pixel where `feature` is non-zero (1e20
+ * where there is none). The values are whole numbers; Float32 holds them exactly below 2²⁴ (a
+ * reach of 4,096 px), far past any border width, and beyond that to its precision.
+ */
+export function squaredDistanceTransform(feature: Uint8Array, width: number, height: number): Float32Array {
+  const out = new Float32Array(width * height);
   // Column phase: vertical distance to the nearest feature, top-down then bottom-up sweeps.
   const far = width + height;
   for (let x = 0; x < width; x++) out[x] = feature[x] ? 0 : far;
@@ -47,23 +65,40 @@ export function squaredDistanceTransform(feature: Uint8Array, width: number, hei
       next = row + width;
     for (let x = 0; x < width; x++) if (out[next + x] + 1 < out[row + x]) out[row + x] = out[next + x] + 1;
   }
-  for (let i = 0; i < out.length; i++) out[i] = out[i] >= far ? INF : out[i] * out[i];
-  // Row phase: lower envelope of parabolas.
+  // Row phase: lower envelope of the parabolas of the columns that have a feature. A site strictly
+  // inside a run of zeros is never the nearest for any pixel outside that run (the run's ends are
+  // nearer on the same row), and the run's own pixels are 0: such sites are left out.
   const f = new Float64Array(width),
-    d = new Float64Array(width),
     z = new Float64Array(width + 1);
-  const v = new Int32Array(width);
+  const v = new Int32Array(width),
+    sites = new Int32Array(width),
+    zeros = new Int32Array(width);
   for (let y = 0; y < height; y++) {
     const row = y * width;
-    for (let x = 0; x < width; x++) f[x] = out[row + x];
-    envelope1d(f, width, d, v, z);
-    out.set(d, row);
+    let count = 0,
+      inner = 0;
+    for (let x = 0; x < width; x++) {
+      const g = out[row + x];
+      if (g >= far) continue;
+      if (g === 0 && x > 0 && x < width - 1 && out[row + x - 1] === 0 && out[row + x + 1] === 0) {
+        zeros[inner++] = x;
+        continue;
+      }
+      f[x] = g * g;
+      sites[count++] = x;
+    }
+    if (count === 0) {
+      out.fill(INF, row, row + width);
+      continue;
+    }
+    envelope(f, sites, count, width, out, row, v, z);
+    for (let k = 0; k < inner; k++) out[row + zeros[k]] = 0;
   }
   return out;
 }
 
 /** Euclidean distance (px) to the nearest feature pixel. */
-export function distanceTransform(feature: Uint8Array, width: number, height: number): Float64Array {
+export function distanceTransform(feature: Uint8Array, width: number, height: number): Float32Array {
   const sq = squaredDistanceTransform(feature, width, height);
   for (let i = 0; i < sq.length; i++) sq[i] = Math.sqrt(sq[i]);
   return sq;

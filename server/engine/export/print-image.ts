@@ -1,6 +1,7 @@
 import sharp from 'sharp';
 import { drawTurned, snapCentre } from './turn';
 import type { ExportSheet } from './types';
+import { encodePngAt } from '../png';
 
 /** The composited print area as 8-bit RGBA, row by row, before any encoding. */
 export type PrintRaster = { rgba: Buffer; width: number; height: number; dpi: number; opaque: boolean };
@@ -46,10 +47,7 @@ export async function renderPrintRaster(
 
 /** The print raster as a PNG with pHYs set (PNG spec §11.3.5.3). */
 export function encodePrintPng(raster: PrintRaster): Promise<Buffer> {
-  return sharp(raster.rgba, { raw: { width: raster.width, height: raster.height, channels: 4 } })
-    .png({ compressionLevel: 6 })
-    .withMetadata({ density: raster.dpi })
-    .toBuffer();
+  return encodePngAt(raster.rgba, raster.width, raster.height, raster.dpi);
 }
 
 /** The print image as a PNG: the raster of renderPrintRaster, encoded. */

@@ -1,4 +1,4 @@
-import sharp from 'sharp';
+import { encodePngAt } from '../png';
 import type { Rgb } from './background';
 
 export type Frame = { x: number; y: number; width: number; height: number };
@@ -25,6 +25,10 @@ export function composeSticker(input: {
   const br = border.r,
     bg = border.g,
     bb = border.b;
+  // Whole pixels of opaque art are copied four bytes at a time where the buffers allow it.
+  const aligned = out.byteOffset % 4 === 0 && art.byteOffset % 4 === 0;
+  const out32 = aligned ? new Uint32Array(out.buffer, out.byteOffset, out.length >> 2) : null;
+  const art32 = aligned ? new Uint32Array(art.buffer, art.byteOffset, art.length >> 2) : null;
   for (let y = 0; y < frame.height; y++) {
     const cy = y + frame.y;
     const ay = cy - artOrigin.y;
@@ -34,30 +38,38 @@ export function composeSticker(input: {
       const c = cy * canvasWidth + cx;
       const f = field[c];
       if (f <= -0.5) continue;
-      const coverage = f >= 0.5 ? 255 : (f + 0.5) * 255;
+      const ax = cx - artOrigin.x;
+      const onArt = artRow && ax >= 0 && ax < artWidth && (artVisible === null || artVisible(c));
+      const a = (ay * artWidth + ax) * 4;
+      const alpha = onArt ? art[a + 3] : 0;
+      const o = (y * frame.width + x) * 4;
+      if (alpha === 255 && f >= 0.5) {
+        if (out32) out32[o >> 2] = art32![a >> 2];
+        else {
+          out[o] = art[a];
+          out[o + 1] = art[a + 1];
+          out[o + 2] = art[a + 2];
+          out[o + 3] = 255;
+        }
+        continue;
+      }
       let r = br,
         g = bg,
         b = bb;
-      const ax = cx - artOrigin.x;
-      if (artRow && ax >= 0 && ax < artWidth && (artVisible === null || artVisible(c))) {
-        const a = (ay * artWidth + ax) * 4;
-        const alpha = art[a + 3];
-        if (alpha === 255) {
-          r = art[a];
-          g = art[a + 1];
-          b = art[a + 2];
-        } else if (alpha > 0) {
-          // Straight alpha over the border colour, in 0..255 units.
-          r = (art[a] * alpha + br * (255 - alpha)) / 255;
-          g = (art[a + 1] * alpha + bg * (255 - alpha)) / 255;
-          b = (art[a + 2] * alpha + bb * (255 - alpha)) / 255;
-        }
+      if (alpha === 255) {
+        r = art[a];
+        g = art[a + 1];
+        b = art[a + 2];
+      } else if (alpha > 0) {
+        // Straight alpha over the border colour, in 0..255 units.
+        r = (art[a] * alpha + br * (255 - alpha)) / 255;
+        g = (art[a + 1] * alpha + bg * (255 - alpha)) / 255;
+        b = (art[a + 2] * alpha + bb * (255 - alpha)) / 255;
       }
-      const o = (y * frame.width + x) * 4;
       out[o] = r + 0.5;
       out[o + 1] = g + 0.5;
       out[o + 2] = b + 0.5;
-      out[o + 3] = coverage + 0.5;
+      out[o + 3] = (f >= 0.5 ? 255 : (f + 0.5) * 255) + 0.5;
     }
   }
   return out;
@@ -65,8 +77,5 @@ export function composeSticker(input: {
 
 /** PNG with its physical size in the pHYs chunk (PNG spec §11.3.5.3). */
 export function encodePng(rgba: Buffer, width: number, height: number, dpi: number): Promise<Buffer> {
-  return sharp(rgba, { raw: { width, height, channels: 4 } })
-    .png({ compressionLevel: 6, adaptiveFiltering: false })
-    .withMetadata({ density: dpi })
-    .toBuffer();
+  return encodePngAt(rgba, width, height, dpi);
 }
