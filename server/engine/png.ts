@@ -4,7 +4,7 @@
 import sharp from 'sharp';
 import { crc32 } from 'node:zlib';
 
-export function withPhys(png: Buffer, dpi: number): Buffer {
+function withPhys(png: Buffer, dpi: number): Buffer {
   const perMetre = Math.round(dpi / 0.0254);
   const chunk = Buffer.alloc(21);
   chunk.writeUInt32BE(9, 0);
