@@ -154,10 +154,10 @@ export async function outline(
     near2High = (level + 2) ** 2;
 
   const buildPiece = async (pieceArt: Uint8Array, artVisible: ((i: number) => boolean) | null) => {
-    const sq = pieceArt === artMask ? squared : squaredDistanceTransform(pieceArt, cw, ch);
-    const field = new Float32Array(cw * ch);
+    // The field is written over the squared distances (this piece is their last reader).
+    const field = pieceArt === artMask ? squared : squaredDistanceTransform(pieceArt, cw, ch);
     for (let i = 0; i < field.length; i++) {
-      const d2 = sq[i];
+      const d2 = field[i];
       field[i] = d2 <= near2Low ? 2 : d2 >= near2High ? -2 : level - Math.sqrt(d2);
     }
     // Holes inside the cut line are filled, in the field too: they stay out of the traced rings and

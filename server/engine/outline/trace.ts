@@ -20,11 +20,12 @@ export function traceOuterRings(field: Float32Array, width: number, height: numb
   if (insideOnBorder(field, W, H)) return traceWithD3(field, W, H);
   const runs = inside ?? runsAtLeast(field, W, H, 0);
   const cells = new Int32Array(4 * W + 8);
-  // Crossing ids: 2·i for the edge from sample i to i + 1, 2·i + 1 for i to i + W; next[id] = id of the following crossing + 1.
-  const next = new Int32Array(2 * W * H);
+  // Crossing ids: 2·i for the edge from sample i to i + 1, 2·i + 1 for i to i + W; next maps each
+  // crossing to the following one (a few per crossed cell: a map, not an array over the canvas).
+  const next = new Map<number, number>();
   const starts: number[] = [];
   const link = (from: number, to: number) => {
-    next[from] = to + 1;
+    next.set(from, to);
     starts.push(from);
   };
   for (let y = 0; y < H - 1; y++) {
@@ -94,15 +95,16 @@ export function traceOuterRings(field: Float32Array, width: number, height: numb
   };
   const rings: Array<{ ring: Ring; area: number }> = [];
   for (const start of starts) {
-    if (next[start] === 0) continue; // already part of a traced ring
+    if (!next.has(start)) continue; // already part of a traced ring
     const ring: Ring = [];
     let twice = 0;
-    for (let id = start; next[id] !== 0;) {
+    for (let id: number | undefined = start; id !== undefined;) {
+      const after: number | undefined = next.get(id);
+      if (after === undefined) break;
       const p = point(id);
       const last = ring[ring.length - 1];
       if (!last || Math.abs(last.x - p.x) > 1e-9 || Math.abs(last.y - p.y) > 1e-9) ring.push(p);
-      const after = next[id] - 1;
-      next[id] = 0;
+      next.delete(id);
       id = after;
     }
     while (ring.length > 1 && Math.abs(ring[0].x - ring[ring.length - 1].x) < 1e-9 && Math.abs(ring[0].y - ring[ring.length - 1].y) < 1e-9)
