@@ -1,16 +1,13 @@
 // One sheet (or strip) of the constructive decoder: an occupancy raster of every placed shape's
 // mask (each row's free intervals, free cells and longest free run) that finds candidate spots quickly, and
 // the placed cut lines themselves, which confirm every spot exactly.
-import type { Ring } from '../geometry/polygon';
+import type { Box, Ring } from '../geometry/polygon';
 import { boundingBox } from '../geometry/polygon';
-import { overlaps } from '../geometry/overlap';
-import { closerThan } from '../sheet/placement';
+import { PlacedLines } from './placed-lines';
 import type { ShapeMask } from './raster';
 
 /** A free interval's end beyond either edge of the board: masks may hang off it (see `hang`). */
 const OPEN = 1 << 29;
-/** Side of the buckets that index placed cut lines for the exact checks (mm). */
-const BUCKET = 24;
 
 export type BoardOptions = { width: number; height: number; gap: number; margin: number; cell: number };
 
@@ -28,11 +25,8 @@ export class Board {
   private readonly free: Int32Array[];
   /** Two scratch interval lists the row search intersects into (no allocation per spot). */
   private scratch = [new Int32Array(64), new Int32Array(64)];
-  readonly rings: Array<{ ring: Ring; box: ReturnType<typeof boundingBox> }> = [];
-  /** Placed rings by bucket of BUCKET mm (each listed in every bucket its box, grown by the gap, touches). */
-  private readonly buckets = new Map<number, number[]>();
-  private readonly seen: number[] = [];
-  private stamp = 0;
+  /** The placed cut lines, for the exact checks. */
+  private readonly placed: PlacedLines;
   usedArea = 0;
   /** Lowest extent of any placed cut line (mm). */
   bottom = 0;
@@ -46,6 +40,7 @@ export class Board {
     // A mask's grown rim (see shapeMask's pad) may lie off the board.
     this.hang = Math.ceil(Math.max(0, opts.gap / 2 - 0.25 * opts.cell) / opts.cell) + 2;
     this.free = Array.from({ length: this.h }, () => Int32Array.of(-OPEN, OPEN));
+    this.placed = new PlacedLines(opts.gap);
   }
 
   /** Whether every row of the mask finds a free run as long as its own at row offset cy. */
@@ -58,24 +53,41 @@ export class Board {
   }
 
   private freeIntervals(row: number): Int32Array {
-    const out: number[] = [];
-    let start = -OPEN;
-    for (let i = 0; i < this.w; i++) {
-      if (this.grid[row * this.w + i]) {
-        if (start <= i - 1) out.push(start, i - 1);
+    const grid = this.grid,
+      base = row * this.w;
+    // Counted first, then written: one exact-size list per row, nothing else made.
+    let count = 1;
+    for (let i = 0, start = -OPEN; i < this.w; i++) {
+      if (grid[base + i]) {
+        if (start <= i - 1) count++;
         start = i + 1;
       }
     }
-    out.push(start, OPEN);
-    return Int32Array.from(out);
+    const out = new Int32Array(2 * count);
+    let n = 0,
+      start = -OPEN;
+    for (let i = 0; i < this.w; i++) {
+      if (grid[base + i]) {
+        if (start <= i - 1) {
+          out[n++] = start;
+          out[n++] = i - 1;
+        }
+        start = i + 1;
+      }
+    }
+    out[n++] = start;
+    out[n] = OPEN;
+    return out;
   }
 
   /**
    * The offsets cx in [lo, hi] at which every run of the mask lies on free cells of row offset cy:
    * the intersection over the mask's runs of the board rows' free intervals, each shrunk by the run.
-   * Rows go widest first, so most rows end empty after one or two runs. Returns the list and its length.
+   * Rows go widest first, so most rows end empty after one or two runs. Returns the length of the
+   * list, which it leaves in `offsets` (scratch: read it before the next call).
    */
-  private freeOffsets(mask: ShapeMask, cy: number, lo: number, hi: number): { list: Int32Array; n: number } {
+  private offsets = new Int32Array(0);
+  private freeOffsets(mask: ShapeMask, cy: number, lo: number, hi: number): number {
     let cur = this.scratch[0],
       n = 2;
     cur[0] = lo;
@@ -107,40 +119,15 @@ export class Board {
         }
         cur = next;
         n = m;
-        if (n === 0) return { list: cur, n };
+        if (n === 0) return 0;
       }
     }
-    return { list: cur, n };
+    this.offsets = cur;
+    return n;
   }
 
-  private bucketsOf(box: ReturnType<typeof boundingBox>, grow: number, each: (key: number) => void) {
-    const x0 = Math.floor((box.x - grow) / BUCKET),
-      x1 = Math.floor((box.x + box.width + grow) / BUCKET),
-      y0 = Math.floor((box.y - grow) / BUCKET),
-      y1 = Math.floor((box.y + box.height + grow) / BUCKET);
-    for (let by = y0; by <= y1; by++) for (let bx = x0; bx <= x1; bx++) each(by * 4096 + bx);
-  }
-
-  exactFree(ring: Ring, box = boundingBox(ring)): boolean {
-    const gap = this.opts.gap;
-    const stamp = ++this.stamp;
-    let free = true;
-    this.bucketsOf(box, 0, (key) => {
-      if (!free) return;
-      for (const index of this.buckets.get(key) ?? []) {
-        if (this.seen[index] === stamp) continue;
-        this.seen[index] = stamp;
-        const placed = this.rings[index],
-          b = placed.box;
-        if (box.x > b.x + b.width + gap || b.x > box.x + box.width + gap || box.y > b.y + b.height + gap || b.y > box.y + box.height + gap)
-          continue;
-        if (gap > 0 ? closerThan(ring, placed.ring, gap - 1e-6, box, b) : overlaps(ring, placed.ring)) {
-          free = false;
-          return;
-        }
-      }
-    });
-    return free;
+  exactFree(ring: Ring, box: Box = boundingBox(ring)): boolean {
+    return this.placed.freeAt(ring, 0, 0, ring, box);
   }
 
   place(mask: ShapeMask, x: number, y: number, ring: Ring, areaMm2: number) {
@@ -171,13 +158,7 @@ export class Board {
       this.freeRun[row] = longest;
     }
     const box = boundingBox(ring);
-    const index = this.rings.push({ ring, box }) - 1;
-    this.seen.push(0);
-    this.bucketsOf(box, this.opts.gap, (key) => {
-      const list = this.buckets.get(key);
-      if (list) list.push(index);
-      else this.buckets.set(key, [index]);
-    });
+    this.placed.add(ring, box);
     this.usedArea += areaMm2;
     this.bottom = Math.max(this.bottom, box.y + box.height);
   }
@@ -202,23 +183,25 @@ export class Board {
     const widest = mask.order[0],
       need = mask.rows[widest].reduce((s, [a, b]) => s + b - a + 1, 0) - 2 * mask.pad;
     const trial = mask.ring.map((p) => ({ x: p.x, y: p.y }));
+    const box = { x: 0, y: 0, width: mask.maxX - mask.minX, height: mask.maxY - mask.minY };
     // `scanned`: the first row not yet known to be full for this mask.
     for (let cy = Math.max(yMin, from); cy <= yMax; cy++) {
       if (scoreOf(xMin, cy) >= limit) return { spot: null, scanned: cy };
       const row = cy + mask.offsetY + widest;
       if (row >= 0 && row < this.h && this.freeCells[row] < need) continue;
       if (!this.rowsCanTake(mask, cy)) continue;
-      const { list, n } = this.freeOffsets(mask, cy, xMin, xMax);
-      // Copied: the exact checks below may not, but the next row's search reuses the scratch lists.
-      const spans = list.slice(0, n);
+      const n = this.freeOffsets(mask, cy, xMin, xMax);
+      // Read before the next row's search reuses the scratch lists (the exact checks do not touch them).
+      const spans = this.offsets;
       for (let k = 0; k < n; k += 2)
         for (let cx = spans[k]; cx <= spans[k + 1]; cx++) {
           // One ring moved from spot to spot (no garbage per try); the found one is copied.
-          for (let i = 0; i < trial.length; i++) {
-            trial[i].x = mask.ring[i].x + cx * cell;
-            trial[i].y = mask.ring[i].y + cy * cell;
-          }
-          if (this.exactFree(trial)) {
+          // The moved ring's box is the mask's, moved (kept in one scratch box; the same numbers boundingBox gives).
+          box.x = mask.minX + cx * cell;
+          box.y = mask.minY + cy * cell;
+          box.width = mask.maxX + cx * cell - box.x;
+          box.height = mask.maxY + cy * cell - box.y;
+          if (this.placed.freeAt(mask.ring, cx * cell, cy * cell, trial, box)) {
             const ring = trial.map((p) => ({ x: p.x, y: p.y }));
             return { spot: scoreOf(cx, cy) < limit ? { cx, cy, ring, score: scoreOf(cx, cy) } : null, scanned: cy };
           }
@@ -252,12 +235,23 @@ export class Board {
     const { cell, margin, width, height } = this.opts;
     let x = spot.cx * cell,
       y = spot.cy * cell;
-    const fits = (nx: number, ny: number) =>
-      nx + spot.mask.minX >= margin - 1e-9 &&
-      ny + spot.mask.minY >= margin - 1e-9 &&
-      nx + spot.mask.maxX <= width - margin + 1e-9 &&
-      ny + spot.mask.maxY <= height - margin + 1e-9 &&
-      this.exactFree(spot.mask.ring.map((p) => ({ x: p.x + nx, y: p.y + ny })));
+    const { mask } = spot;
+    const trial = mask.ring.map((p) => ({ x: p.x, y: p.y }));
+    const box = { x: 0, y: 0, width: mask.maxX - mask.minX, height: mask.maxY - mask.minY };
+    const fits = (nx: number, ny: number) => {
+      if (
+        nx + mask.minX < margin - 1e-9 ||
+        ny + mask.minY < margin - 1e-9 ||
+        nx + mask.maxX > width - margin + 1e-9 ||
+        ny + mask.maxY > height - margin + 1e-9
+      )
+        return false;
+      box.x = mask.minX + nx;
+      box.y = mask.minY + ny;
+      box.width = mask.maxX + nx - box.x;
+      box.height = mask.maxY + ny - box.y;
+      return this.placed.freeAt(mask.ring, nx, ny, trial, box);
+    };
     for (const step of [cell / 2, cell / 4, cell / 8]) {
       // Up first, then up along either slope (settling into a notch), then left.
       const moves = [

@@ -74,24 +74,48 @@ function centreRuns(ring: Ring, cell: number, x0: number, y0: number, w: number,
 function dilateRows(rows: ShapeMask['rows'], w: number, limit: number): ShapeMask['rows'] {
   const reach = Math.floor(Math.sqrt(limit));
   const widen = Array.from({ length: reach + 1 }, (_, dy) => Math.floor(Math.sqrt(limit - dy * dy) + 1e-9));
-  const line = new Uint8Array(w);
-  return rows.map((_, j) => {
-    line.fill(0);
+  let from = new Int32Array(64),
+    to = new Int32Array(64);
+  const out: ShapeMask['rows'] = new Array(rows.length);
+  for (let j = 0; j < rows.length; j++) {
+    // The widened runs of the rows around, kept sorted by start as they come (a handful each).
+    let n = 0;
     for (let dy = -reach; dy <= reach; dy++) {
       const source = rows[j + dy];
       if (!source) continue;
-      const r = widen[Math.abs(dy)];
-      for (const [a, b] of source) line.fill(1, Math.max(0, a - r), Math.min(w - 1, b + r) + 1);
+      const r = widen[dy < 0 ? -dy : dy];
+      for (let k = 0; k < source.length; k++) {
+        if (n === from.length) {
+          const f = new Int32Array(2 * n),
+            t = new Int32Array(2 * n);
+          f.set(from);
+          t.set(to);
+          from = f;
+          to = t;
+        }
+        const a = Math.max(0, source[k][0] - r),
+          b = Math.min(w - 1, source[k][1] + r);
+        let i = n++;
+        while (i > 0 && from[i - 1] > a) {
+          from[i] = from[i - 1];
+          to[i] = to[i - 1];
+          i--;
+        }
+        from[i] = a;
+        to[i] = b;
+      }
     }
+    // Overlapping or touching widened runs join, as cells set side by side would.
     const merged: Array<[number, number]> = [];
-    for (let i = 0; i < w; i++) {
-      if (!line[i]) continue;
-      const start = i;
-      while (i + 1 < w && line[i + 1]) i++;
-      merged.push([start, i]);
+    for (let i = 0; i < n; i++) {
+      const last = merged.length ? merged[merged.length - 1] : null;
+      if (last && from[i] <= last[1] + 1) {
+        if (to[i] > last[1]) last[1] = to[i];
+      } else merged.push([from[i], to[i]]);
     }
-    return merged;
-  });
+    out[j] = merged;
+  }
+  return out;
 }
 
 /**
@@ -104,15 +128,20 @@ function probeOrder(rows: ShapeMask['rows'], widths: number[]): number[] {
   if (left.length === 0) return [];
   const first = left.reduce((m, j) => (widths[j] > widths[m] ? j : m), left[0]);
   const order = [first];
-  const distance = new Map(left.map((j) => [j, Math.abs(j - first)]));
-  distance.delete(first);
-  while (distance.size) {
+  // Distance of each row not yet tried to the nearest tried one (−1 once tried), rows ascending.
+  const distance = Float64Array.from(left, (j) => Math.abs(j - first));
+  distance[left.indexOf(first)] = -1;
+  for (let picked = 1; picked < left.length; picked++) {
     let pick = -1;
-    for (const [j, d] of distance)
-      if (pick < 0 || d > distance.get(pick)! || (d === distance.get(pick)! && widths[j] > widths[pick])) pick = j;
-    order.push(pick);
-    distance.delete(pick);
-    for (const [j, d] of distance) distance.set(j, Math.min(d, Math.abs(j - pick)));
+    for (let k = 0; k < left.length; k++) {
+      const d = distance[k];
+      if (d < 0) continue;
+      if (pick < 0 || d > distance[pick] || (d === distance[pick] && widths[left[k]] > widths[left[pick]])) pick = k;
+    }
+    const row = left[pick];
+    order.push(row);
+    distance[pick] = -1;
+    for (let k = 0; k < left.length; k++) if (distance[k] > 0) distance[k] = Math.min(distance[k], Math.abs(left[k] - row));
   }
   return order;
 }
@@ -147,9 +176,19 @@ export function shapeMask(
   const inside = centreRuns(ring, cell, x0, y0, w, h);
   const rows = grow > 0 ? dilateRows(inside, w, (grow / cell) ** 2) : inside;
   let cells = 0;
-  for (const runs of rows) for (const [a, b] of runs) cells += b - a + 1;
-  const widths = rows.map((r) => r.reduce((s, [a, b]) => s + b - a + 1, 0));
-  const longest = Int32Array.from(rows, (r) => r.reduce((m, [a, b]) => Math.max(m, b - a + 1), 0));
+  const widths: number[] = new Array(rows.length);
+  const longest = new Int32Array(rows.length);
+  for (let j = 0; j < rows.length; j++) {
+    let width = 0,
+      most = 0;
+    for (const [a, b] of rows[j]) {
+      width += b - a + 1;
+      if (b - a + 1 > most) most = b - a + 1;
+    }
+    widths[j] = width;
+    longest[j] = most;
+    cells += width;
+  }
   const order = probeOrder(rows, widths);
   return { rotation, ring, minX, minY, maxX, maxY, offsetX: x0, offsetY: y0, rows, order, longest, cells, pad };
 }
