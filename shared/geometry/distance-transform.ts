@@ -50,8 +50,12 @@ function envelope(
  * where there is none). The values are whole numbers; Float32 holds them exactly below 2²⁴ (a
  * reach of 4,096 px), far past any border width, and beyond that to its precision.
  */
-export function squaredDistanceTransform(feature: Uint8Array, width: number, height: number): Float32Array {
-  const out = new Float32Array(width * height);
+export function squaredDistanceTransform(
+  feature: Uint8Array,
+  width: number,
+  height: number,
+  out = new Float32Array(width * height), // every value is written
+): Float32Array {
   // Column phase: vertical distance to the nearest feature, top-down then bottom-up sweeps.
   const far = width + height;
   for (let x = 0; x < width; x++) out[x] = feature[x] ? 0 : far;

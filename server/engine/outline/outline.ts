@@ -4,16 +4,15 @@ import { area, boundingBox, perimeter, ringToSvgPath, scale, translate } from '@
 import type { OutlineData, OutlineOptions, OutlineOptionsInput, OutlinePieceData, OutlineWarning } from '@shared/schemas/outline';
 import { outlineOptionsSchema } from '@shared/schemas/outline';
 import { MM_PER_INCH, formatLength } from '@shared/units';
-import type { RemovalPlan } from './background';
-import { detectBackground, parseHex, removeBackground } from './background';
+import { type RemovalPlan, detectBackground, parseHex, removeBackground } from './background';
 import { bridgeIslands } from './bridge';
 import { clearComponents, fillHoleRuns, labelRowRuns } from './components';
 import { dilateRuns, maskOfRuns, placeRuns, runsAtLeast, runsOfAlpha, selectRuns } from './runs';
 import { decodeArt } from './decode';
 import { squaredDistanceTransform } from '@shared/geometry/distance-transform';
 import { OutlineInputError } from './errors';
-import { composeSticker, encodePng } from './raster';
-import type { Frame } from './raster';
+import { type Frame, composeSticker, encodePng } from './raster';
+import { borrow, giveBack, Loans } from './scratch';
 import { simplifyRing, traceOuterRings } from './trace';
 import { isFlat, joinParts, splitSpecks, unionBox, widenNarrowParts } from './shape-steps';
 import { tearWarnings } from './tear-warnings';
@@ -126,7 +125,9 @@ export async function outline(
   }
   const small = splitSpecks(resampled.components, options.minSpeckArea * pxPerMm * pxPerMm);
   const artRuns = selectRuns(placedArt, (k) => !small.droppedLabels.has(resampled.runs.label[k]));
-  const artMask = maskOfRuns(artRuns);
+  // The canvas-sized buffers come from the scratch pool and go back when the stickers are made.
+  const loans = new Loans();
+  const artMask = maskOfRuns(artRuns, new Uint8Array(loans.take(cw * ch), 0, cw * ch));
   droppedSpecks += small.dropped;
   if (droppedSpecks > 0) {
     warnings.push({
@@ -139,7 +140,7 @@ export async function outline(
   // 5. Grow by the border with an exact Euclidean distance transform; group islands by their grown regions.
   const level = options.border * pxPerMm + 0.5; // distances run between pixel centres
   const level2 = level * level;
-  let squared = squaredDistanceTransform(artMask, cw, ch);
+  let squared = squaredDistanceTransform(artMask, cw, ch, new Float32Array(loans.take(4 * cw * ch), 0, cw * ch));
   // Within `level` of the art: the distance transform thresholded, or (the same pixels) the art's
   // runs grown by a disk of that radius, which is cheaper to label.
   const grownRuns = dilateRuns(artRuns, level, true);
@@ -186,7 +187,9 @@ export async function outline(
     const points = scale(translate(ring, -frame.x, -frame.y), 1 / pxPerMm);
 
     warnings.push(...tearWarnings(filled, { minFeaturePx, level, minFeatureMm: options.minFeature, toMm, frame }));
+    const outBuffer = borrow(frame.width * frame.height * 4);
     const rgbaOut = composeSticker({
+      into: Buffer.from(outBuffer, 0, frame.width * frame.height * 4),
       frame,
       canvasWidth: cw,
       field,
@@ -205,58 +208,63 @@ export async function outline(
       widthMm: toMm(frame.width),
       heightMm: toMm(frame.height),
       offsetMm: { x: toMm(frame.x - PAD), y: toMm(frame.y - PAD) },
-      png: await encodePng(rgbaOut, frame.width, frame.height, options.dpi),
+      png: await encodePng(rgbaOut, frame.width, frame.height, options.dpi).finally(() => giveBack(outBuffer)),
       pixelWidth: frame.width,
       pixelHeight: frame.height,
     });
   };
 
-  if (options.islands === 'join' || groups.components.length === 1) {
-    // Parts are what the grown shape holds together more widely than the bridge width: an inward
-    // offset by half of it keeps them apart where only a thin waist of border joins them. Parts of
-    // one piece of art stay one part unless the maker asked to widen necks.
-    const bridgePx = Math.max(options.bridgeWidth, options.minFeature) * pxPerMm;
-    const wide = formatLength(Math.max(options.bridgeWidth, options.minFeature), 'mm');
-    const grown = maskOfRuns(grownRuns);
-    if (options.widenNecks) {
-      // The maker agreed to change the shape: each narrow place the checks below would warn about
-      // (a waist or a thin part under the smallest feature) gets art added around the part of the
-      // cut shape thinner than the bridge width that holds it (what an opening by it removes),
-      // until it is that wide; a closing then rounds the crevices where the widened part meets the rest.
-      const thin = widenNarrowParts(artMask, grown, cw, ch, { minFeaturePx, bridgePx, level });
-      if (thin > 0) {
+  try {
+    if (options.islands === 'join' || groups.components.length === 1) {
+      // Parts are what the grown shape holds together more widely than the bridge width: an inward
+      // offset by half of it keeps them apart where only a thin waist of border joins them. Parts of
+      // one piece of art stay one part unless the maker asked to widen necks.
+      const bridgePx = Math.max(options.bridgeWidth, options.minFeature) * pxPerMm;
+      const wide = formatLength(Math.max(options.bridgeWidth, options.minFeature), 'mm');
+      // The grown shape as pixels, only for the steps that change the art.
+      const grown = options.widenNecks || small.kept.length > 1 ? maskOfRuns(grownRuns) : new Uint8Array(0);
+      if (options.widenNecks) {
+        // The maker agreed to change the shape: each narrow place the checks below would warn about
+        // (a waist or a thin part under the smallest feature) gets art added around the part of the
+        // cut shape thinner than the bridge width that holds it (what an opening by it removes),
+        // until it is that wide; a closing then rounds the crevices where the widened part meets the rest.
+        const thin = widenNarrowParts(artMask, grown, cw, ch, { minFeaturePx, bridgePx, level });
+        if (thin > 0) {
+          squared = squaredDistanceTransform(artMask, cw, ch);
+          for (let i = 0; i < grown.length; i++) grown[i] = squared[i] <= level2 ? 1 : 0;
+          warnings.push({
+            code: 'necks-widened',
+            severity: 'notice',
+            message: `Widened ${thin} narrow part${thin === 1 ? '' : 's'} of the cut line to at least ${wide}, as asked.`,
+          });
+        }
+      }
+      // One connected piece of art is one part whatever its waists (see joinParts): nothing to label.
+      const parts = small.kept.length > 1 ? joinParts(artMask, grown, cw, ch, bridgePx / 2) : { count: 1, labels: null };
+      if (parts.count > 1) {
+        // The capsule drawn into the art grows by the border, so it needs only what the border lacks.
+        const radius = Math.max(0.75, bridgePx / 2 - (level - 0.5) + 1);
+        const bridges = bridgeIslands(artMask, parts.labels!, parts.count, cw, ch, radius);
         squared = squaredDistanceTransform(artMask, cw, ch);
-        for (let i = 0; i < grown.length; i++) grown[i] = squared[i] <= level2 ? 1 : 0;
         warnings.push({
-          code: 'necks-widened',
+          code: 'islands-joined',
           severity: 'notice',
-          message: `Widened ${thin} narrow part${thin === 1 ? '' : 's'} of the cut line to at least ${wide}, as asked.`,
+          message: `Joined ${parts.count} separate parts of the art into one sticker with ${bridges} bridge${bridges === 1 ? '' : 's'} at least ${wide} wide.`,
         });
       }
+      await buildPiece(artMask, null);
+    } else {
+      const groupLabels = new Int32Array(cw * ch);
+      const { runs } = groups;
+      for (let k = 0; k < runs.count; k++) groupLabels.fill(runs.label[k], runs.y[k] * cw + runs.x0[k], runs.y[k] * cw + runs.x1[k] + 1);
+      for (const group of groups.components) {
+        const pieceArt = new Uint8Array(cw * ch);
+        for (let i = 0; i < artMask.length; i++) if (artMask[i] && groupLabels[i] === group.label) pieceArt[i] = 1;
+        await buildPiece(pieceArt, (i) => groupLabels[i] === group.label);
+      }
     }
-    // One connected piece of art is one part whatever its waists (see joinParts): nothing to label.
-    const parts = small.kept.length > 1 ? joinParts(artMask, grown, cw, ch, bridgePx / 2) : { count: 1, labels: null };
-    if (parts.count > 1) {
-      // The capsule drawn into the art grows by the border, so it needs only what the border lacks.
-      const radius = Math.max(0.75, bridgePx / 2 - (level - 0.5) + 1);
-      const bridges = bridgeIslands(artMask, parts.labels!, parts.count, cw, ch, radius);
-      squared = squaredDistanceTransform(artMask, cw, ch);
-      warnings.push({
-        code: 'islands-joined',
-        severity: 'notice',
-        message: `Joined ${parts.count} separate parts of the art into one sticker with ${bridges} bridge${bridges === 1 ? '' : 's'} at least ${wide} wide.`,
-      });
-    }
-    await buildPiece(artMask, null);
-  } else {
-    const groupLabels = new Int32Array(cw * ch);
-    const { runs } = groups;
-    for (let k = 0; k < runs.count; k++) groupLabels.fill(runs.label[k], runs.y[k] * cw + runs.x0[k], runs.y[k] * cw + runs.x1[k] + 1);
-    for (const group of groups.components) {
-      const pieceArt = new Uint8Array(cw * ch);
-      for (let i = 0; i < artMask.length; i++) if (artMask[i] && groupLabels[i] === group.label) pieceArt[i] = 1;
-      await buildPiece(pieceArt, (i) => groupLabels[i] === group.label);
-    }
+  } finally {
+    loans.returnAll();
   }
 
   if (effectiveDpi < 150) {

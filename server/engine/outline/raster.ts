@@ -10,6 +10,7 @@ export type Frame = { x: number; y: number; width: number; height: number };
  * line was traced from, so print and cut agree to the pixel.
  */
 export function composeSticker(input: {
+  into?: Buffer; // frame.width × frame.height × 4 bytes to write into (cleared first)
   frame: Frame; // in canvas pixels
   canvasWidth: number;
   field: Float32Array; // level − distance, ≥ 0 inside the cut line (0.5 in filled holes)
@@ -21,7 +22,7 @@ export function composeSticker(input: {
   border: Rgb;
 }): Buffer {
   const { frame, canvasWidth, field, art, artWidth, artHeight, artOrigin, border, artVisible } = input;
-  const out = Buffer.alloc(frame.width * frame.height * 4);
+  const out = input.into ? input.into.fill(0) : Buffer.alloc(frame.width * frame.height * 4);
   const br = border.r,
     bg = border.g,
     bb = border.b;

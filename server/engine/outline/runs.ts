@@ -70,8 +70,9 @@ export function runsOfMask(mask: Uint8Array, width: number, height: number): Row
   return out.done();
 }
 
-export function maskOfRuns(r: RowRuns): Uint8Array {
-  const mask = new Uint8Array(r.width * r.height);
+/** The runs as a 0/1 mask (written into `into` when given: cleared first). */
+export function maskOfRuns(r: RowRuns, into?: Uint8Array): Uint8Array {
+  const mask = into ? into.fill(0) : new Uint8Array(r.width * r.height);
   for (let y = 0; y < r.height; y++)
     for (let k = r.rowStart[y]; k < r.rowStart[y + 1]; k++) mask.fill(1, y * r.width + r.starts[k], y * r.width + r.ends[k]);
   return mask;
