@@ -17,6 +17,12 @@ describe('scratch buffers', () => {
     giveBack(b, c);
   });
 
+  it('lets go of buffers past 64 MB in all, so one huge sticker does not stay in memory', () => {
+    const huge = borrow(80 * 1024 * 1024);
+    giveBack(huge);
+    expect(borrow(80 * 1024 * 1024)).not.toBe(huge);
+  });
+
   it('outlines made side by side equal the same outlines made one by one, byte for byte', async () => {
     const arts = await Promise.all([
       svgArt(900, 700, '<ellipse cx="450" cy="350" rx="400" ry="300" fill="#c0392b"/>'),
