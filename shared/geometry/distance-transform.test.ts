@@ -1,6 +1,19 @@
 import { describe, expect, it } from 'vitest';
 import { squaredDistanceTransform } from './distance-transform';
 
+/** Every pixel's squared distance equals the least over every feature pixel, found one by one. */
+function expectBruteForce(feature: Uint8Array, width: number, height: number) {
+  const fast = squaredDistanceTransform(feature, width, height);
+  for (let y = 0; y < height; y++) {
+    for (let x = 0; x < width; x++) {
+      let best = Infinity;
+      for (let j = 0; j < height; j++)
+        for (let i = 0; i < width; i++) if (feature[j * width + i]) best = Math.min(best, (i - x) ** 2 + (j - y) ** 2);
+      expect(fast[y * width + x], `${x}, ${y}`).toBe(best);
+    }
+  }
+}
+
 describe('Euclidean distance transform (Felzenszwalb & Huttenlocher 2012)', () => {
   it('matches brute force on random sparse features', () => {
     const width = 37,
@@ -9,15 +22,7 @@ describe('Euclidean distance transform (Felzenszwalb & Huttenlocher 2012)', () =
     const random = () => (seed = (seed * 1103515245 + 12345) % 2 ** 31) / 2 ** 31;
     const feature = new Uint8Array(width * height).map(() => (random() < 0.03 ? 1 : 0));
     feature[5] = 1;
-    const fast = squaredDistanceTransform(feature, width, height);
-    for (let y = 0; y < height; y++) {
-      for (let x = 0; x < width; x++) {
-        let best = Infinity;
-        for (let j = 0; j < height; j++)
-          for (let i = 0; i < width; i++) if (feature[j * width + i]) best = Math.min(best, (i - x) ** 2 + (j - y) ** 2);
-        expect(fast[y * width + x]).toBe(best);
-      }
-    }
+    expectBruteForce(feature, width, height);
   });
 
   it('matches brute force on solid shapes (long runs of features, whose inner sites it skips)', () => {
@@ -27,15 +32,7 @@ describe('Euclidean distance transform (Felzenszwalb & Huttenlocher 2012)', () =
     for (let y = 0; y < height; y++)
       for (let x = 0; x < width; x++)
         if ((x - 12) ** 2 + (y - 10) ** 2 < 49 || (x > 25 && x < 38 && y > 14 && y < 24) || (y === 3 && x > 20)) feature[y * width + x] = 1;
-    const fast = squaredDistanceTransform(feature, width, height);
-    for (let y = 0; y < height; y++) {
-      for (let x = 0; x < width; x++) {
-        let best = Infinity;
-        for (let j = 0; j < height; j++)
-          for (let i = 0; i < width; i++) if (feature[j * width + i]) best = Math.min(best, (i - x) ** 2 + (j - y) ** 2);
-        expect(fast[y * width + x], `${x}, ${y}`).toBe(best);
-      }
-    }
+    expectBruteForce(feature, width, height);
   });
 
   it('is exact, not a square or diamond kernel: a single point gives (dx² + dy²)', () => {

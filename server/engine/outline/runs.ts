@@ -54,23 +54,9 @@ class RunsBuilder {
 }
 
 export function runsOfMask(mask: Uint8Array, width: number, height: number): RowRuns {
-  const out = new RunsBuilder(width, height);
-  for (let y = 0; y < height; y++) {
-    out.beginRow(y);
-    const row = y * width;
-    let x = 0;
-    while (x < width) {
-      while (x < width && !mask[row + x]) x++;
-      if (x >= width) break;
-      const start = x;
-      while (x < width && mask[row + x]) x++;
-      out.push(start, x);
-    }
-  }
-  return out.done();
+  return runsAtLeast(mask, width, height, 1);
 }
 
-/** The runs as a 0/1 mask (written into `into` when given: cleared first). */
 export function maskOfRuns(r: RowRuns, into?: Uint8Array): Uint8Array {
   const mask = into ? into.fill(0) : new Uint8Array(r.width * r.height);
   for (let y = 0; y < r.height; y++)
@@ -203,8 +189,8 @@ export function runsOfAlpha(rgba: Uint8Array, width: number, height: number, thr
   return out.done();
 }
 
-/** The runs of samples at least `min`. */
-export function runsAtLeast(values: Float32Array, width: number, height: number, min: number): RowRuns {
+/** The runs of samples at least `min` (mask pixels, or a field's values). */
+export function runsAtLeast(values: Uint8Array | Float32Array, width: number, height: number, min: number): RowRuns {
   const out = new RunsBuilder(width, height);
   for (let y = 0; y < height; y++) {
     out.beginRow(y);
