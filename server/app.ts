@@ -162,7 +162,7 @@ export function createApp({
   const orders = new OrdersService(dataSource, profiles, costing);
   const proofs = new ProofsService(dataSource, orders, outlines, profiles, storage, mailer, env);
   const orderPayments = new PaymentsService(dataSource, orders, payments, mailer, log);
-  const production = new OrderProduction(dataSource, orders, outlines, profiles, sheets, costing, {
+  const production = new OrderProduction(dataSource, orders, outlines, profiles, sheets, costing, analysis, {
     seconds: 3,
     threads: env.ARRANGE_THREADS || defaultThreads(),
   });

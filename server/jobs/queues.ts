@@ -122,11 +122,7 @@ export class JobQueues {
    */
   async runAnalysis(data: AnalysisJobData, timeoutMs = 120_000): Promise<SheetAnalysis> {
     const events = await this.eventsOf(QUEUE_NAMES.analyses);
-    const job = await this.analyses.add('analysis', data, {
-      jobId: `analysis-${data.sheetId}-${data.version}-${data.access}`,
-      removeOnComplete: { age: 60 },
-      removeOnFail: true, // a refusal (outlines not made yet) must not answer the next request too
-    });
+    const job = await this.addAnalysis(data);
     try {
       return (await job.waitUntilFinished(events, timeoutMs)) as SheetAnalysis;
     } catch (error) {
@@ -139,6 +135,15 @@ export class JobQueues {
         throw new AppError(503, 'analysis_busy', 'The sheet checks are busy. Try again in a moment.');
       throw error;
     }
+  }
+
+  /** Queues a sheet version's analysis (one job per version and access; nobody need wait for it). */
+  addAnalysis(data: AnalysisJobData) {
+    return this.analyses.add('analysis', data, {
+      jobId: `analysis-${data.sheetId}-${data.version}-${data.access}`,
+      removeOnComplete: { age: 60 },
+      removeOnFail: true, // a refusal (outlines not made yet) must not answer the next request too
+    });
   }
 
   async addExport(data: ExportJobData) {

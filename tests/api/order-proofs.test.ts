@@ -158,6 +158,16 @@ describe('from order to production', () => {
     expect(made.body.sheetIds).toHaveLength(2);
     expect(made.body.order.sheetIds).toEqual(made.body.sheetIds);
     expect((await s.member.post(`${path}/sheets`)).status).toBe(409); // made once
+    // Nobody has opened them yet: their checks and thumbnails are queued as they are made.
+    await expect
+      .poll(
+        async () => {
+          const list = (await s.member.get(`${s.base}/sheets`)).body.sheets as Array<{ id: string; thumbnailUrl: string | null }>;
+          return made.body.sheetIds.map((id: string) => Boolean(list.find((x) => x.id === id)?.thumbnailUrl));
+        },
+        { timeout: 20_000, interval: 250 },
+      )
+      .toEqual([true, true]);
     let pieces = 0;
     for (const [k, id] of made.body.sheetIds.entries()) {
       const sheet = (await s.member.get(`${s.base}/sheets/${id}`)).body;

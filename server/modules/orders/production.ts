@@ -13,6 +13,7 @@ import type { ProfilesService } from '../sheets/profiles.service';
 import { Sheet } from '../sheets/sheet.entity';
 import type { SheetsService } from '../sheets/sheets.service';
 import type { CostingService } from '../shop/costing.service';
+import type { SheetAnalysisService } from '../shop/sheet-analysis.service';
 import { PrintRun } from '../shop/print-run.entity';
 import { Customer } from './customer.entity';
 import { Order } from './order.entity';
@@ -30,6 +31,7 @@ export class OrderProduction {
     private readonly profiles: ProfilesService,
     private readonly sheets: SheetsService,
     private readonly costing: CostingService,
+    private readonly analysis: SheetAnalysisService,
     private readonly options: { seconds: number; threads?: number } = { seconds: 3 },
   ) {}
 
@@ -105,6 +107,8 @@ export class OrderProduction {
       await this.dataSource.getRepository(Sheet).update({ id: made.id }, { orderId });
       sheetIds.push(made.id);
     }
+    // Their checks and thumbnails are a worker's job; a queue that is down only delays them.
+    for (const id of sheetIds) await this.analysis.soon(actor.teamId, id).catch(() => undefined);
     await this.dataSource.transaction((manager) =>
       this.orders.record(
         manager,

@@ -134,6 +134,15 @@ export class SheetAnalysisService {
     return this.analyseSheet(teamId, sheet, access);
   }
 
+  /**
+   * Asks a worker to analyse a sheet the server just made (and so draw its thumbnail) without waiting;
+   * without queues (the CLIs, the demo seeding) nothing happens here.
+   */
+  async soon(teamId: string, sheetId: string) {
+    const sheet = await this.dataSource.getRepository(Sheet).findOneBy({ id: sheetId, teamId });
+    if (sheet && this.queues) await this.queues.addAnalysis({ teamId, sheetId, version: sheet.version, access: 'compute' });
+  }
+
   /** A worker's part: the sheet as it is now, analysed (unless that is done already). */
   async analyseNow(teamId: string, sheetId: string, access: OutlineAccess): Promise<SheetAnalysis> {
     const sheet = await this.dataSource.getRepository(Sheet).findOneBy({ id: sheetId, teamId });
