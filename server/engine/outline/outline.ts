@@ -141,10 +141,10 @@ export async function outline(
   const level = options.border * pxPerMm + 0.5; // distances run between pixel centres
   const level2 = level * level;
   let squared = squaredDistanceTransform(artMask, cw, ch, new Float32Array(loans.take(4 * cw * ch), 0, cw * ch));
-  // Within `level` of the art: the distance transform thresholded, or (the same pixels) the art's
-  // runs grown by a disk of that radius, which is cheaper to label.
-  const grownRuns = dilateRuns(artRuns, level, true);
-  const groups = labelRowRuns(grownRuns);
+  // Within `level` of the art (the art's runs grown by a disk: cheap to label). Art in one piece grows
+  // into one region: it is needed only for several pieces of art or for widening.
+  const grownRuns = small.kept.length > 1 || options.widenNecks ? dilateRuns(artRuns, level, true) : null;
+  const groups = grownRuns && options.islands === 'split' ? labelRowRuns(grownRuns) : null;
 
   const pieces: OutlinePiece[] = [];
   const minFeaturePx = options.minFeature * pxPerMm;
@@ -215,14 +215,14 @@ export async function outline(
   };
 
   try {
-    if (options.islands === 'join' || groups.components.length === 1) {
+    if (!groups || groups.components.length === 1) {
       // Parts are what the grown shape holds together more widely than the bridge width: an inward
       // offset by half of it keeps them apart where only a thin waist of border joins them. Parts of
       // one piece of art stay one part unless the maker asked to widen necks.
       const bridgePx = Math.max(options.bridgeWidth, options.minFeature) * pxPerMm;
       const wide = formatLength(Math.max(options.bridgeWidth, options.minFeature), 'mm');
       // The grown shape as pixels, only for the steps that change the art.
-      const grown = options.widenNecks || small.kept.length > 1 ? maskOfRuns(grownRuns) : new Uint8Array(0);
+      const grown = grownRuns ? maskOfRuns(grownRuns) : new Uint8Array(0);
       if (options.widenNecks) {
         // The maker agreed to change the shape: each narrow place the checks below would warn about
         // (a waist or a thin part under the smallest feature) gets art added around the part of the
