@@ -55,7 +55,12 @@ describe('saves are never silent', { timeout: BROWSER_TEST_TIMEOUT }, () => {
     await placePieces(client, team.id, sheet, [testPiece('r1', art[1].id, 60, 60, { width: 38.1 })]);
     const page = await t.browser.newPage({ viewport: { width: 1280, height: 900 } });
     // The server refuses the first save with a rule the editor does not know (as a newer server might).
-    let puts = 0;
+    let puts = 0,
+      refusedPuts = 0;
+    page.on('response', (response) => {
+      if (response.request().method() === 'PUT' && response.url().endsWith(`/sheets/${sheet.id}`) && response.status() >= 400)
+        refusedPuts += 1;
+    });
     await page.route(`**/api/teams/${team.id}/sheets/${sheet.id}`, async (route) => {
       if (route.request().method() !== 'PUT') return route.continue();
       puts += 1;
@@ -88,7 +93,10 @@ describe('saves are never silent', { timeout: BROWSER_TEST_TIMEOUT }, () => {
     await width.fill('1.75');
     await width.press('Enter');
     await expect.poll(() => page.getByTestId('save-state').textContent(), { timeout: 15_000 }).toBe('All changes saved');
-    expect(puts).toBe(2);
+    // The edit saved; the editor may save once more when the resized piece's outline lands and the
+    // area used changes (a save of its own, by design), but nothing was refused again.
+    expect(puts).toBeGreaterThanOrEqual(2);
+    expect(refusedPuts).toBe(1);
     await expect.poll(() => refusal.count()).toBe(0);
     expect(await savedWidth(client, team.id, sheet.id)).toBeCloseTo(44.45, 6);
     await page.close();
