@@ -1,7 +1,7 @@
 // npm run bench:nest -- <instance.json or folder>... [--time 60s] [--seed 1] [--out DIR] [--json] [--sticker] [--threads 1]
 //
 // Strip packing on instances in the JSON layout of ../shared/nesting/ (ESICUP, as published with the
-// open-source packer sparrow): a fixed strip height, every copy of every item placed at one of its
+// code of Gardeyn, Vanden Berghe & Wauters 2025): a fixed strip height, every copy of every item placed at one of its
 // allowed orientations, the length as short as possible. Each instance is scaled so the strip is
 // 200 mm high (density does not change with scale) and packed by our nester at a 1 mm cell with a
 // gap of 0.01 mm. Density = total item area / (strip height × length). One thread unless --threads
