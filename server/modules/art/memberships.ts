@@ -2,8 +2,7 @@ import type { EntityManager } from 'typeorm';
 import { In } from 'typeorm';
 import { Collection } from '../collections/collection.entity';
 import { ArtCollection } from './art-collection.entity';
-
-const byId = (a: string, b: string) => (BigInt(a) < BigInt(b) ? -1 : BigInt(a) > BigInt(b) ? 1 : 0);
+import { byId, syncJoinRows } from '../../db/join-rows';
 
 /** The collections each item is in, in the team's collection order. */
 export async function collectionsOf(manager: EntityManager, artIds: string[]): Promise<Map<string, Collection[]>> {
@@ -26,18 +25,5 @@ export async function collectionsOf(manager: EntityManager, artIds: string[]): P
 
 /** Makes `artId` a member of exactly `collectionIds`, as an ordered diff (rows touched in id order). */
 export async function setCollections(manager: EntityManager, artId: string, collectionIds: string[]) {
-  const want = new Set(collectionIds);
-  const have = new Set((await manager.findBy(ArtCollection, { artId })).map((l) => l.collectionId));
-  const gone = [...have].filter((id) => !want.has(id)).sort(byId);
-  const added = [...want].filter((id) => !have.has(id)).sort(byId);
-  if (gone.length) await manager.delete(ArtCollection, { artId, collectionId: In(gone) });
-  if (added.length)
-    await manager
-      .createQueryBuilder()
-      .insert()
-      .into(ArtCollection)
-      .values(added.map((collectionId) => ({ artId, collectionId })))
-      .orIgnore()
-      .execute();
-  return { added, gone };
+  return syncJoinRows(manager, ArtCollection, { artId }, 'collectionId', collectionIds);
 }

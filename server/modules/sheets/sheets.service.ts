@@ -14,6 +14,7 @@ import { SheetProfile } from './sheet-profile.entity';
 import { Sheet } from './sheet.entity';
 import { SheetArt } from './sheet-art.entity';
 import { inTransaction } from '../../db/transaction';
+import { syncJoinRows } from '../../db/join-rows';
 import { cleanThumbnail, refuseOutOfBounds } from './sheet-checks';
 import { profileLimits } from '@shared/sheet/preflight';
 
@@ -138,21 +139,7 @@ export class SheetsService {
    * index ranges (a blanket delete + insert deadlocked 12 of 20 parallel saves).
    */
   private async linkArt(manager: EntityManager, sheetId: string, artIds: string[]) {
-    const rows = await manager.getRepository(SheetArt).find({ where: { sheetId }, select: { artId: true } });
-    const have = new Set(rows.map((r) => String(r.artId)));
-    const want = new Set(artIds);
-    const byId = (a: string, b: string) => (BigInt(a) < BigInt(b) ? -1 : 1);
-    const gone = [...have].filter((id) => !want.has(id)).sort(byId);
-    const added = [...want].filter((id) => !have.has(id)).sort(byId);
-    if (gone.length) await manager.getRepository(SheetArt).delete({ sheetId, artId: In(gone) });
-    if (added.length)
-      await manager
-        .createQueryBuilder()
-        .insert()
-        .into(SheetArt)
-        .values(added.map((artId) => ({ sheetId, artId })))
-        .orIgnore()
-        .execute();
+    await syncJoinRows(manager, SheetArt, { sheetId }, 'artId', artIds);
   }
 
   async create(
