@@ -1,7 +1,6 @@
 // The demo shop's sheets and print runs: arranged by the same nester the editor uses, on outlines
 // from the same cache, costed, and printed a few times over recent weeks, so the sheets table, the
 // editor's cost section and the print room's history all have something true to show.
-import sharp from 'sharp';
 import type { DataSource } from 'typeorm';
 import { In } from 'typeorm';
 import { demoTeam, demoUserKey } from './accounts';
@@ -13,7 +12,6 @@ import type { Piece, SheetDocument } from '@shared/sheet/document';
 import { DEFAULT_PREFLIGHT_LIMITS } from '@shared/sheet/preflight';
 import { inchToMm } from '@shared/units';
 import { env } from '../../config/env';
-import { renderPrintImage } from '../../engine/export/print-image';
 import { OutlinePool } from '../../engine/outline/pool';
 import { ArtItem } from '../../modules/art/art-item.entity';
 import { User } from '../../modules/accounts/user.entity';
@@ -22,7 +20,7 @@ import { OutlineService } from '../../modules/outlines/outline.service';
 import { CostingService } from '../../modules/shop/costing.service';
 import { MachinesService } from '../../modules/shop/machines.service';
 import { RunsService } from '../../modules/shop/runs.service';
-import { ANALYSIS_DPI, SheetAnalysisService, toExportPiece } from '../../modules/shop/sheet-analysis.service';
+import { SheetAnalysisService } from '../../modules/shop/sheet-analysis.service';
 import { StockService } from '../../modules/shop/stock.service';
 import { ProfilesService } from '../../modules/sheets/profiles.service';
 import { SheetsService } from '../../modules/sheets/sheets.service';
@@ -184,11 +182,6 @@ export async function seedSheets(dataSource: DataSource, storage: Storage): Prom
         .map((p, i) => ({ ...templates.get(p.key)!, id: `demo-${i + 1}`, x: p.x, y: p.y, rotation: p.rotation }));
       const document = { ...doc, pieces };
       const area = pieces.reduce((sum, p) => sum + byArt.get(p.artId)!.pieces[0].areaMm2, 0);
-      const thumbnail = await renderThumbnail(
-        storage,
-        document,
-        pieces.map((piece) => ({ piece, outline: byArt.get(piece.artId)! })),
-      );
       const saved = await sheets.save(actor, created.id, {
         version: created.version,
         document,
@@ -196,8 +189,9 @@ export async function seedSheets(dataSource: DataSource, storage: Storage): Prom
         forSale: spec.forSale,
         notes: spec.notes,
         areaUsed: area / (doc.printArea.width * doc.printArea.height),
-        thumbnail,
       });
+      // The sheet's checks, and with them its thumbnail (the editor replaces it with its own on the next save).
+      await analysis.analyse(team.id, await sheets.find(team.id, saved.id));
       const chosen = shelf.find((s) => s.name === spec.stock) ?? null;
       await costing.setCosting(team.id, saved.id, {
         stockId: chosen?.id ?? null,
@@ -227,21 +221,4 @@ export async function seedSheets(dataSource: DataSource, storage: Storage): Prom
   } finally {
     await pool.close();
   }
-}
-
-/** A small PNG of the sheet for the sheets table (the editor replaces it with its own on the next save). */
-async function renderThumbnail(
-  storage: Storage,
-  doc: SheetDocument,
-  pieces: Array<{ piece: Piece; outline: StoredOutline }>,
-): Promise<string> {
-  const parts = await Promise.all(pieces.map(({ piece, outline }) => toExportPiece(storage, piece, outline)));
-  // The cached piece images are at the analysis resolution, so the sheet is drawn at it and scaled down.
-  const full = await renderPrintImage(
-    { name: '', unit: 'in', doc, pieces: parts, paper: { paperWidthMm: 0, paperHeightMm: 0, areaXMm: 0, areaYMm: 0 } },
-    ANALYSIS_DPI,
-    'white',
-  );
-  const png = await sharp(full).resize({ width: 240 }).png().toBuffer();
-  return `data:image/png;base64,${png.toString('base64')}`;
 }

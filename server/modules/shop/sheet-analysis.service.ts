@@ -29,14 +29,10 @@ import sharp from 'sharp';
 const THUMBNAIL_WIDTH_PX = 240;
 
 /** The resolution of the piece images the editor's outline requests cache, so the one a sheet can be rendered at from them. */
-export const ANALYSIS_DPI = 150;
+const ANALYSIS_DPI = 150;
 
 /** A placed piece with its cached outline, as the print-image renderer takes it. */
-export async function toExportPiece(
-  storage: Storage,
-  piece: SheetDocument['pieces'][number],
-  outline: StoredOutline,
-): Promise<ExportPiece> {
+async function toExportPiece(storage: Storage, piece: SheetDocument['pieces'][number], outline: StoredOutline): Promise<ExportPiece> {
   const first = outline.pieces[0];
   return {
     piece,
