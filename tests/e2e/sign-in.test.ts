@@ -1,9 +1,10 @@
+import sharp from 'sharp';
 import { describe, expect, it } from 'vitest';
 import { DEMO_ACCOUNTS, DEMO_PASSWORD, DEMO_SHOP } from '../../server/db/demo/accounts';
 import { env } from '../../server/config/env';
 import { seedDemo } from '../../server/db/demo/seed';
 import { LocalDiskStorage } from '../../server/storage/local-disk';
-import { Client } from '../helpers/app';
+import { Client, binary } from '../helpers/app';
 import { BROWSER_TEST_TIMEOUT, screenshot, useBrowserApp } from '../helpers/browser';
 
 // The whole demo shop, art and sheets included, in the storage the served app reads.
@@ -113,6 +114,10 @@ describe('the demo shop', { timeout: BROWSER_TEST_TIMEOUT }, () => {
     for (const sheet of sheets) {
       expect(sheet.pieceCount).toBeGreaterThanOrEqual(9);
       expect(sheet.cost?.sheet).toBeGreaterThan(0);
+      // The sheets table shows a picture of each: a 240 px PNG drawn when the demo was seeded.
+      const thumbnail = await owner.get(sheet.thumbnailUrl).buffer(true).parse(binary);
+      expect(thumbnail.status).toBe(200);
+      expect((await sharp(thumbnail.body as Buffer).metadata()).width).toBe(240);
       const analysis = (await owner.get(`${base}/sheets/${sheet.id}/analysis`)).body;
       expect(analysis.findings.filter((f: { severity: string }) => f.severity === 'error')).toEqual([]);
       expect(analysis.findings.filter((f: { code: string }) => f.code === 'too-close' || f.code === 'overlap')).toEqual([]);
