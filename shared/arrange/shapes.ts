@@ -26,7 +26,8 @@ export type Variant = {
   by1: number;
   /** Inscribed circles of the grown shape, largest first: x, y, r triples. */
   poles: Float64Array;
-  /** Below this depth an overlap is scored by a decaying tail rather than its depth (mm). */
+  /** 1 % of the shape's size (the diagonal of its upright box): below this depth an overlap is scored by a decaying
+   * tail rather than its depth, and every collision counts at least this much (mm). */
   eps: number;
   area: number;
 };
@@ -163,6 +164,21 @@ function polesOf(xs: Float64Array, ys: Float64Array, maxPoles = 8): Float64Array
   return Float64Array.from(poles);
 }
 
+/** The diagonal of the box of a ring (the same in every turn when taken before turning). */
+function diagonal(xs: Float64Array, ys: Float64Array): number {
+  let x0 = Infinity,
+    y0 = Infinity,
+    x1 = -Infinity,
+    y1 = -Infinity;
+  for (let i = 0; i < xs.length; i++) {
+    x0 = Math.min(x0, xs[i]);
+    x1 = Math.max(x1, xs[i]);
+    y0 = Math.min(y0, ys[i]);
+    y1 = Math.max(y1, ys[i]);
+  }
+  return Math.hypot(x1 - x0, y1 - y0);
+}
+
 /** Every allowed rotation of one outline, grown by `grow` mm, about its frame centre. */
 export function variantsOf(outline: { points: Ring; widthMm: number; heightMm: number }, rotations: number[], grow: number): Variant[] {
   const centre = { x: outline.widthMm / 2, y: outline.heightMm / 2 };
@@ -171,6 +187,7 @@ export function variantsOf(outline: { points: Ring; widthMm: number; heightMm: n
     baseYs = Float64Array.from(grown, (p) => p.y);
   const basePoles = polesOf(baseXs, baseYs);
   const itemArea = area(outline.points);
+  const eps = Math.max(diagonal(baseXs, baseYs) * 0.01, 1e-3);
   return rotations.map((rotation) => {
     const ring = rotateRing(outline.points, centre, rotation);
     const g = rotateRing(grown, { x: 0, y: 0 }, rotation);
@@ -219,7 +236,7 @@ export function variantsOf(outline: { points: Ring; widthMm: number; heightMm: n
       bx1,
       by1,
       poles,
-      eps: Math.max(basePoles[2] * 0.05, 1e-3),
+      eps,
       area: itemArea,
     };
   });
