@@ -33,17 +33,18 @@ export function composeSticker(input: {
   for (let y = 0; y < frame.height; y++) {
     const cy = y + frame.y;
     const ay = cy - artOrigin.y;
+    const rowC = cy * canvasWidth + frame.x;
+    // The frame's columns [xa0, xa1) lie over the art; the art pixel under column x is a + 4x.
     const artRow = ay >= 0 && ay < artHeight;
-    for (let x = 0; x < frame.width; x++) {
-      const cx = x + frame.x;
-      const c = cy * canvasWidth + cx;
+    const xa0 = artRow ? Math.max(0, artOrigin.x - frame.x) : 0,
+      xa1 = artRow ? Math.min(frame.width, artOrigin.x - frame.x + artWidth) : 0;
+    const artRowStart = (ay * artWidth + frame.x - artOrigin.x) * 4;
+    for (let x = 0, o = y * frame.width * 4; x < frame.width; x++, o += 4) {
+      const c = rowC + x;
       const f = field[c];
       if (f <= -0.5) continue;
-      const ax = cx - artOrigin.x;
-      const onArt = artRow && ax >= 0 && ax < artWidth && (artVisible === null || artVisible(c));
-      const a = (ay * artWidth + ax) * 4;
-      const alpha = onArt ? art[a + 3] : 0;
-      const o = (y * frame.width + x) * 4;
+      const a = artRowStart + x * 4;
+      const alpha = x >= xa0 && x < xa1 && (artVisible === null || artVisible(c)) ? art[a + 3] : 0;
       if (alpha === 255 && f >= 0.5) {
         if (out32) out32[o >> 2] = art32![a >> 2];
         else {
@@ -62,15 +63,20 @@ export function composeSticker(input: {
         g = art[a + 1];
         b = art[a + 2];
       } else if (alpha > 0) {
-        // Straight alpha over the border colour, in 0..255 units.
-        r = (art[a] * alpha + br * (255 - alpha)) / 255;
-        g = (art[a + 1] * alpha + bg * (255 - alpha)) / 255;
-        b = (art[a + 2] * alpha + bb * (255 - alpha)) / 255;
+        // Straight alpha over the border colour, rounded to 0..255: v / 255 rounded is
+        // (v + 128 + ((v + 128) >> 8)) >> 8 for every v up to 255², in integers (no division).
+        const rest = 255 - alpha;
+        let v = art[a] * alpha + br * rest + 128;
+        r = (v + (v >> 8)) >> 8;
+        v = art[a + 1] * alpha + bg * rest + 128;
+        g = (v + (v >> 8)) >> 8;
+        v = art[a + 2] * alpha + bb * rest + 128;
+        b = (v + (v >> 8)) >> 8;
       }
-      out[o] = r + 0.5;
-      out[o + 1] = g + 0.5;
-      out[o + 2] = b + 0.5;
-      out[o + 3] = (f >= 0.5 ? 255 : (f + 0.5) * 255) + 0.5;
+      out[o] = r;
+      out[o + 1] = g;
+      out[o + 2] = b;
+      out[o + 3] = f >= 0.5 ? 255 : (f + 0.5) * 255 + 0.5;
     }
   }
   return out;
