@@ -1,9 +1,16 @@
 // Strip packing as a sequence of feasibility problems (Gardeyn, Vanden Berghe & Wauters 2025; the
 // same idea as Umetani et al. 2009 and Imamichi et al. 2009): from a layout without overlap, make the
 // strip a little shorter, push the pieces that now stick out back in, and let the separator remove
-// the overlap that made. Success is the new best; failure goes back to the best and tries again with
-// a smaller cut. The first part of the time explores with larger cuts; the rest compresses with small
-// ones and more patience.
+// the overlap that made.
+//
+// Exploring (the first three quarters of the time): after a success the strip is cut by 0.5 % again;
+// after a failure the length stays, and the search goes on from one of the failed layouts at that
+// length (the least overlapping most often: a rank drawn from a half-normal law), shaken up by two
+// large pieces trading places. Failed layouts at the length hold what was learnt about it; going
+// back to the last layout without overlap each time threw that away (measured at 60 s on swim,
+// seeds 1–4: 0.920 → 0.938 of the reference density, the other instances within the seeds' spread).
+// Compressing (the rest): from the best layout, small cuts (0.1–0.5 %) with more patience; a failure
+// goes back to the best.
 import type { Layout } from './separator';
 
 export type StripOptions = {
@@ -16,6 +23,12 @@ export type StripOptions = {
   onBest?: (length: number) => void;
 };
 
+type State = ReturnType<Layout['snapshot']>;
+type Search = { best: State; bestLength: number; tries: number };
+
+const EXPLORING_SHARE = 0.75;
+const EXPLORING_CUT = 0.005;
+
 /** The used length: the lowest point of any cut line (y grows along the strip). */
 function usedLength(layout: Layout): number {
   let bottom = layout.area.y0;
@@ -23,28 +36,68 @@ function usedLength(layout: Layout): number {
   return bottom;
 }
 
+/** The best layout on a strip cut to `target`: pieces past the new end slide back inside. */
+function cutTo(layout: Layout, best: State, target: number) {
+  layout.restore(best);
+  layout.area = { ...layout.area, y1: target };
+  for (let i = 0; i < layout.length; i++) {
+    const p = layout.pieces[i],
+      s = p.variants[p.v];
+    if (!p.fixed && p.y + s.by1 > target) layout.moveTo(i, p.v, p.x, Math.max(layout.area.y0 - s.by0, target - s.by1));
+  }
+  layout.resetWeights();
+}
+
+function succeeded(layout: Layout, search: Search, o: StripOptions) {
+  search.best = layout.snapshot();
+  search.bestLength = usedLength(layout);
+  o.onBest?.(search.bestLength);
+}
+
 /** Shortens the strip of a layout without overlap for as long as time allows; ends at the best. */
 export function shortenStrip(layout: Layout, o: StripOptions): { length: number; tries: number } {
   const started = Date.now(),
     total = Math.max(1, o.deadline - started);
-  let best = layout.snapshot(),
-    bestLength = usedLength(layout);
-  layout.area = { ...layout.area, y1: bestLength };
-  let ratio = 0.01,
-    tries = 0;
-  for (; tries < (o.maxTries ?? Infinity) && Date.now() < o.deadline && !o.shouldStop?.(); tries++) {
-    const exploring = o.maxTries === undefined ? Date.now() - started < total * 0.75 : tries < o.maxTries * 0.75;
-    const cut = exploring ? ratio * (0.5 + o.random()) : 0.001 + o.random() * 0.004;
-    const target = bestLength * (1 - cut);
-    layout.restore(best);
-    layout.area = { ...layout.area, y1: target };
-    // Pieces past the new end slide back inside; the overlap this makes is the separator's to remove.
-    for (let i = 0; i < layout.length; i++) {
-      const p = layout.pieces[i],
-        s = p.variants[p.v];
-      if (!p.fixed && p.y + s.by1 > target) layout.moveTo(i, p.v, p.x, Math.max(layout.area.y0 - s.by0, target - s.by1));
+  const search: Search = { best: layout.snapshot(), bestLength: usedLength(layout), tries: 0 };
+  layout.area = { ...layout.area, y1: search.bestLength };
+  const counted = o.maxTries !== undefined;
+  const running = () => search.tries < (o.maxTries ?? Infinity) && Date.now() < o.deadline && !o.shouldStop?.();
+  explore(layout, search, o, counted ? o.deadline : started + total * EXPLORING_SHARE, running);
+  compress(layout, search, o, total, running);
+  layout.restore(search.best);
+  layout.area = { ...layout.area, y1: search.bestLength };
+  return { length: search.bestLength, tries: search.tries };
+}
+
+function explore(layout: Layout, search: Search, o: StripOptions, until: number, running: () => boolean) {
+  const limit = o.maxTries === undefined ? Infinity : Math.floor(o.maxTries * EXPLORING_SHARE);
+  cutTo(layout, search.best, search.bestLength * (1 - EXPLORING_CUT));
+  let failed: Array<{ state: State; overlap: number }> = [];
+  for (; search.tries < limit && running() && Date.now() < until; search.tries++) {
+    const ok = layout.separate({ strikes: 3, roundsWithoutGain: 100, deadline: until, random: o.random, shouldStop: o.shouldStop });
+    if (ok) {
+      succeeded(layout, search, o);
+      failed = [];
+      cutTo(layout, search.best, search.bestLength * (1 - EXPLORING_CUT));
+      continue;
     }
+    const overlap = layout.totalOverlap();
+    let at = failed.findIndex((f) => f.overlap > overlap);
+    if (at < 0) at = failed.length;
+    failed.splice(at, 0, { state: layout.snapshot(), overlap });
+    // A rank from |N(0, 0.25)| (Box–Muller) over the failed layouts, the least overlap first.
+    const normal = Math.sqrt(-2 * Math.log(1 - o.random())) * Math.cos(2 * Math.PI * o.random());
+    const from = failed[Math.floor(Math.min(0.999, Math.abs(normal) * 0.25) * failed.length)];
+    layout.restore(from.state);
     layout.resetWeights();
+    swapLarge(layout, o.random);
+  }
+}
+
+function compress(layout: Layout, search: Search, o: StripOptions, total: number, running: () => boolean) {
+  for (; running(); search.tries++) {
+    const cut = 0.001 + o.random() * 0.004;
+    cutTo(layout, search.best, search.bestLength * (1 - cut));
     let ok = false;
     // A failed try leaves the least overlap it found; shaking that up (two large pieces trade places)
     // and trying again costs less than starting over.
@@ -54,25 +107,16 @@ export function shortenStrip(layout: Layout, o: StripOptions): { length: number;
       // when the tries are counted, so that a seed gives the same layout on any machine).
       const cap = o.maxTries === undefined ? Date.now() + Math.max(500, total / 20) : Infinity;
       ok = layout.separate({
-        strikes: exploring ? 3 : 5,
-        roundsWithoutGain: exploring ? 100 : 50,
+        strikes: 5,
+        roundsWithoutGain: 50,
         deadline: Math.min(o.deadline, cap),
         random: o.random,
         shouldStop: o.shouldStop,
       });
     }
-    if (ok) {
-      best = layout.snapshot();
-      bestLength = usedLength(layout);
-      o.onBest?.(bestLength);
-      ratio = Math.min(0.03, ratio * 1.1);
-    } else ratio = Math.max(0.003, ratio * 0.8);
+    if (ok) succeeded(layout, search, o);
   }
-  layout.restore(best);
-  layout.area = { ...layout.area, y1: bestLength };
-  return { length: bestLength, tries };
 }
-
 /** Two of the larger pieces (area above the median) of different shapes trade places. */
 function swapLarge(layout: Layout, random: () => number) {
   const movable = layout.pieces.map((p, i) => ({ p, i })).filter(({ p }) => !p.fixed);
