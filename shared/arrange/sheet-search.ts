@@ -36,7 +36,7 @@ export function fillSheet(
   for (let tries = 0; running(o, tries); tries++) {
     const open = itemKeys.filter((k) => (failures.get(k) ?? 0) < 2);
     if (open.length === 0) break;
-    // The mix stays even within two copies; among those, the smallest art goes first (it fits most often).
+    // The mix stays even within four copies; among those, the smallest art goes first (it fits most often).
     const fewest = Math.min(...open.map((k) => counts.get(k)!));
     const key = open
       .filter((k) => counts.get(k)! <= fewest + 4)
