@@ -83,11 +83,8 @@ export function insideRing(px: number, py: number, xs: Float64Array, ys: Float64
   return inside;
 }
 
-/**
- * Inscribed circles that do not overlap one another, each the largest that still fits in what the
- * earlier ones left: sampled on a grid, then each centre refined by a shrinking pattern search.
- */
-function polesOf(xs: Float64Array, ys: Float64Array, maxPoles = 8): Float64Array {
+/** The box of a ring given as coordinate arrays. */
+function boxOf(xs: Float64Array, ys: Float64Array) {
   let x0 = Infinity,
     y0 = Infinity,
     x1 = -Infinity,
@@ -98,6 +95,15 @@ function polesOf(xs: Float64Array, ys: Float64Array, maxPoles = 8): Float64Array
     y0 = Math.min(y0, ys[i]);
     y1 = Math.max(y1, ys[i]);
   }
+  return { x0, y0, x1, y1 };
+}
+
+/**
+ * Inscribed circles that do not overlap one another, each the largest that still fits in what the
+ * earlier ones left: sampled on a grid, then each centre refined by a shrinking pattern search.
+ */
+function polesOf(xs: Float64Array, ys: Float64Array, maxPoles = 8): Float64Array {
+  const { x0, y0, x1, y1 } = boxOf(xs, ys);
   const step = Math.max(x1 - x0, y1 - y0) / 40;
   const sx: number[] = [],
     sy: number[] = [],
@@ -164,21 +170,6 @@ function polesOf(xs: Float64Array, ys: Float64Array, maxPoles = 8): Float64Array
   return Float64Array.from(poles);
 }
 
-/** The diagonal of the box of a ring (the same in every turn when taken before turning). */
-function diagonal(xs: Float64Array, ys: Float64Array): number {
-  let x0 = Infinity,
-    y0 = Infinity,
-    x1 = -Infinity,
-    y1 = -Infinity;
-  for (let i = 0; i < xs.length; i++) {
-    x0 = Math.min(x0, xs[i]);
-    x1 = Math.max(x1, xs[i]);
-    y0 = Math.min(y0, ys[i]);
-    y1 = Math.max(y1, ys[i]);
-  }
-  return Math.hypot(x1 - x0, y1 - y0);
-}
-
 /** Every allowed rotation of one outline, grown by `grow` mm, about its frame centre. */
 export function variantsOf(outline: { points: Ring; widthMm: number; heightMm: number }, rotations: number[], grow: number): Variant[] {
   const centre = { x: outline.widthMm / 2, y: outline.heightMm / 2 };
@@ -187,7 +178,9 @@ export function variantsOf(outline: { points: Ring; widthMm: number; heightMm: n
     baseYs = Float64Array.from(grown, (p) => p.y);
   const basePoles = polesOf(baseXs, baseYs);
   const itemArea = area(outline.points);
-  const eps = Math.max(diagonal(baseXs, baseYs) * 0.01, 1e-3);
+  // The upright box's diagonal, so that ε is the same in every turn.
+  const upright = boxOf(baseXs, baseYs);
+  const eps = Math.max(Math.hypot(upright.x1 - upright.x0, upright.y1 - upright.y0) * 0.01, 1e-3);
   return rotations.map((rotation) => {
     const ring = rotateRing(outline.points, centre, rotation);
     const g = rotateRing(grown, { x: 0, y: 0 }, rotation);
@@ -202,16 +195,7 @@ export function variantsOf(outline: { points: Ring; widthMm: number; heightMm: n
       poles[k + 1] = basePoles[k] * s + basePoles[k + 1] * c;
       poles[k + 2] = basePoles[k + 2];
     }
-    let gx0 = Infinity,
-      gy0 = Infinity,
-      gx1 = -Infinity,
-      gy1 = -Infinity;
-    for (let i = 0; i < xs.length; i++) {
-      gx0 = Math.min(gx0, xs[i]);
-      gx1 = Math.max(gx1, xs[i]);
-      gy0 = Math.min(gy0, ys[i]);
-      gy1 = Math.max(gy1, ys[i]);
-    }
+    const { x0: gx0, y0: gy0, x1: gx1, y1: gy1 } = boxOf(xs, ys);
     let bx0 = Infinity,
       by0 = Infinity,
       bx1 = -Infinity,
