@@ -85,6 +85,8 @@ function explore(layout: Layout, search: Search, o: StripOptions, until: number,
     let at = failed.findIndex((f) => f.overlap > overlap);
     if (at < 0) at = failed.length;
     failed.splice(at, 0, { state: layout.snapshot(), overlap });
+    // The hundred least overlapping are plenty to draw from, and a long run's memory stays bounded.
+    if (failed.length > 100) failed.pop();
     // A rank from |N(0, 0.25)| (Box–Muller) over the failed layouts, the least overlap first.
     const normal = Math.sqrt(-2 * Math.log(1 - o.random())) * Math.cos(2 * Math.PI * o.random());
     const from = failed[Math.floor(Math.min(0.999, Math.abs(normal) * 0.25) * failed.length)];
