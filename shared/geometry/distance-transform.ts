@@ -54,7 +54,7 @@ export function squaredDistanceTransform(
   feature: Uint8Array,
   width: number,
   height: number,
-  out = new Float32Array(width * height), // every value is written
+  out: Float32Array = new Float32Array(width * height), // every value is written
 ): Float32Array {
   // Column phase: vertical distance to the nearest feature, top-down then bottom-up sweeps.
   const far = width + height;

@@ -140,7 +140,7 @@ export async function outline(
   // 5. Grow by the border with an exact Euclidean distance transform; group islands by their grown regions.
   const level = options.border * pxPerMm + 0.5; // distances run between pixel centres
   const level2 = level * level;
-  let squared = squaredDistanceTransform(artMask, cw, ch, new Float32Array(loans.take(4 * cw * ch), 0, cw * ch));
+  const squared = squaredDistanceTransform(artMask, cw, ch, new Float32Array(loans.take(4 * cw * ch), 0, cw * ch));
   // Within `level` of the art (the art's runs grown by a disk: cheap to label). Art in one piece grows
   // into one region: it is needed only for several pieces of art or for widening.
   const grownRuns = small.kept.length > 1 || options.widenNecks ? dilateRuns(artRuns, level, true) : null;
@@ -230,7 +230,7 @@ export async function outline(
         // until it is that wide; a closing then rounds the crevices where the widened part meets the rest.
         const thin = widenNarrowParts(artMask, grown, cw, ch, { minFeaturePx, bridgePx, level });
         if (thin > 0) {
-          squared = squaredDistanceTransform(artMask, cw, ch);
+          squaredDistanceTransform(artMask, cw, ch, squared); // the art changed: measured again in the same buffer
           for (let i = 0; i < grown.length; i++) grown[i] = squared[i] <= level2 ? 1 : 0;
           warnings.push({
             code: 'necks-widened',
@@ -245,7 +245,7 @@ export async function outline(
         // The capsule drawn into the art grows by the border, so it needs only what the border lacks.
         const radius = Math.max(0.75, bridgePx / 2 - (level - 0.5) + 1);
         const bridges = bridgeIslands(artMask, parts.labels!, parts.count, cw, ch, radius);
-        squared = squaredDistanceTransform(artMask, cw, ch);
+        squaredDistanceTransform(artMask, cw, ch, squared);
         warnings.push({
           code: 'islands-joined',
           severity: 'notice',

@@ -34,7 +34,7 @@ export function composeSticker(input: {
     const cy = y + frame.y;
     const ay = cy - artOrigin.y;
     const rowC = cy * canvasWidth + frame.x;
-    // The frame's columns [xa0, xa1) lie over the art; the art pixel under column x is a + 4x.
+    // The frame's columns [xa0, xa1) lie over the art; the art pixel under column x starts at artRowStart + 4x.
     const artRow = ay >= 0 && ay < artHeight;
     const xa0 = artRow ? Math.max(0, artOrigin.x - frame.x) : 0,
       xa1 = artRow ? Math.min(frame.width, artOrigin.x - frame.x + artWidth) : 0;
