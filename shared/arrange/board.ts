@@ -196,18 +196,26 @@ export class Board {
       for (let k = 0; k < n; k += 2)
         for (let cx = spans[k]; cx <= spans[k + 1]; cx++) {
           // One ring moved from spot to spot (no garbage per try); the found one is copied.
-          // The moved ring's box is the mask's, moved (kept in one scratch box; the same numbers boundingBox gives).
-          box.x = mask.minX + cx * cell;
-          box.y = mask.minY + cy * cell;
-          box.width = mask.maxX + cx * cell - box.x;
-          box.height = mask.maxY + cy * cell - box.y;
-          if (this.placed.freeAt(mask.ring, cx * cell, cy * cell, trial, box)) {
+          if (this.freeMoved(mask, cx * cell, cy * cell, trial, box)) {
             const ring = trial.map((p) => ({ x: p.x, y: p.y }));
             return { spot: scoreOf(cx, cy) < limit ? { cx, cy, ring, score: scoreOf(cx, cy) } : null, scanned: cy };
           }
         }
     }
     return { spot: null, scanned: Infinity };
+  }
+
+  /**
+   * Whether the mask's cut line moved by (dx, dy) keeps the gap to the placed ones. Its box is the
+   * mask's, moved, written into the scratch `box` (the same numbers boundingBox gives); the moved
+   * ring goes into the scratch `trial`.
+   */
+  private freeMoved(mask: ShapeMask, dx: number, dy: number, trial: Ring, box: Box): boolean {
+    box.x = mask.minX + dx;
+    box.y = mask.minY + dy;
+    box.width = mask.maxX + dx - box.x;
+    box.height = mask.maxY + dy - box.y;
+    return this.placed.freeAt(mask.ring, dx, dy, trial, box);
   }
 
   /**
@@ -246,11 +254,7 @@ export class Board {
         ny + mask.maxY > height - margin + 1e-9
       )
         return false;
-      box.x = mask.minX + nx;
-      box.y = mask.minY + ny;
-      box.width = mask.maxX + nx - box.x;
-      box.height = mask.maxY + ny - box.y;
-      return this.placed.freeAt(mask.ring, nx, ny, trial, box);
+      return this.freeMoved(mask, nx, ny, trial, box);
     };
     for (const step of [cell / 2, cell / 4, cell / 8]) {
       // Up first, then up along either slope (settling into a notch), then left.
