@@ -56,18 +56,24 @@ export function squaredDistanceTransform(
   height: number,
   out: Float32Array = new Float32Array(width * height), // every value is written
 ): Float32Array {
-  // Column phase: vertical distance to the nearest feature, top-down then bottom-up sweeps.
+  // Column phase: vertical distance to the nearest feature, top-down then bottom-up sweeps, in
+  // whole numbers written through an integer view of the same memory (each row is read in full by
+  // the row phase before it writes that row's squared distances as floats).
   const far = width + height;
-  for (let x = 0; x < width; x++) out[x] = feature[x] ? 0 : far;
+  const g = new Int32Array(out.buffer, out.byteOffset, width * height);
+  for (let x = 0; x < width; x++) g[x] = feature[x] ? 0 : far;
   for (let y = 1; y < height; y++) {
     const row = y * width,
       prev = row - width;
-    for (let x = 0; x < width; x++) out[row + x] = feature[row + x] ? 0 : out[prev + x] + 1;
+    for (let x = 0; x < width; x++) g[row + x] = feature[row + x] ? 0 : g[prev + x] + 1;
   }
   for (let y = height - 2; y >= 0; y--) {
     const row = y * width,
       next = row + width;
-    for (let x = 0; x < width; x++) if (out[next + x] + 1 < out[row + x]) out[row + x] = out[next + x] + 1;
+    for (let x = 0; x < width; x++) {
+      const below = g[next + x] + 1;
+      if (below < g[row + x]) g[row + x] = below;
+    }
   }
   // Row phase: lower envelope of the parabolas of the columns that have a feature. A site strictly
   // inside a run of zeros is never the nearest for any pixel outside that run (the run's ends are
@@ -82,13 +88,13 @@ export function squaredDistanceTransform(
     let count = 0,
       inner = 0;
     for (let x = 0; x < width; x++) {
-      const g = out[row + x];
-      if (g >= far) continue;
-      if (g === 0 && x > 0 && x < width - 1 && out[row + x - 1] === 0 && out[row + x + 1] === 0) {
+      const gx = g[row + x];
+      if (gx >= far) continue;
+      if (gx === 0 && x > 0 && x < width - 1 && g[row + x - 1] === 0 && g[row + x + 1] === 0) {
         zeros[inner++] = x;
         continue;
       }
-      f[x] = g * g;
+      f[x] = gx * gx;
       sites[count++] = x;
     }
     if (count === 0) {
