@@ -11,7 +11,7 @@ import { dilateRuns, maskOfRuns, placeRuns, runsAtLeast, runsOfAlpha, selectRuns
 import { decodeArt } from './decode';
 import { squaredDistanceTransform } from '@shared/geometry/distance-transform';
 import { OutlineInputError } from './errors';
-import { type Frame, composeSticker, encodePng } from './raster';
+import { type Frame, borderField, composeSticker, encodePng } from './raster';
 import { borrow, giveBack, Loans } from './scratch';
 import { simplifyRing, traceOuterRings } from './trace';
 import { isFlat, joinParts, splitSpecks, unionBox, widenNarrowParts } from './shape-steps';
@@ -150,17 +150,10 @@ export async function outline(
   const minFeaturePx = options.minFeature * pxPerMm;
   const border = parseHex(options.borderColour);
   const toMm = (v: number) => v / pxPerMm;
-  // Far from the cut line only the sign of the field matters; the square root is taken near it.
-  const near2Low = level > 2 ? (level - 2) ** 2 : -1,
-    near2High = (level + 2) ** 2;
 
   const buildPiece = async (pieceArt: Uint8Array, artVisible: ((i: number) => boolean) | null) => {
     // The field is written over the squared distances (this piece is their last reader).
-    const field = pieceArt === artMask ? squared : squaredDistanceTransform(pieceArt, cw, ch);
-    for (let i = 0; i < field.length; i++) {
-      const d2 = field[i];
-      field[i] = d2 <= near2Low ? 2 : d2 >= near2High ? -2 : level - Math.sqrt(d2);
-    }
+    const field = borderField(pieceArt === artMask ? squared : squaredDistanceTransform(pieceArt, cw, ch), level);
     // Holes inside the cut line are filled, in the field too: they stay out of the traced rings and
     // print in the border colour (coverage min(1, field + 0.5) is 1 there).
     const { filled, holes } = fillHoleRuns(runsAtLeast(field, cw, ch, 0));

@@ -4,6 +4,21 @@ import type { Rgb } from './background';
 export type Frame = { x: number; y: number; width: number; height: number };
 
 /**
+ * Squared distances to the art turned, in place, into the border's field: level − distance (px),
+ * positive inside the cut line. Far from the cut line only the sign matters (±2); the square root is
+ * taken near it.
+ */
+export function borderField(squared: Float32Array, level: number): Float32Array {
+  const near2Low = level > 2 ? (level - 2) ** 2 : -1,
+    near2High = (level + 2) ** 2;
+  for (let i = 0; i < squared.length; i++) {
+    const d2 = squared[i];
+    squared[i] = d2 <= near2Low ? 2 : d2 >= near2High ? -2 : level - Math.sqrt(d2);
+  }
+  return squared;
+}
+
+/**
  * Paints one finished sticker: the solid border colour wherever the cut line encloses (holes
  * included), the art over it (alpha-composited, clipped to the cut line), transparent outside.
  * The outer edge gets one pixel of coverage anti-aliasing from the same distance field the cut

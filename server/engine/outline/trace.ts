@@ -120,6 +120,10 @@ export function traceOuterRings(field: Float32Array, width: number, height: numb
   return rings.sort((a, b) => b.area - a.area).map((r) => r.ring);
 }
 
+/** Scratch for crossedCells, grown as needed: run ends of two rows, toggles, spans. */
+let endsScratch = new Int32Array(64),
+  togglesScratch = new Int32Array(64);
+
 /**
  * The cells (x from 0 to width − 2) between rows y and y + 1 whose corners are not all inside or all
  * outside, as closed spans [from, to] in `out` (pairs); answers how many numbers it wrote. A cell is
@@ -127,28 +131,56 @@ export function traceOuterRings(field: Float32Array, width: number, height: numb
  */
 function crossedCells(runs: RowRuns, y: number, out: Int32Array): number {
   const last = runs.width - 2;
-  const ends: number[] = [];
-  for (const row of [y, y + 1]) for (let k = runs.rowStart[row]; k < runs.rowStart[row + 1]; k++) ends.push(runs.starts[k], runs.ends[k]);
-  if (ends.length === 0) return 0;
-  ends.sort((a, b) => a - b);
-  // Spans of cells: around every run end, and across the columns where the rows differ (between
-  // the 1st and 2nd, 3rd and 4th … of the ends taken as toggles).
-  const spans: number[] = [];
-  for (const e of ends) spans.push(e - 1, e - 1);
-  const toggles: number[] = [];
-  for (const e of ends) {
-    if (toggles.length && toggles[toggles.length - 1] === e) toggles.pop();
-    else toggles.push(e);
+  const a0 = runs.rowStart[y],
+    a1 = runs.rowStart[y + 1],
+    b1 = runs.rowStart[y + 2];
+  const count = 2 * (b1 - a0);
+  if (count === 0) return 0;
+  if (endsScratch.length < count) {
+    endsScratch = new Int32Array(2 * count);
+    togglesScratch = new Int32Array(2 * count);
   }
-  for (let k = 0; k + 1 < toggles.length; k += 2) spans.push(toggles[k] - 1, toggles[k + 1] - 1);
-  const order = Array.from({ length: spans.length / 2 }, (_, k) => k).sort((a, b) => spans[2 * a] - spans[2 * b]);
+  // Each row's ends in order (its runs are sorted and apart), the two rows merged.
+  const ends = endsScratch,
+    starts = runs.starts,
+    stops = runs.ends;
+  for (let i = 2 * a0, j = 2 * a1, n = 0; n < count; n++) {
+    const ei = i < 2 * a1 ? ((i & 1) === 0 ? starts[i >> 1] : stops[i >> 1]) : Infinity,
+      ej = j < 2 * b1 ? ((j & 1) === 0 ? starts[j >> 1] : stops[j >> 1]) : Infinity;
+    if (ei <= ej) {
+      ends[n] = ei;
+      i++;
+    } else {
+      ends[n] = ej;
+      j++;
+    }
+  }
+  // The columns where the rows differ lie between the 1st and 2nd, 3rd and 4th … of the ends taken
+  // as toggles (an end in both rows cancels).
+  const toggles = togglesScratch;
+  let t = 0;
+  for (let n = 0; n < count; n++) {
+    if (t > 0 && toggles[t - 1] === ends[n]) t--;
+    else toggles[t++] = ends[n];
+  }
+  // Spans of cells: around every run end, and across those columns; both lists are sorted by start,
+  // so taking them in order joins overlapping and adjacent spans.
   let n = 0;
-  for (const k of order) {
-    const from = Math.max(0, spans[2 * k]),
-      to = Math.min(last, spans[2 * k + 1]);
+  for (let i = 0, k = 0; i < count || k + 1 < t;) {
+    let from: number, to: number;
+    if (k + 1 >= t || (i < count && ends[i] <= toggles[k])) {
+      from = to = ends[i++] - 1;
+    } else {
+      from = toggles[k] - 1;
+      to = toggles[k + 1] - 1;
+      k += 2;
+    }
+    if (from < 0) from = 0;
+    if (to > last) to = last;
     if (from > to) continue;
-    if (n > 0 && from <= out[n - 1] + 1) out[n - 1] = Math.max(out[n - 1], to);
-    else {
+    if (n > 0 && from <= out[n - 1] + 1) {
+      if (to > out[n - 1]) out[n - 1] = to;
+    } else {
       out[n++] = from;
       out[n++] = to;
     }
