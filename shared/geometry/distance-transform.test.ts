@@ -35,6 +35,29 @@ describe('Euclidean distance transform (Felzenszwalb & Huttenlocher 2012)', () =
     expectBruteForce(feature, width, height);
   });
 
+  it('with a reach, is exact up to it and above it beyond (features far down a column are left out)', () => {
+    const width = 53,
+      height = 47;
+    let seed = 11;
+    const random = () => (seed = (seed * 1103515245 + 12345) % 2 ** 31) / 2 ** 31;
+    const feature = new Uint8Array(width * height);
+    for (let y = 0; y < height; y++)
+      for (let x = 0; x < width; x++) if ((x - 20) ** 2 + (y - 25) ** 2 < 100 || random() < 0.004) feature[y * width + x] = 1;
+    const full = squaredDistanceTransform(feature, width, height);
+    for (const reach of [0, 1, 3.5, 7, 12]) {
+      const near = squaredDistanceTransform(feature, width, height, undefined, reach);
+      let beyond = 0;
+      for (let i = 0; i < full.length; i++) {
+        if (full[i] <= reach * reach) expect(near[i], `pixel ${i}, reach ${reach}`).toBe(full[i]);
+        else {
+          expect(near[i], `pixel ${i}, reach ${reach}`).toBeGreaterThan(reach * reach);
+          beyond++;
+        }
+      }
+      expect(beyond).toBeGreaterThan(0);
+    }
+  });
+
   it('is exact, not a square or diamond kernel: a single point gives (dx² + dy²)', () => {
     const feature = new Uint8Array(21 * 21);
     feature[10 * 21 + 10] = 1;

@@ -55,6 +55,7 @@ export function squaredDistanceTransform(
   width: number,
   height: number,
   out: Float32Array = new Float32Array(width * height), // every value is written
+  reach = Infinity, // distances up to it are exact; a pixel farther from every feature gets more than reach²
 ): Float32Array {
   // Column phase: vertical distance to the nearest feature, top-down then bottom-up sweeps, in
   // whole numbers written through an integer view of the same memory (each row is read in full by
@@ -78,6 +79,9 @@ export function squaredDistanceTransform(
   // Row phase: lower envelope of the parabolas of the columns that have a feature. A site strictly
   // inside a run of zeros is never the nearest for any pixel outside that run (the run's ends are
   // nearer on the same row), and the run's own pixels are 0: such sites are left out.
+  // A column's feature farther than `reach` down or up the column is farther than that from every
+  // pixel of this row: it is never the nearest within reach, and is left out.
+  const limit = Math.min(far - 1, reach);
   const f = new Float64Array(width),
     z = new Float64Array(width + 1);
   const v = new Int32Array(width),
@@ -89,7 +93,7 @@ export function squaredDistanceTransform(
       inner = 0;
     for (let x = 0; x < width; x++) {
       const gx = g[row + x];
-      if (gx >= far) continue;
+      if (gx > limit) continue;
       if (gx === 0 && x > 0 && x < width - 1 && g[row + x - 1] === 0 && g[row + x + 1] === 0) {
         zeros[inner++] = x;
         continue;

@@ -140,7 +140,8 @@ export async function outline(
   // 5. Grow by the border with an exact Euclidean distance transform; group islands by their grown regions.
   const level = options.border * pxPerMm + 0.5; // distances run between pixel centres
   const level2 = level * level;
-  const squared = squaredDistanceTransform(artMask, cw, ch, new Float32Array(loans.take(4 * cw * ch), 0, cw * ch));
+  // Exact up to 2 px past the cut line, which is all the field needs (farther only the sign counts).
+  const squared = squaredDistanceTransform(artMask, cw, ch, new Float32Array(loans.take(4 * cw * ch), 0, cw * ch), level + 2);
   // Within `level` of the art (the art's runs grown by a disk: cheap to label). Art in one piece grows
   // into one region: it is needed only for several pieces of art or for widening.
   const grownRuns = small.kept.length > 1 || options.widenNecks ? dilateRuns(artRuns, level, true) : null;
