@@ -1,6 +1,8 @@
 import { encodePngAt } from '../png';
 import type { Rgb } from './background';
 
+const LITTLE_ENDIAN = new Uint8Array(Uint32Array.of(1).buffer)[0] === 1;
+
 export type Frame = { x: number; y: number; width: number; height: number };
 
 /**
@@ -41,10 +43,12 @@ export function composeSticker(input: {
   const br = border.r,
     bg = border.g,
     bb = border.b;
-  // Whole pixels of opaque art are copied four bytes at a time where the buffers allow it.
+  // Whole pixels are written four bytes at a time where the buffers allow it: opaque art copied as
+  // it is, other pixels packed as R, G, B, A from the lowest byte (so only on a little-endian machine).
   const aligned = out.byteOffset % 4 === 0 && art.byteOffset % 4 === 0;
   const out32 = aligned ? new Uint32Array(out.buffer, out.byteOffset, out.length >> 2) : null;
   const art32 = aligned ? new Uint32Array(art.buffer, art.byteOffset, art.length >> 2) : null;
+  const packed = aligned && LITTLE_ENDIAN;
   for (let y = 0; y < frame.height; y++) {
     const cy = y + frame.y;
     const ay = cy - artOrigin.y;
@@ -88,10 +92,14 @@ export function composeSticker(input: {
         v = art[a + 2] * alpha + bb * rest + 128;
         b = (v + (v >> 8)) >> 8;
       }
-      out[o] = r;
-      out[o + 1] = g;
-      out[o + 2] = b;
-      out[o + 3] = f >= 0.5 ? 255 : (f + 0.5) * 255 + 0.5;
+      const coverage = f >= 0.5 ? 255 : ((f + 0.5) * 255 + 0.5) | 0;
+      if (packed) out32![o >> 2] = r | (g << 8) | (b << 16) | (coverage << 24);
+      else {
+        out[o] = r;
+        out[o + 1] = g;
+        out[o + 2] = b;
+        out[o + 3] = coverage;
+      }
     }
   }
   return out;
