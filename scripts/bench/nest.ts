@@ -1,10 +1,10 @@
-// npm run bench:nest -- <instance.json or folder>... [--time 60s] [--seed 1] [--out DIR] [--json] [--sticker] [--threads 1]
+// npm run bench:nest -- <instance.json or folder>... [--time 60s] [--seed 1] [--out DIR] [--json] [--sticker] [--threads 1] [--gap 0.01]
 //
 // Strip packing on instances in the JSON layout of ../shared/nesting/ (ESICUP, as published with the
 // code of Gardeyn, Vanden Berghe & Wauters 2025): a fixed strip height, every copy of every item placed at one of its
 // allowed orientations, the length as short as possible. Each instance is scaled so the strip is
 // 200 mm high (density does not change with scale) and packed by our nester at a 1 mm cell with a
-// gap of 0.01 mm. Density = total item area / (strip height × length). One thread unless --threads
+// gap of 0.01 mm, or the --gap given (the reference runs kept none: --gap 0 touches allowed). Density = total item area / (strip height × length). One thread unless --threads
 // asks for more (each its own seed, the best kept).
 //
 // --sticker runs the sticker protocol instead: the instance's shapes scaled so the median piece's
@@ -38,8 +38,12 @@ const { values, positionals } = parseArgs({
     json: { type: 'boolean', default: false },
     sticker: { type: 'boolean', default: false },
     threads: { type: 'string', default: '1' },
+    gap: { type: 'string', default: '0.01' },
   },
 });
+
+const gap = Number(values.gap);
+if (!Number.isFinite(gap) || gap < 0) throw new Error(`--gap: give the gap in mm, 0 or more (got ${values.gap})`);
 
 const seconds = (text: string) => {
   const m = /^(\d+(?:\.\d+)?)(ms|s|m)?$/.exec(text.trim());
@@ -118,7 +122,7 @@ async function strip(file: string, timeS: number, seed: number) {
   const options = {
     width: H,
     height: longest,
-    gap: 0.01,
+    gap,
     margin: 0,
     strip: true,
     rotate: 'none' as const,
@@ -248,7 +252,7 @@ if (values.sticker) {
   const timeS = seconds(values.time!);
   if (!values.json)
     console.log(
-      `strip packing: strip 200 mm high, cell 1 mm, gap 0.01 mm, the instance's rotations, ${timeS} s per instance, seed ${seed}`,
+      `strip packing: strip 200 mm high, cell 1 mm, gap ${gap} mm, the instance's rotations, ${timeS} s per instance, seed ${seed}`,
     );
   for (const file of files) {
     const r = await strip(file, timeS, seed);
