@@ -7,7 +7,7 @@ import { MM_PER_INCH, formatLength } from '@shared/units';
 import { type RemovalPlan, detectBackground, parseHex, removeBackground } from './background';
 import { bridgeIslands } from './bridge';
 import { clearComponents, fillHoleRuns, labelRowRuns } from './components';
-import { dilateRuns, maskOfRuns, placeRuns, runsAtLeast, runsOfAlpha, selectRuns } from './runs';
+import { dilateRuns, maskOfRuns, placeRuns, runsOfAlpha, selectRuns } from './runs';
 import { decodeArt } from './decode';
 import { squaredDistanceTransform } from '@shared/geometry/distance-transform';
 import { OutlineInputError } from './errors';
@@ -154,10 +154,11 @@ export async function outline(
 
   const buildPiece = async (pieceArt: Uint8Array, artVisible: ((i: number) => boolean) | null) => {
     // The field is written over the squared distances (this piece is their last reader).
-    const field = borderField(pieceArt === artMask ? squared : squaredDistanceTransform(pieceArt, cw, ch), level);
+    const field = pieceArt === artMask ? squared : squaredDistanceTransform(pieceArt, cw, ch);
+    const inside = borderField(field, cw, ch, level);
     // Holes inside the cut line are filled, in the field too: they stay out of the traced rings and
     // print in the border colour (coverage min(1, field + 0.5) is 1 there).
-    const { filled, holes } = fillHoleRuns(runsAtLeast(field, cw, ch, 0));
+    const { filled, holes } = fillHoleRuns(inside);
     for (let y = 0; y < ch; y++)
       for (let k = holes.rowStart[y]; k < holes.rowStart[y + 1]; k++) field.fill(0.5, y * cw + holes.starts[k], y * cw + holes.ends[k]);
 

@@ -1,5 +1,7 @@
 import { encodePngAt } from '../png';
 import type { Rgb } from './background';
+import type { RowRuns } from './runs';
+import { RunsBuilder } from './runs';
 
 const LITTLE_ENDIAN = new Uint8Array(Uint32Array.of(1).buffer)[0] === 1;
 
@@ -8,16 +10,30 @@ export type Frame = { x: number; y: number; width: number; height: number };
 /**
  * Squared distances to the art turned, in place, into the border's field: level − distance (px),
  * positive inside the cut line. Far from the cut line only the sign matters (±2); the square root is
- * taken near it.
+ * taken near it. Answers the runs where the field is at least 0 (inside the cut line), found in the
+ * same pass.
  */
-export function borderField(squared: Float32Array, level: number): Float32Array {
+export function borderField(squared: Float32Array, width: number, height: number, level: number): RowRuns {
   const near2Low = level > 2 ? (level - 2) ** 2 : -1,
     near2High = (level + 2) ** 2;
-  for (let i = 0; i < squared.length; i++) {
-    const d2 = squared[i];
-    squared[i] = d2 <= near2Low ? 2 : d2 >= near2High ? -2 : level - Math.sqrt(d2);
+  const inside = new RunsBuilder(width, height);
+  for (let y = 0; y < height; y++) {
+    inside.beginRow(y);
+    let start = -1;
+    for (let x = 0, i = y * width; x < width; x++, i++) {
+      const d2 = squared[i];
+      const f = d2 <= near2Low ? 2 : d2 >= near2High ? -2 : level - Math.sqrt(d2);
+      squared[i] = f;
+      if (f >= 0) {
+        if (start < 0) start = x;
+      } else if (start >= 0) {
+        inside.push(start, x);
+        start = -1;
+      }
+    }
+    if (start >= 0) inside.push(start, width);
   }
-  return squared;
+  return inside.done();
 }
 
 /**

@@ -13,7 +13,7 @@ export type RowRuns = {
 };
 
 /** Collects runs row by row. */
-class RunsBuilder {
+export class RunsBuilder {
   private starts = new Int32Array(1024);
   private ends = new Int32Array(1024);
   private count = 0;
