@@ -106,7 +106,7 @@ function sharedArea(a: Variant, ax: number, ay: number, b: Variant, bx: number, 
  * above 0. One pass over the pairs of inscribed circles gives the depth and, when two of them
  * overlap, the proof of a collision; only otherwise are the edges tested.
  */
-export function overlapDepth(a: Variant, ax: number, ay: number, b: Variant, bx: number, by: number): number {
+export function overlapDepth(a: Variant, ax: number, ay: number, b: Variant, bx: number, by: number, limit = Infinity): number {
   const lx = Math.max(a.gx0 + ax, b.gx0 + bx),
     hx = Math.min(a.gx1 + ax, b.gx1 + bx);
   if (lx >= hx) return 0;
@@ -122,6 +122,10 @@ export function overlapDepth(a: Variant, ax: number, ay: number, b: Variant, bx:
     oy = ay - by;
   let sum = 0,
     proven = false;
+  // The geometric mean of the √areas, and the sum past which the depth is at least `limit`: a caller
+  // that stops once its total passes a bound gets an answer as good without the rest of the circles.
+  const scale = Math.sqrt(Math.sqrt(a.area * b.area));
+  const enough = limit === Infinity ? Infinity : (limit / scale) ** 2 - eps * eps;
   for (let i = 0; i < ap.length; i += 3) {
     const px = ap[i] + ox,
       py = ap[i + 1] + oy,
@@ -139,9 +143,10 @@ export function overlapDepth(a: Variant, ax: number, ay: number, b: Variant, bx:
       const weight = pr < r ? pr : r;
       sum += (pd >= eps ? pd : (eps * eps) / (2 * eps - pd)) * weight;
     }
+    if (proven && sum >= enough) return Math.sqrt(sum + eps * eps) * scale;
   }
   // A collision in parts no circle covers still counts for something (ε).
-  const deep = Math.sqrt(sum + eps * eps) * Math.sqrt(Math.sqrt(a.area * b.area));
+  const deep = Math.sqrt(sum + eps * eps) * scale;
   if (proven) return deep;
   const verdict = crossing(a, ax, ay, b, bx, by, lx, ly, hx, hy);
   if (verdict === CROSS) return deep;

@@ -133,9 +133,10 @@ export class Layout {
       if (e.i === i || e.minX > x1 || e.maxX < x0 || e.minY > y1 || e.maxY < y0) continue;
       const q = this.pieces[e.i],
         t = q.variants[q.v];
-      const d = overlapDepth(s, x, y, t, q.x, q.y);
+      const w = this.weights[i * size + e.i];
+      const d = overlapDepth(s, x, y, t, q.x, q.y, (bound - sum) / w);
       if (d === 0) continue;
-      sum += this.weights[i * size + e.i] * d;
+      sum += w * d;
       if (sum >= bound) return sum;
     }
     return sum;
