@@ -20,6 +20,8 @@ import { overlapArea, OVERLAP_EPSILON_MM2 } from '../geometry/overlap';
 import type { Variant } from './shapes';
 import { insideRing } from './shapes';
 
+/** How far (mm) the window is widened when edges are judged in their own frame. */
+const SLACK = 1e-7;
 const APART = 0,
   CROSS = 1,
   TOUCH = 2;
@@ -48,26 +50,42 @@ function crossing(
   if (edgesA.length < na * 4) edgesA = new Float64Array(na * 8);
   const e = edgesA;
   let m = 0;
+  // Edges are first judged in their own shape's frame (the window moved there and widened by far
+  // more than rounding, so no edge the world's test would take is left out), and only those that
+  // reach into it are moved into the world. An edge taken that lies just outside the window crosses
+  // nothing: a crossing lies in both boxes, so in the window.
+  const alx = lx - ax - SLACK,
+    ahx = hx - ax + SLACK,
+    aly = ly - ay - SLACK,
+    ahy = hy - ay + SLACK;
   for (let i = 0, j = na - 1; i < na; j = i++) {
-    const x0 = axs[j] + ax,
-      y0 = ays[j] + ay,
-      x1 = axs[i] + ax,
-      y1 = ays[i] + ay;
-    if ((x0 < lx && x1 < lx) || (x0 > hx && x1 > hx) || (y0 < ly && y1 < ly) || (y0 > hy && y1 > hy)) continue;
-    e[m] = x0;
-    e[m + 1] = y0;
-    e[m + 2] = x1;
-    e[m + 3] = y1;
+    const x0 = axs[j],
+      y0 = ays[j],
+      x1 = axs[i],
+      y1 = ays[i];
+    if ((x0 < alx && x1 < alx) || (x0 > ahx && x1 > ahx) || (y0 < aly && y1 < aly) || (y0 > ahy && y1 > ahy)) continue;
+    e[m] = x0 + ax;
+    e[m + 1] = y0 + ay;
+    e[m + 2] = x1 + ax;
+    e[m + 3] = y1 + ay;
     m += 4;
   }
   if (m === 0) return APART;
   let touch = false;
+  const blx = lx - bx - SLACK,
+    bhx = hx - bx + SLACK,
+    bly = ly - by - SLACK,
+    bhy = hy - by + SLACK;
   for (let q = 0, p = nb - 1; q < nb; p = q++) {
-    const x2 = bxs[p] + bx,
-      y2 = bys[p] + by,
-      x3 = bxs[q] + bx,
-      y3 = bys[q] + by;
-    if ((x2 < lx && x3 < lx) || (x2 > hx && x3 > hx) || (y2 < ly && y3 < ly) || (y2 > hy && y3 > hy)) continue;
+    const u2 = bxs[p],
+      v2 = bys[p],
+      u3 = bxs[q],
+      v3 = bys[q];
+    if ((u2 < blx && u3 < blx) || (u2 > bhx && u3 > bhx) || (v2 < bly && v3 < bly) || (v2 > bhy && v3 > bhy)) continue;
+    const x2 = u2 + bx,
+      y2 = v2 + by,
+      x3 = u3 + bx,
+      y3 = v3 + by;
     const minX = x2 < x3 ? x2 : x3,
       maxX = x2 < x3 ? x3 : x2,
       minY = y2 < y3 ? y2 : y3,
