@@ -9,6 +9,16 @@ export function betterResult(a: ArrangeResult, b: ArrangeResult): boolean {
   return (a.areaUsed[0] ?? 0) > (b.areaUsed[0] ?? 0);
 }
 
+/**
+ * The best of the threads' answers, given in thread order; of equal answers the first thread's, so
+ * that a seed gives the same layout whichever thread finishes first.
+ */
+export function bestOfThreads(results: ArrangeResult[]): ArrangeResult {
+  let best = results[0];
+  for (const r of results.slice(1)) if (betterResult(r, best)) best = r;
+  return best;
+}
+
 /** The seed of thread k: far apart, so no two threads walk the same path. */
 export const threadSeed = (seed: number, k: number) => seed + k * 7919;
 

@@ -5,11 +5,11 @@ import { MessageChannel } from 'node:worker_threads';
 import { Piscina } from 'piscina';
 import type { ArrangeItem, ArrangeOptions, ArrangeResult, LockedPiece } from '@shared/arrange/nester';
 import { ArrangeInputError } from '@shared/arrange/nester';
-import { betterResult, threadSeed, threadsFor } from '@shared/arrange/portfolio';
+import { bestOfThreads, betterResult, threadSeed, threadsFor } from '@shared/arrange/portfolio';
 import type { ArrangeTask, ArrangeTaskResult } from './thread';
 
 type ParallelRun = {
-  /** Every thread's answer, best first. */
+  /** The best of the threads' answers (of equal ones, the first thread's). */
   done: Promise<ArrangeResult>;
   /** Asks every thread to stop; `done` then answers the best so far. */
   stop: () => void;
@@ -38,6 +38,8 @@ export function arrangeInThreads(
       onBest?.(result);
     }
   };
+  // Progress goes out as it comes; the answer is chosen from every thread's last word in thread order.
+  const finals: ArrangeResult[] = [];
   const runs = Array.from({ length: threads }, async (_, k) => {
     const { port1, port2 } = new MessageChannel();
     port1.on('message', offer);
@@ -46,12 +48,13 @@ export function arrangeInThreads(
       const reply: ArrangeTaskResult = await pool.run(task, { transferList: [port2] });
       if (!reply.ok) throw new ArrangeInputError(reply.message);
       offer(reply.result);
+      finals[k] = reply.result;
     } finally {
       port1.close();
     }
   });
   const done = Promise.all(runs)
-    .then(() => best!)
+    .then(() => bestOfThreads(finals))
     .finally(() => pool.destroy());
   return { done, stop: () => Atomics.store(new Int32Array(stop), 0, 1) };
 }

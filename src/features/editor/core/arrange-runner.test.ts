@@ -60,6 +60,13 @@ describe('several arrange workers at once', () => {
     expect(workers.every((w) => w.ended)).toBe(true);
   });
 
+  it("of equal layouts answers the first worker's, whichever finished first (a seed repeats)", () => {
+    const { seen, workers } = start(2);
+    workers[1].say({ type: 'done', result: { ...result(9, 1, 0.45), ms: 7 } });
+    workers[0].say({ type: 'done', result: { ...result(9, 1, 0.45), ms: 5 } });
+    expect(seen.done?.ms).toBe(5);
+  });
+
   it('stop ends every worker at once and answers the best so far', () => {
     const { runner, workers } = start(2);
     workers[1].say({ type: 'best', result: result(6, 1, 0.3) });

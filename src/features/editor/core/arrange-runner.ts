@@ -1,7 +1,8 @@
 // Runs the nester in several Web Workers at once, one seed each, and keeps the best layout any of
-// them has found: progress and "stop" see that best, and the run is done when every worker is.
+// them has found: progress and "stop" see that best, and the run is done when every worker is, with
+// the best of their last answers (of equal ones the first worker's, so a seed repeats).
 import type { ArrangeItem, ArrangeOptions, ArrangeProgress, ArrangeResult, LockedPiece } from '@shared/arrange/nester';
-import { betterResult, threadSeed } from '@shared/arrange/portfolio';
+import { bestOfThreads, betterResult, threadSeed } from '@shared/arrange/portfolio';
 
 export type RunnerEvents = {
   onProgress: (progress: ArrangeProgress & { threads: number }) => void;
@@ -15,6 +16,7 @@ export class ArrangeRunner {
   private best: ArrangeResult | null = null;
   private finished = 0;
   private iterations: number[] = [];
+  private finals: ArrangeResult[] = [];
 
   constructor(
     private readonly spawn: () => Worker,
@@ -26,6 +28,7 @@ export class ArrangeRunner {
     this.best = null;
     this.finished = 0;
     this.iterations = Array(this.threads).fill(0);
+    this.finals = [];
     for (let k = 0; k < this.threads; k++) {
       const worker = this.spawn();
       this.workers.push(worker);
@@ -39,9 +42,11 @@ export class ArrangeRunner {
           this.stop();
           events.onError(message.message);
         }
+        if (message.type === 'done') this.finals[k] = message.result;
         if (message.type === 'done' && ++this.finished === this.threads) {
           this.terminate();
-          events.onDone(this.best!);
+          this.best = bestOfThreads(this.finals);
+          events.onDone(this.best);
         }
       };
       worker.onerror = () => {
