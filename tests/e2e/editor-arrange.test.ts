@@ -90,7 +90,14 @@ describe('auto-arrange in the editor, in Chromium', { timeout: BROWSER_TEST_TIME
     await expect.poll(() => page.getByTestId('preflight-ok').count(), { timeout: 15_000 }).toBe(1);
     await expect.poll(() => page.getByTestId('save-state').textContent(), { timeout: 15_000 }).toBe('All changes saved');
     const arranged = (await sheetOf(client, team.id, sheet.id)).document.pieces as Piece[];
-    expect(arranged.filter((p) => p.x === pile.find((q) => q.id === p.id)!.x)).toHaveLength(0);
+    // The kept layout is the arranged one, not the pile: every piece apart (the preflight above) and
+    // all but at most one moved in both directions. One may keep its x or y by chance (this layout
+    // puts one piece at x = 87 mm, where the pile had it, 9 mm higher up).
+    const moved = arranged.filter((p) => {
+      const before = pile.find((q) => q.id === p.id)!;
+      return p.x !== before.x && p.y !== before.y;
+    });
+    expect(moved.length).toBeGreaterThanOrEqual(arranged.length - 1);
     await screenshot(page, 'editor-arranged');
     await page.mouse.click(5, 300);
     await page.keyboard.press('Control+z');
