@@ -4,8 +4,9 @@
 // code of Gardeyn, Vanden Berghe & Wauters 2025): a fixed strip height, every copy of every item placed at one of its
 // allowed orientations, the length as short as possible. Each instance is scaled so the strip is
 // 200 mm high (density does not change with scale) and packed by our nester at a 1 mm cell with a
-// gap of 0.01 mm, or the --gap given (the reference runs kept none: --gap 0 touches allowed). Density = total item area / (strip height × length). One thread unless --threads
-// asks for more (each its own seed, the best kept).
+// gap of 0.01 mm, or the --gap given (the reference runs kept none; --gap 0 lets pieces touch).
+// Density = total item area / (strip height × length). One thread unless --threads asks for more
+// (each its own seed, the best kept).
 //
 // --sticker runs the sticker protocol instead: the instance's shapes scaled so the median piece's
 // larger side is 44.45 mm (1.75 in), filling a 171.45 × 234.95 mm print area with a 3.175 mm gap and
