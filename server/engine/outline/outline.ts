@@ -140,8 +140,10 @@ export async function outline(
   // 5. Grow by the border with an exact Euclidean distance transform; group islands by their grown regions.
   const level = options.border * pxPerMm + 0.5; // distances run between pixel centres
   const level2 = level * level;
-  // Exact up to 2 px past the cut line, which is all the field needs (farther only the sign counts).
-  const squared = squaredDistanceTransform(artMask, cw, ch, new Float32Array(loans.take(4 * cw * ch), 0, cw * ch), level + 2);
+  // Squared distances to art, exact up to 2 px past the cut line: all the field needs (farther only
+  // the sign counts), and all the grown shape needs (within `level`).
+  const distancesTo = (mask: Uint8Array, out?: Float32Array) => squaredDistanceTransform(mask, cw, ch, out, level + 2);
+  const squared = distancesTo(artMask, new Float32Array(loans.take(4 * cw * ch), 0, cw * ch));
   // Within `level` of the art (the art's runs grown by a disk: cheap to label). Art in one piece grows
   // into one region: it is needed only for several pieces of art or for widening.
   const grownRuns = small.kept.length > 1 || options.widenNecks ? dilateRuns(artRuns, level, true) : null;
@@ -154,7 +156,7 @@ export async function outline(
 
   const buildPiece = async (pieceArt: Uint8Array, artVisible: ((i: number) => boolean) | null) => {
     // The field is written over the squared distances (this piece is their last reader).
-    const field = pieceArt === artMask ? squared : squaredDistanceTransform(pieceArt, cw, ch);
+    const field = pieceArt === artMask ? squared : distancesTo(pieceArt);
     const inside = borderField(field, cw, ch, level);
     // Holes inside the cut line are filled, in the field too: they stay out of the traced rings and
     // print in the border colour (coverage min(1, field + 0.5) is 1 there).
@@ -225,7 +227,7 @@ export async function outline(
         // until it is that wide; a closing then rounds the crevices where the widened part meets the rest.
         const thin = widenNarrowParts(artMask, grown, cw, ch, { minFeaturePx, bridgePx, level });
         if (thin > 0) {
-          squaredDistanceTransform(artMask, cw, ch, squared); // the art changed: measured again in the same buffer
+          distancesTo(artMask, squared); // the art changed: measured again in the same buffer
           for (let i = 0; i < grown.length; i++) grown[i] = squared[i] <= level2 ? 1 : 0;
           warnings.push({
             code: 'necks-widened',
@@ -240,7 +242,7 @@ export async function outline(
         // The capsule drawn into the art grows by the border, so it needs only what the border lacks.
         const radius = Math.max(0.75, bridgePx / 2 - (level - 0.5) + 1);
         const bridges = bridgeIslands(artMask, parts.labels!, parts.count, cw, ch, radius);
-        squaredDistanceTransform(artMask, cw, ch, squared);
+        distancesTo(artMask, squared);
         warnings.push({
           code: 'islands-joined',
           severity: 'notice',
