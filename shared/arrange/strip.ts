@@ -133,6 +133,7 @@ function compress(layout: Layout, search: Search, o: StripOptions, total: number
     if (ok) succeeded(layout, search, o);
   }
 }
+
 /** Two of the larger pieces (area above the median) of different shapes trade places. */
 function swapLarge(layout: Layout, random: () => number) {
   const movable = layout.pieces.map((p, i) => ({ p, i })).filter(({ p }) => !p.fixed);
