@@ -1,7 +1,7 @@
 import { describe, expect, it } from 'vitest';
 import { distanceTransform } from '@shared/geometry/distance-transform';
 import { nearSet } from './morphology';
-import { erodeRuns, maskOfRuns, runsOfMask } from './runs';
+import { erodeRuns, maskOfRuns, runsOfAlpha, runsOfMask } from './runs';
 
 /** Random blobs and specks on a small canvas, repeatable. */
 function randomMask(width: number, height: number, seed: number): Uint8Array {
@@ -62,4 +62,34 @@ describe('erosion on runs', () => {
       }
     });
   }
+});
+
+describe('runs of alpha', () => {
+  it('reads the same runs from whole pixels and from single bytes, at every threshold', () => {
+    const width = 37,
+      height = 9;
+    // Every alpha value appears, including 0 and 255 and the values either side of the thresholds.
+    const bytes = new Uint8Array(4 * width * height);
+    for (let i = 0; i < width * height; i++) {
+      const alpha = (i * 7) % 256;
+      bytes.set(i % 3 === 0 ? [0, 0, 0, alpha] : [(i * 31) & 255, (i * 17) & 255, 255 - alpha, alpha], 4 * i);
+    }
+    const aligned = bytes.subarray(0, 4 * width * height); // read a word at a time
+    const unaligned = new Uint8Array(new ArrayBuffer(4 * width * height + 1), 1, 4 * width * height); // a byte at a time
+    unaligned.set(aligned);
+    for (const threshold of [0, 1, 48, 128, 255]) {
+      const rows = (r: ReturnType<typeof runsOfAlpha>) =>
+        Array.from({ length: height }, (_, y) =>
+          Array.from({ length: width }, (_, x) => {
+            for (let k = r.rowStart[y]; k < r.rowStart[y + 1]; k++) if (x >= r.starts[k] && x < r.ends[k]) return 1;
+            return 0;
+          }).join(''),
+        );
+      const expected = Array.from({ length: height }, (_, y) =>
+        Array.from({ length: width }, (_, x) => (((y * width + x) * 7) % 256 >= threshold ? 1 : 0)).join(''),
+      );
+      expect(rows(runsOfAlpha(aligned, width, height, threshold))).toEqual(expected);
+      expect(rows(runsOfAlpha(unaligned, width, height, threshold))).toEqual(expected);
+    }
+  });
 });

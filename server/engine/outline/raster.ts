@@ -1,9 +1,8 @@
 import { encodePngAt } from '../png';
 import type { Rgb } from './background';
 import type { RowRuns } from './runs';
-import { RunsBuilder } from './runs';
+import { LITTLE_ENDIAN, RunsBuilder } from './runs';
 
-const LITTLE_ENDIAN = new Uint8Array(Uint32Array.of(1).buffer)[0] === 1;
 
 export type Frame = { x: number; y: number; width: number; height: number };
 
