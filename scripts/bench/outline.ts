@@ -1,7 +1,10 @@
 // npm run bench:outline: outlines generated art of 1, 4 and 16 megapixels and compares each with
-// the floor measured in the same run on the same files: sharp decode + raw pixel read alone.
+// the floor measured in the same run on the same files: sharp decode + raw pixel read alone. The
+// outline is timed where the app and `npm run worker` run it, on an outline thread (one thread, the
+// file sent in and the stickers sent back), and beside it called in this thread.
 import sharp from 'sharp';
 import { outline } from '../../server/engine/outline/outline';
+import { OutlinePool } from '../../server/engine/outline/pool';
 
 const SIZES = [
   { label: '1 MP', width: 1000, height: 1000 },
@@ -41,12 +44,16 @@ async function time(fn: () => Promise<unknown>): Promise<number> {
 
 sharp.concurrency(1); // one core, as a worker thread has
 console.log(`outline benchmark: median of ${RUNS} runs, art printed 2 in wide with a 3 mm border at 300 DPI (the CLI's example)`);
-console.log('size   | file KB | floor ms (decode+raw) | outline ms | ratio');
+console.log('size   | file KB | floor ms (decode+raw) | outline ms (outline thread) | ratio | outline ms (this thread)');
+const pool = new OutlinePool(undefined, 1);
 for (const size of SIZES) {
   const file = await makeArt(size.width, size.height);
+  const options = { width: '2in', border: '3mm' };
   const floor = await time(() => sharp(file).ensureAlpha().raw().toBuffer());
-  const ours = await time(() => outline(file, { width: '2in', border: '3mm' }));
+  const ours = await time(() => pool.run(file, options));
+  const here = await time(() => outline(file, options));
   console.log(
-    `${size.label.padEnd(6)} | ${String(Math.round(file.length / 1024)).padStart(7)} | ${floor.toFixed(1).padStart(21)} | ${ours.toFixed(1).padStart(10)} | ${(ours / floor).toFixed(2)}`,
+    `${size.label.padEnd(6)} | ${String(Math.round(file.length / 1024)).padStart(7)} | ${floor.toFixed(1).padStart(21)} | ${ours.toFixed(1).padStart(27)} | ${(ours / floor).toFixed(2).padStart(5)} | ${here.toFixed(1)}`,
   );
 }
+await pool.close();

@@ -1,4 +1,5 @@
 import { availableParallelism } from 'node:os';
+import { setFlagsFromString } from 'node:v8';
 import { Piscina } from 'piscina';
 import type { OutlineOptionsInput } from '@shared/schemas/outline';
 import { OutlineInputError } from './errors';
@@ -8,6 +9,16 @@ import type { RemovalPreview } from './removal-preview';
 import type { OutlineTask, OutlineTaskResult } from './worker';
 
 export class OutlinePoolBusyError extends Error {}
+
+/**
+ * Threads started from now on begin with a 64 MB old generation (V8 reads the flag when a thread's
+ * heap is made). An outline's short-lived objects outlive a few scavenges while sharp works on the
+ * pixels, and from V8's small default start nearly every 4 MP outline ended in a full collection:
+ * 25 in 45 outlines at 72 ms each, against 3 at 63 ms with 64 MB (4 MP art, one thread).
+ */
+function roomierThreadHeaps() {
+  setFlagsFromString('--initial-heap-size=64');
+}
 
 /**
  * A bounded pool of worker threads for outlines, so image work never runs on the thread that
@@ -21,6 +32,7 @@ export class OutlinePool {
     threads = Math.max(1, Math.min(4, availableParallelism() - 1)),
     maxQueue = 64,
   ) {
+    roomierThreadHeaps();
     this.piscina = new Piscina({
       filename: new URL('./worker-entry.mjs', import.meta.url).href,
       minThreads: 0,
