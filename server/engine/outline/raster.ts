@@ -3,7 +3,6 @@ import type { Rgb } from './background';
 import type { RowRuns } from './runs';
 import { LITTLE_ENDIAN, RunsBuilder } from './runs';
 
-
 export type Frame = { x: number; y: number; width: number; height: number };
 
 /**
