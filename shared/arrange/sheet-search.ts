@@ -33,8 +33,15 @@ export function fillSheet(
   for (const p of placed) counts.set(p.key, (counts.get(p.key) ?? 0) + 1);
   const failures = new Map<string, number>();
   let best: Placed[] | null = null;
+  // Each art may fail twice; once every art has, and time is left, each gets two more tries (the
+  // separator starts from random spots, so a try that failed may succeed), up to eight in all.
+  let allowed = 2;
   for (let tries = 0; running(o, tries); tries++) {
-    const open = itemKeys.filter((k) => (failures.get(k) ?? 0) < 2);
+    let open = itemKeys.filter((k) => (failures.get(k) ?? 0) < allowed);
+    if (open.length === 0 && allowed < 8) {
+      allowed += 2;
+      open = itemKeys.filter((k) => (failures.get(k) ?? 0) < allowed);
+    }
     if (open.length === 0) break;
     // The mix stays even within four copies; among those, the smallest art goes first (it fits most often).
     const fewest = Math.min(...open.map((k) => counts.get(k)!));

@@ -19,6 +19,13 @@ describe('arrange on sheets with the overlap search', () => {
     for (const i of items) expect(searched.placements.filter((p) => p.key === i.key).length).toBeGreaterThanOrEqual(2);
   }, 120_000);
 
+  it('keeps trying art that failed to fit while tries are left: 42 pieces from 120 tries, where giving up after two failures each stopped at 40', () => {
+    const items = esicupItems('shapes0', { medianSide: 44.45 }).map((i) => ({ ...i, count: 1, rotate: undefined }));
+    const filled = arrange(items, { ...sheet, seed: 3, fill: true, maxIterations: 120 });
+    checkLayout(items, filled, { gap: sheet.gap, margin: sheet.margin });
+    expect(filled.placed).toBeGreaterThan(40);
+  }, 120_000);
+
   it('empties the last sheet into the first when the separator can make room: 34 pieces on one sheet, not two', () => {
     const counts = [9, 9, 8, 8];
     const items = esicupItems('shapes0', { medianSide: 44.45 }).map((i, n) => ({ ...i, count: counts[n], rotate: undefined }));
