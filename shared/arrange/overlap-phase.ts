@@ -68,9 +68,15 @@ export function sheetPhase(
   }
   let sheets: Placed[][] = Array.from({ length: sheetCount }, (_, s) => placements.filter((p) => p.sheet === s));
   let changed = false;
-  while (sheets.length > 1) {
+  // The separator starts from random spots, so a last sheet that would not empty may on another
+  // try: up to three tries in a row while time is left.
+  for (let failed = 0; sheets.length > 1 && failed < 3 && Date.now() < budget.deadline && !budget.shouldStop?.(); ) {
     const fewer = emptyLastSheet(sheets, fixed, search);
-    if (!fewer) break;
+    if (!fewer) {
+      failed++;
+      continue;
+    }
+    failed = 0;
     sheets = fewer;
     changed = true;
   }

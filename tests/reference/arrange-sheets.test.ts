@@ -38,3 +38,14 @@ describe('arrange on sheets with the overlap search', () => {
     checkLayout(items, searched, { gap: sheet.gap, margin: sheet.margin });
   }, 120_000);
 });
+
+describe('spreading a quantity over the fewest sheets', () => {
+  it('tries again to empty the last sheet when a try fails and time is left: 35 pieces on one sheet (seed 2), where one try left two', () => {
+    const counts = [9, 9, 9, 8];
+    const items = esicupItems('shapes0', { medianSide: 44.45 }).map((i, n) => ({ ...i, count: counts[n], rotate: undefined }));
+    const searched = arrange(items, { ...sheet, seed: 2, maxIterations: 30 });
+    expect(searched.placed).toBe(35);
+    expect(searched.sheets).toBe(1);
+    checkLayout(items, searched, { gap: sheet.gap, margin: sheet.margin });
+  }, 120_000);
+});
