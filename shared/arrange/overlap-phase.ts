@@ -70,7 +70,7 @@ export function sheetPhase(
   let changed = false;
   // The separator starts from random spots, so a last sheet that would not empty may on another
   // try: up to three tries in a row while time is left.
-  for (let failed = 0; sheets.length > 1 && failed < 3 && Date.now() < budget.deadline && !budget.shouldStop?.(); ) {
+  for (let failed = 0; sheets.length > 1 && failed < 3 && Date.now() < budget.deadline && !budget.shouldStop?.();) {
     const fewer = emptyLastSheet(sheets, fixed, search);
     if (!fewer) {
       failed++;
