@@ -193,7 +193,11 @@ export function runsOfAlpha(rgba: Uint8Array, width: number, height: number, thr
 /** True where a 32-bit word holds R, G, B, A from its lowest byte up. */
 export const LITTLE_ENDIAN = new Uint8Array(Uint32Array.of(1).buffer)[0] === 1;
 
-/** runsOfAlpha reading whole pixels: alpha is a word's top byte, so alpha ≥ t is word ≥ t · 2²⁴ (a third faster at 4 MP). */
+/**
+ * runsOfAlpha reading whole pixels: alpha is a word's top byte, so alpha ≥ t is word ≥ t · 2²⁴ (a
+ * third faster at 4 MP). The loop is runsAtLeast's, kept apart on purpose: handed words as well as
+ * bytes and floats, runsAtLeast's reads turn polymorphic and this scan took 7.2 ms instead of 5.6–6.0.
+ */
 function runsOfAlphaWords(rgba: Uint8Array, width: number, height: number, threshold: number): RowRuns {
   const out = new RunsBuilder(width, height);
   const words = new Uint32Array(rgba.buffer, rgba.byteOffset, width * height);
