@@ -36,12 +36,10 @@ export function fillSheet(
   // Each art may fail twice; once every art has, and time is left, each gets two more tries (the
   // separator starts from random spots, so a try that failed may succeed), up to eight in all.
   let allowed = 2;
+  const openArt = () => itemKeys.filter((k) => (failures.get(k) ?? 0) < allowed);
   for (let tries = 0; running(o, tries); tries++) {
-    let open = itemKeys.filter((k) => (failures.get(k) ?? 0) < allowed);
-    if (open.length === 0 && allowed < 8) {
-      allowed += 2;
-      open = itemKeys.filter((k) => (failures.get(k) ?? 0) < allowed);
-    }
+    if (openArt().length === 0 && allowed < 8) allowed += 2;
+    const open = openArt();
     if (open.length === 0) break;
     // The mix stays even within four copies; among those, the smallest art goes first (it fits most often).
     const fewest = Math.min(...open.map((k) => counts.get(k)!));
