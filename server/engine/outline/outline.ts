@@ -1,4 +1,3 @@
-import sharp from 'sharp';
 import type { Box } from '@shared/geometry/polygon';
 import { area, boundingBox, perimeter, ringToSvgPath, scale, translate } from '@shared/geometry/polygon';
 import type { OutlineData, OutlineOptions, OutlineOptionsInput, OutlinePieceData, OutlineWarning } from '@shared/schemas/outline';
@@ -9,6 +8,7 @@ import { bridgeIslands } from './bridge';
 import { clearComponents, fillHoleRuns, labelRowRuns } from './components';
 import { dilateRuns, maskOfRuns, placeRuns, runsOfAlpha, selectRuns } from './runs';
 import { decodeArt } from './decode';
+import { resampleArt } from './resample';
 import { squaredDistanceTransform } from '@shared/geometry/distance-transform';
 import { OutlineInputError } from './errors';
 import { type Frame, borderField, composeSticker, encodePng } from './raster';
@@ -108,11 +108,7 @@ export async function outline(
       `At ${options.dpi} DPI this sticker needs ${finishedW} × ${finishedH} px; the limit is ${(limits.maxOutputPixels / 1e6).toFixed(0)} megapixels. Choose a smaller size or DPI.`,
     );
   }
-  const art = await sharp(rgba, { raw: { width: W, height: H, channels: 4 } })
-    .extract({ left: visible.x, top: visible.y, width: visible.width, height: visible.height })
-    .resize(artW, artH, { fit: 'fill', kernel: 'lanczos3' })
-    .raw()
-    .toBuffer();
+  const art = await resampleArt(rgba, W, visible, artW, artH);
 
   // 4. The art mask on a canvas padded by the border (art touching the image edge keeps its border).
   const cw = finishedW + 2 * PAD,
