@@ -179,7 +179,6 @@ export async function outline(
           })();
     const points = scale(translate(ring, -frame.x, -frame.y), 1 / pxPerMm);
 
-    warnings.push(...tearWarnings(filled, { minFeaturePx, level, minFeatureMm: options.minFeature, toMm, frame }));
     const outBuffer = borrow(frame.width * frame.height * 4);
     const rgbaOut = composeSticker({
       into: Buffer.from(outBuffer, 0, frame.width * frame.height * 4),
@@ -193,6 +192,9 @@ export async function outline(
       artVisible,
       border,
     });
+    // sharp encodes on its own thread while this one checks the cut line for tears.
+    const png = encodePng(rgbaOut, frame.width, frame.height, options.dpi).finally(() => giveBack(outBuffer));
+    warnings.push(...tearWarnings(filled, { minFeaturePx, level, minFeatureMm: options.minFeature, toMm, frame }));
     pieces.push({
       cutLine: { points, svgPath: ringToSvgPath(points) },
       areaMm2: area(points),
@@ -201,7 +203,7 @@ export async function outline(
       widthMm: toMm(frame.width),
       heightMm: toMm(frame.height),
       offsetMm: { x: toMm(frame.x - PAD), y: toMm(frame.y - PAD) },
-      png: await encodePng(rgbaOut, frame.width, frame.height, options.dpi).finally(() => giveBack(outBuffer)),
+      png: await png,
       pixelWidth: frame.width,
       pixelHeight: frame.height,
     });
