@@ -24,6 +24,11 @@ type SeparateOptions = {
   deadline: number;
   random: () => number;
   shouldStop?: () => boolean;
+  /**
+   * Move passes a round makes from the same layout, each in its own random order; the one with the
+   * least weighted overlap is kept (the paper's parallel workers, Algorithm 10, here one after another).
+   */
+  passes?: number;
 };
 
 const SCAN_LIMIT = 64;
@@ -168,6 +173,14 @@ export class Layout {
     return sum;
   }
 
+  weightedOverlap(): number {
+    const n = this.pieces.length,
+      size = this.size;
+    let sum = 0;
+    for (let i = 0; i < n; i++) for (let j = i + 1; j < n; j++) sum += this.depths[i * size + j] * this.weights[i * size + j];
+    return sum;
+  }
+
   totalOverlap(): number {
     let sum = 0;
     for (let i = 0; i < this.pieces.length; i++) sum += this.overlapOf(i);
@@ -216,13 +229,40 @@ export class Layout {
     this.weights.fill(1);
   }
 
+  /**
+   * One round: every colliding piece, in a random order, moved to its least weighted overlap. With
+   * several passes each starts from the same layout in its own order, and the one that ends with the
+   * least weighted overlap is kept.
+   */
+  round(random: () => number, passes = 1) {
+    const from = passes > 1 ? this.snapshot() : null;
+    let kept: ReturnType<Layout['snapshot']> | null = null,
+      keptLoss = Infinity;
+    for (let pass = 0; pass < passes; pass++) {
+      if (pass > 0) this.restore(from!);
+      const order: number[] = [];
+      for (let i = 0; i < this.pieces.length; i++) if (!this.pieces[i].fixed && this.overlapOf(i) > 0) order.push(i);
+      for (let k = order.length - 1; k > 0; k--) {
+        const j = Math.floor(random() * (k + 1));
+        [order[k], order[j]] = [order[j], order[k]];
+      }
+      for (const i of order) if (this.overlapOf(i) > 0) this.relocate(i, random);
+      if (passes === 1) return;
+      const loss = this.weightedOverlap();
+      if (loss < keptLoss) {
+        keptLoss = loss;
+        kept = pass === passes - 1 ? null : this.snapshot(); // the last pass stays as it is
+      }
+    }
+    if (kept) this.restore(kept);
+  }
+
   /** Moves colliding pieces until nothing overlaps (true) or the strikes run out (false, at the least overlap seen). */
   separate(o: SeparateOptions): boolean {
     let total = this.totalOverlap();
     if (total === 0) return true;
     let least = total,
       best = this.snapshot();
-    const order: number[] = [];
     for (let strike = 0; strike < o.strikes;) {
       let gainedThisStrike = false;
       for (let idle = 0; idle < o.roundsWithoutGain;) {
@@ -230,13 +270,7 @@ export class Layout {
           this.restore(best);
           return false;
         }
-        order.length = 0;
-        for (let i = 0; i < this.pieces.length; i++) if (!this.pieces[i].fixed && this.overlapOf(i) > 0) order.push(i);
-        for (let k = order.length - 1; k > 0; k--) {
-          const j = Math.floor(o.random() * (k + 1));
-          [order[k], order[j]] = [order[j], order[k]];
-        }
-        for (const i of order) if (this.overlapOf(i) > 0) this.relocate(i, o.random);
+        this.round(o.random, o.passes ?? 1);
         total = this.totalOverlap();
         if (total === 0) return true;
         if (total < least) {
