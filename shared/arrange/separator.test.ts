@@ -3,42 +3,33 @@ import { seeded } from './prng';
 import { Layout } from './separator';
 import { variantsOf } from './shapes';
 
+/** A polygon's quarter turns, as the search holds them. */
+function turned(corners: Array<[number, number]>) {
+  const points = corners.map(([x, y]) => ({ x, y }));
+  const size = (axis: 'x' | 'y') => Math.max(...points.map((p) => p[axis]));
+  return variantsOf({ points, widthMm: size('x'), heightMm: size('y') }, [0, 90, 180, 270], 0);
+}
+
 /**
  * Twenty L shapes and squares dropped at random into an area 4 % too small to hold them apart
  * (their area is 96 % of it), so the separator cannot finish and every round counts.
  */
 function crowded(seed: number): Layout {
   const random = seeded(seed);
-  const square = variantsOf(
-    {
-      points: [
-        { x: 0, y: 0 },
-        { x: 20, y: 0 },
-        { x: 20, y: 20 },
-        { x: 0, y: 20 },
-      ],
-      widthMm: 20,
-      heightMm: 20,
-    },
-    [0, 90, 180, 270],
-    0,
-  );
-  const ell = variantsOf(
-    {
-      points: [
-        { x: 0, y: 0 },
-        { x: 30, y: 0 },
-        { x: 30, y: 10 },
-        { x: 10, y: 10 },
-        { x: 10, y: 30 },
-        { x: 0, y: 30 },
-      ],
-      widthMm: 30,
-      heightMm: 30,
-    },
-    [0, 90, 180, 270],
-    0,
-  );
+  const square = turned([
+    [0, 0],
+    [20, 0],
+    [20, 20],
+    [0, 20],
+  ]);
+  const ell = turned([
+    [0, 0],
+    [30, 0],
+    [30, 10],
+    [10, 10],
+    [10, 30],
+    [0, 30],
+  ]);
   // 10 squares (4000 mm²) and 10 Ls (5000 mm²) in 9375 mm².
   const layout = new Layout({ x0: 0, y0: 0, x1: 125, y1: 75 });
   for (let k = 0; k < 20; k++) {
