@@ -105,6 +105,30 @@ describe('outline: the bordered PNG', () => {
     expect(img.at(Math.round((1.5 * 300) / 25.4), mid)).toEqual([255, 255, 255, 255]);
     expect(img.at(img.width >> 1, mid)).toEqual([176, 58, 46, 255]);
   });
+
+  it('art shrunk to a quarter keeps its colour, and its soft edge fades into the border with no dark fringe', async () => {
+    // Pure red with a blurred edge on transparent black, 2000 px printed 1 in wide at 300 DPI: each
+    // print pixel averages 4 × 4 or more source pixels. Red over white is (255, 255·(1 − α), 255·(1 − α)):
+    // averaging colour without weighting by alpha would pull the red channel down where the edge fades.
+    const art = await svgArt(
+      2000,
+      2000,
+      '<defs><filter id="s"><feGaussianBlur stdDeviation="40"/></filter></defs><circle cx="1000" cy="1000" r="700" fill="#ff0000" filter="url(#s)"/>',
+    );
+    const { pieces } = await outline(art, { width: '1in', border: 2 });
+    const img = await pixels(pieces[0].png);
+    expect(img.at(img.width >> 1, img.height >> 1)).toEqual([255, 0, 0, 255]);
+    let faded = 0;
+    for (let y = 0; y < img.height; y++)
+      for (let x = 0; x < img.width; x++) {
+        const [r, g, b, a] = img.at(x, y);
+        if (a < 255) continue; // outside the cut line, or its anti-aliased edge
+        expect(r, `pixel ${x}, ${y}`).toBeGreaterThanOrEqual(254);
+        expect(Math.abs(g - b)).toBeLessThanOrEqual(1);
+        if (g > 20 && g < 235) faded++;
+      }
+    expect(faded).toBeGreaterThan(100); // the soft edge is there, between red and white
+  });
 });
 
 describe('outline: backgrounds, specks, islands, necks, resolution', () => {
