@@ -11,8 +11,8 @@ function turned(corners: Array<[number, number]>) {
 }
 
 /**
- * Twenty L shapes and squares dropped at random into an area 4 % too small to hold them apart
- * (their area is 96 % of it), so the separator cannot finish and every round counts.
+ * Ten L shapes and ten squares dropped at random into an area they fill to 96 %: crowded enough that
+ * a few rounds cannot pull them apart, so every round has pieces to move.
  */
 function crowded(seed: number): Layout {
   const random = seeded(seed);

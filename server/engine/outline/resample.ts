@@ -43,7 +43,7 @@ function wordsOf(src: Buffer): Uint32Array {
  * covers, every source pixel weighted by the part of it inside (the box filter of image-processing
  * handbooks, exact for non-integer factors), with colours averaged premultiplied by alpha so a
  * transparent pixel lends no colour to its neighbours. Each source row is shrunk across once and
- * added to the one or two output rows it lies in, so the working memory is three output rows however
+ * added to the one or two output rows it lies in, so the working memory is two output rows however
  * large the source, and transparent source pixels are skipped. Meant for shrinking by 2 or more
  * (AREA_MIN_FACTOR), where a box of at least 2 × 2 source pixels per output pixel already band-limits the art.
  */
