@@ -249,7 +249,6 @@ export class Layout {
       for (const i of order) if (this.overlapOf(i) > 0) this.relocate(i, random);
       if (passes === 1) return;
       const loss = this.weightedOverlap();
-      if (loss === 0) return; // separated: no pass can do better
       if (loss < keptLoss) {
         keptLoss = loss;
         kept = pass === passes - 1 ? null : this.snapshot(); // the last pass stays as it is
