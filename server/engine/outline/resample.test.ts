@@ -1,8 +1,7 @@
 import sharp from 'sharp';
 import { describe, expect, it } from 'vitest';
+import type { Box } from '@shared/geometry/polygon';
 import { downscaleArea } from './resample';
-
-type Box = { x: number; y: number; width: number; height: number };
 
 /**
  * The area average written straight from its definition (a box filter: each output pixel the

@@ -1,7 +1,6 @@
 import sharp from 'sharp';
-import { LITTLE_ENDIAN } from './runs';
-
-type Box = { x: number; y: number; width: number; height: number };
+import type { Box } from '@shared/geometry/polygon';
+import { pixelWords } from './runs';
 
 /** Below this shrink factor resampleArt uses sharp's Lanczos filter instead. */
 const AREA_MIN_FACTOR = 2;
@@ -31,7 +30,8 @@ function cellsOf(from: number, to: number) {
 
 /** The source as one 32-bit word per pixel, R in the lowest byte (a copy only where no view fits). */
 function wordsOf(src: Buffer): Uint32Array {
-  if (LITTLE_ENDIAN && src.byteOffset % 4 === 0) return new Uint32Array(src.buffer, src.byteOffset, src.length >> 2);
+  const view = pixelWords(src);
+  if (view) return view;
   const words = new Uint32Array(src.length >> 2);
   for (let i = 0, p = 0; i < words.length; i++, p += 4)
     words[i] = (src[p] | (src[p + 1] << 8) | (src[p + 2] << 16) | (src[p + 3] << 24)) >>> 0;

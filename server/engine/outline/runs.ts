@@ -173,7 +173,8 @@ export function erodeRuns(filled: RowRuns, r: number): RowRuns {
 
 /** The runs of pixels whose alpha (byte 3 of 4) is at least `threshold`, read straight from RGBA. */
 export function runsOfAlpha(rgba: Uint8Array, width: number, height: number, threshold: number): RowRuns {
-  if (LITTLE_ENDIAN && rgba.byteOffset % 4 === 0) return runsOfAlphaWords(rgba, width, height, threshold);
+  const words = pixelWords(rgba);
+  if (words) return runsOfAlphaWords(words, width, height, threshold);
   const out = new RunsBuilder(width, height);
   for (let y = 0; y < height; y++) {
     out.beginRow(y);
@@ -193,14 +194,18 @@ export function runsOfAlpha(rgba: Uint8Array, width: number, height: number, thr
 /** True where a 32-bit word holds R, G, B, A from its lowest byte up. */
 export const LITTLE_ENDIAN = new Uint8Array(Uint32Array.of(1).buffer)[0] === 1;
 
+/** RGBA pixels seen as one 32-bit word each (R the lowest byte, alpha the top), or null where no such view fits. */
+export function pixelWords(rgba: Uint8Array): Uint32Array | null {
+  return LITTLE_ENDIAN && rgba.byteOffset % 4 === 0 ? new Uint32Array(rgba.buffer, rgba.byteOffset, rgba.length >> 2) : null;
+}
+
 /**
  * runsOfAlpha reading whole pixels: alpha is a word's top byte, so alpha ≥ t is word ≥ t · 2²⁴ (a
  * third faster at 4 MP). The loop is runsAtLeast's, kept apart on purpose: handed words as well as
  * bytes and floats, runsAtLeast's reads turn polymorphic and this scan took 7.2 ms instead of 5.6–6.0.
  */
-function runsOfAlphaWords(rgba: Uint8Array, width: number, height: number, threshold: number): RowRuns {
+function runsOfAlphaWords(words: Uint32Array, width: number, height: number, threshold: number): RowRuns {
   const out = new RunsBuilder(width, height);
-  const words = new Uint32Array(rgba.buffer, rgba.byteOffset, width * height);
   const least = threshold * 0x1000000;
   for (let y = 0; y < height; y++) {
     out.beginRow(y);
